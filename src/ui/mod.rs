@@ -1,0 +1,102 @@
+//! The Leptos front end: the app's frame, its navigation and its pages.
+//!
+//! The UI edits a job and shows what the engine returns; it holds no physics.
+
+pub mod area;
+mod icons;
+mod safety;
+
+use area::Area;
+use icons::{area_icon, CautionIcon, Logo};
+use leptos::prelude::*;
+use safety::SafetyPage;
+
+/// The whole app: a top bar with the safety link, the current area's page, and the
+/// navigation bar (at the bottom on a phone, at the side on a wider screen).
+#[component]
+pub fn App() -> impl IntoView {
+    let area = RwSignal::new(area_in_address());
+
+    let listener = window_event_listener(leptos::ev::hashchange, move |_| {
+        area.set(area_in_address());
+        // A new area starts at its top, as a new page would.
+        window().scroll_to_with_x_and_y(0.0, 0.0);
+    });
+    on_cleanup(move || listener.remove());
+
+    Effect::new(move |_| document().set_title(&format!("{} · Phasewise", area.get().title())));
+
+    let marks_current = move |this: Area| move || (area.get() == this).then_some("page");
+
+    view! {
+        <div class="shell">
+            <header class="topbar">
+                <a class="brand" href=Area::START.href() aria-label="Phasewise: back to the start">
+                    <Logo />
+                    <span class="brand-name">"Phasewise"</span>
+                </a>
+                <a
+                    class="safety-link"
+                    href=Area::Safety.href()
+                    aria-current=marks_current(Area::Safety)
+                >
+                    <CautionIcon />
+                    <span>{Area::Safety.nav_label()}</span>
+                </a>
+            </header>
+            <main id="main" class="page" data-area=move || area.get().slug()>
+                {move || page(area.get())}
+            </main>
+            <nav class="areas" aria-label="Areas">
+                {Area::NAV
+                    .into_iter()
+                    .map(|this| {
+                        view! {
+                            <a class="area-link" href=this.href() aria-current=marks_current(this)>
+                                {area_icon(this)}
+                                <span class="area-label">{this.nav_label()}</span>
+                            </a>
+                        }
+                    })
+                    .collect_view()}
+            </nav>
+        </div>
+    }
+}
+
+/// The area named by the page's address.
+fn area_in_address() -> Area {
+    Area::from_fragment(&window().location().hash().unwrap_or_default())
+}
+
+fn page(area: Area) -> AnyView {
+    match area {
+        Area::Safety => view! { <SafetyPage /> }.into_any(),
+        other => view! { <AreaIntro area=other /> }.into_any(),
+    }
+}
+
+/// An area's heading and what it is for. Later work fills each area below its intro.
+#[component]
+fn AreaIntro(area: Area) -> impl IntoView {
+    let settings_caution = (area == Area::Settings).then(|| {
+        view! {
+            <p class="inline-caution">
+                <CautionIcon />
+                <span>
+                    "Settings are changed only with the machine locked out and pressure released, "
+                    "and never above any component's rating. "
+                    <a href=Area::Safety.href()>"Read the safety notes"</a>
+                </span>
+            </p>
+        }
+    });
+    view! {
+        <section class="area-intro" aria-labelledby="area-title">
+            <h1 id="area-title">{area.title()}</h1>
+            <p class="purpose">{area.purpose()}</p>
+            {settings_caution}
+            <p class="empty-note">"Nothing to fill in here yet in this build."</p>
+        </section>
+    }
+}

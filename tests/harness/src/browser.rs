@@ -1,0 +1,336 @@
+//! Headless Chromium, driven through chromedriver over WebDriver.
+//!
+//! Every [`Browser`] has its own chromedriver, its own Chromium and a fresh, empty profile
+//! folder, so no test sees another's storage, cache or service worker. The browser's console
+//! is collected through chromedriver's log endpoint, so an error while the wasm module starts
+//! (a broken module, a panic) fails the test that caused it.
+//!
+//! A new browser test is a few lines (see `tests/harness/tests/shell.rs`):
+//!
+//! ```no_run
+//! # async fn example() {
+//! use phasewise_harness::browser::{AppSession, Viewport};
+//! let app = AppSession::start("my_test", Viewport::PHONE).await;
+//! app.browser.click("a[href='#/results']").await;
+//! app.browser.screenshot("results").await;
+//! app.finish().await; // fails on any console error
+//! # }
+//! ```
+
+use crate::server::StaticServer;
+use crate::tools::{CHROMEDRIVER, CHROMIUM};
+use fantoccini::wd::WebDriverCompatibleCommand;
+use fantoccini::{Client, ClientBuilder, Locator};
+use serde_json::{json, Value};
+use std::net::{TcpListener, TcpStream};
+use std::path::{Path, PathBuf};
+use std::process::{Child, Command, Stdio};
+use std::sync::Mutex;
+use std::time::{Duration, Instant};
+
+/// The page size a test runs at (CSS pixels), emulated exactly through Chromium's device
+/// metrics, so the layout seen is the layout a device of that size gets.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct Viewport {
+    pub width: u32,
+    pub height: u32,
+    /// A touch device that honours the page's viewport meta tag, as a phone does.
+    pub mobile: bool,
+}
+
+impl Viewport {
+    /// A common portrait phone.
+    pub const PHONE: Viewport = Viewport { width: 390, height: 844, mobile: true };
+    /// A small, older phone.
+    pub const SMALL_PHONE: Viewport = Viewport { width: 360, height: 640, mobile: true };
+    /// A portrait tablet.
+    pub const TABLET: Viewport = Viewport { width: 820, height: 1180, mobile: true };
+    /// A laptop screen.
+    pub const LAPTOP: Viewport = Viewport { width: 1280, height: 720, mobile: false };
+    /// A workshop projector.
+    pub const PROJECTOR: Viewport = Viewport { width: 1920, height: 1080, mobile: false };
+}
+
+/// A headless Chromium with a fresh profile. Dropping it ends chromedriver and the browser.
+pub struct Browser {
+    client: Option<Client>,
+    driver: Child,
+    profile: PathBuf,
+    shots: PathBuf,
+    console: Mutex<Vec<LogEntry>>,
+}
+
+/// One line of the browser's console.
+#[derive(Debug, Clone, PartialEq)]
+pub struct LogEntry {
+    /// chromedriver's level: SEVERE for errors and uncaught exceptions, WARNING, INFO, ...
+    pub level: String,
+    pub message: String,
+}
+
+impl Browser {
+    /// Starts chromedriver and a headless Chromium at `viewport`. Screenshots go to
+    /// `target/screenshots/<test>/`.
+    pub async fn launch(test: &str, viewport: Viewport) -> Browser {
+        let chromium = std::env::var("PHASEWISE_CHROMIUM").unwrap_or_else(|_| CHROMIUM.into());
+        let chromedriver = std::env::var("PHASEWISE_CHROMEDRIVER").unwrap_or_else(|_| CHROMEDRIVER.into());
+        assert!(
+            Path::new(&chromium).is_file() && Path::new(&chromedriver).is_file(),
+            "{chromium} and {chromedriver} are needed: `cargo xtask test` installs them"
+        );
+        let profile = unique_dir(test);
+        std::fs::create_dir_all(&profile).expect("create the browser profile folder");
+        let shots = crate::target_dir().join("screenshots").join(test);
+        std::fs::create_dir_all(&shots).expect("create the screenshot folder");
+
+        let port = free_port();
+        let log = std::fs::File::create(profile.with_extension("chromedriver.log")).expect("create chromedriver log");
+        let mut command = Command::new(&chromedriver);
+        command
+            .arg(format!("--port={port}"))
+            .stdout(Stdio::from(log.try_clone().expect("log handle")))
+            .stderr(Stdio::from(log));
+        // Its own process group, so dropping the browser can end Chromium's helpers too.
+        std::os::unix::process::CommandExt::process_group(&mut command, 0);
+        let driver = command.spawn().unwrap_or_else(|e| panic!("cannot start {chromedriver}: {e}"));
+        wait_for_port(port, Duration::from_secs(20));
+
+        let mut metrics = json!({ "width": viewport.width, "height": viewport.height, "pixelRatio": 2.0 });
+        if !viewport.mobile {
+            metrics["mobile"] = json!(false);
+            metrics["touch"] = json!(false);
+        }
+        let capabilities = json!({
+            "browserName": "chrome",
+            "goog:loggingPrefs": { "browser": "ALL" },
+            "goog:chromeOptions": {
+                "binary": chromium,
+                // As root on this machine: no sandbox; and nothing that phones home, because the
+                // closed network refuses it and floods the log.
+                "args": [
+                    "--headless=new",
+                    "--no-sandbox",
+                    "--disable-gpu",
+                    "--disable-dev-shm-usage",
+                    "--disable-background-networking",
+                    "--disable-component-update",
+                    "--disable-sync",
+                    "--disable-quic",
+                    "--no-first-run",
+                    "--no-default-browser-check",
+                    format!("--user-data-dir={}", profile.display()),
+                ],
+                "mobileEmulation": { "deviceMetrics": metrics },
+            },
+        });
+        let Value::Object(capabilities) = capabilities else { unreachable!() };
+        let client = ClientBuilder::new(hyper_util::client::legacy::connect::HttpConnector::new())
+            .capabilities(capabilities)
+            .connect(&format!("http://127.0.0.1:{port}"))
+            .await
+            .unwrap_or_else(|e| panic!("chromedriver would not open Chromium: {e}"));
+        Browser { client: Some(client), driver, profile, shots, console: Mutex::new(Vec::new()) }
+    }
+
+    /// The WebDriver client, for anything the helpers below do not cover.
+    pub fn client(&self) -> &Client {
+        self.client.as_ref().expect("browser is open")
+    }
+
+    pub async fn goto(&self, url: &str) {
+        self.client().goto(url).await.unwrap_or_else(|e| panic!("cannot open {url}: {e}"));
+    }
+
+    /// Waits up to `timeout` for an element to appear; `None` if it does not.
+    pub async fn try_wait_for(&self, css: &str, timeout: Duration) -> Option<fantoccini::elements::Element> {
+        self.client()
+            .wait()
+            .at_most(timeout)
+            .every(Duration::from_millis(50))
+            .for_element(Locator::Css(css))
+            .await
+            .ok()
+    }
+
+    /// Waits up to ten seconds for an element, and fails the test if it never appears.
+    pub async fn wait_for(&self, css: &str) -> fantoccini::elements::Element {
+        match self.try_wait_for(css, Duration::from_secs(10)).await {
+            Some(element) => element,
+            None => {
+                let shot = self.screenshot("missing-element").await;
+                panic!(
+                    "no element matches `{css}` after 10 s (screenshot: {}); console: {:?}",
+                    shot.display(),
+                    self.console_errors().await
+                )
+            }
+        }
+    }
+
+    pub async fn click(&self, css: &str) {
+        self.wait_for(css).await.click().await.unwrap_or_else(|e| panic!("cannot click `{css}`: {e}"));
+    }
+
+    /// The visible text of the first element matching `css`.
+    pub async fn text(&self, css: &str) -> String {
+        self.wait_for(css).await.text().await.unwrap_or_else(|e| panic!("cannot read `{css}`: {e}"))
+    }
+
+    /// Runs JavaScript in the page (`return ...` gives a value back).
+    pub async fn eval(&self, script: &str) -> Value {
+        self.client().execute(script, vec![]).await.unwrap_or_else(|e| panic!("script failed: {e}\n{script}"))
+    }
+
+    /// How far the page reaches past the right edge of the viewport, in CSS pixels (0 when
+    /// nothing overflows sideways).
+    pub async fn sideways_overflow(&self) -> i64 {
+        let value = self
+            .eval("const d = document.documentElement; return Math.max(d.scrollWidth, document.body.scrollWidth) - d.clientWidth;")
+            .await;
+        value.as_i64().unwrap_or_else(|| panic!("not a number: {value}"))
+    }
+
+    /// The viewport's size as the page sees it.
+    pub async fn inner_size(&self) -> (i64, i64) {
+        let v = self.eval("return [window.innerWidth, window.innerHeight];").await;
+        (v[0].as_i64().unwrap_or(-1), v[1].as_i64().unwrap_or(-1))
+    }
+
+    /// Saves a PNG of the viewport as `target/screenshots/<test>/<name>.png`.
+    pub async fn screenshot(&self, name: &str) -> PathBuf {
+        let path = self.shots.join(format!("{name}.png"));
+        match self.client().screenshot().await {
+            Ok(png) => std::fs::write(&path, png).expect("write screenshot"),
+            Err(e) => eprintln!("screenshot {name} failed: {e}"),
+        }
+        path
+    }
+
+    /// Every console line so far (chromedriver hands each over once; they are kept here).
+    pub async fn console(&self) -> Vec<LogEntry> {
+        let fresh = self.client().issue_cmd(BrowserLog).await.unwrap_or_else(|e| panic!("cannot read the console: {e}"));
+        let mut kept = self.console.lock().unwrap();
+        for entry in fresh.as_array().into_iter().flatten() {
+            kept.push(LogEntry {
+                level: entry["level"].as_str().unwrap_or("").to_string(),
+                message: entry["message"].as_str().unwrap_or("").to_string(),
+            });
+        }
+        kept.clone()
+    }
+
+    /// The console's errors and uncaught exceptions so far.
+    pub async fn console_errors(&self) -> Vec<String> {
+        self.console().await.into_iter().filter(|e| e.level == "SEVERE").map(|e| e.message).collect()
+    }
+
+    /// Ends the session cleanly.
+    pub async fn close(mut self) {
+        if let Some(client) = self.client.take() {
+            let _ = client.close().await;
+        }
+    }
+}
+
+impl Drop for Browser {
+    fn drop(&mut self) {
+        // End chromedriver's whole process group (Chromium and its helpers with it).
+        let _ = Command::new("kill").args(["-KILL", "--", &format!("-{}", self.driver.id())]).status();
+        let _ = self.driver.kill();
+        let _ = self.driver.wait();
+        let _ = std::fs::remove_dir_all(&self.profile);
+    }
+}
+
+/// chromedriver's console log endpoint (outside the W3C command set, so fantoccini has no
+/// method for it).
+#[derive(Debug)]
+struct BrowserLog;
+
+impl WebDriverCompatibleCommand for BrowserLog {
+    fn endpoint(&self, base: &url::Url, session: Option<&str>) -> Result<url::Url, url::ParseError> {
+        base.join(&format!("session/{}/se/log", session.unwrap_or_default()))
+    }
+
+    fn method_and_body(&self, _: &url::Url) -> (http::Method, Option<String>) {
+        (http::Method::POST, Some(r#"{"type":"browser"}"#.to_string()))
+    }
+}
+
+/// The release build served on loopback and opened in a fresh browser: the fixture most
+/// browser tests start from.
+pub struct AppSession {
+    pub server: StaticServer,
+    pub browser: Browser,
+}
+
+impl AppSession {
+    /// Serves `dist/`, opens the app at `viewport` and waits until its frame is on screen.
+    pub async fn start(test: &str, viewport: Viewport) -> AppSession {
+        Self::start_at(test, viewport, "").await
+    }
+
+    /// As [`AppSession::start`], opening the app at a fragment such as `#/results`.
+    pub async fn start_at(test: &str, viewport: Viewport, fragment: &str) -> AppSession {
+        let app = Self::open(test, viewport, &crate::dist_dir(), fragment).await;
+        app.wait_until_ready().await;
+        app
+    }
+
+    /// Serves `folder` and opens it, without waiting for the app (for tests of broken builds).
+    pub async fn open(test: &str, viewport: Viewport, folder: &Path, fragment: &str) -> AppSession {
+        assert!(
+            folder.join("index.html").is_file(),
+            "{} has no release build: run `cargo xtask test`, which builds it first",
+            folder.display()
+        );
+        let server = StaticServer::start(folder, "127.0.0.1:0").expect("start the static server");
+        let browser = Browser::launch(test, viewport).await;
+        browser.goto(&format!("{}{fragment}", server.url())).await;
+        AppSession { server, browser }
+    }
+
+    /// The page address of an area, e.g. `url("#/jobs")`.
+    pub fn url(&self, fragment: &str) -> String {
+        format!("{}{fragment}", self.server.url())
+    }
+
+    /// Waits until the wasm module has started and drawn the app's frame.
+    pub async fn wait_until_ready(&self) {
+        self.browser.wait_for(APP_READY).await;
+    }
+
+    /// Fails on any console error, then closes the browser.
+    pub async fn finish(self) {
+        let errors = self.browser.console_errors().await;
+        assert!(errors.is_empty(), "the browser console has errors: {errors:#?}");
+        self.browser.close().await;
+    }
+}
+
+/// Present once the app has mounted: the main area carries the current area's name.
+pub const APP_READY: &str = "main[data-area]";
+
+/// A folder under the system temp folder that no other test or run uses.
+pub fn unique_dir(label: &str) -> PathBuf {
+    static COUNTER: std::sync::atomic::AtomicU32 = std::sync::atomic::AtomicU32::new(0);
+    let n = COUNTER.fetch_add(1, std::sync::atomic::Ordering::SeqCst);
+    let nanos = std::time::SystemTime::now()
+        .duration_since(std::time::UNIX_EPOCH)
+        .map(|d| d.subsec_nanos())
+        .unwrap_or(0);
+    std::env::temp_dir().join(format!("phasewise-{label}-{}-{n}-{nanos}", std::process::id()))
+}
+
+/// A port nobody listens on right now.
+pub fn free_port() -> u16 {
+    TcpListener::bind("127.0.0.1:0").and_then(|l| l.local_addr()).map(|a| a.port()).expect("a free port")
+}
+
+fn wait_for_port(port: u16, timeout: Duration) {
+    let started = Instant::now();
+    while TcpStream::connect(("127.0.0.1", port)).is_err() {
+        assert!(started.elapsed() < timeout, "chromedriver did not listen on port {port} within {timeout:?}");
+        std::thread::sleep(Duration::from_millis(50));
+    }
+}

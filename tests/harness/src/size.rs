@@ -1,0 +1,121 @@
+//! The size report: every file of the release build, raw and gzip'd, by kind.
+
+use flate2::write::GzEncoder;
+use flate2::Compression;
+use std::io::Write;
+use std::path::{Path, PathBuf};
+
+/// One shipped file.
+#[derive(Debug, Clone, PartialEq, Eq)]
+pub struct FileSize {
+    pub path: PathBuf,
+    pub kind: &'static str,
+    pub raw: u64,
+    pub gzip: u64,
+}
+
+/// The kinds the report totals, in the order it prints them.
+pub const KINDS: [&str; 5] = ["wasm", "js", "css", "html", "other"];
+
+/// Measures every file under `dist`, gzip at the best level (what a server would send).
+pub fn measure(dist: &Path) -> std::io::Result<Vec<FileSize>> {
+    let mut files = Vec::new();
+    walk(dist, &mut files)?;
+    let mut sizes = files
+        .into_iter()
+        .map(|path| {
+            let bytes = std::fs::read(&path)?;
+            Ok(FileSize {
+                kind: kind_of(&path),
+                raw: bytes.len() as u64,
+                gzip: gzip_len(&bytes)?,
+                path: path.strip_prefix(dist).unwrap_or(&path).to_path_buf(),
+            })
+        })
+        .collect::<std::io::Result<Vec<_>>>()?;
+    sizes.sort_by(|a, b| (kind_rank(a.kind), &a.path).cmp(&(kind_rank(b.kind), &b.path)));
+    Ok(sizes)
+}
+
+fn walk(dir: &Path, out: &mut Vec<PathBuf>) -> std::io::Result<()> {
+    for entry in std::fs::read_dir(dir)? {
+        let path = entry?.path();
+        if path.is_dir() {
+            walk(&path, out)?;
+        } else {
+            out.push(path);
+        }
+    }
+    Ok(())
+}
+
+pub fn kind_of(path: &Path) -> &'static str {
+    match path.extension().and_then(|e| e.to_str()) {
+        Some("wasm") => "wasm",
+        Some("js") | Some("mjs") => "js",
+        Some("css") => "css",
+        Some("html") => "html",
+        _ => "other",
+    }
+}
+
+fn kind_rank(kind: &str) -> usize {
+    KINDS.iter().position(|k| *k == kind).unwrap_or(KINDS.len())
+}
+
+pub fn gzip_len(bytes: &[u8]) -> std::io::Result<u64> {
+    let mut encoder = GzEncoder::new(Vec::new(), Compression::best());
+    encoder.write_all(bytes)?;
+    Ok(encoder.finish()?.len() as u64)
+}
+
+/// The report as printed: a row per file, a total per kind, and the grand total.
+pub fn report(sizes: &[FileSize]) -> String {
+    let mut out = format!("{:<48} {:>12} {:>12}\n", "file", "raw", "gzip");
+    for file in sizes {
+        out += &format!("{:<48} {:>12} {:>12}\n", file.path.display(), human(file.raw), human(file.gzip));
+    }
+    out += &format!("{}\n", "-".repeat(74));
+    for kind in KINDS {
+        let (raw, gzip) = total(sizes.iter().filter(|f| f.kind == kind));
+        if raw > 0 {
+            out += &format!("{:<48} {:>12} {:>12}\n", format!("all {kind}"), human(raw), human(gzip));
+        }
+    }
+    let (raw, gzip) = total(sizes.iter());
+    out += &format!("{:<48} {:>12} {:>12}\n", "everything", human(raw), human(gzip));
+    out
+}
+
+fn total<'a>(files: impl Iterator<Item = &'a FileSize>) -> (u64, u64) {
+    files.fold((0, 0), |(raw, gzip), f| (raw + f.raw, gzip + f.gzip))
+}
+
+/// Bytes, and KiB to one decimal, so a report can be read and compared by eye.
+pub fn human(bytes: u64) -> String {
+    format!("{bytes} B ({:.1} KiB)", bytes as f64 / 1024.0)
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn gzip_shrinks_repetitive_text_and_measures_what_it_writes() {
+        let text = "phase ".repeat(1000);
+        let gz = gzip_len(text.as_bytes()).unwrap();
+        assert!(gz < 100, "{gz}");
+        // An empty input still has gzip's 18-byte header and trailer, plus an empty block.
+        assert!((18..=24).contains(&gzip_len(b"").unwrap()));
+    }
+
+    #[test]
+    fn report_totals_each_kind() {
+        let f = |path: &str, raw, gzip| FileSize { path: path.into(), kind: kind_of(Path::new(path)), raw, gzip };
+        let report = report(&[f("a_bg.wasm", 2048, 1024), f("a.js", 100, 50), f("b.js", 100, 50), f("index.html", 10, 5)]);
+        assert!(report.contains("all js"));
+        assert!(report.lines().any(|l| l.starts_with("all js") && l.contains("200 B") && l.contains("100 B")), "{report}");
+        assert!(report.lines().any(|l| l.starts_with("everything") && l.contains("2258 B")), "{report}");
+        assert!(!report.contains("all css"));
+    }
+}

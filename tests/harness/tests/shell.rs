@@ -1,0 +1,175 @@
+//! The app's frame in a real, headless Chromium: it starts, has no console errors, fits a
+//! phone without sideways scrolling, and every area (the safety notes included) is reachable.
+
+use phasewise::ui::area::Area;
+use phasewise_harness::browser::{AppSession, Viewport, APP_READY};
+use std::io::{BufRead, BufReader};
+use std::process::{Command, Stdio};
+use std::time::Duration;
+
+#[tokio::test]
+async fn the_frame_renders_on_a_phone_without_errors_or_sideways_overflow() {
+    let app = AppSession::start("frame_on_phone", Viewport::PHONE).await;
+    let b = &app.browser;
+    assert_eq!(b.inner_size().await, (390, 844), "the phone viewport is emulated exactly");
+    assert_eq!(b.text(".brand-name").await, "Phasewise");
+    assert_eq!(b.client().title().await.unwrap(), format!("{} · Phasewise", Area::START.title()));
+    let nav = b.eval("return document.querySelectorAll('nav.areas a').length;").await;
+    assert_eq!(nav.as_u64(), Some(Area::NAV.len() as u64));
+    // The start-up notice is hidden once the app is up.
+    let boot = b.eval("return getComputedStyle(document.querySelector('.boot')).display;").await;
+    assert_eq!(boot, "none");
+    assert_eq!(b.sideways_overflow().await, 0);
+    // Every link and button is at least a 48 px touch target.
+    let small = b
+        .eval(
+            "return [...document.querySelectorAll('a, button')].filter(e => { \
+               const r = e.getBoundingClientRect(); return r.width > 0 && (r.height < 48 || r.width < 48); \
+             }).map(e => e.outerHTML.slice(0, 80));",
+        )
+        .await;
+    assert_eq!(small, serde_json::json!([]), "touch targets under 48 px");
+    b.screenshot("start").await;
+    app.finish().await;
+}
+
+#[tokio::test]
+async fn every_area_is_reachable_from_the_navigation_and_safety_from_every_area() {
+    let app = AppSession::start("every_area", Viewport::PHONE).await;
+    let b = &app.browser;
+    for area in Area::NAV {
+        b.click(&format!("nav.areas a[href='{}']", area.href())).await;
+        b.wait_for(&format!("main[data-area='{}']", area.slug())).await;
+        assert_eq!(b.text("main h1").await, area.title());
+        let current = b.eval("return document.querySelector('nav.areas a[aria-current=page]').getAttribute('href');").await;
+        assert_eq!(current, area.href().as_str());
+        assert_eq!(b.sideways_overflow().await, 0, "{area:?}");
+        b.screenshot(area.slug()).await;
+
+        // The safety notes are one tap away from here.
+        b.click(&format!(".topbar a[href='{}']", Area::Safety.href())).await;
+        b.wait_for("main[data-area='safety']").await;
+        assert_eq!(b.text("main h1").await, Area::Safety.title());
+        b.client().back().await.unwrap();
+        b.wait_for(&format!("main[data-area='{}']", area.slug())).await;
+    }
+    b.click(&format!(".topbar a[href='{}']", Area::Safety.href())).await;
+    let cautions = b.eval("return document.querySelectorAll('.caution').length;").await;
+    assert!(cautions.as_u64().unwrap_or(0) >= 4, "cautions listed: {cautions}");
+    assert_eq!(b.sideways_overflow().await, 0);
+    b.screenshot("safety").await;
+    app.finish().await;
+}
+
+#[tokio::test]
+async fn a_link_to_an_area_opens_that_area() {
+    let app = AppSession::start("deep_links", Viewport::PHONE).await;
+    let b = &app.browser;
+    let unknown = [(String::from("#/no-such-area"), Area::START)];
+    for (fragment, area) in Area::ALL.map(|a| (a.href(), a)).into_iter().chain(unknown) {
+        // A fresh load of the address, as when a link or bookmark is opened.
+        b.goto(&app.url(&fragment)).await;
+        b.client().refresh().await.unwrap();
+        b.wait_for(&format!("main[data-area='{}']", area.slug())).await;
+        assert_eq!(b.text("main h1").await, area.title(), "{fragment}");
+    }
+    app.finish().await;
+}
+
+#[tokio::test]
+async fn the_layout_holds_from_a_small_phone_to_a_projector() {
+    for (name, viewport) in [
+        ("small-phone", Viewport::SMALL_PHONE),
+        ("tablet", Viewport::TABLET),
+        ("laptop", Viewport::LAPTOP),
+        ("projector", Viewport::PROJECTOR),
+    ] {
+        let app = AppSession::start_at("layouts", viewport, &Area::Settings.href()).await;
+        let b = &app.browser;
+        assert_eq!(b.inner_size().await, (viewport.width as i64, viewport.height as i64), "{name}");
+        assert_eq!(b.sideways_overflow().await, 0, "{name}");
+        // On a phone the areas sit below the page; from a tablet up, beside it.
+        let nav_beside_page = b
+            .eval("const n = document.querySelector('nav.areas').getBoundingClientRect(), \
+                   m = document.querySelector('main').getBoundingClientRect(); return n.right <= m.left;")
+            .await;
+        assert_eq!(nav_beside_page, viewport.width >= 768, "{name}");
+        b.screenshot(name).await;
+        app.finish().await;
+    }
+}
+
+/// The check that guards against a wasm-opt that breaks the module: a build whose wasm does not
+/// start must fail the smoke test, with the error in the console.
+#[tokio::test]
+async fn a_broken_wasm_module_is_caught() {
+    let broken = phasewise_harness::browser::unique_dir("broken-dist");
+    copy_dir(&phasewise_harness::dist_dir(), &broken);
+    let mut corrupted = 0;
+    for entry in std::fs::read_dir(&broken).unwrap() {
+        let path = entry.unwrap().path();
+        if path.extension().is_some_and(|e| e == "wasm") {
+            // A valid header, then garbage: the module fails to compile, as a mis-optimised one fails to start.
+            std::fs::write(&path, b"\0asm\x01\0\0\0\x01\xff\xff\xff\xff").unwrap();
+            corrupted += 1;
+        }
+    }
+    assert_eq!(corrupted, 1, "the release build ships one wasm module");
+    let app = AppSession::open("broken_module", Viewport::PHONE, &broken, "").await;
+    let started = app.browser.try_wait_for(APP_READY, Duration::from_secs(5)).await;
+    assert!(started.is_none(), "a corrupted module must not render the app");
+    let errors = app.browser.console_errors().await;
+    assert!(!errors.is_empty(), "the start-up failure must reach the console");
+    app.browser.screenshot("broken").await;
+    app.browser.close().await;
+    std::fs::remove_dir_all(&broken).unwrap();
+}
+
+/// The README's serve command prints an address; the app must be there.
+#[tokio::test]
+async fn the_serve_command_serves_the_app_at_the_address_it_prints() {
+    let port = phasewise_harness::browser::free_port();
+    // --no-build: this run's release build is already in dist/ (and a nested build would wait
+    // on the cargo lock that this test run holds).
+    let mut serve = KillOnDrop(
+        Command::new(env!("CARGO_BIN_EXE_xtask"))
+            .args(["serve", "--no-build", "--port", &port.to_string()])
+            .stdout(Stdio::piped())
+            .stderr(Stdio::null())
+            .spawn()
+            .unwrap(),
+    );
+    let mut line = String::new();
+    BufReader::new(serve.0.stdout.take().unwrap()).read_line(&mut line).unwrap();
+    let url = line.split_whitespace().find(|w| w.starts_with("http://")).unwrap_or_else(|| panic!("no address in {line:?}"));
+    assert_eq!(url, format!("http://127.0.0.1:{port}/"));
+
+    let browser = phasewise_harness::browser::Browser::launch("serve_command", Viewport::PHONE).await;
+    browser.goto(url).await;
+    browser.wait_for(APP_READY).await;
+    assert!(browser.console_errors().await.is_empty());
+    browser.close().await;
+}
+
+/// Ends the serve command however the test ends.
+struct KillOnDrop(std::process::Child);
+
+impl Drop for KillOnDrop {
+    fn drop(&mut self) {
+        let _ = self.0.kill();
+        let _ = self.0.wait();
+    }
+}
+
+fn copy_dir(from: &std::path::Path, to: &std::path::Path) {
+    std::fs::create_dir_all(to).unwrap();
+    for entry in std::fs::read_dir(from).unwrap() {
+        let entry = entry.unwrap();
+        let target = to.join(entry.file_name());
+        if entry.file_type().unwrap().is_dir() {
+            copy_dir(&entry.path(), &target);
+        } else {
+            std::fs::copy(entry.path(), target).unwrap();
+        }
+    }
+}
