@@ -3,7 +3,8 @@
 //!   cargo xtask serve [--port N] [--no-build]   build the release and serve it on 127.0.0.1
 //!   cargo xtask test [-- ARGS]                  every test: native, then the browser tests
 //!   cargo xtask build                           the release build into dist/
-//!   cargo xtask size [--no-build]               raw and gzip sizes of dist/
+//!   cargo xtask size [--no-build | --profiles]  raw and gzip sizes of dist/, or of each release-profile variant
+//!   cargo xtask smoke URL                       open a served Phasewise in headless Chromium and check it starts
 //!   cargo xtask setup                           install whatever tool is missing
 //!
 //! Each command first installs what it needs and is missing (see `tools`).
@@ -12,7 +13,7 @@ use phasewise_harness::{build, dist_dir, project_root, server::StaticServer, siz
 use std::process::ExitCode;
 use std::time::Instant;
 
-const USAGE: &str = "usage: cargo xtask <serve [--port N] [--no-build] | test [-- CARGO-TEST-ARGS] | build | size [--no-build] | setup>";
+const USAGE: &str = "usage: cargo xtask <serve [--port N] [--no-build] | test [-- CARGO-TEST-ARGS] | build | size [--no-build | --profiles] | smoke URL | setup>";
 
 fn main() -> ExitCode {
     let args: Vec<String> = std::env::args().skip(1).collect();
@@ -22,6 +23,7 @@ fn main() -> ExitCode {
         Some("test") => test(&args[1..]),
         Some("build") => release_build().map(|_| ()),
         Some("size") => size_report(&args[1..]),
+        Some("smoke") => smoke(&args[1..]),
         Some("setup") => tools::prepare_build(&project_root()).and_then(|_| tools::prepare_browser()),
         _ => Err(USAGE.to_string()),
     };
@@ -90,10 +92,96 @@ fn test(args: &[String]) -> Result<(), String> {
 }
 
 fn size_report(args: &[String]) -> Result<(), String> {
+    if args.iter().any(|a| a == "--profiles") {
+        return profile_sizes();
+    }
     if !args.iter().any(|a| a == "--no-build") {
         release_build()?;
     }
     let sizes = size::measure(&dist_dir()).map_err(|e| format!("cannot measure dist/: {e}"))?;
     print!("{}", size::report(&sizes));
+    if let Some(raw) = size::before_wasm_opt(&phasewise_harness::target_dir()) {
+        println!(
+            "{:<44} {:>22} {:>22}",
+            "wasm before wasm-opt",
+            size::human(raw.raw),
+            size::human(raw.gzip)
+        );
+    }
     Ok(())
+}
+
+/// Builds the release once per profile variant (each changes one setting of the profile in
+/// Cargo.toml) and prints the wasm sizes, so every setting's worth is measured.
+/// About a minute and a half a variant on two cores.
+fn profile_sizes() -> Result<(), String> {
+    const VARIANTS: [(&str, &[(&str, &str)]); 7] = [
+        ("chosen: z, fat LTO, 1 codegen unit", &[]),
+        ("opt-level = \"s\"", &[("OPT_LEVEL", "s")]),
+        ("opt-level = 3", &[("OPT_LEVEL", "3")]),
+        ("lto = \"thin\"", &[("LTO", "thin")]),
+        ("lto = false", &[("LTO", "false")]),
+        ("codegen-units = 16", &[("CODEGEN_UNITS", "16")]),
+        ("panic = \"abort\"", &[("PANIC", "abort")]),
+    ];
+    let root = project_root();
+    let tools = tools::prepare_build(&root)?;
+    let out_root = phasewise_harness::target_dir().join("profile-sizes");
+    let mut rows = Vec::new();
+    for (i, (name, overrides)) in VARIANTS.iter().enumerate() {
+        let dist = out_root.join(i.to_string());
+        let mut trunk = tools.command("trunk");
+        trunk.args(["build", "--release", "--offline", "--dist"]).arg(&dist).current_dir(&root);
+        for (key, value) in *overrides {
+            trunk.env(format!("CARGO_PROFILE_RELEASE_{key}"), value);
+        }
+        tools::run(&mut trunk)?;
+        let wasm = size::measure(&dist)
+            .map_err(|e| format!("cannot measure {}: {e}", dist.display()))?
+            .into_iter()
+            .find(|f| f.kind == "wasm")
+            .ok_or("the build has no wasm file")?;
+        let before = size::before_wasm_opt(&phasewise_harness::target_dir()).ok_or("no wasm-bindgen output")?;
+        rows.push(format!(
+            "| {name} | {} | {} | {} | {} |",
+            before.raw, before.gzip, wasm.raw, wasm.gzip
+        ));
+    }
+    println!("| profile | wasm raw, no wasm-opt | gzip, no wasm-opt | wasm raw, wasm-opt -Oz | gzip, wasm-opt -Oz |");
+    println!("|---|---|---|---|---|");
+    for row in rows {
+        println!("{row}");
+    }
+    Ok(())
+}
+
+/// Checks a Phasewise served anywhere (this machine's serve command, or a static host after a
+/// release): at phone size the app must start with no console error and no sideways overflow.
+fn smoke(args: &[String]) -> Result<(), String> {
+    use phasewise_harness::browser::{Browser, Viewport, APP_READY};
+    let url = args.first().ok_or("smoke needs the address to check, e.g. http://127.0.0.1:8080/")?;
+    tools::prepare_browser()?;
+    let runtime = tokio::runtime::Builder::new_current_thread()
+        .enable_all()
+        .build()
+        .map_err(|e| format!("cannot start the async runtime: {e}"))?;
+    runtime.block_on(async {
+        let browser = Browser::launch("smoke", Viewport::PHONE).await;
+        browser.goto(url).await;
+        let ready = browser.try_wait_for(APP_READY, std::time::Duration::from_secs(15)).await.is_some();
+        let shot = browser.screenshot("phone").await;
+        let errors = browser.console_errors().await;
+        let overflow = if ready { browser.sideways_overflow().await } else { 0 };
+        browser.close().await;
+        tools::say(&format!("screenshot: {}", shot.display()));
+        match (ready, errors.is_empty(), overflow) {
+            (true, true, 0) => {
+                println!("{url}: Phasewise started, no console errors, no sideways overflow at 390x844");
+                Ok(())
+            }
+            _ => Err(format!(
+                "{url}: started: {ready}; console errors: {errors:?}; sideways overflow: {overflow} px"
+            )),
+        }
+    })
 }

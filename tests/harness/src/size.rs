@@ -69,21 +69,33 @@ pub fn gzip_len(bytes: &[u8]) -> std::io::Result<u64> {
     Ok(encoder.finish()?.len() as u64)
 }
 
+/// The wasm module as wasm-bindgen left it, before wasm-opt: Trunk keeps it under
+/// `target/wasm-bindgen/release/`. `None` before the first release build.
+pub fn before_wasm_opt(target: &Path) -> Option<FileSize> {
+    let dir = target.join("wasm-bindgen").join("release");
+    let path = std::fs::read_dir(&dir)
+        .ok()?
+        .filter_map(|e| e.ok().map(|e| e.path()))
+        .find(|p| p.extension().is_some_and(|e| e == "wasm"))?;
+    let bytes = std::fs::read(&path).ok()?;
+    Some(FileSize { kind: "wasm", raw: bytes.len() as u64, gzip: gzip_len(&bytes).ok()?, path })
+}
+
 /// The report as printed: a row per file, a total per kind, and the grand total.
 pub fn report(sizes: &[FileSize]) -> String {
-    let mut out = format!("{:<48} {:>12} {:>12}\n", "file", "raw", "gzip");
+    let mut out = format!("{:<44} {:>22} {:>22}\n", "file", "raw", "gzip");
     for file in sizes {
-        out += &format!("{:<48} {:>12} {:>12}\n", file.path.display(), human(file.raw), human(file.gzip));
+        out += &format!("{:<44} {:>22} {:>22}\n", file.path.display(), human(file.raw), human(file.gzip));
     }
-    out += &format!("{}\n", "-".repeat(74));
+    out += &format!("{}\n", "-".repeat(90));
     for kind in KINDS {
         let (raw, gzip) = total(sizes.iter().filter(|f| f.kind == kind));
         if raw > 0 {
-            out += &format!("{:<48} {:>12} {:>12}\n", format!("all {kind}"), human(raw), human(gzip));
+            out += &format!("{:<44} {:>22} {:>22}\n", format!("all {kind}"), human(raw), human(gzip));
         }
     }
     let (raw, gzip) = total(sizes.iter());
-    out += &format!("{:<48} {:>12} {:>12}\n", "everything", human(raw), human(gzip));
+    out += &format!("{:<44} {:>22} {:>22}\n", "everything", human(raw), human(gzip));
     out
 }
 
