@@ -143,7 +143,13 @@ mod tests {
 
     #[test]
     fn fragment_variants_name_the_same_area() {
-        for fragment in ["#/results", "#results", "#/results/", "results", "#/RESULTS"] {
+        for fragment in [
+            "#/results",
+            "#results",
+            "#/results/",
+            "results",
+            "#/RESULTS",
+        ] {
             assert_eq!(Area::from_fragment(fragment), Area::Results, "{fragment}");
         }
     }

@@ -40,15 +40,35 @@ pub struct Viewport {
 
 impl Viewport {
     /// A common portrait phone.
-    pub const PHONE: Viewport = Viewport { width: 390, height: 844, mobile: true };
+    pub const PHONE: Viewport = Viewport {
+        width: 390,
+        height: 844,
+        mobile: true,
+    };
     /// A small, older phone.
-    pub const SMALL_PHONE: Viewport = Viewport { width: 360, height: 640, mobile: true };
+    pub const SMALL_PHONE: Viewport = Viewport {
+        width: 360,
+        height: 640,
+        mobile: true,
+    };
     /// A portrait tablet.
-    pub const TABLET: Viewport = Viewport { width: 820, height: 1180, mobile: true };
+    pub const TABLET: Viewport = Viewport {
+        width: 820,
+        height: 1180,
+        mobile: true,
+    };
     /// A laptop screen.
-    pub const LAPTOP: Viewport = Viewport { width: 1280, height: 720, mobile: false };
+    pub const LAPTOP: Viewport = Viewport {
+        width: 1280,
+        height: 720,
+        mobile: false,
+    };
     /// A workshop projector.
-    pub const PROJECTOR: Viewport = Viewport { width: 1920, height: 1080, mobile: false };
+    pub const PROJECTOR: Viewport = Viewport {
+        width: 1920,
+        height: 1080,
+        mobile: false,
+    };
 }
 
 /// A headless Chromium with a fresh profile. Dropping it ends chromedriver and the browser.
@@ -73,7 +93,8 @@ impl Browser {
     /// `target/screenshots/<test>/`.
     pub async fn launch(test: &str, viewport: Viewport) -> Browser {
         let chromium = std::env::var("PHASEWISE_CHROMIUM").unwrap_or_else(|_| CHROMIUM.into());
-        let chromedriver = std::env::var("PHASEWISE_CHROMEDRIVER").unwrap_or_else(|_| CHROMEDRIVER.into());
+        let chromedriver =
+            std::env::var("PHASEWISE_CHROMEDRIVER").unwrap_or_else(|_| CHROMEDRIVER.into());
         assert!(
             Path::new(&chromium).is_file() && Path::new(&chromedriver).is_file(),
             "{chromium} and {chromedriver} are needed: `cargo xtask test` installs them"
@@ -84,7 +105,8 @@ impl Browser {
         std::fs::create_dir_all(&shots).expect("create the screenshot folder");
 
         let port = free_port();
-        let log = std::fs::File::create(profile.with_extension("chromedriver.log")).expect("create chromedriver log");
+        let log = std::fs::File::create(profile.with_extension("chromedriver.log"))
+            .expect("create chromedriver log");
         let mut command = Command::new(&chromedriver);
         command
             .arg(format!("--port={port}"))
@@ -92,10 +114,13 @@ impl Browser {
             .stderr(Stdio::from(log));
         // Its own process group, so dropping the browser can end Chromium's helpers too.
         std::os::unix::process::CommandExt::process_group(&mut command, 0);
-        let driver = command.spawn().unwrap_or_else(|e| panic!("cannot start {chromedriver}: {e}"));
+        let driver = command
+            .spawn()
+            .unwrap_or_else(|e| panic!("cannot start {chromedriver}: {e}"));
         wait_for_port(port, Duration::from_secs(20));
 
-        let mut metrics = json!({ "width": viewport.width, "height": viewport.height, "pixelRatio": 2.0 });
+        let mut metrics =
+            json!({ "width": viewport.width, "height": viewport.height, "pixelRatio": 2.0 });
         if !viewport.mobile {
             metrics["mobile"] = json!(false);
             metrics["touch"] = json!(false);
@@ -123,13 +148,21 @@ impl Browser {
                 "mobileEmulation": { "deviceMetrics": metrics },
             },
         });
-        let Value::Object(capabilities) = capabilities else { unreachable!() };
+        let Value::Object(capabilities) = capabilities else {
+            unreachable!()
+        };
         let client = ClientBuilder::new(hyper_util::client::legacy::connect::HttpConnector::new())
             .capabilities(capabilities)
             .connect(&format!("http://127.0.0.1:{port}"))
             .await
             .unwrap_or_else(|e| panic!("chromedriver would not open Chromium: {e}"));
-        Browser { client: Some(client), driver, profile, shots, console: Mutex::new(Vec::new()) }
+        Browser {
+            client: Some(client),
+            driver,
+            profile,
+            shots,
+            console: Mutex::new(Vec::new()),
+        }
     }
 
     /// The WebDriver client, for anything the helpers below do not cover.
@@ -138,11 +171,18 @@ impl Browser {
     }
 
     pub async fn goto(&self, url: &str) {
-        self.client().goto(url).await.unwrap_or_else(|e| panic!("cannot open {url}: {e}"));
+        self.client()
+            .goto(url)
+            .await
+            .unwrap_or_else(|e| panic!("cannot open {url}: {e}"));
     }
 
     /// Waits up to `timeout` for an element to appear; `None` if it does not.
-    pub async fn try_wait_for(&self, css: &str, timeout: Duration) -> Option<fantoccini::elements::Element> {
+    pub async fn try_wait_for(
+        &self,
+        css: &str,
+        timeout: Duration,
+    ) -> Option<fantoccini::elements::Element> {
         self.client()
             .wait()
             .at_most(timeout)
@@ -168,17 +208,28 @@ impl Browser {
     }
 
     pub async fn click(&self, css: &str) {
-        self.wait_for(css).await.click().await.unwrap_or_else(|e| panic!("cannot click `{css}`: {e}"));
+        self.wait_for(css)
+            .await
+            .click()
+            .await
+            .unwrap_or_else(|e| panic!("cannot click `{css}`: {e}"));
     }
 
     /// The visible text of the first element matching `css`.
     pub async fn text(&self, css: &str) -> String {
-        self.wait_for(css).await.text().await.unwrap_or_else(|e| panic!("cannot read `{css}`: {e}"))
+        self.wait_for(css)
+            .await
+            .text()
+            .await
+            .unwrap_or_else(|e| panic!("cannot read `{css}`: {e}"))
     }
 
     /// Runs JavaScript in the page (`return ...` gives a value back).
     pub async fn eval(&self, script: &str) -> Value {
-        self.client().execute(script, vec![]).await.unwrap_or_else(|e| panic!("script failed: {e}\n{script}"))
+        self.client()
+            .execute(script, vec![])
+            .await
+            .unwrap_or_else(|e| panic!("script failed: {e}\n{script}"))
     }
 
     /// How far the page reaches past the right edge of the viewport, in CSS pixels (0 when
@@ -187,12 +238,16 @@ impl Browser {
         let value = self
             .eval("const d = document.documentElement; return Math.max(d.scrollWidth, document.body.scrollWidth) - d.clientWidth;")
             .await;
-        value.as_i64().unwrap_or_else(|| panic!("not a number: {value}"))
+        value
+            .as_i64()
+            .unwrap_or_else(|| panic!("not a number: {value}"))
     }
 
     /// The viewport's size as the page sees it.
     pub async fn inner_size(&self) -> (i64, i64) {
-        let v = self.eval("return [window.innerWidth, window.innerHeight];").await;
+        let v = self
+            .eval("return [window.innerWidth, window.innerHeight];")
+            .await;
         (v[0].as_i64().unwrap_or(-1), v[1].as_i64().unwrap_or(-1))
     }
 
@@ -208,7 +263,11 @@ impl Browser {
 
     /// Every console line so far (chromedriver hands each over once; they are kept here).
     pub async fn console(&self) -> Vec<LogEntry> {
-        let fresh = self.client().issue_cmd(BrowserLog).await.unwrap_or_else(|e| panic!("cannot read the console: {e}"));
+        let fresh = self
+            .client()
+            .issue_cmd(BrowserLog)
+            .await
+            .unwrap_or_else(|e| panic!("cannot read the console: {e}"));
         let mut kept = self.console.lock().unwrap();
         for entry in fresh.as_array().into_iter().flatten() {
             kept.push(LogEntry {
@@ -221,7 +280,12 @@ impl Browser {
 
     /// The console's errors and uncaught exceptions so far.
     pub async fn console_errors(&self) -> Vec<String> {
-        self.console().await.into_iter().filter(|e| e.level == "SEVERE").map(|e| e.message).collect()
+        self.console()
+            .await
+            .into_iter()
+            .filter(|e| e.level == "SEVERE")
+            .map(|e| e.message)
+            .collect()
     }
 
     /// Ends the session cleanly.
@@ -235,7 +299,9 @@ impl Browser {
 impl Drop for Browser {
     fn drop(&mut self) {
         // End chromedriver's whole process group (Chromium and its helpers with it).
-        let _ = Command::new("kill").args(["-KILL", "--", &format!("-{}", self.driver.id())]).status();
+        let _ = Command::new("kill")
+            .args(["-KILL", "--", &format!("-{}", self.driver.id())])
+            .status();
         let _ = self.driver.kill();
         let _ = self.driver.wait();
         let _ = std::fs::remove_dir_all(&self.profile);
@@ -248,12 +314,19 @@ impl Drop for Browser {
 struct BrowserLog;
 
 impl WebDriverCompatibleCommand for BrowserLog {
-    fn endpoint(&self, base: &url::Url, session: Option<&str>) -> Result<url::Url, url::ParseError> {
+    fn endpoint(
+        &self,
+        base: &url::Url,
+        session: Option<&str>,
+    ) -> Result<url::Url, url::ParseError> {
         base.join(&format!("session/{}/se/log", session.unwrap_or_default()))
     }
 
     fn method_and_body(&self, _: &url::Url) -> (http::Method, Option<String>) {
-        (http::Method::POST, Some(r#"{"type":"browser"}"#.to_string()))
+        (
+            http::Method::POST,
+            Some(r#"{"type":"browser"}"#.to_string()),
+        )
     }
 }
 
@@ -303,7 +376,10 @@ impl AppSession {
     /// Fails on any console error, then closes the browser.
     pub async fn finish(self) {
         let errors = self.browser.console_errors().await;
-        assert!(errors.is_empty(), "the browser console has errors: {errors:#?}");
+        assert!(
+            errors.is_empty(),
+            "the browser console has errors: {errors:#?}"
+        );
         self.browser.close().await;
     }
 }
@@ -319,18 +395,27 @@ pub fn unique_dir(label: &str) -> PathBuf {
         .duration_since(std::time::UNIX_EPOCH)
         .map(|d| d.subsec_nanos())
         .unwrap_or(0);
-    std::env::temp_dir().join(format!("phasewise-{label}-{}-{n}-{nanos}", std::process::id()))
+    std::env::temp_dir().join(format!(
+        "phasewise-{label}-{}-{n}-{nanos}",
+        std::process::id()
+    ))
 }
 
 /// A port nobody listens on right now.
 pub fn free_port() -> u16 {
-    TcpListener::bind("127.0.0.1:0").and_then(|l| l.local_addr()).map(|a| a.port()).expect("a free port")
+    TcpListener::bind("127.0.0.1:0")
+        .and_then(|l| l.local_addr())
+        .map(|a| a.port())
+        .expect("a free port")
 }
 
 fn wait_for_port(port: u16, timeout: Duration) {
     let started = Instant::now();
     while TcpStream::connect(("127.0.0.1", port)).is_err() {
-        assert!(started.elapsed() < timeout, "chromedriver did not listen on port {port} within {timeout:?}");
+        assert!(
+            started.elapsed() < timeout,
+            "chromedriver did not listen on port {port} within {timeout:?}"
+        );
         std::thread::sleep(Duration::from_millis(50));
     }
 }

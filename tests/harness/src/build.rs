@@ -9,7 +9,13 @@ pub fn release(tools: &BuildTools, root: &Path) -> Result<(), String> {
     run(tools.command("cargo").arg("fetch").current_dir(root))?;
     let started = Instant::now();
     // Offline is set in Trunk.toml too, so a hand-run `trunk build --release` behaves the same.
-    run(tools.command("trunk").args(["build", "--release", "--offline"]).current_dir(root))?;
-    say(&format!("release build into dist/ took {:.1} s", started.elapsed().as_secs_f64()));
+    run(tools
+        .command("trunk")
+        .args(["build", "--release", "--offline"])
+        .current_dir(root))?;
+    say(&format!(
+        "release build into dist/ took {:.1} s",
+        started.elapsed().as_secs_f64()
+    ));
     Ok(())
 }

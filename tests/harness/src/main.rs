@@ -24,7 +24,9 @@ fn main() -> ExitCode {
         Some("build") => release_build().map(|_| ()),
         Some("size") => size_report(&args[1..]),
         Some("smoke") => smoke(&args[1..]),
-        Some("setup") => tools::prepare_build(&project_root()).and_then(|_| tools::prepare_browser()),
+        Some("setup") => {
+            tools::prepare_build(&project_root()).and_then(|_| tools::prepare_browser())
+        }
         _ => Err(USAGE.to_string()),
     };
     match result {
@@ -82,12 +84,17 @@ fn test(args: &[String]) -> Result<(), String> {
     let started = Instant::now();
     // One cargo invocation for the native and the browser tests, sharing one target folder.
     let mut cargo = tools.command("cargo");
-    cargo.current_dir(&root).args(["test", "--workspace", "--no-fail-fast"]);
+    cargo
+        .current_dir(&root)
+        .args(["test", "--workspace", "--no-fail-fast"]);
     if !passthrough.is_empty() {
         cargo.arg("--").args(passthrough);
     }
     let outcome = tools::run(&mut cargo);
-    tools::say(&format!("tests took {:.1} s", started.elapsed().as_secs_f64()));
+    tools::say(&format!(
+        "tests took {:.1} s",
+        started.elapsed().as_secs_f64()
+    ));
     outcome
 }
 
@@ -131,7 +138,10 @@ fn profile_sizes() -> Result<(), String> {
     for (i, (name, overrides)) in VARIANTS.iter().enumerate() {
         let dist = out_root.join(i.to_string());
         let mut trunk = tools.command("trunk");
-        trunk.args(["build", "--release", "--offline", "--dist"]).arg(&dist).current_dir(&root);
+        trunk
+            .args(["build", "--release", "--offline", "--dist"])
+            .arg(&dist)
+            .current_dir(&root);
         for (key, value) in *overrides {
             trunk.env(format!("CARGO_PROFILE_RELEASE_{key}"), value);
         }
@@ -141,7 +151,8 @@ fn profile_sizes() -> Result<(), String> {
             .into_iter()
             .find(|f| f.kind == "wasm")
             .ok_or("the build has no wasm file")?;
-        let before = size::before_wasm_opt(&phasewise_harness::target_dir()).ok_or("no wasm-bindgen output")?;
+        let before = size::before_wasm_opt(&phasewise_harness::target_dir())
+            .ok_or("no wasm-bindgen output")?;
         rows.push(format!(
             "| {name} | {} | {} | {} | {} |",
             before.raw, before.gzip, wasm.raw, wasm.gzip
@@ -159,7 +170,9 @@ fn profile_sizes() -> Result<(), String> {
 /// release): at phone size the app must start with no console error and no sideways overflow.
 fn smoke(args: &[String]) -> Result<(), String> {
     use phasewise_harness::browser::{Browser, Viewport, APP_READY};
-    let url = args.first().ok_or("smoke needs the address to check, e.g. http://127.0.0.1:8080/")?;
+    let url = args
+        .first()
+        .ok_or("smoke needs the address to check, e.g. http://127.0.0.1:8080/")?;
     tools::prepare_browser()?;
     let runtime = tokio::runtime::Builder::new_current_thread()
         .enable_all()

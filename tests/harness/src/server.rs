@@ -49,7 +49,11 @@ impl StaticServer {
                 }
                 // The listener drops here: from now on connections are refused.
             })?;
-        Ok(StaticServer { addr, stopping, acceptor: Some(acceptor) })
+        Ok(StaticServer {
+            addr,
+            stopping,
+            acceptor: Some(acceptor),
+        })
     }
 
     /// The address the server listens on.
@@ -149,7 +153,11 @@ pub fn respond(root: &Path, method: &str, target: &str) -> Response {
         path.push("index.html");
     }
     match std::fs::read(&path) {
-        Ok(body) => Response { status: 200, content_type: content_type(&path), body },
+        Ok(body) => Response {
+            status: 200,
+            content_type: content_type(&path),
+            body,
+        },
         Err(_) => text(404, "not found\n"),
     }
 }
@@ -242,17 +250,30 @@ mod tests {
     #[test]
     fn serves_index_for_the_root_and_files_with_their_types() {
         let root = site("serves");
-        assert_eq!(respond(&root, "GET", "/").content_type, "text/html; charset=utf-8");
+        assert_eq!(
+            respond(&root, "GET", "/").content_type,
+            "text/html; charset=utf-8"
+        );
         let wasm = respond(&root, "GET", "/app_bg.wasm?v=1");
         assert_eq!((wasm.status, wasm.content_type), (200, "application/wasm"));
-        assert_eq!(respond(&root, "GET", "/public/icon%2Esvg").content_type, "image/svg+xml");
+        assert_eq!(
+            respond(&root, "GET", "/public/icon%2Esvg").content_type,
+            "image/svg+xml"
+        );
         assert_eq!(respond(&root, "GET", "/public/").status, 404);
     }
 
     #[test]
     fn refuses_paths_outside_the_folder_and_other_methods() {
         let root = site("refuses");
-        for target in ["/../etc/passwd", "/public/../../x", "/%2e%2e/x", "relative", "/a%5Cb", "/%zz"] {
+        for target in [
+            "/../etc/passwd",
+            "/public/../../x",
+            "/%2e%2e/x",
+            "relative",
+            "/a%5Cb",
+            "/%zz",
+        ] {
             assert_eq!(respond(&root, "GET", target).status, 400, "{target}");
         }
         assert_eq!(respond(&root, "GET", "/missing.js").status, 404);

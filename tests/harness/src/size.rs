@@ -78,24 +78,44 @@ pub fn before_wasm_opt(target: &Path) -> Option<FileSize> {
         .filter_map(|e| e.ok().map(|e| e.path()))
         .find(|p| p.extension().is_some_and(|e| e == "wasm"))?;
     let bytes = std::fs::read(&path).ok()?;
-    Some(FileSize { kind: "wasm", raw: bytes.len() as u64, gzip: gzip_len(&bytes).ok()?, path })
+    Some(FileSize {
+        kind: "wasm",
+        raw: bytes.len() as u64,
+        gzip: gzip_len(&bytes).ok()?,
+        path,
+    })
 }
 
 /// The report as printed: a row per file, a total per kind, and the grand total.
 pub fn report(sizes: &[FileSize]) -> String {
     let mut out = format!("{:<44} {:>22} {:>22}\n", "file", "raw", "gzip");
     for file in sizes {
-        out += &format!("{:<44} {:>22} {:>22}\n", file.path.display(), human(file.raw), human(file.gzip));
+        out += &format!(
+            "{:<44} {:>22} {:>22}\n",
+            file.path.display(),
+            human(file.raw),
+            human(file.gzip)
+        );
     }
     out += &format!("{}\n", "-".repeat(90));
     for kind in KINDS {
         let (raw, gzip) = total(sizes.iter().filter(|f| f.kind == kind));
         if raw > 0 {
-            out += &format!("{:<44} {:>22} {:>22}\n", format!("all {kind}"), human(raw), human(gzip));
+            out += &format!(
+                "{:<44} {:>22} {:>22}\n",
+                format!("all {kind}"),
+                human(raw),
+                human(gzip)
+            );
         }
     }
     let (raw, gzip) = total(sizes.iter());
-    out += &format!("{:<44} {:>22} {:>22}\n", "everything", human(raw), human(gzip));
+    out += &format!(
+        "{:<44} {:>22} {:>22}\n",
+        "everything",
+        human(raw),
+        human(gzip)
+    );
     out
 }
 
@@ -123,11 +143,31 @@ mod tests {
 
     #[test]
     fn report_totals_each_kind() {
-        let f = |path: &str, raw, gzip| FileSize { path: path.into(), kind: kind_of(Path::new(path)), raw, gzip };
-        let report = report(&[f("a_bg.wasm", 2048, 1024), f("a.js", 100, 50), f("b.js", 100, 50), f("index.html", 10, 5)]);
+        let f = |path: &str, raw, gzip| FileSize {
+            path: path.into(),
+            kind: kind_of(Path::new(path)),
+            raw,
+            gzip,
+        };
+        let report = report(&[
+            f("a_bg.wasm", 2048, 1024),
+            f("a.js", 100, 50),
+            f("b.js", 100, 50),
+            f("index.html", 10, 5),
+        ]);
         assert!(report.contains("all js"));
-        assert!(report.lines().any(|l| l.starts_with("all js") && l.contains("200 B") && l.contains("100 B")), "{report}");
-        assert!(report.lines().any(|l| l.starts_with("everything") && l.contains("2258 B")), "{report}");
+        assert!(
+            report
+                .lines()
+                .any(|l| l.starts_with("all js") && l.contains("200 B") && l.contains("100 B")),
+            "{report}"
+        );
+        assert!(
+            report
+                .lines()
+                .any(|l| l.starts_with("everything") && l.contains("2258 B")),
+            "{report}"
+        );
         assert!(!report.contains("all css"));
     }
 }

@@ -27,8 +27,13 @@ pub struct BuildTools {
 /// Makes sure the wasm target, trunk, wasm-bindgen-cli (at the version in Cargo.lock) and
 /// wasm-opt are present, installing what is missing.
 pub fn prepare_build(root: &Path) -> Result<BuildTools, String> {
-    let mut dirs = vec![binaryen_dir().join("node_modules").join(".bin"), cargo_home().join("bin")];
-    dirs.extend(std::env::split_paths(&std::env::var_os("PATH").unwrap_or_default()));
+    let mut dirs = vec![
+        binaryen_dir().join("node_modules").join(".bin"),
+        cargo_home().join("bin"),
+    ];
+    dirs.extend(std::env::split_paths(
+        &std::env::var_os("PATH").unwrap_or_default(),
+    ));
     let path = std::env::join_paths(dirs).map_err(|e| format!("cannot build PATH: {e}"))?;
     let tools = BuildTools { path };
 
@@ -41,18 +46,29 @@ pub fn prepare_build(root: &Path) -> Result<BuildTools, String> {
 
     let bindgen = pinned_version(&root.join("Cargo.lock"), "wasm-bindgen")?;
     // Without --locked: with it, the install fails on a webpki-roots version the index lacks.
-    ensure(&tools, "wasm-bindgen", &format!("wasm-bindgen {bindgen}"), || {
-        cargo_install(&["wasm-bindgen-cli", "--force", "--version", &bindgen])
-    })?;
+    ensure(
+        &tools,
+        "wasm-bindgen",
+        &format!("wasm-bindgen {bindgen}"),
+        || cargo_install(&["wasm-bindgen-cli", "--force", "--version", &bindgen]),
+    )?;
 
-    ensure(&tools, "wasm-opt", &format!("version {BINARYEN_VERSION}"), install_binaryen)?;
+    ensure(
+        &tools,
+        "wasm-opt",
+        &format!("version {BINARYEN_VERSION}"),
+        install_binaryen,
+    )?;
     Ok(tools)
 }
 
 /// Makes sure Debian's chromium and chromium-driver are installed.
 pub fn prepare_browser() -> Result<(), String> {
     if Path::new(CHROMIUM).is_file() && Path::new(CHROMEDRIVER).is_file() {
-        say(&format!("chromium and chromedriver: found in {}", Path::new(CHROMIUM).parent().unwrap().display()));
+        say(&format!(
+            "chromium and chromedriver: found in {}",
+            Path::new(CHROMIUM).parent().unwrap().display()
+        ));
         return Ok(());
     }
     apt_install(&["chromium", "chromium-driver"])
@@ -92,7 +108,9 @@ fn ensure(
             say(&format!("{program}: {found}"));
             return Ok(());
         }
-        Some(found) => say(&format!("{program}: found {found}, need {wanted}; installing")),
+        Some(found) => say(&format!(
+            "{program}: found {found}, need {wanted}; installing"
+        )),
         None => say(&format!("{program}: not found; installing ({wanted})")),
     }
     install()?;
@@ -112,7 +130,10 @@ fn ensure_wasm_target() -> Result<(), String> {
         .args(["target", "list", "--installed"])
         .output()
         .map_err(|e| format!("rustup is needed to add the {WASM_TARGET} target: {e}"))?;
-    if String::from_utf8_lossy(&installed.stdout).lines().any(|l| l.trim() == WASM_TARGET) {
+    if String::from_utf8_lossy(&installed.stdout)
+        .lines()
+        .any(|l| l.trim() == WASM_TARGET)
+    {
         say(&format!("rust target {WASM_TARGET}: installed"));
         return Ok(());
     }
@@ -120,9 +141,11 @@ fn ensure_wasm_target() -> Result<(), String> {
 }
 
 fn cargo_install(args: &[&str]) -> Result<(), String> {
-    run(Command::new(std::env::var_os("CARGO").unwrap_or_else(|| "cargo".into()))
-        .arg("install")
-        .args(args))
+    run(
+        Command::new(std::env::var_os("CARGO").unwrap_or_else(|| "cargo".into()))
+            .arg("install")
+            .args(args),
+    )
 }
 
 fn install_binaryen() -> Result<(), String> {
@@ -144,14 +167,21 @@ fn apt_install(packages: &[&str]) -> Result<(), String> {
         .map(|o| String::from_utf8_lossy(&o.stdout).trim() == "0")
         .unwrap_or(false);
     let apt = |args: &[&str]| {
-        let mut command = if as_root { Command::new("apt-get") } else { Command::new("sudo") };
+        let mut command = if as_root {
+            Command::new("apt-get")
+        } else {
+            Command::new("sudo")
+        };
         if !as_root {
             command.arg("apt-get");
         }
         command.args(args).env("DEBIAN_FRONTEND", "noninteractive");
         run(&mut command)
     };
-    say(&format!("installing Debian packages: {}", packages.join(" ")));
+    say(&format!(
+        "installing Debian packages: {}",
+        packages.join(" ")
+    ));
     apt(&["update", "-q"])?;
     let mut install = vec!["install", "-y", "-q"];
     install.extend_from_slice(packages);
@@ -160,13 +190,20 @@ fn apt_install(packages: &[&str]) -> Result<(), String> {
 
 /// The version of `package` that Cargo.lock pins.
 pub fn pinned_version(lock: &Path, package: &str) -> Result<String, String> {
-    let text = std::fs::read_to_string(lock)
-        .map_err(|e| format!("cannot read {}: {e} (it is committed with the project)", lock.display()))?;
+    let text = std::fs::read_to_string(lock).map_err(|e| {
+        format!(
+            "cannot read {}: {e} (it is committed with the project)",
+            lock.display()
+        )
+    })?;
     let wanted = format!("name = \"{package}\"");
     let mut lines = text.lines();
     while let Some(line) = lines.next() {
         if line.trim() == wanted {
-            if let Some(version) = lines.next().and_then(|l| l.trim().strip_prefix("version = ")) {
+            if let Some(version) = lines
+                .next()
+                .and_then(|l| l.trim().strip_prefix("version = "))
+            {
                 return Ok(version.trim_matches('"').to_string());
             }
         }
@@ -185,11 +222,15 @@ pub fn binaryen_dir() -> PathBuf {
     let cache = std::env::var_os("XDG_CACHE_HOME")
         .map(PathBuf::from)
         .unwrap_or_else(|| home().join(".cache"));
-    cache.join("phasewise").join(format!("binaryen-{BINARYEN_VERSION}"))
+    cache
+        .join("phasewise")
+        .join(format!("binaryen-{BINARYEN_VERSION}"))
 }
 
 fn home() -> PathBuf {
-    std::env::var_os("HOME").map(PathBuf::from).unwrap_or_else(|| PathBuf::from("/root"))
+    std::env::var_os("HOME")
+        .map(PathBuf::from)
+        .unwrap_or_else(|| PathBuf::from("/root"))
 }
 
 /// Runs a command in the foreground, its output going to the terminal.
@@ -219,7 +260,10 @@ mod tests {
         let version = pinned_version(&lock, "wasm-bindgen").unwrap();
         // The app's Cargo.toml pins it with `=`; the lock must agree.
         let manifest = std::fs::read_to_string(crate::project_root().join("Cargo.toml")).unwrap();
-        assert!(manifest.contains(&format!("wasm-bindgen = \"={version}\"")), "{version}");
+        assert!(
+            manifest.contains(&format!("wasm-bindgen = \"={version}\"")),
+            "{version}"
+        );
     }
 
     #[test]

@@ -11,13 +11,24 @@ use std::time::Duration;
 async fn the_frame_renders_on_a_phone_without_errors_or_sideways_overflow() {
     let app = AppSession::start("frame_on_phone", Viewport::PHONE).await;
     let b = &app.browser;
-    assert_eq!(b.inner_size().await, (390, 844), "the phone viewport is emulated exactly");
+    assert_eq!(
+        b.inner_size().await,
+        (390, 844),
+        "the phone viewport is emulated exactly"
+    );
     assert_eq!(b.text(".brand-name").await, "Phasewise");
-    assert_eq!(b.client().title().await.unwrap(), format!("{} · Phasewise", Area::START.title()));
-    let nav = b.eval("return document.querySelectorAll('nav.areas a').length;").await;
+    assert_eq!(
+        b.client().title().await.unwrap(),
+        format!("{} · Phasewise", Area::START.title())
+    );
+    let nav = b
+        .eval("return document.querySelectorAll('nav.areas a').length;")
+        .await;
     assert_eq!(nav.as_u64(), Some(Area::NAV.len() as u64));
     // The start-up notice is hidden once the app is up.
-    let boot = b.eval("return getComputedStyle(document.querySelector('.boot')).display;").await;
+    let boot = b
+        .eval("return getComputedStyle(document.querySelector('.boot')).display;")
+        .await;
     assert_eq!(boot, "none");
     assert_eq!(b.sideways_overflow().await, 0);
     // Every link and button is at least a 48 px touch target.
@@ -38,8 +49,10 @@ async fn every_area_is_reachable_from_the_navigation_and_safety_from_every_area(
     let app = AppSession::start("every_area", Viewport::PHONE).await;
     let b = &app.browser;
     for area in Area::NAV {
-        b.click(&format!("nav.areas a[href='{}']", area.href())).await;
-        b.wait_for(&format!("main[data-area='{}']", area.slug())).await;
+        b.click(&format!("nav.areas a[href='{}']", area.href()))
+            .await;
+        b.wait_for(&format!("main[data-area='{}']", area.slug()))
+            .await;
         assert_eq!(b.text("main h1").await, area.title());
         let current = b.eval("return document.querySelector('nav.areas a[aria-current=page]').getAttribute('href');").await;
         assert_eq!(current, area.href().as_str());
@@ -47,15 +60,23 @@ async fn every_area_is_reachable_from_the_navigation_and_safety_from_every_area(
         b.screenshot(area.slug()).await;
 
         // The safety notes are one tap away from here.
-        b.click(&format!(".topbar a[href='{}']", Area::Safety.href())).await;
+        b.click(&format!(".topbar a[href='{}']", Area::Safety.href()))
+            .await;
         b.wait_for("main[data-area='safety']").await;
         assert_eq!(b.text("main h1").await, Area::Safety.title());
         b.client().back().await.unwrap();
-        b.wait_for(&format!("main[data-area='{}']", area.slug())).await;
+        b.wait_for(&format!("main[data-area='{}']", area.slug()))
+            .await;
     }
-    b.click(&format!(".topbar a[href='{}']", Area::Safety.href())).await;
-    let cautions = b.eval("return document.querySelectorAll('.caution').length;").await;
-    assert!(cautions.as_u64().unwrap_or(0) >= 4, "cautions listed: {cautions}");
+    b.click(&format!(".topbar a[href='{}']", Area::Safety.href()))
+        .await;
+    let cautions = b
+        .eval("return document.querySelectorAll('.caution').length;")
+        .await;
+    assert!(
+        cautions.as_u64().unwrap_or(0) >= 4,
+        "cautions listed: {cautions}"
+    );
     assert_eq!(b.sideways_overflow().await, 0);
     b.screenshot("safety").await;
     app.finish().await;
@@ -70,7 +91,8 @@ async fn a_link_to_an_area_opens_that_area() {
         // A fresh load of the address, as when a link or bookmark is opened.
         b.goto(&app.url(&fragment)).await;
         b.client().refresh().await.unwrap();
-        b.wait_for(&format!("main[data-area='{}']", area.slug())).await;
+        b.wait_for(&format!("main[data-area='{}']", area.slug()))
+            .await;
         assert_eq!(b.text("main h1").await, area.title(), "{fragment}");
     }
     app.finish().await;
@@ -86,7 +108,11 @@ async fn the_layout_holds_from_a_small_phone_to_a_projector() {
     ] {
         let app = AppSession::start_at("layouts", viewport, &Area::Settings.href()).await;
         let b = &app.browser;
-        assert_eq!(b.inner_size().await, (viewport.width as i64, viewport.height as i64), "{name}");
+        assert_eq!(
+            b.inner_size().await,
+            (viewport.width as i64, viewport.height as i64),
+            "{name}"
+        );
         assert_eq!(b.sideways_overflow().await, 0, "{name}");
         // On a phone the areas sit below the page; from a tablet up, beside it.
         let nav_beside_page = b
@@ -116,10 +142,19 @@ async fn a_broken_wasm_module_is_caught() {
     }
     assert_eq!(corrupted, 1, "the release build ships one wasm module");
     let app = AppSession::open("broken_module", Viewport::PHONE, &broken, "").await;
-    let started = app.browser.try_wait_for(APP_READY, Duration::from_secs(5)).await;
-    assert!(started.is_none(), "a corrupted module must not render the app");
+    let started = app
+        .browser
+        .try_wait_for(APP_READY, Duration::from_secs(5))
+        .await;
+    assert!(
+        started.is_none(),
+        "a corrupted module must not render the app"
+    );
     let errors = app.browser.console_errors().await;
-    assert!(!errors.is_empty(), "the start-up failure must reach the console");
+    assert!(
+        !errors.is_empty(),
+        "the start-up failure must reach the console"
+    );
     app.browser.screenshot("broken").await;
     app.browser.close().await;
     std::fs::remove_dir_all(&broken).unwrap();
@@ -140,11 +175,17 @@ async fn the_serve_command_serves_the_app_at_the_address_it_prints() {
             .unwrap(),
     );
     let mut line = String::new();
-    BufReader::new(serve.0.stdout.take().unwrap()).read_line(&mut line).unwrap();
-    let url = line.split_whitespace().find(|w| w.starts_with("http://")).unwrap_or_else(|| panic!("no address in {line:?}"));
+    BufReader::new(serve.0.stdout.take().unwrap())
+        .read_line(&mut line)
+        .unwrap();
+    let url = line
+        .split_whitespace()
+        .find(|w| w.starts_with("http://"))
+        .unwrap_or_else(|| panic!("no address in {line:?}"));
     assert_eq!(url, format!("http://127.0.0.1:{port}/"));
 
-    let browser = phasewise_harness::browser::Browser::launch("serve_command", Viewport::PHONE).await;
+    let browser =
+        phasewise_harness::browser::Browser::launch("serve_command", Viewport::PHONE).await;
     browser.goto(url).await;
     browser.wait_for(APP_READY).await;
     assert!(browser.console_errors().await.is_empty());
