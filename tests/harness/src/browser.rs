@@ -105,8 +105,9 @@ impl Browser {
         std::fs::create_dir_all(&shots).expect("create the screenshot folder");
 
         let port = free_port();
-        let log = std::fs::File::create(profile.with_extension("chromedriver.log"))
-            .expect("create chromedriver log");
+        // Kept beside the screenshots, so a failed start can be read after the test.
+        let log =
+            std::fs::File::create(shots.join("chromedriver.log")).expect("create chromedriver log");
         let mut command = Command::new(&chromedriver);
         command
             .arg(format!("--port={port}"))
