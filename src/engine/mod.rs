@@ -1,0 +1,91 @@
+//! The engine: a job in, every design's phases, ledgers and totals out.
+//!
+//! Pure Rust with no browser dependency: the UI calls [`solve`] and shows what it returns.
+//! Bad input comes back as [`InputError`]s, never a panic, a NaN or an infinity.
+
+pub mod cycle;
+pub mod finding;
+pub mod job;
+pub mod ledger;
+pub mod motor;
+pub mod power_unit;
+pub mod pump;
+pub mod solve;
+pub mod units;
+pub mod validate;
+pub mod valve;
+
+pub use finding::Finding;
+pub use job::{Job, JobFileError, Oil, Site, SCHEMA_VERSION};
+pub use ledger::{Comparison, CycleTotals, PowerLedger};
+pub use solve::{OperatingPoint, PhaseReport, PumpPoint, PumpState};
+pub use validate::InputError;
+
+use serde::Serialize;
+
+/// Everything the engine says about a job.
+#[derive(Clone, Debug, PartialEq, Serialize)]
+pub struct JobReport {
+    /// One per design, in the job's order.
+    pub designs: Vec<DesignReport>,
+    /// Each design after the first against the first (the baseline).
+    pub comparisons: Vec<Comparison>,
+}
+
+#[derive(Clone, Debug, PartialEq, Serialize)]
+pub struct DesignReport {
+    pub name: String,
+    pub phases: Vec<PhaseReport>,
+    pub totals: CycleTotals,
+    /// Findings about the design as a whole: its settings and its motor.
+    pub findings: Vec<Finding>,
+}
+
+/// Solves every design of a job over its cycle.
+pub fn solve(job: &Job) -> Result<JobReport, Vec<InputError>> {
+    validate::validate(job)?;
+    let designs: Vec<DesignReport> = job
+        .designs
+        .iter()
+        .map(|design| solve_design(job, design))
+        .collect();
+    let baseline = &designs[0];
+    let comparisons = designs[1..]
+        .iter()
+        .map(|d| {
+            ledger::compare(
+                (&baseline.name, &baseline.totals),
+                (&d.name, &d.totals),
+                &job.site,
+            )
+        })
+        .collect();
+    Ok(JobReport {
+        designs,
+        comparisons,
+    })
+}
+
+/// Solves one (validated) design over the job's cycle.
+fn solve_design(job: &Job, design: &power_unit::Design) -> DesignReport {
+    let unit = solve::PreparedUnit::new(design);
+    let phases: Vec<PhaseReport> = job
+        .cycle
+        .iter()
+        .zip(&design.phase_settings)
+        .map(|(phase, setting)| solve::solve_phase(&unit, phase, setting))
+        .collect();
+    let timed: Vec<(PowerLedger, f64)> = phases
+        .iter()
+        .map(|p| (p.ledger, p.point.duration.value))
+        .collect();
+    let totals = ledger::cycle_totals(&timed, &job.site, &job.oil);
+    let mut findings = solve::design_findings(design);
+    findings.extend(ledger::motor_findings(&design.motor, &totals));
+    DesignReport {
+        name: design.name.clone(),
+        phases,
+        totals,
+        findings,
+    }
+}

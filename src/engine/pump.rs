@@ -1,0 +1,106 @@
+//! Pumps on the motor's shaft.
+
+use serde::{Deserialize, Serialize};
+use uom::si::f64::{Power, Pressure, Volume};
+
+/// A positive-displacement pump, fixed or pressure-compensated.
+#[derive(Clone, Copy, Debug, PartialEq, Serialize, Deserialize)]
+pub struct Pump {
+    /// Volume per shaft revolution (the maximum, for a compensated pump).
+    #[serde(rename = "displacement_m3_per_rev")]
+    pub displacement: Volume,
+    /// Actual over theoretical flow, as measured at `efficiency_pressure`. Internal leakage
+    /// grows in proportion to pressure, so this one point fixes the leakage at every pressure.
+    pub volumetric_efficiency: f64,
+    #[serde(rename = "efficiency_pressure_pa")]
+    pub efficiency_pressure: Pressure,
+    /// Theoretical over actual torque.
+    pub hydromechanical_efficiency: f64,
+    /// Shaft power the pump takes even with no pressure (churning, seals, bearings).
+    #[serde(rename = "drag_power_w")]
+    pub drag_power: Power,
+    /// The maker's maximum continuous pressure.
+    #[serde(rename = "rated_pressure_pa")]
+    pub rated_pressure: Pressure,
+    pub control: PumpControl,
+}
+
+#[derive(Clone, Copy, Debug, PartialEq, Serialize, Deserialize)]
+#[serde(tag = "type", rename_all = "snake_case")]
+pub enum PumpControl {
+    /// Full displacement always.
+    Fixed,
+    /// Full displacement up to the compensator setting, then only what the circuit takes.
+    Compensated {
+        #[serde(rename = "setting_pa")]
+        setting: Pressure,
+    },
+}
+
+/// Over what share of its setting a compensator goes from full stroke to dead-head. A
+/// modelling choice (common practice: a few percent), so the pump's flow falls steeply but
+/// continuously and every phase has one operating pressure.
+pub const COMPENSATOR_BAND: f64 = 0.03;
+
+/// A pump at the motor's speed, in SI numbers: what the solver works with.
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub(crate) struct PumpAtSpeed {
+    /// Theoretical flow at full displacement, m^3/s.
+    pub swept: f64,
+    /// Leakage per pascal of outlet pressure, (m^3/s)/Pa.
+    pub leakage: f64,
+    pub hydromechanical: f64,
+    pub drag: f64,
+    pub compensator: Option<f64>,
+}
+
+impl PumpAtSpeed {
+    pub fn new(pump: &Pump, revolutions_per_second: f64) -> PumpAtSpeed {
+        let swept = pump.displacement.value * revolutions_per_second;
+        PumpAtSpeed {
+            swept,
+            leakage: swept * (1.0 - pump.volumetric_efficiency) / pump.efficiency_pressure.value,
+            hydromechanical: pump.hydromechanical_efficiency,
+            drag: pump.drag_power.value,
+            compensator: match pump.control {
+                PumpControl::Fixed => None,
+                PumpControl::Compensated { setting } => Some(setting.value),
+            },
+        }
+    }
+
+    /// The flow delivered at an outlet pressure, m^3/s.
+    pub fn delivered(&self, outlet: f64) -> f64 {
+        let full = (self.swept - self.leakage * outlet).max(0.0);
+        match self.compensator {
+            Some(setting) if outlet > setting => {
+                let band = setting * COMPENSATOR_BAND;
+                full * (1.0 - (outlet - setting) / band).max(0.0)
+            }
+            _ => full,
+        }
+    }
+
+    /// Outlet pressures at which `delivered` changes slope.
+    pub fn breakpoints(&self) -> [f64; 3] {
+        let dry = if self.leakage > 0.0 {
+            self.swept / self.leakage
+        } else {
+            f64::INFINITY
+        };
+        match self.compensator {
+            Some(setting) => [dry, setting, setting * (1.0 + COMPENSATOR_BAND)],
+            None => [dry, f64::INFINITY, f64::INFINITY],
+        }
+    }
+
+    /// Shaft power at an outlet pressure while delivering `delivered`, W. The displacement
+    /// swept is what is delivered plus what leaks (a compensated pump destrokes to it).
+    pub fn shaft_power(&self, outlet: f64, delivered: f64) -> f64 {
+        let swept = match self.compensator {
+            None => self.swept,
+            Some(_) => (delivered + self.leakage * outlet).min(self.swept),
+        };
+        swept * outlet / self.hydromechanical + self.drag
+    }
+}

@@ -1,0 +1,662 @@
+//! The solve: every phase's consistent operating point, and its power ledger.
+//!
+//! Which pumps feed the system depends on system pressure (each unloading valve is piloted
+//! from it), and the pressure depends on the flow (through the relief's characteristic and
+//! the pumps' leakage). So for each phase every unloading state is tried, fewest pumps
+//! unloaded first, and the first whose pressure agrees with every valve's setting is kept.
+//! When none agrees the valve hunts: the state nearest to agreeing is kept and the finding
+//! says so. Within a state every flow is a straight line in pressure between breakpoints, so
+//! each balance is solved exactly, without iteration.
+
+use super::cycle::{HoldMode, Load, Phase, PhaseKind, SpeedRule};
+use super::finding::Finding;
+use super::ledger::{watts, PowerLedger};
+use super::power_unit::{Design, PhaseSetting};
+use super::pump::{PumpAtSpeed, PumpControl};
+use super::valve::{ActiveLimit, IdlePath, ReliefCharacteristic};
+use serde::Serialize;
+use uom::si::f64::{Pressure, Time, Velocity, VolumeRate};
+
+/// Below this a flow is none (m^3/s; about 0.00006 L/min).
+const NO_FLOW: f64 = 1e-9;
+
+/// One phase at its operating point.
+#[derive(Clone, Debug, PartialEq, Serialize)]
+pub struct PhaseReport {
+    pub name: String,
+    pub point: OperatingPoint,
+    pub ledger: PowerLedger,
+    pub findings: Vec<Finding>,
+}
+
+#[derive(Clone, Debug, PartialEq, Serialize)]
+pub struct OperatingPoint {
+    #[serde(rename = "system_pressure_pa")]
+    pub system_pressure: Pressure,
+    /// Each pump in shaft order.
+    pub pumps: Vec<PumpPoint>,
+    #[serde(rename = "actuator_flow_m3_per_s")]
+    pub actuator_flow: VolumeRate,
+    /// For a move: the cylinder's speed.
+    #[serde(rename = "actuator_speed_m_per_s")]
+    pub actuator_speed: Option<Velocity>,
+    #[serde(rename = "relief_flow_m3_per_s")]
+    pub relief_flow: VolumeRate,
+    #[serde(rename = "duration_s")]
+    pub duration: Time,
+    /// The pressure limit that governs the phase.
+    pub limit: LimitInUse,
+    pub motor_running: bool,
+}
+
+#[derive(Clone, Copy, Debug, PartialEq, Serialize)]
+pub struct LimitInUse {
+    pub limit: ActiveLimit,
+    /// The governing setting (the lower of main and remote; the vent pressure when vented).
+    #[serde(rename = "setting_pa")]
+    pub setting: Pressure,
+    #[serde(rename = "cracking_pa")]
+    pub cracking: Pressure,
+}
+
+#[derive(Clone, Copy, Debug, PartialEq, Serialize)]
+pub struct PumpPoint {
+    pub state: PumpState,
+    #[serde(rename = "outlet_pressure_pa")]
+    pub outlet_pressure: Pressure,
+    #[serde(rename = "flow_m3_per_s")]
+    pub flow: VolumeRate,
+    #[serde(rename = "shaft_power_w")]
+    pub shaft_power: uom::si::f64::Power,
+}
+
+#[derive(Clone, Copy, Debug, PartialEq, Eq, Serialize)]
+#[serde(rename_all = "snake_case")]
+pub enum PumpState {
+    /// Delivering into the system through its check valve.
+    Feeding,
+    /// Sent to tank by its unloading valve.
+    Unloaded,
+    /// The motor is off.
+    Stopped,
+}
+
+/// A pump on this design's shaft, in SI numbers.
+#[derive(Clone, Copy, Debug)]
+struct StagePump {
+    pump: PumpAtSpeed,
+    /// The check valve's cracking pressure (none on the base pump).
+    check: f64,
+    /// The unloading valve's setting and unloaded drop (none on the base pump).
+    unloading: Option<(f64, f64)>,
+}
+
+/// The design prepared for solving: numbers computed once, not per phase.
+pub(crate) struct PreparedUnit<'a> {
+    design: &'a Design,
+    pumps: Vec<StagePump>,
+}
+
+impl<'a> PreparedUnit<'a> {
+    pub fn new(design: &'a Design) -> Self {
+        let rps = design.motor.revolutions_per_second();
+        let mut pumps: Vec<StagePump> = design
+            .unloading_stages
+            .iter()
+            .map(|s| StagePump {
+                pump: PumpAtSpeed::new(&s.pump, rps),
+                check: s.check.cracking.value,
+                unloading: Some((s.unloading.setting.value, s.unloading.unloaded_drop.value)),
+            })
+            .collect();
+        pumps.push(StagePump {
+            pump: PumpAtSpeed::new(&design.base_pump, rps),
+            check: 0.0,
+            unloading: None,
+        });
+        PreparedUnit { design, pumps }
+    }
+
+    fn stages(&self) -> usize {
+        self.pumps.len() - 1
+    }
+
+    /// Flow into the system at system pressure `p`, with the stages in `unloaded` sent to tank.
+    fn supply(&self, p: f64, unloaded: u32) -> f64 {
+        self.pumps
+            .iter()
+            .enumerate()
+            .filter(|(i, _)| unloaded & (1 << i) == 0)
+            .map(|(_, s)| s.pump.delivered(p + s.check))
+            .sum()
+    }
+
+    /// Theoretical flow of the feeding pumps.
+    fn swept(&self, unloaded: u32) -> f64 {
+        self.pumps
+            .iter()
+            .enumerate()
+            .filter(|(i, _)| unloaded & (1 << i) == 0)
+            .map(|(_, s)| s.pump.swept)
+            .sum()
+    }
+
+    /// The system pressure at or above `low` where supply = relief flow + `demand`. If even
+    /// at `low` the supply falls short, `low` itself.
+    fn balance(&self, relief: &ReliefCharacteristic, demand: f64, low: f64, unloaded: u32) -> f64 {
+        let h = |p: f64| self.supply(p, unloaded) - relief.flow(p) - demand;
+        let mut a = low;
+        let mut ha = h(a);
+        if ha <= 0.0 {
+            return low;
+        }
+        // Every pressure where a flow changes slope, above `low`, in order.
+        let mut points = [f64::INFINITY; 3 * super::power_unit::MAX_PUMPS + 1];
+        let mut n = 0;
+        points[n] = relief.cracking;
+        n += 1;
+        for (i, s) in self.pumps.iter().enumerate() {
+            if unloaded & (1 << i) == 0 {
+                for b in s.pump.breakpoints() {
+                    points[n] = b - s.check;
+                    n += 1;
+                }
+            }
+        }
+        let points = &mut points[..n];
+        points.sort_unstable_by(f64::total_cmp);
+        for &b in points.iter().filter(|b| b.is_finite() && **b > low) {
+            let hb = h(b);
+            if hb <= 0.0 {
+                return a + ha * (b - a) / (ha - hb);
+            }
+            (a, ha) = (b, hb);
+        }
+        // Past the last breakpoint every flow is a straight line: one more point gives it.
+        let b = a + a.max(1e5);
+        let hb = h(b);
+        if hb < ha {
+            a + ha * (b - a) / (ha - hb)
+        } else {
+            a
+        }
+    }
+}
+
+/// What a phase asks of the power unit, in SI numbers.
+#[derive(Clone, Copy, Debug)]
+enum Demand {
+    Move {
+        load: f64,
+        line: f64,
+        area: f64,
+        stroke: f64,
+        metered: Option<f64>,
+    },
+    Hold {
+        required: f64,
+        mode: HoldMode,
+        duration: f64,
+    },
+    Idle {
+        duration: f64,
+    },
+    Direct {
+        flow: f64,
+        pressure: f64,
+        duration: f64,
+    },
+}
+
+fn demand(phase: &Phase) -> Demand {
+    match &phase.kind {
+        PhaseKind::Move(m) => {
+            let area = m.cylinder.working_area_m2(m.direction);
+            let load = match m.load {
+                Load::Force { force } => force.value / area,
+                Load::Pressure { pressure } => pressure.value,
+            };
+            let metered = match m.speed {
+                SpeedRule::AllPumpFlow => None,
+                SpeedRule::MeteredSpeed { speed } => Some(speed.value * area),
+                SpeedRule::MeteredFlow { flow } => Some(flow.value),
+            };
+            Demand::Move {
+                load,
+                line: m.line_loss.value,
+                area,
+                stroke: m.cylinder.stroke.value,
+                metered,
+            }
+        }
+        PhaseKind::Hold(h) => Demand::Hold {
+            required: h.pressure.value,
+            mode: h.mode,
+            duration: h.duration.value,
+        },
+        PhaseKind::Idle(i) => Demand::Idle {
+            duration: i.duration.value,
+        },
+        PhaseKind::Direct(d) => Demand::Direct {
+            flow: d.flow.value,
+            pressure: d.pressure.value,
+            duration: d.duration.value,
+        },
+    }
+}
+
+/// A phase solved in one unloading state.
+#[derive(Clone, Debug, Default)]
+struct Point {
+    pressure: f64,
+    actuator: f64,
+    /// Flow through an open valve centre, and its drop.
+    sink: (f64, f64),
+    /// The pressure the actuator takes its flow at (load), and the line loss on top of it.
+    load: f64,
+    line: f64,
+    area: Option<f64>,
+    duration: f64,
+    findings: Vec<Finding>,
+}
+
+/// The limit governing a phase, and a finding if a remote stage was chosen that cannot govern.
+fn limit_in_use(
+    design: &Design,
+    setting: &PhaseSetting,
+    idle: bool,
+) -> (LimitInUse, ReliefCharacteristic) {
+    let relief = &design.relief;
+    let main = relief.setting.value;
+    let limit = if idle && setting.idle_path == IdlePath::Vented {
+        ActiveLimit::Vented
+    } else {
+        setting.limit
+    };
+    let governing = match limit {
+        ActiveLimit::Main => main,
+        // Validation guarantees the stage exists; `main` keeps a bad index harmless anyway.
+        ActiveLimit::Remote { stage } => design
+            .remote_stages
+            .get(stage)
+            .map_or(main, |r| r.value.min(main)),
+        ActiveLimit::Vented => design.vent_pressure.value,
+    };
+    let characteristic =
+        ReliefCharacteristic::new(governing, relief.cracking_fraction, relief.rated_flow.value);
+    let in_use = LimitInUse {
+        limit,
+        setting: pascals(governing),
+        cracking: pascals(characteristic.cracking),
+    };
+    (in_use, characteristic)
+}
+
+/// Solves one phase of a design.
+pub(crate) fn solve_phase(
+    unit: &PreparedUnit,
+    phase: &Phase,
+    setting: &PhaseSetting,
+) -> PhaseReport {
+    let demand = demand(phase);
+    let idle = matches!(demand, Demand::Idle { .. });
+    let (limit, relief) = limit_in_use(unit.design, setting, idle);
+
+    if let (Demand::Idle { duration }, IdlePath::MotorStopped) = (demand, setting.idle_path) {
+        return report(
+            unit,
+            phase,
+            limit,
+            0,
+            Point {
+                duration,
+                ..Point::default()
+            },
+            true,
+        );
+    }
+
+    // Fewest pumps unloaded first: where two states agree (they cannot, with monotonic
+    // flows, but rounding could), the one with more flow is kept.
+    let stages = unit.stages();
+    let mut masks: [u32; 1 << (super::power_unit::MAX_PUMPS - 1)] = [0; 8];
+    let count = 1usize << stages;
+    for (i, m) in masks.iter_mut().enumerate().take(count) {
+        *m = i as u32;
+    }
+    let masks = &mut masks[..count];
+    masks.sort_by_key(|m| (m.count_ones(), *m));
+
+    let mut best: Option<(f64, u32, Point)> = None;
+    for &mask in masks.iter() {
+        let point = solve_state(unit, &relief, demand, setting, mask);
+        let miss = disagreement(unit, point.pressure, mask);
+        if miss == 0.0 {
+            return report(unit, phase, limit, mask, point, false);
+        }
+        if best.as_ref().is_none_or(|(m, _, _)| miss < *m) {
+            best = Some((miss, mask, point));
+        }
+    }
+    let (_, mask, mut point) = best.expect("at least one unloading state");
+    for (i, s) in unit.pumps.iter().enumerate() {
+        if let Some((setting, _)) = s.unloading {
+            let unloaded = mask & (1 << i) != 0;
+            if unloaded != (point.pressure >= setting) {
+                point.findings.push(Finding::Hunting {
+                    pump: i + 1,
+                    setting_pa: setting,
+                    pressure_pa: point.pressure,
+                    solved_unloaded: unloaded,
+                });
+            }
+        }
+    }
+    report(unit, phase, limit, mask, point, false)
+}
+
+/// How far a state is from agreeing with the unloading valves (0 when it agrees).
+fn disagreement(unit: &PreparedUnit, pressure: f64, unloaded: u32) -> f64 {
+    unit.pumps
+        .iter()
+        .enumerate()
+        .filter_map(|(i, s)| s.unloading.map(|(setting, _)| (i, setting)))
+        .filter(|&(i, setting)| (unloaded & (1 << i) != 0) != (pressure >= setting))
+        .map(|(_, setting)| (pressure - setting).abs().max(f64::MIN_POSITIVE))
+        .sum()
+}
+
+fn solve_state(
+    unit: &PreparedUnit,
+    relief: &ReliefCharacteristic,
+    demand: Demand,
+    setting: &PhaseSetting,
+    mask: u32,
+) -> Point {
+    let running = Point::default();
+    match demand {
+        Demand::Move {
+            load,
+            line,
+            area,
+            stroke,
+            metered,
+        } => {
+            let need = load + line;
+            let mut point = Point {
+                load,
+                line,
+                area: Some(area),
+                ..running
+            };
+            if let Some(wanted) = metered {
+                let available = unit.supply(need, mask) - relief.flow(need);
+                if available >= wanted {
+                    point.pressure = unit.balance(relief, wanted, need, mask);
+                    point.actuator = wanted;
+                    point.duration = stroke * area / wanted;
+                    return point;
+                }
+                point.findings.push(Finding::DemandUnmet {
+                    wanted_m3_per_s: wanted,
+                    available_m3_per_s: available.max(0.0),
+                });
+            }
+            take_all_flow(
+                unit,
+                relief,
+                point,
+                need,
+                mask,
+                |flow| stroke * area / flow,
+                Some(stroke * area),
+            )
+        }
+        Demand::Direct {
+            flow,
+            pressure,
+            duration,
+        } => {
+            let mut point = Point {
+                load: pressure,
+                duration,
+                ..running
+            };
+            let available = unit.supply(pressure, mask) - relief.flow(pressure);
+            if available >= flow {
+                point.pressure = unit.balance(relief, flow, pressure, mask);
+                point.actuator = flow;
+                return point;
+            }
+            point.findings.push(Finding::DemandUnmet {
+                wanted_m3_per_s: flow,
+                available_m3_per_s: available.max(0.0),
+            });
+            take_all_flow(unit, relief, point, pressure, mask, |_| duration, None)
+        }
+        Demand::Hold {
+            required,
+            mode,
+            duration,
+        } => {
+            let pressure = unit.balance(relief, 0.0, 0.0, mask);
+            let mut point = Point {
+                pressure,
+                duration,
+                ..running
+            };
+            if mode == HoldMode::HeldByPump && pressure < required * (1.0 - 1e-9) {
+                point.findings.push(Finding::HoldBelowRequired {
+                    required_pa: required,
+                    reached_pa: pressure,
+                });
+            }
+            point
+        }
+        Demand::Idle { duration } => match setting.idle_path {
+            IdlePath::OpenCentre { drop } => {
+                let drop = drop.value;
+                let through_centre = (unit.supply(drop, mask) - relief.flow(drop)).max(0.0);
+                Point {
+                    pressure: drop,
+                    sink: (through_centre, drop),
+                    duration,
+                    ..running
+                }
+            }
+            // Over the limit or vented (the limit already reflects a vented idle path).
+            _ => Point {
+                pressure: unit.balance(relief, 0.0, 0.0, mask),
+                duration,
+                ..running
+            },
+        },
+    }
+}
+
+/// The actuator takes whatever the pumps give at `need` that the relief does not take; if
+/// nothing is left, it stalls (see [`Finding::Stall`]).
+fn take_all_flow(
+    unit: &PreparedUnit,
+    relief: &ReliefCharacteristic,
+    mut point: Point,
+    need: f64,
+    mask: u32,
+    duration_at: impl Fn(f64) -> f64,
+    stall_volume: Option<f64>,
+) -> Point {
+    let supply = unit.supply(need, mask);
+    let leak = relief.flow(need);
+    let flow = supply - leak;
+    if flow > NO_FLOW {
+        point.pressure = need;
+        point.actuator = flow;
+        point.duration = duration_at(flow);
+        if leak > 0.0 {
+            point.findings.push(Finding::ReliefLeaks {
+                working_pa: need,
+                cracking_pa: relief.cracking,
+                leak_m3_per_s: leak,
+            });
+        }
+        return point;
+    }
+    point.pressure = unit.balance(relief, 0.0, 0.0, mask);
+    point.actuator = 0.0;
+    if let Some(volume) = stall_volume {
+        point.duration = volume / unit.swept(mask);
+        point.findings.push(Finding::Stall {
+            needed_pa: need,
+            limit_pa: point.pressure,
+            duration_s: point.duration,
+        });
+    } else {
+        point.duration = duration_at(0.0);
+    }
+    point
+}
+
+/// The phase's report: every pump's state and the ledger, from the solved point.
+fn report(
+    unit: &PreparedUnit,
+    phase: &Phase,
+    limit: LimitInUse,
+    mask: u32,
+    point: Point,
+    stopped: bool,
+) -> PhaseReport {
+    let p = point.pressure;
+    let mut pumps = Vec::with_capacity(unit.pumps.len());
+    let (mut supply, mut shaft, mut internal, mut unloading, mut checks) =
+        (0.0, 0.0, 0.0, 0.0, 0.0);
+    for (i, s) in unit.pumps.iter().enumerate() {
+        let (state, outlet) = match s.unloading {
+            _ if stopped => (PumpState::Stopped, 0.0),
+            Some((_, drop)) if mask & (1 << i) != 0 => (PumpState::Unloaded, drop),
+            _ => (PumpState::Feeding, p + s.check),
+        };
+        let (flow, power) = if stopped {
+            (0.0, 0.0)
+        } else {
+            let flow = s.pump.delivered(outlet);
+            (flow, s.pump.shaft_power(outlet, flow))
+        };
+        shaft += power;
+        internal += power - outlet * flow;
+        match state {
+            PumpState::Feeding => {
+                supply += flow;
+                checks += s.check * flow;
+            }
+            PumpState::Unloaded => unloading += outlet * flow,
+            PumpState::Stopped => {}
+        }
+        pumps.push(PumpPoint {
+            state,
+            outlet_pressure: pascals(outlet),
+            flow: per_second(flow),
+            shaft_power: watts(power),
+        });
+    }
+    let (sink_flow, sink_drop) = point.sink;
+    // Whatever the actuator and an open centre do not take goes over the relief: defined by
+    // the flow balance, so the ledger closes whatever the rounding in the solve.
+    let relief_flow = (supply - point.actuator - sink_flow).max(0.0);
+    let need = point.load + point.line;
+    let motor_loss = if stopped {
+        0.0
+    } else {
+        unit.design.motor.loss(shaft)
+    };
+    let ledger = PowerLedger {
+        electrical_input: watts(shaft + motor_loss),
+        motor_loss: watts(motor_loss),
+        pump_internal_loss: watts(internal),
+        unloading_loss: watts(unloading),
+        relief_loss: watts(p * relief_flow),
+        metering_loss: watts((p - need) * point.actuator),
+        line_valve_loss: watts(point.line * point.actuator + checks + sink_drop * sink_flow),
+        useful_power: watts(point.load * point.actuator),
+    };
+    PhaseReport {
+        name: phase.name.clone(),
+        point: OperatingPoint {
+            system_pressure: pascals(p),
+            pumps,
+            actuator_flow: per_second(point.actuator),
+            actuator_speed: point
+                .area
+                .map(|a| Velocity::new::<uom::si::velocity::meter_per_second>(point.actuator / a)),
+            relief_flow: per_second(relief_flow),
+            duration: Time::new::<uom::si::time::second>(point.duration),
+            limit,
+            motor_running: !stopped,
+        },
+        ledger,
+        findings: point.findings,
+    }
+}
+
+/// Findings about the design's settings, whatever the phase.
+pub(crate) fn design_findings(design: &Design) -> Vec<Finding> {
+    let mut findings = Vec::new();
+    let main = design.relief.setting.value;
+    for (stage, remote) in design.remote_stages.iter().enumerate() {
+        if remote.value >= main {
+            findings.push(Finding::RemoteAboveMain {
+                stage,
+                remote_pa: remote.value,
+                main_pa: main,
+            });
+        }
+    }
+    let count = design.pump_count();
+    for (i, s) in design.unloading_stages.iter().enumerate() {
+        let setting = s.unloading.setting.value;
+        if setting >= main {
+            findings.push(Finding::NeverUnloads {
+                pump: i + 1,
+                setting_pa: setting,
+                relief_pa: main,
+            });
+        }
+        let seen = setting.min(main) + s.check.cracking.value;
+        if seen > s.pump.rated_pressure.value {
+            findings.push(Finding::AboveRating {
+                pump: i + 1,
+                what: "unloading setting",
+                setting_pa: seen,
+                rating_pa: s.pump.rated_pressure.value,
+            });
+        }
+    }
+    if main > design.base_pump.rated_pressure.value {
+        findings.push(Finding::AboveRating {
+            pump: count,
+            what: "main relief setting",
+            setting_pa: main,
+            rating_pa: design.base_pump.rated_pressure.value,
+        });
+    }
+    for (i, pump) in design.pumps().enumerate() {
+        if let PumpControl::Compensated { setting } = pump.control {
+            if setting.value > pump.rated_pressure.value {
+                findings.push(Finding::AboveRating {
+                    pump: i + 1,
+                    what: "compensator setting",
+                    setting_pa: setting.value,
+                    rating_pa: pump.rated_pressure.value,
+                });
+            }
+        }
+    }
+    findings
+}
+
+fn pascals(pa: f64) -> Pressure {
+    Pressure::new::<uom::si::pressure::pascal>(pa)
+}
+
+fn per_second(m3_per_s: f64) -> VolumeRate {
+    VolumeRate::new::<uom::si::volume_rate::cubic_meter_per_second>(m3_per_s)
+}

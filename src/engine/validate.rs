@@ -1,0 +1,471 @@
+//! Checks a job before it is solved. Every problem becomes an [`InputError`] naming the
+//! field (by its path in the job file) and saying, in plain words, what is wrong and what
+//! would be right. After a job passes, the solver cannot meet a zero, a negative, a NaN or
+//! an infinity where the physics has none.
+
+use super::cycle::{Load, PhaseKind, SpeedRule};
+use super::job::{Job, SCHEMA_VERSION};
+use super::power_unit::{Design, MAX_PUMPS};
+use super::pump::{Pump, PumpControl};
+use super::units::{UnitSystem, BAR, LITRE_PER_MINUTE};
+use super::valve::{ActiveLimit, IdlePath};
+use serde::Serialize;
+
+/// One thing wrong with the input.
+#[derive(Clone, Debug, PartialEq, Eq, Serialize)]
+pub struct InputError {
+    /// The field's path in the job file, e.g. `cycle[2].cylinder.rod_m`.
+    pub field: String,
+    /// What is wrong, for the person who typed it.
+    pub message: String,
+}
+
+impl std::fmt::Display for InputError {
+    fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
+        write!(f, "{}: {}", self.field, self.message)
+    }
+}
+
+// Beyond these a value is a typing slip, not a machine (and would overflow the arithmetic).
+const MAX_PRESSURE: f64 = 2000.0 * BAR;
+const MAX_LENGTH: f64 = 50.0; // m
+const MAX_FLOW: f64 = 100_000.0 * LITRE_PER_MINUTE;
+const MAX_DURATION: f64 = 30.0 * 86_400.0; // s
+const MAX_POWER: f64 = 20e6; // W
+const MAX_SPEED_RAD_S: f64 = 10_000.0 * std::f64::consts::TAU / 60.0;
+const MAX_DISPLACEMENT: f64 = 0.02; // m^3/rev
+const MAX_FORCE: f64 = 1e9; // N
+const MAX_VELOCITY: f64 = 100.0; // m/s
+const HOURS_PER_YEAR: f64 = 8784.0; // a leap year
+
+struct Checker {
+    units: UnitSystem,
+    errors: Vec<InputError>,
+}
+
+impl Checker {
+    fn fail(&mut self, field: &str, message: impl Into<String>) {
+        self.errors.push(InputError {
+            field: field.to_string(),
+            message: message.into(),
+        });
+    }
+
+    /// A finite number in (0, max] (or [0, max] when `zero_ok`).
+    fn amount(
+        &mut self,
+        field: &str,
+        value: f64,
+        zero_ok: bool,
+        max: f64,
+        show: fn(UnitSystem, f64) -> String,
+    ) -> bool {
+        let units = self.units;
+        if !value.is_finite() {
+            self.fail(field, "is not a number: type a value");
+        } else if value < 0.0 {
+            self.fail(field, "cannot be negative");
+        } else if value == 0.0 && !zero_ok {
+            self.fail(field, "must be more than zero");
+        } else if value > max {
+            self.fail(
+                field,
+                format!(
+                    "{} is more than any machine has: at most {}",
+                    show(units, value),
+                    show(units, max)
+                ),
+            );
+        } else {
+            return true;
+        }
+        false
+    }
+
+    fn pressure(&mut self, field: &str, value: f64, zero_ok: bool) -> bool {
+        self.amount(field, value, zero_ok, MAX_PRESSURE, UnitSystem::pressure)
+    }
+
+    fn flow(&mut self, field: &str, value: f64, zero_ok: bool) -> bool {
+        self.amount(field, value, zero_ok, MAX_FLOW, UnitSystem::flow)
+    }
+
+    fn power(&mut self, field: &str, value: f64, zero_ok: bool) -> bool {
+        self.amount(field, value, zero_ok, MAX_POWER, UnitSystem::power)
+    }
+
+    fn plain(
+        &mut self,
+        field: &str,
+        value: f64,
+        zero_ok: bool,
+        max: f64,
+        unit: &'static str,
+    ) -> bool {
+        if !value.is_finite() {
+            self.fail(field, "is not a number: type a value");
+        } else if value < 0.0 {
+            self.fail(field, "cannot be negative");
+        } else if value == 0.0 && !zero_ok {
+            self.fail(field, "must be more than zero");
+        } else if value > max {
+            self.fail(
+                field,
+                format!("{value} {unit} is more than any machine has: at most {max} {unit}"),
+            );
+        } else {
+            return true;
+        }
+        false
+    }
+
+    /// An efficiency or share in (0, 1] (or [0, 1] when `zero_ok`).
+    fn fraction(&mut self, field: &str, value: f64, zero_ok: bool) {
+        if !value.is_finite() {
+            self.fail(field, "is not a number: type a value");
+        } else if value > 1.0 {
+            self.fail(field, format!("{:.1} % is more than 100 %", value * 100.0));
+        } else if value < 0.0 || (value == 0.0 && !zero_ok) {
+            self.fail(field, "must be more than 0 %");
+        }
+    }
+}
+
+/// Every problem with a job, or none.
+pub fn validate(job: &Job) -> Result<(), Vec<InputError>> {
+    let mut c = Checker {
+        units: job.units,
+        errors: Vec::new(),
+    };
+    if job.schema_version == 0 || job.schema_version > SCHEMA_VERSION {
+        c.fail(
+            "schema_version",
+            format!(
+                "format {} is not one this version reads (1 to {SCHEMA_VERSION})",
+                job.schema_version
+            ),
+        );
+    }
+    if job.name.trim().is_empty() {
+        c.fail("name", "give the job a name");
+    }
+    if job.cycle.is_empty() {
+        c.fail("cycle", "add at least one phase to the cycle");
+    }
+    for (i, phase) in job.cycle.iter().enumerate() {
+        check_phase(&mut c, &format!("cycle[{i}]"), &phase.kind);
+    }
+    if job.designs.is_empty() {
+        c.fail("designs", "add at least one power unit");
+    }
+    for (i, design) in job.designs.iter().enumerate() {
+        check_design(&mut c, &format!("designs[{i}]"), design, job);
+    }
+    c.plain(
+        "site.operating_hours_per_year",
+        job.site.operating_hours_per_year,
+        true,
+        HOURS_PER_YEAR,
+        "h",
+    );
+    c.plain(
+        "site.tariff_per_kwh",
+        job.site.tariff_per_kwh,
+        true,
+        1e3,
+        "per kWh",
+    );
+    c.plain(
+        "site.retrofit_price",
+        job.site.retrofit_price,
+        true,
+        1e12,
+        "",
+    );
+    c.plain("oil.volume_m3", job.oil.volume.value, false, 1000.0, "m3");
+    c.plain(
+        "oil.density_kg_per_m3",
+        job.oil.density.value,
+        false,
+        2000.0,
+        "kg/m3",
+    );
+    c.plain(
+        "oil.specific_heat_j_per_kg_k",
+        job.oil.specific_heat.value,
+        false,
+        10_000.0,
+        "J/(kg.K)",
+    );
+    if c.errors.is_empty() {
+        Ok(())
+    } else {
+        Err(c.errors)
+    }
+}
+
+fn check_phase(c: &mut Checker, at: &str, kind: &PhaseKind) {
+    match kind {
+        PhaseKind::Move(m) => {
+            let cyl = &m.cylinder;
+            let bore = c.plain(
+                &format!("{at}.cylinder.bore_m"),
+                cyl.bore.value,
+                false,
+                MAX_LENGTH,
+                "m",
+            );
+            let rod = c.plain(
+                &format!("{at}.cylinder.rod_m"),
+                cyl.rod.value,
+                true,
+                MAX_LENGTH,
+                "m",
+            );
+            if bore && rod && cyl.rod.value >= cyl.bore.value {
+                c.fail(
+                    &format!("{at}.cylinder.rod_m"),
+                    "the rod must be thinner than the bore",
+                );
+            }
+            c.plain(
+                &format!("{at}.cylinder.stroke_m"),
+                cyl.stroke.value,
+                false,
+                MAX_LENGTH,
+                "m",
+            );
+            match m.load {
+                Load::Force { force } => {
+                    c.plain(
+                        &format!("{at}.load.force_n"),
+                        force.value,
+                        true,
+                        MAX_FORCE,
+                        "N",
+                    );
+                }
+                Load::Pressure { pressure } => {
+                    c.pressure(&format!("{at}.load.pressure_pa"), pressure.value, true);
+                }
+            }
+            c.pressure(&format!("{at}.line_loss_pa"), m.line_loss.value, true);
+            match m.speed {
+                SpeedRule::AllPumpFlow => {}
+                SpeedRule::MeteredSpeed { speed } => {
+                    c.plain(
+                        &format!("{at}.speed.speed_m_per_s"),
+                        speed.value,
+                        false,
+                        MAX_VELOCITY,
+                        "m/s",
+                    );
+                }
+                SpeedRule::MeteredFlow { flow } => {
+                    c.flow(&format!("{at}.speed.flow_m3_per_s"), flow.value, false);
+                }
+            }
+        }
+        PhaseKind::Hold(h) => {
+            c.pressure(&format!("{at}.pressure_pa"), h.pressure.value, false);
+            c.plain(
+                &format!("{at}.duration_s"),
+                h.duration.value,
+                false,
+                MAX_DURATION,
+                "s",
+            );
+        }
+        PhaseKind::Idle(i) => {
+            c.plain(
+                &format!("{at}.duration_s"),
+                i.duration.value,
+                false,
+                MAX_DURATION,
+                "s",
+            );
+        }
+        PhaseKind::Direct(d) => {
+            c.flow(&format!("{at}.flow_m3_per_s"), d.flow.value, true);
+            c.pressure(&format!("{at}.pressure_pa"), d.pressure.value, true);
+            c.plain(
+                &format!("{at}.duration_s"),
+                d.duration.value,
+                false,
+                MAX_DURATION,
+                "s",
+            );
+        }
+    }
+}
+
+fn check_design(c: &mut Checker, at: &str, d: &Design, job: &Job) {
+    if d.name.trim().is_empty() {
+        c.fail(&format!("{at}.name"), "give the power unit a name");
+    }
+    let m = &d.motor;
+    c.power(
+        &format!("{at}.motor.rated_power_w"),
+        m.rated_power.value,
+        false,
+    );
+    c.amount(
+        &format!("{at}.motor.full_load_speed_rad_per_s"),
+        m.full_load_speed.value,
+        false,
+        MAX_SPEED_RAD_S,
+        |_, v| format!("{:.0} rpm", v * 60.0 / std::f64::consts::TAU),
+    );
+    c.fraction(
+        &format!("{at}.motor.full_load_efficiency"),
+        m.full_load_efficiency,
+        false,
+    );
+    c.fraction(
+        &format!("{at}.motor.fixed_loss_share"),
+        m.fixed_loss_share,
+        true,
+    );
+    if !(m.service_factor.is_finite() && (1.0..=2.0).contains(&m.service_factor)) {
+        c.fail(
+            &format!("{at}.motor.service_factor"),
+            "must be between 1.0 and 2.0 (1.0 if the nameplate shows none)",
+        );
+    }
+    if d.pump_count() > MAX_PUMPS {
+        c.fail(
+            &format!("{at}.unloading_stages"),
+            format!("at most {MAX_PUMPS} pumps on one motor"),
+        );
+    }
+    for (i, stage) in d.unloading_stages.iter().enumerate() {
+        let s = format!("{at}.unloading_stages[{i}]");
+        check_pump(c, &format!("{s}.pump"), &stage.pump);
+        let setting = stage.unloading.setting.value;
+        let drop = stage.unloading.unloaded_drop.value;
+        let ok_setting = c.pressure(&format!("{s}.unloading.setting_pa"), setting, false);
+        let ok_drop = c.pressure(&format!("{s}.unloading.unloaded_drop_pa"), drop, true);
+        if ok_setting && ok_drop && drop >= setting {
+            c.fail(
+                &format!("{s}.unloading.unloaded_drop_pa"),
+                "must be below the unloading setting",
+            );
+        }
+        c.pressure(
+            &format!("{s}.check.cracking_pa"),
+            stage.check.cracking.value,
+            true,
+        );
+    }
+    check_pump(c, &format!("{at}.base_pump"), &d.base_pump);
+    let r = &d.relief;
+    c.pressure(&format!("{at}.relief.setting_pa"), r.setting.value, false);
+    c.flow(
+        &format!("{at}.relief.rated_flow_m3_per_s"),
+        r.rated_flow.value,
+        false,
+    );
+    let cf = r.cracking_fraction;
+    if !(cf.is_finite() && cf > 0.0 && cf < 1.0) {
+        c.fail(
+            &format!("{at}.relief.cracking_fraction"),
+            "must be above 0 % and below 100 % of the setting",
+        );
+    }
+    for (i, remote) in d.remote_stages.iter().enumerate() {
+        c.pressure(&format!("{at}.remote_stages_pa[{i}]"), remote.value, false);
+    }
+    if !d.remote_stages.is_empty() && !r.kind.has_vent_port() {
+        c.fail(
+            &format!("{at}.remote_stages_pa"),
+            "a direct-acting relief has no vent port for remote pilot stages",
+        );
+    }
+    c.pressure(
+        &format!("{at}.vent_pressure_pa"),
+        d.vent_pressure.value,
+        false,
+    );
+    if d.phase_settings.len() != job.cycle.len() {
+        c.fail(
+            &format!("{at}.phase_settings"),
+            format!(
+                "has settings for {} phases but the cycle has {}",
+                d.phase_settings.len(),
+                job.cycle.len()
+            ),
+        );
+    }
+    for (i, setting) in d.phase_settings.iter().enumerate() {
+        let s = format!("{at}.phase_settings[{i}]");
+        match setting.limit {
+            ActiveLimit::Main => {}
+            ActiveLimit::Remote { stage } => {
+                if stage >= d.remote_stages.len() {
+                    c.fail(
+                        &format!("{s}.limit"),
+                        format!(
+                            "remote stage {} does not exist (the unit has {})",
+                            stage + 1,
+                            d.remote_stages.len()
+                        ),
+                    );
+                }
+            }
+            ActiveLimit::Vented => {
+                if !r.kind.has_vent_port() {
+                    c.fail(
+                        &format!("{s}.limit"),
+                        "a direct-acting relief has no vent port to vent",
+                    );
+                }
+            }
+        }
+        match setting.idle_path {
+            IdlePath::Vented if !r.kind.has_vent_port() => {
+                c.fail(
+                    &format!("{s}.idle_path"),
+                    "a direct-acting relief has no vent port to vent",
+                );
+            }
+            IdlePath::OpenCentre { drop } => {
+                c.pressure(&format!("{s}.idle_path.drop_pa"), drop.value, true);
+            }
+            _ => {}
+        }
+    }
+}
+
+fn check_pump(c: &mut Checker, at: &str, p: &Pump) {
+    c.plain(
+        &format!("{at}.displacement_m3_per_rev"),
+        p.displacement.value,
+        false,
+        MAX_DISPLACEMENT,
+        "m3/rev",
+    );
+    c.fraction(
+        &format!("{at}.volumetric_efficiency"),
+        p.volumetric_efficiency,
+        false,
+    );
+    c.pressure(
+        &format!("{at}.efficiency_pressure_pa"),
+        p.efficiency_pressure.value,
+        false,
+    );
+    c.fraction(
+        &format!("{at}.hydromechanical_efficiency"),
+        p.hydromechanical_efficiency,
+        false,
+    );
+    c.power(&format!("{at}.drag_power_w"), p.drag_power.value, true);
+    c.pressure(
+        &format!("{at}.rated_pressure_pa"),
+        p.rated_pressure.value,
+        false,
+    );
+    if let PumpControl::Compensated { setting } = p.control {
+        c.pressure(&format!("{at}.control.setting_pa"), setting.value, false);
+    }
+}

@@ -1,0 +1,116 @@
+//! Valves: the relief valve and its pilot stages, unloading valves and check valves, and
+//! which pressure limit governs each phase.
+
+use serde::{Deserialize, Serialize};
+use uom::si::f64::{Pressure, VolumeRate};
+
+/// The main relief valve.
+#[derive(Clone, Copy, Debug, PartialEq, Serialize, Deserialize)]
+pub struct ReliefValve {
+    pub kind: ReliefKind,
+    /// The pressure at which the valve passes its rated flow.
+    #[serde(rename = "setting_pa")]
+    pub setting: Pressure,
+    #[serde(rename = "rated_flow_m3_per_s")]
+    pub rated_flow: VolumeRate,
+    /// The pressure at which it starts to pass flow, as a share of the setting.
+    pub cracking_fraction: f64,
+}
+
+#[derive(Clone, Copy, Debug, PartialEq, Eq, Serialize, Deserialize)]
+#[serde(rename_all = "snake_case")]
+pub enum ReliefKind {
+    /// A spring on the poppet: opens early, with a large override. Has no vent port.
+    DirectActing,
+    /// A stiff pilot stage holds a lightly sprung main spool: opens close to the setting.
+    /// Its vent port takes remote pilot stages or a vent valve.
+    PilotOperated,
+}
+
+impl ReliefKind {
+    /// The usual cracking pressure as a share of the setting (common practice: a
+    /// direct-acting valve about 80 %, a pilot-operated one 97 to 99 %).
+    pub fn typical_cracking_fraction(self) -> f64 {
+        match self {
+            ReliefKind::DirectActing => 0.80,
+            ReliefKind::PilotOperated => 0.97,
+        }
+    }
+
+    pub fn has_vent_port(self) -> bool {
+        self == ReliefKind::PilotOperated
+    }
+}
+
+/// The valve that sends a pump's flow to tank once system pressure reaches its setting.
+#[derive(Clone, Copy, Debug, PartialEq, Serialize, Deserialize)]
+pub struct UnloadingValve {
+    #[serde(rename = "setting_pa")]
+    pub setting: Pressure,
+    /// The pressure the pump still sees when unloaded (the valve's drop at that flow).
+    #[serde(rename = "unloaded_drop_pa")]
+    pub unloaded_drop: Pressure,
+}
+
+/// The check valve that keeps system pressure out of an unloaded pump.
+#[derive(Clone, Copy, Debug, PartialEq, Serialize, Deserialize)]
+pub struct CheckValve {
+    #[serde(rename = "cracking_pa")]
+    pub cracking: Pressure,
+}
+
+/// Which pressure limit governs a phase.
+#[derive(Clone, Copy, Debug, PartialEq, Eq, Serialize, Deserialize)]
+#[serde(tag = "limit", rename_all = "snake_case")]
+pub enum ActiveLimit {
+    /// The main pilot (or spring) setting.
+    Main,
+    /// A remote pilot stage on the vent port, by its place in the design's list (from 0).
+    Remote { stage: usize },
+    /// The vent port opened: the main spool opens at its bias spring.
+    Vented,
+}
+
+/// Where the pump flow goes in an idle phase.
+#[derive(Clone, Copy, Debug, PartialEq, Serialize, Deserialize)]
+#[serde(tag = "path", rename_all = "snake_case")]
+pub enum IdlePath {
+    /// Over whatever limit is active: the relief at its setting unless one is chosen lower.
+    OverLimit,
+    /// The relief vented for the idle.
+    Vented,
+    /// Back to tank through an open-centre directional valve, at its pressure drop.
+    OpenCentre {
+        #[serde(rename = "drop_pa")]
+        drop: Pressure,
+    },
+    /// The motor is switched off for the idle.
+    MotorStopped,
+}
+
+/// How much flow a relief passes at a pressure: nothing below cracking, then rising in a
+/// straight line to the rated flow at the governing setting, and on above it (override).
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub(crate) struct ReliefCharacteristic {
+    pub cracking: f64,
+    pub full: f64,
+    pub rated_flow: f64,
+}
+
+impl ReliefCharacteristic {
+    pub fn new(governing: f64, cracking_fraction: f64, rated_flow: f64) -> Self {
+        ReliefCharacteristic {
+            cracking: governing * cracking_fraction,
+            full: governing,
+            rated_flow,
+        }
+    }
+
+    pub fn flow(&self, pressure: f64) -> f64 {
+        if pressure <= self.cracking {
+            0.0
+        } else {
+            self.rated_flow * (pressure - self.cracking) / (self.full - self.cracking)
+        }
+    }
+}
