@@ -1,0 +1,660 @@
+//! Invented machines, worked by hand. Every expected number is derived in the comments from
+//! the inputs with the physics of the field brief (DOMAIN.md), independently of the engine's
+//! code; 1e-9 relative allows for rounding only.
+
+mod common;
+use common::*;
+use phasewise::engine::cycle::{
+    Cylinder, Direction, HoldMode, Load, MovePhase, Phase, PhaseKind, SpeedRule,
+};
+use phasewise::engine::valve::{ActiveLimit, IdlePath, ReliefKind};
+use phasewise::engine::{solve, Finding, PumpState};
+
+const REL: f64 = 1e-9;
+
+/// A two-pump trim press (invented). Motor 11 kW at 1500 rpm (25 rev/s), 90 % at full load,
+/// 35 % of its loss fixed. Full-load loss = 11000 x (1/0.9 - 1) = 1222.22 W.
+///
+/// Pump 1 (unloading stage): 40 cm^3/rev, so 60 L/min theoretical; 95 % volumetric at 200 bar,
+/// so leakage 60 x 0.05 / 200 = 0.015 L/min per bar; 90 % hydromechanical; 0.2 kW drag;
+/// unloads at 50 bar with a 3 bar drop; check valve 0.5 bar.
+/// Pump 2 (base): 8 cm^3/rev, 12 L/min, leakage 0.003 L/min per bar, 90 %, 0.1 kW drag.
+/// Relief: pilot-operated, 160 bar at 60 L/min, cracking at 0.97 x 160 = 155.2 bar, so above
+/// cracking it passes 60 / 4.8 = 12.5 L/min per bar.
+/// Cylinder: bore 100 mm (area 7.853982e-3 m^2), rod 56 mm (annulus 5.390973e-3 m^2).
+fn trim_press(vented_idle: bool) -> (Vec<Phase>, phasewise::engine::power_unit::Design) {
+    let cycle = vec![
+        move_phase(
+            "approach",
+            100.0,
+            56.0,
+            300.0,
+            Direction::Extend,
+            5.0,
+            4.0,
+            SpeedRule::AllPumpFlow,
+        ),
+        move_phase(
+            "press",
+            100.0,
+            56.0,
+            50.0,
+            Direction::Extend,
+            100.0,
+            4.0,
+            SpeedRule::AllPumpFlow,
+        ),
+        hold("dwell", 120.0, 5.0, HoldMode::HeldByPump),
+        move_phase(
+            "return",
+            100.0,
+            56.0,
+            350.0,
+            Direction::Retract,
+            2.0,
+            6.0,
+            SpeedRule::AllPumpFlow,
+        ),
+        idle("unload part", 10.0),
+    ];
+    let mut d = design(
+        if vented_idle { "proposed" } else { "as found" },
+        motor(11.0, 1500.0, 0.9),
+        vec![stage(
+            fixed_pump(40.0, 0.95, 200.0, 0.9, 0.2),
+            50.0,
+            3.0,
+            0.5,
+        )],
+        fixed_pump(8.0, 0.95, 200.0, 0.9, 0.1),
+        relief(ReliefKind::PilotOperated, 160.0, 60.0, 0.97),
+        cycle.len(),
+    );
+    if vented_idle {
+        d.phase_settings[4].idle_path = IdlePath::Vented;
+    }
+    (cycle, d)
+}
+
+#[test]
+fn two_pump_press_approach_takes_both_pumps_at_low_pressure() {
+    let (cycle, d) = trim_press(false);
+    let report = solve(&job(cycle, vec![d])).unwrap();
+    let phase = &report.designs[0].phases[0];
+    // Load pressure 5000 N / 7.853982e-3 m^2 = 6.366198 bar; plus 4 bar line loss = 10.366198 bar,
+    // below the 50 bar unloading setting: both pumps feed.
+    assert_close(
+        in_bar(phase.point.system_pressure),
+        10.366_197_723_675_812,
+        REL,
+        "pressure, bar",
+    );
+    assert_eq!(phase.point.pumps[0].state, PumpState::Feeding);
+    // Pump 1 at 10.866198 bar (after its check): 60 - 0.015 x 10.866198 = 59.837007 L/min.
+    // Pump 2 at 10.366198 bar: 12 - 0.003 x 10.366198 = 11.968901 L/min. Together 71.805908 L/min.
+    assert_close(
+        in_lpm(phase.point.pumps[0].flow),
+        59.837_007_034_144_86,
+        REL,
+        "pump 1, L/min",
+    );
+    assert_close(
+        in_lpm(phase.point.pumps[1].flow),
+        11.968_901_406_828_973,
+        REL,
+        "pump 2, L/min",
+    );
+    assert_close(
+        in_lpm(phase.point.actuator_flow),
+        71.805_908_440_973_84,
+        REL,
+        "cylinder, L/min",
+    );
+    // Speed = 71.805908 L/min / 7.853982e-3 m^2 = 0.152377 m/s; 300 mm take 1.968803 s.
+    assert_close(
+        phase.point.actuator_speed.unwrap().value,
+        0.152_376_870_287_800_53,
+        REL,
+        "speed, m/s",
+    );
+    assert_close(
+        phase.point.duration.value,
+        1.968_802_741_737_493,
+        REL,
+        "duration, s",
+    );
+    // Shaft: pump 1 60 L/min x 10.866198 bar / 0.9 + 200 W = 1407.355 W; pump 2 12 x 10.366198
+    // / 0.9 / 600 kW + 100 W = 330.360 W; total 1737.715 W. Motor loss 1222.22 x (0.35 + 0.65 x
+    // (1737.715/11000)^2) = 447.604 W. Input 2185.319 W.
+    assert_close(
+        phase.ledger.electrical_input.value,
+        2185.319_042_885_814_7,
+        REL,
+        "input, W",
+    );
+    assert_close(
+        phase.ledger.motor_loss.value,
+        447.603_790_840_150_5,
+        REL,
+        "motor loss, W",
+    );
+    // Useful 6.366198 bar x 71.805908 L/min = 761.884 W; line and check: 4 bar x 71.805908 +
+    // 0.5 bar x 59.837007 = 528.570 W; pump internal = shaft - hydraulic out = 447.261 W.
+    assert_close(
+        phase.ledger.useful_power.value,
+        761.884_351_439_002_4,
+        REL,
+        "useful, W",
+    );
+    assert_close(
+        phase.ledger.line_valve_loss.value,
+        528.570_228_801_613,
+        REL,
+        "line and valves, W",
+    );
+    assert_close(
+        phase.ledger.pump_internal_loss.value,
+        447.260_671_805_048_6,
+        REL,
+        "pump internal, W",
+    );
+    assert_eq!(phase.ledger.relief_loss.value, 0.0);
+    assert!(phase.findings.is_empty(), "{:?}", phase.findings);
+}
+
+#[test]
+fn two_pump_press_work_unloads_the_big_pump() {
+    let (cycle, d) = trim_press(false);
+    let report = solve(&job(cycle, vec![d])).unwrap();
+    let phase = &report.designs[0].phases[1];
+    // 100 kN / 7.853982e-3 m^2 = 127.323954 bar, + 4 = 131.323954 bar: above 50 bar, so pump 1
+    // unloads (feeding it would not change the pressure the load sets).
+    assert_close(
+        in_bar(phase.point.system_pressure),
+        131.323_954_473_516_27,
+        REL,
+        "pressure, bar",
+    );
+    assert_eq!(phase.point.pumps[0].state, PumpState::Unloaded);
+    // Pump 1 at its 3 bar drop: 60 - 0.015 x 3 = 59.955 L/min to tank: 3 bar x 59.955 L/min = 299.775 W.
+    assert_close(
+        in_lpm(phase.point.pumps[0].flow),
+        59.955,
+        REL,
+        "pump 1 unloaded, L/min",
+    );
+    assert_close(
+        phase.ledger.unloading_loss.value,
+        299.775,
+        REL,
+        "unloading loss, W",
+    );
+    // Pump 2 alone: 12 - 0.003 x 131.323954 = 11.606028 L/min; 50 mm at 0.024629 m/s = 2.030147 s.
+    assert_close(
+        in_lpm(phase.point.actuator_flow),
+        11.606_028_136_579_452,
+        REL,
+        "cylinder, L/min",
+    );
+    assert_close(
+        phase.point.duration.value,
+        2.030_147_146_349_041,
+        REL,
+        "duration, s",
+    );
+    // Shaft 60 x 3 / 0.9 / 600 kW + 200 = 533.333 W, plus 12 x 131.323954 / 0.9 / 600 kW + 100 =
+    // 3018.310 W: 3551.643 W; motor loss 510.598 W; input 4062.242 W. Useful 127.323954 bar x
+    // 11.606028 L/min = 2462.876 W.
+    assert_close(
+        phase.ledger.electrical_input.value,
+        4062.241_525_650_700_6,
+        REL,
+        "input, W",
+    );
+    assert_close(
+        phase.ledger.useful_power.value,
+        2462.875_663_466_985_3,
+        REL,
+        "useful, W",
+    );
+    assert_close(
+        phase.ledger.line_valve_loss.value,
+        77.373_520_910_529_69,
+        REL,
+        "line loss, W",
+    );
+}
+
+#[test]
+fn two_pump_press_dwell_and_idle_dump_the_small_pump_over_the_relief() {
+    let (cycle, d) = trim_press(false);
+    let report = solve(&job(cycle, vec![d])).unwrap();
+    for index in [2, 4] {
+        let phase = &report.designs[0].phases[index];
+        // Pump 2 alone over the relief (pump 1 unloaded, the pressure being far above 50 bar):
+        // 12 - 0.003 p = 12.5 (p - 155.2), so p = (12 + 12.5 x 155.2) / 12.503 = 156.122531 bar,
+        // and 11.531632 L/min over it: 156.122531 bar x 11.531632 L/min = 3000.579 W of heat.
+        assert_close(
+            in_bar(phase.point.system_pressure),
+            156.122_530_592_657_74,
+            REL,
+            "pressure, bar",
+        );
+        assert_eq!(phase.point.pumps[0].state, PumpState::Unloaded);
+        assert_close(
+            in_lpm(phase.point.relief_flow),
+            11.531_632_408_222_027,
+            REL,
+            "relief flow, L/min",
+        );
+        assert_close(
+            phase.ledger.relief_loss.value,
+            3000.579_389_059_878,
+            REL,
+            "relief loss, W",
+        );
+        // Shaft 533.333 + 12 x 156.122531 / 0.9 / 600 kW + 100 = 4102.723 W; input 4641.016 W.
+        assert_close(
+            phase.ledger.electrical_input.value,
+            4641.016_012_030_798,
+            REL,
+            "input, W",
+        );
+    }
+    // The dwell needs 120 bar and gets 156 bar: no finding.
+    assert!(report.designs[0].phases[2].findings.is_empty());
+}
+
+#[test]
+fn two_pump_press_return_uses_the_annulus() {
+    let (cycle, d) = trim_press(false);
+    let report = solve(&job(cycle, vec![d])).unwrap();
+    let phase = &report.designs[0].phases[3];
+    // 2000 N / 5.390973e-3 m^2 = 3.709905 bar, + 6 = 9.709905 bar; both pumps feed:
+    // (60 - 0.015 x 10.209905) + (12 - 0.003 x 9.709905) = 71.817722 L/min; 0.222031 m/s; 1.576358 s.
+    assert_close(
+        in_lpm(phase.point.actuator_flow),
+        71.817_721_702_199_21,
+        REL,
+        "cylinder, L/min",
+    );
+    assert_close(
+        phase.point.actuator_speed.unwrap().value,
+        0.222_030_796_629_819_17,
+        REL,
+        "speed, m/s",
+    );
+    assert_close(
+        phase.point.duration.value,
+        1.576_357_898_600_604_6,
+        REL,
+        "duration, s",
+    );
+}
+
+#[test]
+fn venting_the_idle_saves_its_relief_heat() {
+    let (cycle, found) = trim_press(false);
+    let (_, proposed) = trim_press(true);
+    let report = solve(&job(cycle, vec![found, proposed])).unwrap();
+    let idle = &report.designs[1].phases[4];
+    // Vented at 1.5 bar (cracking 1.455 bar, 60 L/min per 0.045 bar): both pumps feed, and
+    // 71.9925 - 0.018 p = 1333.33 (p - 1.455) gives p = 1.508974 bar, 71.965338 L/min to tank.
+    assert_close(
+        in_bar(idle.point.system_pressure),
+        1.508_974_003_850_948,
+        REL,
+        "vented, bar",
+    );
+    assert_eq!(idle.point.pumps[0].state, PumpState::Feeding);
+    // Shaft (60 x 2.008974 + 12 x 1.508974) / 0.9 / 600 kW + 300 W = 556.752 W; input 986.565 W.
+    assert_close(
+        idle.ledger.electrical_input.value,
+        986.565_042_714_318_8,
+        REL,
+        "input, W",
+    );
+    // Only the idle differs: the energy per cycle falls by (4641.016 - 986.565) W x 10 s.
+    let saved = report.designs[0].totals.energy_per_cycle.value
+        - report.designs[1].totals.energy_per_cycle.value;
+    assert_close(
+        saved,
+        (4641.016_012_030_798 - 986.565_042_714_318_8) * 10.0,
+        1e-9,
+        "energy saved per cycle, J",
+    );
+    let comparison = &report.comparisons[0];
+    assert!(comparison.annual_cost_saved > 0.0);
+    let payback = comparison.payback_years.unwrap();
+    assert_close(
+        payback,
+        3000.0 / comparison.annual_cost_saved,
+        1e-12,
+        "payback, years",
+    );
+}
+
+/// A three-pump test rig (invented): pumps of 30, 20 and 10 cm^3/rev at 1000 rpm (30, 20 and
+/// 10 L/min), leak-free, 90 % hydromechanical, no drag; pump 1 unloads at 40 bar and pump 2 at
+/// 80 bar, each with a 2 bar drop and no check-valve drop. Relief pilot-operated, 150 bar at
+/// 60 L/min. Moves are on a 100 mm bore, 100 mm stroke (0.785398 L) at a pressure read off a gauge.
+fn test_rig(loads_bar: &[f64]) -> (Vec<Phase>, phasewise::engine::power_unit::Design) {
+    let ideal = |cc| fixed_pump(cc, 1.0, 100.0, 0.9, 0.0);
+    let cycle: Vec<Phase> = loads_bar
+        .iter()
+        .map(|&bar| Phase {
+            name: format!("{bar} bar"),
+            kind: PhaseKind::Move(MovePhase {
+                cylinder: Cylinder {
+                    bore: mm(100.0),
+                    rod: mm(50.0),
+                    stroke: mm(100.0),
+                },
+                direction: Direction::Extend,
+                load: Load::Pressure {
+                    pressure: bar_(bar),
+                },
+                line_loss: bar_(0.0),
+                speed: SpeedRule::AllPumpFlow,
+            }),
+        })
+        .collect();
+    let d = design(
+        "rig",
+        motor(15.0, 1000.0, 0.9),
+        vec![
+            stage(ideal(30.0), 40.0, 2.0, 0.0),
+            stage(ideal(20.0), 80.0, 2.0, 0.0),
+        ],
+        ideal(10.0),
+        relief(ReliefKind::PilotOperated, 150.0, 60.0, 0.97),
+        cycle.len(),
+    );
+    (cycle, d)
+}
+
+#[test]
+fn three_pumps_unload_one_after_another_as_pressure_rises() {
+    let (cycle, d) = test_rig(&[20.0, 60.0, 100.0]);
+    let report = solve(&job(cycle, vec![d])).unwrap();
+    let phases = &report.designs[0].phases;
+    let states = |i: usize| {
+        phases[i]
+            .point
+            .pumps
+            .iter()
+            .map(|p| p.state)
+            .collect::<Vec<_>>()
+    };
+    use PumpState::{Feeding as F, Unloaded as U};
+    // 20 bar: under both settings, all feed: 60 L/min. Useful 20 bar x 60 L/min = 2000 W; shaft
+    // 2000 / 0.9 = 2222.222 W; 0.785398 L at 1 L/s = 0.785398 s.
+    assert_eq!(states(0), [F, F, F]);
+    assert_close(
+        in_lpm(phases[0].point.actuator_flow),
+        60.0,
+        REL,
+        "20 bar, L/min",
+    );
+    assert_close(
+        phases[0].ledger.useful_power.value,
+        2000.0,
+        REL,
+        "20 bar useful, W",
+    );
+    assert_close(
+        phases[0].ledger.shaft_power().value,
+        2000.0 / 0.9,
+        REL,
+        "20 bar shaft, W",
+    );
+    assert_close(
+        phases[0].point.duration.value,
+        std::f64::consts::PI / 4.0,
+        REL,
+        "20 bar, s",
+    );
+    // 60 bar: pump 1 unloads (60 >= 40), pumps 2 and 3 give 30 L/min: useful 3000 W; pump 1's
+    // 30 L/min at 2 bar is 100 W of unloading loss; shaft (3000 + 100) / 0.9 = 3444.444 W.
+    assert_eq!(states(1), [U, F, F]);
+    assert_close(
+        in_lpm(phases[1].point.actuator_flow),
+        30.0,
+        REL,
+        "60 bar, L/min",
+    );
+    assert_close(
+        phases[1].ledger.unloading_loss.value,
+        100.0,
+        REL,
+        "60 bar unloading, W",
+    );
+    assert_close(
+        phases[1].ledger.shaft_power().value,
+        3100.0 / 0.9,
+        REL,
+        "60 bar shaft, W",
+    );
+    // 100 bar: pumps 1 and 2 unloaded, pump 3 alone at 10 L/min: useful 1666.667 W; unloading
+    // 2 bar x 50 L/min = 166.667 W; 0.785398 L at 1/6 L/s = 4.712389 s.
+    assert_eq!(states(2), [U, U, F]);
+    assert_close(
+        phases[2].ledger.useful_power.value,
+        10_000.0 / 6.0,
+        REL,
+        "100 bar useful, W",
+    );
+    assert_close(
+        phases[2].ledger.unloading_loss.value,
+        1000.0 / 6.0,
+        REL,
+        "100 bar unloading, W",
+    );
+    assert_close(
+        phases[2].point.duration.value,
+        6.0 * std::f64::consts::PI / 4.0,
+        REL,
+        "100 bar, s",
+    );
+    for phase in phases {
+        assert!(
+            phase.findings.is_empty(),
+            "{}: {:?}",
+            phase.name,
+            phase.findings
+        );
+    }
+}
+
+#[test]
+fn an_unloading_setting_inside_the_relief_override_hunts() {
+    // Idle over a 60 bar remote stage (cracking 58.2 bar, 60 L/min per 1.8 bar). With pump 2
+    // set to unload at 58.9 bar:
+    // - pumps 2 and 3 feeding (30 L/min): p = 58.2 + 30/60 x 1.8 = 59.1 bar >= 58.9: it should unload;
+    // - pump 2 unloaded too (10 L/min): p = 58.2 + 10/60 x 1.8 = 58.5 bar < 58.9: it should reload.
+    // No state agrees. The nearest is pump 2 feeding (0.2 bar off, against 0.4 bar).
+    let (_, mut d) = test_rig(&[]);
+    d.unloading_stages[1].unloading.setting = bar_(58.9);
+    d.remote_stages = vec![bar_(60.0)];
+    d.phase_settings = vec![phasewise::engine::power_unit::PhaseSetting {
+        limit: ActiveLimit::Remote { stage: 0 },
+        idle_path: IdlePath::OverLimit,
+    }];
+    let report = solve(&job(vec![idle("wait", 30.0)], vec![d])).unwrap();
+    let phase = &report.designs[0].phases[0];
+    assert_close(
+        in_bar(phase.point.system_pressure),
+        59.1,
+        REL,
+        "pressure, bar",
+    );
+    assert_eq!(phase.point.pumps[1].state, PumpState::Feeding);
+    assert!(
+        phase.findings.iter().any(|f| matches!(
+            f,
+            Finding::Hunting {
+                pump: 2,
+                solved_unloaded: false,
+                ..
+            }
+        )),
+        "{:?}",
+        phase.findings
+    );
+    // Relief 59.1 bar x 30 L/min = 2955 W; pump 1 unloaded, 2 bar x 30 L/min = 100 W.
+    assert_close(
+        phase.ledger.relief_loss.value,
+        2955.0,
+        REL,
+        "relief loss, W",
+    );
+    assert_close(
+        phase.ledger.unloading_loss.value,
+        100.0,
+        REL,
+        "unloading loss, W",
+    );
+}
+
+#[test]
+fn a_load_beyond_the_limit_stalls_and_says_so() {
+    // 180 bar against a 150 bar relief: the cylinder cannot move. Solved as a dead-head: pump 3
+    // alone over the relief, 10 L/min at 145.5 + 10/60 x 4.5 = 146.25 bar, for the time the
+    // stroke would take at pump 3's 10 L/min: 0.785398 L / (1/6 L/s) = 4.712389 s.
+    let (cycle, d) = test_rig(&[180.0]);
+    let report = solve(&job(cycle, vec![d])).unwrap();
+    let phase = &report.designs[0].phases[0];
+    assert_close(
+        in_bar(phase.point.system_pressure),
+        146.25,
+        REL,
+        "pressure, bar",
+    );
+    assert_eq!(phase.point.actuator_flow.value, 0.0);
+    assert_close(
+        phase.point.duration.value,
+        6.0 * std::f64::consts::PI / 4.0,
+        REL,
+        "stall time, s",
+    );
+    assert!(phase
+        .findings
+        .iter()
+        .any(|f| matches!(f, Finding::Stall { .. })));
+    assert_close(
+        phase.ledger.relief_loss.value,
+        146.25e5 * 1e-3 / 6.0,
+        REL,
+        "relief loss, W",
+    );
+}
+
+#[test]
+fn a_meter_in_surplus_over_the_relief_makes_a_high_low_unit_hunt() {
+    // The rig's 20 bar move metered to 0.05 m/s: 0.05 x 7.853982e-3 m^2 = 23.561945 L/min into
+    // the cylinder, the surplus over the relief. With all three pumps (60 L/min) p = 145.5 +
+    // 36.438055/60 x 4.5 = 148.23 bar >= 40: pump 1 must unload. With pumps 2 and 3 (30 L/min)
+    // p = 145.5 + 6.438055/60 x 4.5 = 145.98 bar >= 80: pump 2 must unload too. Pump 3 alone
+    // gives 10 L/min, short of 23.56, so the move takes what it can at 20 bar, where both
+    // should feed again. No state agrees: the valves hunt.
+    let (mut cycle, d) = test_rig(&[20.0]);
+    if let PhaseKind::Move(m) = &mut cycle[0].kind {
+        m.speed = metered_speed(0.05);
+    }
+    let report = solve(&job(cycle, vec![d])).unwrap();
+    let phase = &report.designs[0].phases[0];
+    assert!(
+        phase
+            .findings
+            .iter()
+            .any(|f| matches!(f, Finding::Hunting { .. })),
+        "{:?}",
+        phase.findings
+    );
+    assert!(phase.ledger.imbalance().abs() < 1e-9);
+}
+
+#[test]
+fn a_metered_move_burns_the_difference_in_its_flow_control() {
+    // One leak-free 30 L/min pump (30 cm^3/rev at 1000 rpm, 90 % hydromechanical), the relief
+    // at 150 bar for 60 L/min (cracking 145.5 bar, 13.333 L/min per bar above it). A 20 bar
+    // move metered to 0.05 m/s takes 23.561945 L/min; the other 6.438055 L/min goes over the
+    // relief at 145.5 + 6.438055 / 13.333 = 145.982854 bar.
+    let d = design(
+        "one pump",
+        motor(15.0, 1000.0, 0.9),
+        vec![],
+        fixed_pump(30.0, 1.0, 100.0, 0.9, 0.0),
+        relief(ReliefKind::PilotOperated, 150.0, 60.0, 0.97),
+        1,
+    );
+    let (mut cycle, _) = test_rig(&[20.0]);
+    if let PhaseKind::Move(m) = &mut cycle[0].kind {
+        m.speed = metered_speed(0.05);
+    }
+    let report = solve(&job(cycle.clone(), vec![d.clone()])).unwrap();
+    let phase = &report.designs[0].phases[0];
+    assert_close(
+        in_bar(phase.point.system_pressure),
+        145.982_854_132_355_75,
+        REL,
+        "pressure, bar",
+    );
+    assert_close(
+        in_lpm(phase.point.actuator_flow),
+        23.561_944_901_923_454,
+        REL,
+        "cylinder, L/min",
+    );
+    assert_close(
+        phase.point.duration.value,
+        2.0,
+        REL,
+        "100 mm at 0.05 m/s, s",
+    );
+    // Useful 20 bar x 23.561945 L/min = 785.398 W; the flow control burns (145.982854 - 20) bar
+    // x 23.561945 L/min = 4947.335 W; the relief 145.982854 bar x 6.438055 L/min = 1566.409 W.
+    assert_close(
+        phase.ledger.useful_power.value,
+        785.398_163_397_448_5,
+        REL,
+        "useful, W",
+    );
+    assert_close(
+        phase.ledger.metering_loss.value,
+        4947.335_112_756_044,
+        REL,
+        "metering loss, W",
+    );
+    assert_close(
+        phase.ledger.relief_loss.value,
+        1566.409_430_464_296,
+        REL,
+        "relief loss, W",
+    );
+    // A 40 bar remote stage for the phase (cracking 38.8 bar, 50 L/min per bar): p = 38.8 +
+    // 6.438055 / 50 = 38.928761 bar; metering falls to 743.331 W, the relief to 417.709 W.
+    let mut lower = d;
+    lower.remote_stages = vec![bar_(40.0)];
+    lower.phase_settings[0].limit = ActiveLimit::Remote { stage: 0 };
+    let report = solve(&job(cycle, vec![lower])).unwrap();
+    let phase = &report.designs[0].phases[0];
+    assert_close(
+        in_bar(phase.point.system_pressure),
+        38.928_761_101_961_53,
+        REL,
+        "pressure, bar",
+    );
+    assert_close(
+        phase.ledger.metering_loss.value,
+        743.330_710_243_482_3,
+        REL,
+        "metering loss, W",
+    );
+    assert_close(
+        phase.ledger.relief_loss.value,
+        417.709_181_457_145_6,
+        REL,
+        "relief loss, W",
+    );
+}

@@ -1,0 +1,162 @@
+//! Facts of the trade the engine must honour. None has a published source: each is marked
+//! common practice (REFERENCES, "Facts of the trade").
+
+mod common;
+use common::*;
+use phasewise::engine::cycle::{Direction, HoldMode, SpeedRule};
+use phasewise::engine::valve::{ActiveLimit, IdlePath, ReliefKind};
+use phasewise::engine::{solve, Finding};
+
+/// One ideal 20 cm^3/rev pump at 1500 rpm (30 L/min) and a relief set at 200 bar for 30 L/min.
+fn unit(kind: ReliefKind) -> phasewise::engine::power_unit::Design {
+    let cracking = kind.typical_cracking_fraction();
+    design(
+        "test",
+        motor(15.0, 1500.0, 0.9),
+        vec![],
+        ideal_pump(20.0),
+        relief(kind, 200.0, 30.0, cracking),
+        1,
+    )
+}
+
+/// A move that needs `bar` at the pump (bore 100 mm, no line loss), taking all pump flow.
+fn move_at(bar: f64) -> phasewise::engine::cycle::Phase {
+    let area = std::f64::consts::PI / 4.0 * 0.1 * 0.1;
+    move_phase(
+        "work",
+        100.0,
+        50.0,
+        100.0,
+        Direction::Extend,
+        bar * 1e5 * area / 1e3,
+        0.0,
+        SpeedRule::AllPumpFlow,
+    )
+}
+
+fn relief_flow_lpm(kind: ReliefKind, bar: f64) -> (f64, bool) {
+    let report = solve(&job(vec![move_at(bar)], vec![unit(kind)])).unwrap();
+    let phase = &report.designs[0].phases[0];
+    let leaks = phase
+        .findings
+        .iter()
+        .any(|f| matches!(f, Finding::ReliefLeaks { .. }));
+    (in_lpm(phase.point.relief_flow), leaks)
+}
+
+#[test]
+fn a_direct_acting_relief_passes_flow_from_about_80_percent_of_its_setting() {
+    // Common practice: a direct-acting relief begins to pass flow at roughly 80 % of its setting.
+    let (below, leak_below) = relief_flow_lpm(ReliefKind::DirectActing, 0.78 * 200.0);
+    assert_eq!((below, leak_below), (0.0, false));
+    let (above, leak_above) = relief_flow_lpm(ReliefKind::DirectActing, 0.85 * 200.0);
+    assert!(
+        above > 1.0 && leak_above,
+        "at 85 % of the setting {above} L/min leaks"
+    );
+}
+
+#[test]
+fn a_pilot_operated_relief_stays_shut_until_within_a_few_percent() {
+    // Common practice: a pilot-operated relief stays shut until within a few percent of its
+    // setting (cracking at roughly 97 to 99 %).
+    assert_eq!(
+        relief_flow_lpm(ReliefKind::PilotOperated, 0.95 * 200.0),
+        (0.0, false)
+    );
+    let (near, leaks) = relief_flow_lpm(ReliefKind::PilotOperated, 0.985 * 200.0);
+    assert!(near > 0.0 && leaks);
+    // Where the direct-acting valve already leaks a third of the flow, the pilot-operated one is shut.
+    assert!(relief_flow_lpm(ReliefKind::DirectActing, 0.9 * 200.0).0 > 10.0);
+    assert_eq!(
+        relief_flow_lpm(ReliefKind::PilotOperated, 0.9 * 200.0).0,
+        0.0
+    );
+}
+
+#[test]
+fn a_vented_relief_runs_the_pump_at_about_the_bias_spring_pressure() {
+    // Common practice: vented, the pump sees about the main spool's bias spring, of the order
+    // of 25 psi (under 2 bar).
+    let mut d = unit(ReliefKind::PilotOperated);
+    d.vent_pressure = bar_(1.7);
+    d.phase_settings[0].idle_path = IdlePath::Vented;
+    let report = solve(&job(vec![idle("idle", 20.0)], vec![d])).unwrap();
+    let p = in_bar(report.designs[0].phases[0].point.system_pressure);
+    assert!((0.97 * 1.7..=1.7).contains(&p), "vented at {p} bar");
+    // Over the main setting instead, the same idle runs at the relief's 200 bar.
+    let report = solve(&job(
+        vec![idle("idle", 20.0)],
+        vec![unit(ReliefKind::PilotOperated)],
+    ))
+    .unwrap();
+    assert_close(
+        in_bar(report.designs[0].phases[0].point.system_pressure),
+        200.0,
+        1e-9,
+        "idle over the relief",
+    );
+}
+
+#[test]
+fn a_remote_stage_above_the_main_setting_has_no_effect() {
+    // Common practice: a remote pilot stage only governs when its setting is below the main pilot's.
+    let hold_phase = || vec![hold("hold", 100.0, 5.0, HoldMode::HeldByPump)];
+    let main = solve(&job(hold_phase(), vec![unit(ReliefKind::PilotOperated)])).unwrap();
+    let mut d = unit(ReliefKind::PilotOperated);
+    d.remote_stages = vec![bar_(250.0), bar_(120.0)];
+    d.phase_settings[0].limit = ActiveLimit::Remote { stage: 0 };
+    let above = solve(&job(hold_phase(), vec![d.clone()])).unwrap();
+    assert_eq!(
+        above.designs[0].phases[0].point.system_pressure,
+        main.designs[0].phases[0].point.system_pressure
+    );
+    assert!(above.designs[0]
+        .findings
+        .iter()
+        .any(|f| matches!(f, Finding::RemoteAboveMain { stage: 0, .. })));
+    // The stage below the main setting governs.
+    d.phase_settings[0].limit = ActiveLimit::Remote { stage: 1 };
+    let below = solve(&job(hold_phase(), vec![d])).unwrap();
+    assert_close(
+        in_bar(below.designs[0].phases[0].point.system_pressure),
+        120.0,
+        1e-9,
+        "remote stage at 120 bar",
+    );
+    assert!(!below.designs[0]
+        .findings
+        .iter()
+        .any(|f| matches!(f, Finding::RemoteAboveMain { stage: 1, .. })));
+}
+
+#[test]
+fn extending_uses_the_bore_and_retracting_the_annulus() {
+    // From the geometry (common practice): the same flow retracts faster, by bore^2 / (bore^2 - rod^2).
+    let speed = |direction| {
+        let phase = move_phase(
+            "stroke",
+            100.0,
+            70.0,
+            200.0,
+            direction,
+            1.0,
+            0.0,
+            SpeedRule::AllPumpFlow,
+        );
+        let report = solve(&job(vec![phase], vec![unit(ReliefKind::PilotOperated)])).unwrap();
+        report.designs[0].phases[0]
+            .point
+            .actuator_speed
+            .unwrap()
+            .value
+    };
+    let ratio = speed(Direction::Retract) / speed(Direction::Extend);
+    assert_close(
+        ratio,
+        100.0 * 100.0 / (100.0 * 100.0 - 70.0 * 70.0),
+        1e-6,
+        "retract / extend speed",
+    );
+}
