@@ -658,3 +658,51 @@ fn a_metered_move_burns_the_difference_in_its_flow_control() {
         "relief loss, W",
     );
 }
+
+#[test]
+fn a_compensated_pump_dead_heads_on_its_leakage() {
+    // A pressure-compensated pump (invented): 20 cm^3/rev at 1500 rpm = 30 L/min, 90 %
+    // volumetric at 200 bar, so it leaks 0.015 L/min per bar; 90 % hydromechanical; no drag;
+    // compensator at 150 bar, destroking to nothing by 150 x 1.03 = 154.5 bar. Relief at 200 bar
+    // (cracking 194 bar) stays shut. In a hold the pump sits at 154.5 bar delivering nothing;
+    // its displacement only covers the 0.015 x 154.5 = 2.3175 L/min it leaks, which takes
+    // 2.3175 x 154.5 / 600 / 0.9 = 0.663056 kW from the shaft, all of it heat.
+    let mut pump = fixed_pump(20.0, 0.9, 200.0, 0.9, 0.0);
+    pump.control = phasewise::engine::pump::PumpControl::Compensated {
+        setting: bar_(150.0),
+    };
+    let d = design(
+        "compensated",
+        motor(15.0, 1500.0, 0.9),
+        vec![],
+        pump,
+        relief(ReliefKind::PilotOperated, 200.0, 60.0, 0.97),
+        1,
+    );
+    let report = solve(&job(
+        vec![hold("hold", 140.0, 10.0, HoldMode::HeldByPump)],
+        vec![d],
+    ))
+    .unwrap();
+    let phase = &report.designs[0].phases[0];
+    assert_close(
+        in_bar(phase.point.system_pressure),
+        154.5,
+        REL,
+        "dead-head pressure, bar",
+    );
+    assert_eq!(phase.point.pumps[0].flow.value, 0.0);
+    assert_close(
+        in_kw(phase.ledger.shaft_power()),
+        2.3175 * 154.5 / 600.0 / 0.9,
+        REL,
+        "shaft, kW",
+    );
+    assert_close(
+        in_kw(phase.ledger.pump_internal_loss),
+        2.3175 * 154.5 / 600.0 / 0.9,
+        REL,
+        "internal loss, kW",
+    );
+    assert_eq!(phase.ledger.relief_loss.value, 0.0);
+}

@@ -57,6 +57,12 @@ pub enum Finding {
         setting_pa: f64,
         relief_pa: f64,
     },
+    /// The relief is rated for less flow than the pumps can give together: at full flow its
+    /// pressure rises far above the setting.
+    ReliefUndersized {
+        rated_m3_per_s: f64,
+        pumps_m3_per_s: f64,
+    },
     /// The motor's RMS load over the cycle is above its rating: it will overheat.
     MotorRmsOverload { rms_w: f64, rated_w: f64 },
     /// The cycle's peak is above what the motor can carry (rating x service factor).
@@ -111,6 +117,11 @@ impl Finding {
                 "Pump {pump}'s unloading valve is set at {}, not below the relief's {}: the pump never unloads.",
                 p(setting_pa),
                 p(relief_pa)
+            ),
+            Finding::ReliefUndersized { rated_m3_per_s, pumps_m3_per_s } => format!(
+                "The relief is rated for {} but the pumps give up to {}: it cannot pass full flow near its setting.",
+                u.flow(rated_m3_per_s),
+                u.flow(pumps_m3_per_s)
             ),
             Finding::MotorRmsOverload { rms_w, rated_w } => format!(
                 "The motor's RMS load over the cycle is {}, above its rating of {}: it will run hot.",

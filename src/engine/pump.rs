@@ -71,13 +71,14 @@ impl PumpAtSpeed {
 
     /// The flow delivered at an outlet pressure, m^3/s.
     pub fn delivered(&self, outlet: f64) -> f64 {
-        let full = (self.swept - self.leakage * outlet).max(0.0);
         match self.compensator {
+            // Destroking: from the flow at the setting down to none across the band, in a
+            // straight line (so that every flow stays piecewise linear in pressure).
             Some(setting) if outlet > setting => {
-                let band = setting * COMPENSATOR_BAND;
-                full * (1.0 - (outlet - setting) / band).max(0.0)
+                let at_setting = (self.swept - self.leakage * setting).max(0.0);
+                at_setting * (1.0 - (outlet - setting) / (setting * COMPENSATOR_BAND)).max(0.0)
             }
-            _ => full,
+            _ => (self.swept - self.leakage * outlet).max(0.0),
         }
     }
 

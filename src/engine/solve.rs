@@ -600,6 +600,14 @@ fn report(
 /// Findings about the design's settings, whatever the phase.
 pub(crate) fn design_findings(design: &Design) -> Vec<Finding> {
     let mut findings = Vec::new();
+    let unit = PreparedUnit::new(design);
+    let all_pumps = unit.swept(0);
+    if design.relief.rated_flow.value < all_pumps * (1.0 - 1e-9) {
+        findings.push(Finding::ReliefUndersized {
+            rated_m3_per_s: design.relief.rated_flow.value,
+            pumps_m3_per_s: all_pumps,
+        });
+    }
     let main = design.relief.setting.value;
     for (stage, remote) in design.remote_stages.iter().enumerate() {
         if remote.value >= main {
