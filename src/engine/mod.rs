@@ -66,6 +66,19 @@ pub fn solve(job: &Job) -> Result<JobReport, Vec<InputError>> {
     })
 }
 
+/// Reads a job file and solves it: the report as pretty JSON, or the reason the file could
+/// not be read, or its input errors as a JSON list of `{field, message}`. This is what
+/// `cargo run --example solve -- job.json` prints, and what the golden-file tests compare.
+pub fn solve_json(text: &str) -> Result<String, String> {
+    let job = Job::from_json(text).map_err(|e| e.to_string())?;
+    match solve(&job) {
+        Ok(report) => {
+            Ok(serde_json::to_string_pretty(&report).expect("a report always serialises"))
+        }
+        Err(errors) => Err(serde_json::to_string_pretty(&errors).expect("errors always serialise")),
+    }
+}
+
 /// Solves one (validated) design over the job's cycle.
 fn solve_design(job: &Job, design: &power_unit::Design) -> DesignReport {
     let unit = solve::PreparedUnit::new(design);

@@ -41,14 +41,34 @@ const HOURS_PER_YEAR: f64 = 8784.0; // a leap year
 struct Checker {
     units: UnitSystem,
     errors: Vec<InputError>,
+    /// The path of the part being checked, e.g. `designs[0].unloading_stages[1]`. One buffer,
+    /// extended and cut back, so a valid job costs no allocation per field.
+    at: String,
 }
 
 impl Checker {
     fn fail(&mut self, field: &str, message: impl Into<String>) {
+        let field = match (self.at.is_empty(), field.is_empty()) {
+            (true, _) => field.to_string(),
+            (false, true) => self.at.clone(),
+            (false, false) => format!("{}.{field}", self.at),
+        };
         self.errors.push(InputError {
-            field: field.to_string(),
+            field,
             message: message.into(),
         });
+    }
+
+    /// Checks a part of the job, with `segment` added to the field paths.
+    fn within(&mut self, segment: std::fmt::Arguments, check: impl FnOnce(&mut Checker)) {
+        use std::fmt::Write;
+        let len = self.at.len();
+        if len > 0 {
+            self.at.push('.');
+        }
+        let _ = self.at.write_fmt(segment);
+        check(self);
+        self.at.truncate(len);
     }
 
     /// A finite number in (0, max] (or [0, max] when `zero_ok`).
@@ -136,6 +156,7 @@ pub fn validate(job: &Job) -> Result<(), Vec<InputError>> {
     let mut c = Checker {
         units: job.units,
         errors: Vec::new(),
+        at: String::new(),
     };
     if job.schema_version == 0 || job.schema_version > SCHEMA_VERSION {
         c.fail(
@@ -153,13 +174,15 @@ pub fn validate(job: &Job) -> Result<(), Vec<InputError>> {
         c.fail("cycle", "add at least one phase to the cycle");
     }
     for (i, phase) in job.cycle.iter().enumerate() {
-        check_phase(&mut c, &format!("cycle[{i}]"), &phase.kind);
+        c.within(format_args!("cycle[{i}]"), |c| check_phase(c, &phase.kind));
     }
     if job.designs.is_empty() {
         c.fail("designs", "add at least one power unit");
     }
     for (i, design) in job.designs.iter().enumerate() {
-        check_design(&mut c, &format!("designs[{i}]"), design, job);
+        c.within(format_args!("designs[{i}]"), |c| {
+            check_design(c, design, job)
+        });
     }
     c.plain(
         "site.operating_hours_per_year",
@@ -204,32 +227,17 @@ pub fn validate(job: &Job) -> Result<(), Vec<InputError>> {
     }
 }
 
-fn check_phase(c: &mut Checker, at: &str, kind: &PhaseKind) {
+fn check_phase(c: &mut Checker, kind: &PhaseKind) {
     match kind {
         PhaseKind::Move(m) => {
             let cyl = &m.cylinder;
-            let bore = c.plain(
-                &format!("{at}.cylinder.bore_m"),
-                cyl.bore.value,
-                false,
-                MAX_LENGTH,
-                "m",
-            );
-            let rod = c.plain(
-                &format!("{at}.cylinder.rod_m"),
-                cyl.rod.value,
-                true,
-                MAX_LENGTH,
-                "m",
-            );
+            let bore = c.plain("cylinder.bore_m", cyl.bore.value, false, MAX_LENGTH, "m");
+            let rod = c.plain("cylinder.rod_m", cyl.rod.value, true, MAX_LENGTH, "m");
             if bore && rod && cyl.rod.value >= cyl.bore.value {
-                c.fail(
-                    &format!("{at}.cylinder.rod_m"),
-                    "the rod must be thinner than the bore",
-                );
+                c.fail("cylinder.rod_m", "the rod must be thinner than the bore");
             }
             c.plain(
-                &format!("{at}.cylinder.stroke_m"),
+                "cylinder.stroke_m",
                 cyl.stroke.value,
                 false,
                 MAX_LENGTH,
@@ -237,24 +245,18 @@ fn check_phase(c: &mut Checker, at: &str, kind: &PhaseKind) {
             );
             match m.load {
                 Load::Force { force } => {
-                    c.plain(
-                        &format!("{at}.load.force_n"),
-                        force.value,
-                        true,
-                        MAX_FORCE,
-                        "N",
-                    );
+                    c.plain("load.force_n", force.value, true, MAX_FORCE, "N");
                 }
                 Load::Pressure { pressure } => {
-                    c.pressure(&format!("{at}.load.pressure_pa"), pressure.value, true);
+                    c.pressure("load.pressure_pa", pressure.value, true);
                 }
             }
-            c.pressure(&format!("{at}.line_loss_pa"), m.line_loss.value, true);
+            c.pressure("line_loss_pa", m.line_loss.value, true);
             match m.speed {
                 SpeedRule::AllPumpFlow => {}
                 SpeedRule::MeteredSpeed { speed } => {
                     c.plain(
-                        &format!("{at}.speed.speed_m_per_s"),
+                        "speed.speed_m_per_s",
                         speed.value,
                         false,
                         MAX_VELOCITY,
@@ -262,133 +264,81 @@ fn check_phase(c: &mut Checker, at: &str, kind: &PhaseKind) {
                     );
                 }
                 SpeedRule::MeteredFlow { flow } => {
-                    c.flow(&format!("{at}.speed.flow_m3_per_s"), flow.value, false);
+                    c.flow("speed.flow_m3_per_s", flow.value, false);
                 }
             }
         }
         PhaseKind::Hold(h) => {
-            c.pressure(&format!("{at}.pressure_pa"), h.pressure.value, false);
-            c.plain(
-                &format!("{at}.duration_s"),
-                h.duration.value,
-                false,
-                MAX_DURATION,
-                "s",
-            );
+            c.pressure("pressure_pa", h.pressure.value, false);
+            c.plain("duration_s", h.duration.value, false, MAX_DURATION, "s");
         }
         PhaseKind::Idle(i) => {
-            c.plain(
-                &format!("{at}.duration_s"),
-                i.duration.value,
-                false,
-                MAX_DURATION,
-                "s",
-            );
+            c.plain("duration_s", i.duration.value, false, MAX_DURATION, "s");
         }
         PhaseKind::Direct(d) => {
-            c.flow(&format!("{at}.flow_m3_per_s"), d.flow.value, true);
-            c.pressure(&format!("{at}.pressure_pa"), d.pressure.value, true);
-            c.plain(
-                &format!("{at}.duration_s"),
-                d.duration.value,
-                false,
-                MAX_DURATION,
-                "s",
-            );
+            c.flow("flow_m3_per_s", d.flow.value, true);
+            c.pressure("pressure_pa", d.pressure.value, true);
+            c.plain("duration_s", d.duration.value, false, MAX_DURATION, "s");
         }
     }
 }
 
-fn check_design(c: &mut Checker, at: &str, d: &Design, job: &Job) {
+fn check_design(c: &mut Checker, d: &Design, job: &Job) {
     if d.name.trim().is_empty() {
-        c.fail(&format!("{at}.name"), "give the power unit a name");
+        c.fail("name", "give the power unit a name");
     }
     let m = &d.motor;
-    c.power(
-        &format!("{at}.motor.rated_power_w"),
-        m.rated_power.value,
-        false,
-    );
+    c.power("motor.rated_power_w", m.rated_power.value, false);
     c.amount(
-        &format!("{at}.motor.full_load_speed_rad_per_s"),
+        "motor.full_load_speed_rad_per_s",
         m.full_load_speed.value,
         false,
         MAX_SPEED_RAD_S,
         |_, v| format!("{:.0} rpm", v * 60.0 / std::f64::consts::TAU),
     );
-    c.fraction(
-        &format!("{at}.motor.full_load_efficiency"),
-        m.full_load_efficiency,
-        false,
-    );
-    c.fraction(
-        &format!("{at}.motor.fixed_loss_share"),
-        m.fixed_loss_share,
-        true,
-    );
+    c.fraction("motor.full_load_efficiency", m.full_load_efficiency, false);
+    c.fraction("motor.fixed_loss_share", m.fixed_loss_share, true);
     if !(m.service_factor.is_finite() && (1.0..=2.0).contains(&m.service_factor)) {
         c.fail(
-            &format!("{at}.motor.service_factor"),
+            "motor.service_factor",
             "must be between 1.0 and 2.0 (1.0 if the nameplate shows none)",
         );
     }
     if d.pump_count() > MAX_PUMPS {
         c.fail(
-            &format!("{at}.unloading_stages"),
+            "unloading_stages",
             format!("at most {MAX_PUMPS} pumps on one motor"),
         );
     }
     for (i, stage) in d.unloading_stages.iter().enumerate() {
-        let s = format!("{at}.unloading_stages[{i}]");
-        check_pump(c, &format!("{s}.pump"), &stage.pump);
-        let setting = stage.unloading.setting.value;
-        let drop = stage.unloading.unloaded_drop.value;
-        let ok_setting = c.pressure(&format!("{s}.unloading.setting_pa"), setting, false);
-        let ok_drop = c.pressure(&format!("{s}.unloading.unloaded_drop_pa"), drop, true);
-        if ok_setting && ok_drop && drop >= setting {
-            c.fail(
-                &format!("{s}.unloading.unloaded_drop_pa"),
-                "must be below the unloading setting",
-            );
-        }
-        c.pressure(
-            &format!("{s}.check.cracking_pa"),
-            stage.check.cracking.value,
-            true,
-        );
+        c.within(format_args!("unloading_stages[{i}]"), |c| {
+            check_stage(c, stage)
+        });
     }
-    check_pump(c, &format!("{at}.base_pump"), &d.base_pump);
+    c.within(format_args!("base_pump"), |c| check_pump(c, &d.base_pump));
     let r = &d.relief;
-    c.pressure(&format!("{at}.relief.setting_pa"), r.setting.value, false);
-    c.flow(
-        &format!("{at}.relief.rated_flow_m3_per_s"),
-        r.rated_flow.value,
-        false,
-    );
+    c.pressure("relief.setting_pa", r.setting.value, false);
+    c.flow("relief.rated_flow_m3_per_s", r.rated_flow.value, false);
     let cf = r.cracking_fraction;
     if !(cf.is_finite() && cf > 0.0 && cf < 1.0) {
         c.fail(
-            &format!("{at}.relief.cracking_fraction"),
+            "relief.cracking_fraction",
             "must be above 0 % and below 100 % of the setting",
         );
     }
     for (i, remote) in d.remote_stages.iter().enumerate() {
-        c.pressure(&format!("{at}.remote_stages_pa[{i}]"), remote.value, false);
+        c.pressure(&format!("remote_stages_pa[{i}]"), remote.value, false);
     }
     if !d.remote_stages.is_empty() && !r.kind.has_vent_port() {
         c.fail(
-            &format!("{at}.remote_stages_pa"),
+            "remote_stages_pa",
             "a direct-acting relief has no vent port for remote pilot stages",
         );
     }
-    c.pressure(
-        &format!("{at}.vent_pressure_pa"),
-        d.vent_pressure.value,
-        false,
-    );
+    c.pressure("vent_pressure_pa", d.vent_pressure.value, false);
     if d.phase_settings.len() != job.cycle.len() {
         c.fail(
-            &format!("{at}.phase_settings"),
+            "phase_settings",
             format!(
                 "has settings for {} phases but the cycle has {}",
                 d.phase_settings.len(),
@@ -397,75 +347,81 @@ fn check_design(c: &mut Checker, at: &str, d: &Design, job: &Job) {
         );
     }
     for (i, setting) in d.phase_settings.iter().enumerate() {
-        let s = format!("{at}.phase_settings[{i}]");
-        match setting.limit {
-            ActiveLimit::Main => {}
-            ActiveLimit::Remote { stage } => {
-                if stage >= d.remote_stages.len() {
-                    c.fail(
-                        &format!("{s}.limit"),
-                        format!(
-                            "remote stage {} does not exist (the unit has {})",
-                            stage + 1,
-                            d.remote_stages.len()
-                        ),
-                    );
-                }
-            }
-            ActiveLimit::Vented => {
-                if !r.kind.has_vent_port() {
-                    c.fail(
-                        &format!("{s}.limit"),
-                        "a direct-acting relief has no vent port to vent",
-                    );
-                }
-            }
-        }
-        match setting.idle_path {
-            IdlePath::Vented if !r.kind.has_vent_port() => {
-                c.fail(
-                    &format!("{s}.idle_path"),
-                    "a direct-acting relief has no vent port to vent",
-                );
-            }
-            IdlePath::OpenCentre { drop } => {
-                c.pressure(&format!("{s}.idle_path.drop_pa"), drop.value, true);
-            }
-            _ => {}
-        }
+        c.within(format_args!("phase_settings[{i}]"), |c| {
+            check_setting(c, d, setting)
+        });
     }
 }
 
-fn check_pump(c: &mut Checker, at: &str, p: &Pump) {
+fn check_setting(c: &mut Checker, d: &Design, setting: &super::power_unit::PhaseSetting) {
+    let r = &d.relief;
+    match setting.limit {
+        ActiveLimit::Main => {}
+        ActiveLimit::Remote { stage } => {
+            if stage >= d.remote_stages.len() {
+                c.fail(
+                    "limit",
+                    format!(
+                        "remote stage {} does not exist (the unit has {})",
+                        stage + 1,
+                        d.remote_stages.len()
+                    ),
+                );
+            }
+        }
+        ActiveLimit::Vented => {
+            if !r.kind.has_vent_port() {
+                c.fail("limit", "a direct-acting relief has no vent port to vent");
+            }
+        }
+    }
+    match setting.idle_path {
+        IdlePath::Vented if !r.kind.has_vent_port() => {
+            c.fail(
+                "idle_path",
+                "a direct-acting relief has no vent port to vent",
+            );
+        }
+        IdlePath::OpenCentre { drop } => {
+            c.pressure("idle_path.drop_pa", drop.value, true);
+        }
+        _ => {}
+    }
+}
+
+fn check_stage(c: &mut Checker, stage: &super::power_unit::UnloadingStage) {
+    c.within(format_args!("pump"), |c| check_pump(c, &stage.pump));
+    let setting = stage.unloading.setting.value;
+    let drop = stage.unloading.unloaded_drop.value;
+    let ok_setting = c.pressure("unloading.setting_pa", setting, false);
+    let ok_drop = c.pressure("unloading.unloaded_drop_pa", drop, true);
+    if ok_setting && ok_drop && drop >= setting {
+        c.fail(
+            "unloading.unloaded_drop_pa",
+            "must be below the unloading setting",
+        );
+    }
+    c.pressure("check.cracking_pa", stage.check.cracking.value, true);
+}
+
+fn check_pump(c: &mut Checker, p: &Pump) {
     c.plain(
-        &format!("{at}.displacement_m3_per_rev"),
+        "displacement_m3_per_rev",
         p.displacement.value,
         false,
         MAX_DISPLACEMENT,
         "m3/rev",
     );
+    c.fraction("volumetric_efficiency", p.volumetric_efficiency, false);
+    c.pressure("efficiency_pressure_pa", p.efficiency_pressure.value, false);
     c.fraction(
-        &format!("{at}.volumetric_efficiency"),
-        p.volumetric_efficiency,
-        false,
-    );
-    c.pressure(
-        &format!("{at}.efficiency_pressure_pa"),
-        p.efficiency_pressure.value,
-        false,
-    );
-    c.fraction(
-        &format!("{at}.hydromechanical_efficiency"),
+        "hydromechanical_efficiency",
         p.hydromechanical_efficiency,
         false,
     );
-    c.power(&format!("{at}.drag_power_w"), p.drag_power.value, true);
-    c.pressure(
-        &format!("{at}.rated_pressure_pa"),
-        p.rated_pressure.value,
-        false,
-    );
+    c.power("drag_power_w", p.drag_power.value, true);
+    c.pressure("rated_pressure_pa", p.rated_pressure.value, false);
     if let PumpControl::Compensated { setting } = p.control {
-        c.pressure(&format!("{at}.control.setting_pa"), setting.value, false);
+        c.pressure("control.setting_pa", setting.value, false);
     }
 }

@@ -1,0 +1,115 @@
+//! How long one solve takes: a 12-phase cycle on a three-pump unit (an invented baler).
+//!
+//!     cargo bench --bench solve
+//!
+//! Prints the time per solve (the best of several batches, and their median). Target: under
+//! 20 microseconds, so a staging search over tens of thousands of designs stays interactive.
+
+#[path = "../tests/common/mod.rs"]
+mod common;
+
+use common::*;
+use phasewise::engine::cycle::{Direction, HoldMode, SpeedRule};
+use phasewise::engine::valve::{ActiveLimit, IdlePath, ReliefKind};
+use std::hint::black_box;
+use std::time::Instant;
+
+fn baler_job() -> phasewise::engine::Job {
+    let ram = |name, force, stroke, direction, speed| {
+        move_phase(name, 160.0, 90.0, stroke, direction, force, 5.0, speed)
+    };
+    let cycle = vec![
+        ram(
+            "fast forward",
+            8.0,
+            900.0,
+            Direction::Extend,
+            SpeedRule::AllPumpFlow,
+        ),
+        ram(
+            "pre-compress",
+            150.0,
+            200.0,
+            Direction::Extend,
+            SpeedRule::AllPumpFlow,
+        ),
+        ram(
+            "compress",
+            320.0,
+            120.0,
+            Direction::Extend,
+            SpeedRule::AllPumpFlow,
+        ),
+        hold("dwell", 170.0, 3.0, HoldMode::HeldByPump),
+        direct("decompress", 5.0, 20.0, 0.8),
+        ram(
+            "return",
+            10.0,
+            1220.0,
+            Direction::Retract,
+            SpeedRule::AllPumpFlow,
+        ),
+        idle("door open", 6.0),
+        ram(
+            "tie-off advance",
+            6.0,
+            300.0,
+            Direction::Extend,
+            metered_speed(0.08),
+        ),
+        hold("tie", 60.0, 4.0, HoldMode::LockedByCheck),
+        ram(
+            "tie-off return",
+            4.0,
+            300.0,
+            Direction::Retract,
+            SpeedRule::AllPumpFlow,
+        ),
+        direct("eject", 60.0, 45.0, 2.5),
+        idle("load", 20.0),
+    ];
+    let mut d = design(
+        "three pumps",
+        motor(45.0, 1480.0, 0.93),
+        vec![
+            stage(fixed_pump(90.0, 0.94, 210.0, 0.9, 0.6), 60.0, 4.0, 0.5),
+            stage(fixed_pump(45.0, 0.94, 210.0, 0.9, 0.4), 120.0, 4.0, 0.5),
+        ],
+        fixed_pump(16.0, 0.94, 210.0, 0.9, 0.2),
+        relief(ReliefKind::PilotOperated, 210.0, 250.0, 0.97),
+        cycle.len(),
+    );
+    d.remote_stages = vec![bar_(80.0)];
+    d.phase_settings[8].limit = ActiveLimit::Remote { stage: 0 };
+    d.phase_settings[11].idle_path = IdlePath::Vented;
+    job(cycle, vec![d])
+}
+
+/// Best and median microseconds per call of `f` over 15 batches.
+fn time(f: impl Fn()) -> (f64, f64) {
+    let per_batch = 20_000;
+    let mut batches: Vec<f64> = (0..15)
+        .map(|_| {
+            let start = Instant::now();
+            for _ in 0..per_batch {
+                f();
+            }
+            start.elapsed().as_secs_f64() / per_batch as f64 * 1e6
+        })
+        .collect();
+    batches.sort_by(f64::total_cmp);
+    (batches[0], batches[batches.len() / 2])
+}
+
+fn main() {
+    let job = baler_job();
+    phasewise::engine::solve(&job).expect("the benchmark job is valid");
+    let (best, median) = time(|| {
+        black_box(phasewise::engine::solve(black_box(&job)).ok());
+    });
+    println!("solve, 12 phases, 3 pumps, 1 design: {best:.2} us best, {median:.2} us median (15 batches of 20000)");
+    let (best, median) = time(|| {
+        black_box(phasewise::engine::validate::validate(black_box(&job)).ok());
+    });
+    println!("  of which validation: {best:.2} us best, {median:.2} us median");
+}
