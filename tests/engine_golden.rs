@@ -13,10 +13,17 @@ fn job_files_solve_to_their_recorded_output() {
     let dir = Path::new(env!("CARGO_MANIFEST_DIR")).join("tests/fixtures");
     let bless = std::env::var_os("PHASEWISE_BLESS").is_some();
     let mut checked = 0;
-    let mut entries: Vec<_> = std::fs::read_dir(&dir).unwrap().map(|e| e.unwrap().path()).collect();
+    let mut entries: Vec<_> = std::fs::read_dir(&dir)
+        .unwrap()
+        .map(|e| e.unwrap().path())
+        .collect();
     entries.sort();
     for job in entries {
-        let Some(name) = job.file_name().and_then(|n| n.to_str()).and_then(|n| n.strip_suffix(".job.json")) else {
+        let Some(name) = job
+            .file_name()
+            .and_then(|n| n.to_str())
+            .and_then(|n| n.strip_suffix(".job.json"))
+        else {
             continue;
         };
         let text = std::fs::read_to_string(&job).unwrap();
@@ -28,11 +35,24 @@ fn job_files_solve_to_their_recorded_output() {
         if bless {
             std::fs::write(&golden, format!("{output}\n")).unwrap();
         } else {
-            let expected = std::fs::read_to_string(&golden)
-                .unwrap_or_else(|_| panic!("{} is missing: record it with PHASEWISE_BLESS=1", golden.display()));
-            assert_eq!(output.trim_end(), expected.trim_end(), "{name}: the output differs from {}", golden.display());
+            let expected = std::fs::read_to_string(&golden).unwrap_or_else(|_| {
+                panic!(
+                    "{} is missing: record it with PHASEWISE_BLESS=1",
+                    golden.display()
+                )
+            });
+            assert_eq!(
+                output.trim_end(),
+                expected.trim_end(),
+                "{name}: the output differs from {}",
+                golden.display()
+            );
         }
         checked += 1;
     }
-    assert!(checked >= 2, "only {checked} fixtures found in {}", dir.display());
+    assert!(
+        checked >= 2,
+        "only {checked} fixtures found in {}",
+        dir.display()
+    );
 }

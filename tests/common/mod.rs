@@ -134,6 +134,7 @@ pub fn design(
     }
 }
 
+#[allow(clippy::too_many_arguments)] // a move phase reads best as one line of its figures
 pub fn move_phase(
     name: &str,
     bore_mm: f64,
