@@ -36,6 +36,26 @@ pub struct MovePhase {
     pub speed: SpeedRule,
 }
 
+impl MovePhase {
+    /// The pressure the load needs at the cylinder port, Pa (force over the working area).
+    pub fn load_pressure(&self) -> f64 {
+        match self.load {
+            Load::Force { force } => force.value / self.cylinder.working_area_m2(self.direction),
+            Load::Pressure { pressure } => pressure.value,
+        }
+    }
+
+    /// States the same load as a pressure (`true`) or as a force (`false`).
+    pub fn give_load_as_pressure(&mut self, as_pressure: bool) {
+        let area = self.cylinder.working_area_m2(self.direction);
+        self.load = match (as_pressure, self.load) {
+            (true, Load::Force { force }) => Load::Pressure { pressure: Pressure::new::<uom::si::pressure::pascal>(force.value / area) },
+            (false, Load::Pressure { pressure }) => Load::Force { force: Force::new::<uom::si::force::newton>(pressure.value * area) },
+            (_, load) => load,
+        };
+    }
+}
+
 #[derive(Clone, Copy, Debug, PartialEq, Serialize, Deserialize)]
 pub struct Cylinder {
     #[serde(rename = "bore_m")]

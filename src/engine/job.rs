@@ -2,7 +2,7 @@
 //! and the oil. This is what is saved, exported and shared.
 
 use super::cycle::Phase;
-use super::power_unit::Design;
+use super::power_unit::{Design, PhaseSetting};
 use super::units::UnitSystem;
 use serde::{Deserialize, Serialize};
 use uom::si::f64::{MassDensity, SpecificHeatCapacity, Volume};
@@ -19,6 +19,9 @@ pub struct Job {
     pub name: String,
     #[serde(default)]
     pub notes: String,
+    /// An invented example (the demo job), shown as such.
+    #[serde(default)]
+    pub example: bool,
     /// How the job is shown; the engine always works in SI.
     #[serde(default)]
     pub units: UnitSystem,
@@ -87,6 +90,76 @@ impl std::fmt::Display for JobFileError {
     }
 }
 
+/// A phase taken out of a job, with each design's setting for it, so it can be put back.
+#[derive(Clone, Debug, PartialEq)]
+pub struct RemovedPhase {
+    pub index: usize,
+    pub phase: Phase,
+    pub settings: Vec<PhaseSetting>,
+}
+
+/// Editing the cycle: each operation keeps every design's per-phase settings in step with the
+/// phases (one setting per phase, in the same order). Out-of-range indices do nothing.
+impl Job {
+    /// Inserts `phase` at `index` (clamped to the end); every design gets the default setting.
+    pub fn insert_phase(&mut self, index: usize, phase: Phase) {
+        let index = index.min(self.cycle.len());
+        self.cycle.insert(index, phase);
+        for design in &mut self.designs {
+            let at = index.min(design.phase_settings.len());
+            design.phase_settings.insert(at, PhaseSetting::default());
+        }
+    }
+
+    /// Copies the phase at `index` (and each design's setting for it) just after it.
+    pub fn duplicate_phase(&mut self, index: usize) {
+        let Some(phase) = self.cycle.get(index).cloned() else { return };
+        self.cycle.insert(index + 1, phase);
+        for design in &mut self.designs {
+            if let Some(setting) = design.phase_settings.get(index).copied() {
+                design.phase_settings.insert(index + 1, setting);
+            }
+        }
+    }
+
+    /// Takes out the phase at `index`, with what is needed to put it back.
+    pub fn remove_phase(&mut self, index: usize) -> Option<RemovedPhase> {
+        if index >= self.cycle.len() {
+            return None;
+        }
+        let phase = self.cycle.remove(index);
+        let settings = self
+            .designs
+            .iter_mut()
+            .map(|d| if index < d.phase_settings.len() { d.phase_settings.remove(index) } else { PhaseSetting::default() })
+            .collect();
+        Some(RemovedPhase { index, phase, settings })
+    }
+
+    /// Puts back a removed phase where it was (or at the end, if the cycle is now shorter).
+    pub fn restore_phase(&mut self, removed: RemovedPhase) {
+        let index = removed.index.min(self.cycle.len());
+        self.cycle.insert(index, removed.phase);
+        for (design, setting) in self.designs.iter_mut().zip(removed.settings) {
+            let at = index.min(design.phase_settings.len());
+            design.phase_settings.insert(at, setting);
+        }
+    }
+
+    /// Swaps the phase at `index` with the one after it.
+    pub fn move_phase_down(&mut self, index: usize) {
+        if index + 1 >= self.cycle.len() {
+            return;
+        }
+        self.cycle.swap(index, index + 1);
+        for design in &mut self.designs {
+            if index + 1 < design.phase_settings.len() {
+                design.phase_settings.swap(index, index + 1);
+            }
+        }
+    }
+}
+
 impl Job {
     /// Reads a job file, checking its format version first.
     pub fn from_json(text: &str) -> Result<Job, JobFileError> {
@@ -107,5 +180,56 @@ impl Job {
     /// The job as a job file (pretty JSON).
     pub fn to_json(&self) -> String {
         serde_json::to_string_pretty(self).expect("a job always serialises")
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::super::demo::scrap_baler;
+    use super::super::valve::ActiveLimit;
+
+    fn names(job: &super::Job) -> Vec<String> {
+        job.cycle.iter().map(|p| p.name.clone()).collect()
+    }
+
+    #[test]
+    fn cycle_edits_keep_every_designs_settings_in_step() {
+        let mut job = scrap_baler();
+        let before = job.clone();
+        // The proposal's dwell (phase 2) is on a remote stage: follow that setting around.
+        let dwell_setting = job.designs[1].phase_settings[2];
+        assert_eq!(dwell_setting.limit, ActiveLimit::Remote { stage: 0 });
+
+        job.move_phase_down(2);
+        assert_eq!(job.cycle[3].name, "Dwell");
+        assert_eq!(job.designs[1].phase_settings[3], dwell_setting);
+
+        job.duplicate_phase(3);
+        assert_eq!(names(&job)[3..5], ["Dwell", "Dwell"]);
+        assert_eq!(job.designs[1].phase_settings[4], dwell_setting);
+
+        let removed = job.remove_phase(4).unwrap();
+        assert_eq!(removed.settings[1], dwell_setting);
+        job.insert_phase(0, removed.phase.clone());
+        assert_eq!(job.designs[1].phase_settings[0], Default::default());
+        job.remove_phase(0);
+
+        let removed = job.remove_phase(3).unwrap();
+        job.restore_phase(removed);
+        job.move_phase_down(2);
+        assert_eq!(job, before);
+        for design in &job.designs {
+            assert_eq!(design.phase_settings.len(), job.cycle.len());
+        }
+    }
+
+    #[test]
+    fn out_of_range_edits_do_nothing() {
+        let mut job = scrap_baler();
+        let before = job.clone();
+        assert!(job.remove_phase(99).is_none());
+        job.duplicate_phase(99);
+        job.move_phase_down(4);
+        assert_eq!(job, before);
     }
 }

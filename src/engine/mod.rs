@@ -4,6 +4,7 @@
 //! Bad input comes back as [`InputError`]s, never a panic, a NaN or an infinity.
 
 pub mod cycle;
+pub mod demo;
 pub mod finding;
 pub mod job;
 pub mod ledger;

@@ -8,7 +8,7 @@
 //! says so. Within a state every flow is a straight line in pressure between breakpoints, so
 //! each balance is solved exactly, without iteration.
 
-use super::cycle::{HoldMode, Load, Phase, PhaseKind, SpeedRule};
+use super::cycle::{HoldMode, Phase, PhaseKind, SpeedRule};
 use super::finding::Finding;
 use super::ledger::{watts, PowerLedger};
 use super::power_unit::{Design, PhaseSetting};
@@ -212,10 +212,7 @@ fn demand(phase: &Phase) -> Demand {
     match &phase.kind {
         PhaseKind::Move(m) => {
             let area = m.cylinder.working_area_m2(m.direction);
-            let load = match m.load {
-                Load::Force { force } => force.value / area,
-                Load::Pressure { pressure } => pressure.value,
-            };
+            let load = m.load_pressure();
             let metered = match m.speed {
                 SpeedRule::AllPumpFlow => None,
                 SpeedRule::MeteredSpeed { speed } => Some(speed.value * area),

@@ -65,6 +65,121 @@ impl UnitSystem {
     }
 }
 
+/// What a number on screen measures: it decides the unit shown beside it in each system, the
+/// decimals, and the conversion to and from the SI value the engine keeps.
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub enum Measure {
+    Pressure,
+    Flow,
+    Power,
+    /// Bores, rods and strokes.
+    Length,
+    Force,
+    Displacement,
+    /// Cylinder speed.
+    Speed,
+    /// Motor shaft speed.
+    ShaftSpeed,
+    Duration,
+    /// An efficiency or share, kept as a fraction.
+    Percent,
+    OilVolume,
+    Density,
+    SpecificHeat,
+    /// Heat load, shown in kW or Btu/h.
+    Heat,
+    /// Oil temperature rise rate, kept in K/min.
+    RiseRate,
+    /// Energy, kept in J, shown in kWh.
+    Energy,
+    /// A plain multiplier (a service factor).
+    Factor,
+}
+
+impl Measure {
+    /// The unit's label, how many SI units one shown unit is, and the decimals shown.
+    pub fn unit(self, system: UnitSystem) -> (&'static str, f64, usize) {
+        use UnitSystem::{Si, UsCustomary as Us};
+        match (self, system) {
+            (Measure::Pressure, Si) => ("bar", BAR, 1),
+            (Measure::Pressure, Us) => ("psi", PSI, 0),
+            (Measure::Flow, Si) => ("L/min", LITRE_PER_MINUTE, 1),
+            (Measure::Flow, Us) => ("gpm", GALLON_PER_MINUTE, 2),
+            (Measure::Power, Si) => ("kW", 1e3, 2),
+            (Measure::Power, Us) => ("hp", HORSEPOWER, 2),
+            (Measure::Length, Si) => ("mm", 1e-3, 1),
+            (Measure::Length, Us) => ("in", INCH, 3),
+            (Measure::Force, Si) => ("kN", 1e3, 2),
+            (Measure::Force, Us) => ("lbf", POUND_FORCE, 0),
+            (Measure::Displacement, Si) => ("cm³/rev", 1e-6, 2),
+            (Measure::Displacement, Us) => ("in³/rev", INCH * INCH * INCH, 3),
+            (Measure::Speed, Si) => ("m/s", 1.0, 3),
+            (Measure::Speed, Us) => ("in/s", INCH, 2),
+            (Measure::ShaftSpeed, _) => ("rpm", std::f64::consts::TAU / 60.0, 0),
+            (Measure::Duration, _) => ("s", 1.0, 2),
+            (Measure::Percent, _) => ("%", 0.01, 1),
+            (Measure::OilVolume, Si) => ("L", 1e-3, 0),
+            (Measure::OilVolume, Us) => ("gal", US_GALLON, 1),
+            (Measure::Density, _) => ("kg/m³", 1.0, 0),
+            (Measure::SpecificHeat, _) => ("kJ/(kg·K)", 1e3, 2),
+            (Measure::Heat, Si) => ("kW", 1e3, 2),
+            (Measure::Heat, Us) => ("Btu/h", BTU_IT / 3600.0, 0),
+            (Measure::RiseRate, Si) => ("K/min", 1.0, 2),
+            (Measure::RiseRate, Us) => ("°F/min", 1.0 / 1.8, 2),
+            (Measure::Energy, _) => ("kWh", KILOWATT_HOUR, 3),
+            (Measure::Factor, _) => ("×", 1.0, 2),
+        }
+    }
+
+    pub fn label(self, system: UnitSystem) -> &'static str {
+        self.unit(system).0
+    }
+
+    /// The SI value in the shown unit.
+    pub fn shown(self, system: UnitSystem, si: f64) -> f64 {
+        si / self.unit(system).1
+    }
+
+    /// The SI value of a number typed in the shown unit.
+    pub fn from_shown(self, system: UnitSystem, shown: f64) -> f64 {
+        shown * self.unit(system).1
+    }
+
+    /// The SI value as shown: its number at the unit's decimals, without the unit.
+    pub fn format(self, system: UnitSystem, si: f64) -> String {
+        let decimals = self.unit(system).2;
+        let shown = self.shown(system, si);
+        if !shown.is_finite() {
+            return "–".to_string();
+        }
+        // No "-0.0": a value that rounds to zero is shown as zero.
+        let text = format!("{shown:.decimals$}");
+        if text.trim_start_matches('-').chars().all(|c| c == '0' || c == '.') {
+            text.trim_start_matches('-').to_string()
+        } else {
+            text
+        }
+    }
+
+    /// The SI value with its unit, e.g. "210.0 bar".
+    pub fn with_unit(self, system: UnitSystem, si: f64) -> String {
+        format!("{} {}", self.format(system, si), self.label(system))
+    }
+}
+
+/// A number as typed into a field: a decimal point or a decimal comma, an optional sign and
+/// exponent. `None` for anything else, empty included ("inf" and "NaN" are not numbers here).
+pub fn parse_number(text: &str) -> Option<f64> {
+    let text = text.trim();
+    if text.is_empty() || !text.chars().all(|c| c.is_ascii_digit() || matches!(c, '.' | ',' | '-' | '+' | 'e' | 'E')) {
+        return None;
+    }
+    if !text.chars().any(|c| c.is_ascii_digit()) {
+        return None;
+    }
+    text.replace(',', ".").parse::<f64>().ok().filter(|v| v.is_finite())
+}
+
 /// Seconds, shown to a tenth: durations in a machine cycle.
 pub fn seconds(s: f64) -> String {
     format!("{s:.1} s")
@@ -121,6 +236,36 @@ mod tests {
         // Engineering ToolBox, "Hydraulic horsepower": 20 gpm at 1500 psi is 17.5 hp.
         let hp = 20.0 * GALLON_PER_MINUTE * 1500.0 * PSI / HORSEPOWER;
         assert!(close(hp, 17.5, 0.005), "{hp}");
+    }
+
+    #[test]
+    fn typed_numbers_take_a_point_or_a_comma_and_nothing_else() {
+        assert_eq!(parse_number("12,5"), Some(12.5));
+        assert_eq!(parse_number(" 210 "), Some(210.0));
+        assert_eq!(parse_number("-3.5"), Some(-3.5));
+        assert_eq!(parse_number("1e3"), Some(1000.0));
+        for bad in ["", "  ", "abc", "inf", "NaN", "1.2.3", "12 bar", "-", ",", "1e999"] {
+            assert_eq!(parse_number(bad), None, "{bad:?}");
+        }
+    }
+
+    #[test]
+    fn every_measure_converts_there_and_back_in_both_systems() {
+        use Measure::*;
+        let all = [Pressure, Flow, Power, Length, Force, Displacement, Speed, ShaftSpeed, Duration, Percent, OilVolume, Density, SpecificHeat, Heat, RiseRate, Energy, Factor];
+        for m in all {
+            for system in [UnitSystem::Si, UnitSystem::UsCustomary] {
+                let si = 123.456;
+                assert!(close(m.from_shown(system, m.shown(system, si)), si, 1e-12), "{m:?} {system:?}");
+                assert!(!m.label(system).is_empty());
+            }
+        }
+        // From the exact definitions: 1 in = 25.4 mm, 1 lbf = 4.4482216152605 N (NIST SP 811).
+        assert_eq!(Length.format(UnitSystem::UsCustomary, 0.0254), "1.000");
+        assert_eq!(Force.format(UnitSystem::Si, 4448.221_615_260_5), "4.45");
+        assert_eq!(Pressure.with_unit(UnitSystem::Si, 210e5), "210.0 bar");
+        assert_eq!(Pressure.format(UnitSystem::Si, -1.0), "0.0");
+        assert_eq!(Pressure.format(UnitSystem::Si, f64::NAN), "–");
     }
 
     #[test]

@@ -3,8 +3,14 @@
 //! The UI edits a job and shows what the engine returns; it holds no physics.
 
 pub mod area;
+mod charts;
+mod cycle_editor;
+pub mod field;
 mod icons;
+mod results;
 mod safety;
+pub mod state;
+mod unit_editor;
 
 use area::Area;
 use icons::{area_icon, CautionIcon, Logo};
@@ -15,6 +21,9 @@ use safety::SafetyPage;
 /// navigation bar (at the bottom on a phone, at the side on a wider screen).
 #[component]
 pub fn App() -> impl IntoView {
+    // Until jobs are kept on the device, every start opens the example job.
+    let state = state::JobState::new(crate::engine::demo::scrap_baler());
+    provide_context(state);
     let area = RwSignal::new(area_in_address());
 
     let listener = window_event_listener(leptos::ev::hashchange, move |_| {
@@ -29,7 +38,11 @@ pub fn App() -> impl IntoView {
     let marks_current = move |this: Area| move || (area.get() == this).then_some("page");
 
     view! {
-        <div class="shell">
+        <div
+            class="shell"
+            class:projector=move || state.display.with(|d| d.projector)
+            class:contrast=move || state.display.with(|d| d.high_contrast)
+        >
             <header class="topbar">
                 <a class="brand" href=Area::START.href() aria-label="Phasewise: back to the start">
                     <Logo />
@@ -72,6 +85,9 @@ fn area_in_address() -> Area {
 fn page(area: Area) -> AnyView {
     match area {
         Area::Safety => view! { <SafetyPage /> }.into_any(),
+        Area::Cycle => view! { <cycle_editor::CycleArea /> }.into_any(),
+        Area::PowerUnit => view! { <unit_editor::UnitArea /> }.into_any(),
+        Area::Results => view! { <results::ResultsArea /> }.into_any(),
         other => view! { <AreaIntro area=other /> }.into_any(),
     }
 }

@@ -205,6 +205,7 @@ pub fn job(cycle: Vec<Phase>, designs: Vec<Design>) -> Job {
         schema_version: SCHEMA_VERSION,
         name: "test job".into(),
         notes: String::new(),
+        example: false,
         units: UnitSystem::Si,
         cycle,
         designs,

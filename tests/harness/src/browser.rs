@@ -216,6 +216,63 @@ impl Browser {
             .unwrap_or_else(|e| panic!("cannot click `{css}`: {e}"));
     }
 
+    /// Replaces the text of an input as a user would: select all, delete, type (so every key
+    /// fires `input`, the deletion included).
+    pub async fn fill(&self, css: &str, text: &str) {
+        // WebDriver key codes: Control, "a", release modifiers, Backspace.
+        const SELECT_ALL_AND_DELETE: &str = "\u{E009}a\u{E000}\u{E003}";
+        let input = self.wait_for(css).await;
+        input
+            .send_keys(&format!("{SELECT_ALL_AND_DELETE}{text}"))
+            .await
+            .unwrap_or_else(|e| panic!("cannot type into `{css}`: {e}"));
+    }
+
+    /// An input's current value.
+    pub async fn value(&self, css: &str) -> String {
+        self.wait_for(css).await.prop("value").await.ok().flatten().unwrap_or_default()
+    }
+
+    /// Picks an option of a `<select>` by its value.
+    pub async fn choose(&self, css: &str, value: &str) {
+        self.wait_for(css).await.select_by_value(value).await.unwrap_or_else(|e| panic!("cannot choose {value} in `{css}`: {e}"));
+    }
+
+    /// How many elements match `css` right now.
+    pub async fn count(&self, css: &str) -> usize {
+        self.client().find_all(Locator::Css(css)).await.map(|v| v.len()).unwrap_or(0)
+    }
+
+    /// Waits up to ten seconds until the text of `css` satisfies `ok`, and returns it.
+    pub async fn wait_for_text(&self, css: &str, ok: impl Fn(&str) -> bool) -> String {
+        let started = Instant::now();
+        loop {
+            let text = match self.client().find(Locator::Css(css)).await {
+                Ok(element) => element.text().await.unwrap_or_default(),
+                Err(_) => String::new(),
+            };
+            if ok(&text) {
+                return text;
+            }
+            if started.elapsed() > Duration::from_secs(10) {
+                let shot = self.screenshot("text-timeout").await;
+                panic!("`{css}` still reads {text:?} after 10 s (screenshot: {})", shot.display());
+            }
+            tokio::time::sleep(Duration::from_millis(50)).await;
+        }
+    }
+
+    /// Saves a PNG of one element (scrolled into view) as `target/screenshots/<test>/<name>.png`.
+    pub async fn screenshot_of(&self, css: &str, name: &str) -> PathBuf {
+        let path = self.shots.join(format!("{name}.png"));
+        let element = self.wait_for(css).await;
+        match element.screenshot().await {
+            Ok(png) => std::fs::write(&path, png).expect("write screenshot"),
+            Err(e) => eprintln!("screenshot {name} failed: {e}"),
+        }
+        path
+    }
+
     /// The visible text of the first element matching `css`.
     pub async fn text(&self, css: &str) -> String {
         self.wait_for(css)

@@ -1,0 +1,125 @@
+//! The demo job: an invented scrap baler, loaded on first start and shown as example data.
+//! Its two-pump unit dumps the small pump over the main relief while the operator loads
+//! scrap; the proposal vents that idle and holds the dwell on a lower remote stage.
+
+use super::cycle::*;
+use super::job::{Job, Oil, Site, SCHEMA_VERSION};
+use super::motor::Motor;
+use super::power_unit::{Design, PhaseSetting, UnloadingStage};
+use super::pump::{Pump, PumpControl};
+use super::units::UnitSystem;
+use super::valve::*;
+use uom::si::angular_velocity::revolution_per_minute;
+use uom::si::f64::*;
+use uom::si::force::kilonewton;
+use uom::si::length::millimeter;
+use uom::si::power::kilowatt;
+use uom::si::pressure::bar;
+use uom::si::time::second;
+use uom::si::volume::{cubic_centimeter, liter};
+use uom::si::volume_rate::liter_per_minute;
+
+fn ram(name: &str, stroke_mm: f64, direction: Direction, force_kn: f64, line_bar: f64) -> Phase {
+    Phase {
+        name: name.into(),
+        kind: PhaseKind::Move(MovePhase {
+            cylinder: Cylinder {
+                bore: Length::new::<millimeter>(160.0),
+                rod: Length::new::<millimeter>(100.0),
+                stroke: Length::new::<millimeter>(stroke_mm),
+            },
+            direction,
+            load: Load::Force { force: Force::new::<kilonewton>(force_kn) },
+            line_loss: Pressure::new::<bar>(line_bar),
+            speed: SpeedRule::AllPumpFlow,
+        }),
+    }
+}
+
+fn pump(cc: f64) -> Pump {
+    Pump {
+        displacement: Volume::new::<cubic_centimeter>(cc),
+        volumetric_efficiency: 0.92,
+        efficiency_pressure: Pressure::new::<bar>(210.0),
+        hydromechanical_efficiency: 0.90,
+        drag_power: Power::new::<kilowatt>(0.15 + cc * 0.004),
+        rated_pressure: Pressure::new::<bar>(250.0),
+        control: PumpControl::Fixed,
+    }
+}
+
+/// The example job.
+pub fn scrap_baler() -> Job {
+    let cycle = vec![
+        ram("Fast approach", 900.0, Direction::Extend, 15.0, 5.0),
+        ram("Compress", 300.0, Direction::Extend, 300.0, 5.0),
+        Phase {
+            name: "Dwell".into(),
+            kind: PhaseKind::Hold(HoldPhase {
+                pressure: Pressure::new::<bar>(160.0),
+                duration: Time::new::<second>(4.0),
+                mode: HoldMode::HeldByPump,
+            }),
+        },
+        ram("Return", 1200.0, Direction::Retract, 10.0, 8.0),
+        Phase { name: "Load scrap".into(), kind: PhaseKind::Idle(IdlePhase { duration: Time::new::<second>(25.0) }) },
+    ];
+    let as_found = Design {
+        name: "As found".into(),
+        motor: Motor {
+            rated_power: Power::new::<kilowatt>(22.0),
+            full_load_speed: AngularVelocity::new::<revolution_per_minute>(1470.0),
+            full_load_efficiency: 0.91,
+            fixed_loss_share: super::motor::TYPICAL_FIXED_LOSS_SHARE,
+            service_factor: 1.0,
+        },
+        unloading_stages: vec![UnloadingStage {
+            pump: pump(63.0),
+            unloading: UnloadingValve { setting: Pressure::new::<bar>(70.0), unloaded_drop: Pressure::new::<bar>(4.0) },
+            check: CheckValve { cracking: Pressure::new::<bar>(0.5) },
+        }],
+        base_pump: pump(16.0),
+        relief: ReliefValve {
+            kind: ReliefKind::PilotOperated,
+            setting: Pressure::new::<bar>(210.0),
+            rated_flow: VolumeRate::new::<liter_per_minute>(160.0),
+            cracking_fraction: ReliefKind::PilotOperated.typical_cracking_fraction(),
+        },
+        remote_stages: vec![],
+        vent_pressure: Pressure::new::<bar>(1.7),
+        phase_settings: vec![PhaseSetting::default(); cycle.len()],
+    };
+    let mut proposed = as_found.clone();
+    proposed.name = "Proposed".into();
+    proposed.remote_stages = vec![Pressure::new::<bar>(175.0)];
+    proposed.phase_settings[2].limit = ActiveLimit::Remote { stage: 0 };
+    proposed.phase_settings[4].idle_path = IdlePath::Vented;
+    Job {
+        schema_version: SCHEMA_VERSION,
+        name: "Scrap baler (example)".into(),
+        notes: "An invented example: a two-pump baler whose small pump dumps over the relief while scrap is loaded.".into(),
+        example: true,
+        units: UnitSystem::Si,
+        cycle,
+        designs: vec![as_found, proposed],
+        site: Site { operating_hours_per_year: 3500.0, tariff_per_kwh: 0.18, currency: "EUR".into(), retrofit_price: 2400.0 },
+        oil: Oil::mineral(Volume::new::<liter>(400.0)),
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    #[test]
+    fn the_demo_job_solves_and_its_proposal_saves_energy() {
+        let report = super::super::solve(&super::scrap_baler()).expect("the demo job is valid");
+        assert_eq!(report.designs.len(), 2);
+        let saved = report.comparisons[0].annual_energy_saved_kwh;
+        assert!(saved > 0.0, "{saved}");
+        for design in &report.designs {
+            assert!(design.findings.is_empty(), "{}: {:?}", design.name, design.findings);
+            for phase in &design.phases {
+                assert!(phase.findings.is_empty(), "{}: {:?}", phase.name, phase.findings);
+            }
+        }
+    }
+}

@@ -1,0 +1,222 @@
+//! Charts drawn as SVG from the engine's report: the power ledger of each phase as a stacked
+//! bar, and the cycle's pressure, flow and power against time. Text stays at a readable size
+//! (the drawing is 400 units wide, so on a 360 px phone a unit is about a pixel).
+
+use crate::engine::units::{Measure, UnitSystem};
+use crate::engine::{DesignReport, PowerLedger};
+use leptos::prelude::*;
+
+const WIDTH: f64 = 400.0;
+const LEFT: f64 = 92.0;
+const RIGHT: f64 = 12.0;
+
+/// The ledger's items in the order they are stacked, with their legend text and CSS class.
+pub const LEDGER_ITEMS: [(&str, &str); 7] = [
+    ("Useful work", "seg-useful"),
+    ("Relief valve", "seg-relief"),
+    ("Flow control", "seg-metering"),
+    ("Unloading valves", "seg-unloading"),
+    ("Lines and valves", "seg-line"),
+    ("Inside the pumps", "seg-pump"),
+    ("Motor", "seg-motor"),
+];
+
+fn ledger_values(l: &PowerLedger) -> [f64; 7] {
+    [
+        l.useful_power.value,
+        l.relief_loss.value,
+        l.metering_loss.value,
+        l.unloading_loss.value,
+        l.line_valve_loss.value,
+        l.pump_internal_loss.value,
+        l.motor_loss.value,
+    ]
+}
+
+/// A round step for an axis reaching `max`: 1, 2 or 5 times a power of ten, about four ticks.
+pub fn nice_step(max: f64) -> f64 {
+    if !(max.is_finite() && max > 0.0) {
+        return 1.0;
+    }
+    let raw = max / 4.0;
+    let magnitude = 10f64.powf(raw.log10().floor());
+    let step = [1.0, 2.0, 5.0, 10.0].into_iter().map(|m| m * magnitude).find(|s| *s >= raw).unwrap_or(10.0 * magnitude);
+    step
+}
+
+fn ticks(max: f64) -> Vec<f64> {
+    let step = nice_step(max);
+    let count = (max / step).ceil().max(1.0) as usize;
+    (0..=count).map(|i| i as f64 * step).collect()
+}
+
+/// Each phase's electrical input split into where it goes, on one power scale.
+#[component]
+pub fn LedgerChart(design: DesignReport, units: UnitSystem, #[prop(into)] scale_w: f64) -> impl IntoView {
+    let row = 30.0;
+    let top = 8.0;
+    let axis = 34.0;
+    let height = top + row * design.phases.len() as f64 + axis;
+    let plot = WIDTH - LEFT - RIGHT;
+    let shown_max = Measure::Power.shown(units, scale_w);
+    let axis_ticks = ticks(shown_max);
+    let axis_max = *axis_ticks.last().unwrap_or(&1.0);
+    let x = move |w: f64| LEFT + plot * Measure::Power.shown(units, w) / axis_max;
+    let label = Measure::Power.label(units);
+    let rows = design
+        .phases
+        .iter()
+        .enumerate()
+        .map(|(i, phase)| {
+            let y = top + row * i as f64;
+            let mut start = 0.0;
+            let segments = ledger_values(&phase.ledger)
+                .into_iter()
+                .zip(LEDGER_ITEMS)
+                .filter(|(w, _)| *w > 0.0)
+                .map(|(w, (name, class))| {
+                    let (x0, x1) = (x(start), x(start + w));
+                    start += w;
+                    view! {
+                        <rect class=class x=x0 y=y + 4.0 width=(x1 - x0).max(0.0) height=row - 8.0>
+                            <title>{format!("{}: {name} {}", phase.name, Measure::Power.with_unit(units, w))}</title>
+                        </rect>
+                    }
+                })
+                .collect_view();
+            let name: String = phase.name.chars().take(12).collect();
+            view! {
+                <text class="chart-label" x=LEFT - 6.0 y=y + row / 2.0 + 5.0 text-anchor="end">{name}</text>
+                {segments}
+            }
+        })
+        .collect_view();
+    let grid = axis_ticks
+        .iter()
+        .map(|t| {
+            let gx = LEFT + plot * t / axis_max;
+            view! {
+                <line class="chart-grid" x1=gx x2=gx y1=top y2=height - axis + 4.0 />
+                <text class="chart-tick" x=gx y=height - axis + 20.0 text-anchor="middle">{format_tick(*t)}</text>
+            }
+        })
+        .collect_view();
+    view! {
+        <figure class="chart">
+            <svg viewBox=format!("0 0 {WIDTH} {height}") role="img" aria-label="Where the power goes in each phase">
+                {grid}
+                {rows}
+                <text class="chart-axis" x=LEFT + plot / 2.0 y=height - 2.0 text-anchor="middle">{format!("Electrical input, {label}")}</text>
+            </svg>
+            <ul class="legend">
+                {LEDGER_ITEMS.iter().map(|(name, class)| view! {
+                    <li><span class=format!("swatch {class}") aria-hidden="true"></span>{*name}</li>
+                }).collect_view()}
+            </ul>
+        </figure>
+    }
+}
+
+fn format_tick(t: f64) -> String {
+    if t == t.round() {
+        format!("{t:.0}")
+    } else if (t * 10.0) == (t * 10.0).round() {
+        format!("{t:.1}")
+    } else {
+        format!("{t:.2}")
+    }
+}
+
+/// One panel of the timeline: a quantity through the cycle, phase by phase.
+fn timeline_panel(title: String, values: &[(f64, f64)], measure: Measure, units: UnitSystem, top: f64, height: f64, total: f64) -> impl IntoView {
+    let plot = WIDTH - LEFT - RIGHT;
+    let max = values.iter().map(|(_, v)| measure.shown(units, *v)).fold(0.0, f64::max);
+    let axis_ticks = ticks(max);
+    let axis_max = *axis_ticks.last().unwrap_or(&1.0);
+    let y = move |v: f64| top + height - height * measure.shown(units, v) / axis_max;
+    let x = move |t: f64| LEFT + plot * t / total;
+    let mut points = String::new();
+    let mut t = 0.0;
+    for (duration, value) in values {
+        points += &format!("{:.2},{:.2} {:.2},{:.2} ", x(t), y(*value), x(t + duration), y(*value));
+        t += duration;
+    }
+    let grid = axis_ticks
+        .iter()
+        .map(|tick| {
+            let gy = top + height - height * tick / axis_max;
+            view! {
+                <line class="chart-grid" x1=LEFT x2=WIDTH - RIGHT y1=gy y2=gy />
+                <text class="chart-tick" x=LEFT - 6.0 y=gy + 4.0 text-anchor="end">{format_tick(*tick)}</text>
+            }
+        })
+        .collect_view();
+    view! {
+        <text class="chart-title" x=LEFT y=top - 8.0>{format!("{title}, {}", measure.label(units))}</text>
+        {grid}
+        <polyline class="chart-line" points=points />
+    }
+}
+
+/// Pressure, flow to the actuator and electrical power through one cycle.
+#[component]
+pub fn TimelineChart(design: DesignReport, units: UnitSystem) -> impl IntoView {
+    let total: f64 = design.phases.iter().map(|p| p.point.duration.value).sum();
+    let panel = 70.0;
+    let gap = 34.0;
+    let height = 3.0 * (panel + gap) + 30.0;
+    let series = |f: &dyn Fn(&crate::engine::PhaseReport) -> f64| design.phases.iter().map(|p| (p.point.duration.value, f(p))).collect::<Vec<_>>();
+    let pressure = series(&|p| p.point.system_pressure.value);
+    let flow = series(&|p| p.point.actuator_flow.value);
+    let power = series(&|p| p.ledger.electrical_input.value);
+    let plot = WIDTH - LEFT - RIGHT;
+    let time_ticks = ticks(total);
+    let time_max = *time_ticks.last().unwrap_or(&1.0);
+    let scale = total / time_max;
+    let base = 3.0 * (panel + gap) - gap + 8.0;
+    let x_axis = time_ticks
+        .iter()
+        .map(|t| {
+            let gx = LEFT + plot * t / time_max;
+            view! { <text class="chart-tick" x=gx y=base + 14.0 text-anchor="middle">{format_tick(*t)}</text> }
+        })
+        .collect_view();
+    // Phase boundaries, so a bump can be matched to its phase.
+    let mut t = 0.0;
+    let bounds = design
+        .phases
+        .iter()
+        .map(|p| {
+            t += p.point.duration.value;
+            let gx = LEFT + plot * (t / total) * scale;
+            view! { <line class="chart-phase" x1=gx x2=gx y1=gap - 8.0 y2=base /> }
+        })
+        .collect_view();
+    view! {
+        <figure class="chart">
+            <svg viewBox=format!("0 0 {WIDTH} {height}") role="img" aria-label="Pressure, flow and power through the cycle">
+                {bounds}
+                {timeline_panel("Pressure".into(), &pressure, Measure::Pressure, units, gap, panel, total / scale)}
+                {timeline_panel("Flow to the actuator".into(), &flow, Measure::Flow, units, gap + panel + gap, panel, total / scale)}
+                {timeline_panel("Electrical input".into(), &power, Measure::Power, units, gap + 2.0 * (panel + gap), panel, total / scale)}
+                {x_axis}
+                <text class="chart-axis" x=LEFT + plot / 2.0 y=height - 2.0 text-anchor="middle">"Time in the cycle, s"</text>
+            </svg>
+        </figure>
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn axis_steps_are_round_and_cover_the_maximum() {
+        for (max, step) in [(9.3, 5.0), (11.28, 5.0), (62.4, 20.0), (0.8, 0.2), (210.0, 100.0), (1.0, 0.5)] {
+            assert_eq!(nice_step(max), step, "{max}");
+            assert!(*ticks(max).last().unwrap() >= max);
+        }
+        assert_eq!(nice_step(0.0), 1.0);
+        assert_eq!(nice_step(f64::NAN), 1.0);
+    }
+}

@@ -1,0 +1,248 @@
+//! The results area: what the engine says about the job, redrawn on every edit. While the
+//! job has an error, the last good results stay, marked stale, with what to fix.
+
+use super::charts::{LedgerChart, TimelineChart};
+use super::field::UnitSwitch;
+use super::state::{use_job, Display};
+use super::unit_editor::DesignTabs;
+use crate::engine::units::{Measure, UnitSystem};
+use crate::engine::{DesignReport, Job, JobReport, PumpState};
+use crate::engine::valve::ActiveLimit;
+use leptos::prelude::*;
+
+/// Where a field path points, in words: "Phase 3 (Dwell)" or "Unit “Proposed”".
+pub fn place_of(field: &str, job: &Job) -> String {
+    let index = |prefix: &str| field.strip_prefix(prefix).and_then(|rest| rest.split(']').next()).and_then(|n| n.parse::<usize>().ok());
+    if let Some(i) = index("cycle[") {
+        let name = job.cycle.get(i).map(|p| p.name.as_str()).unwrap_or("");
+        return format!("Phase {} ({name})", i + 1);
+    }
+    if let Some(i) = index("designs[") {
+        let name = job.designs.get(i).map(|d| d.name.as_str()).unwrap_or("");
+        return format!("Unit “{name}”");
+    }
+    match field.split('.').next() {
+        Some("site") => "Site".into(),
+        Some("oil") => "Oil".into(),
+        _ => "Job".into(),
+    }
+}
+
+/// The display switches: projector view and high contrast.
+#[component]
+pub fn DisplaySwitches() -> impl IntoView {
+    let state = use_job();
+    let toggle = move |name: &'static str, get: fn(&Display) -> bool, flip: fn(&mut Display)| {
+        view! {
+            <button
+                type="button"
+                class="toggle"
+                aria-pressed=move || if state.display.with(get) { "true" } else { "false" }
+                on:click=move |_| state.display.update(flip)
+            >
+                {name}
+            </button>
+        }
+    };
+    view! {
+        <div class="segmented" role="group" aria-label="Display">
+            {toggle("Projector", |d| d.projector, |d| d.projector = !d.projector)}
+            {toggle("High contrast", |d| d.high_contrast, |d| d.high_contrast = !d.high_contrast)}
+        </div>
+    }
+}
+
+#[component]
+pub fn ResultsArea() -> impl IntoView {
+    let state = use_job();
+    let report = move || state.result.get().ok().or_else(|| state.last_good.get());
+    view! {
+        <section class="area results" aria-labelledby="area-title">
+            <div class="area-head">
+                <h1 id="area-title">"Results"</h1>
+                <UnitSwitch />
+                <DisplaySwitches />
+            </div>
+            <super::cycle_editor::ExampleBanner />
+            <StaleNotice />
+            <DesignTabs />
+            {move || match report() {
+                // Read here, so a new design choice or unit system redraws the report.
+                Some(report) => view! { <ReportView report=report d=state.design_index() units=state.units() currency=state.job.with(|j| j.site.currency.clone()) /> }.into_any(),
+                None => view! {
+                    <p class="empty-note">"Results appear as soon as every figure of the job is valid: see the fields marked in red."</p>
+                }.into_any(),
+            }}
+        </section>
+    }
+}
+
+/// Says the results are not for the job as it now stands, and why.
+#[component]
+fn StaleNotice() -> impl IntoView {
+    let state = use_job();
+    move || {
+        state.result.with(|r| r.as_ref().err().cloned()).map(|errors| {
+            let job = state.job.get();
+            let count = errors.len();
+            view! {
+                <div class="stale-notice" role="alert" data-stale="true">
+                    <strong>{if state.last_good.with(|g| g.is_some()) { "Not up to date. " } else { "No results yet. " }}</strong>
+                    {format!(
+                        "{count} {} to fix; the figures below are from the last valid entries.",
+                        if count == 1 { "figure" } else { "figures" }
+                    )}
+                    <ul>
+                        {errors.iter().take(5).map(|e| view! { <li>{format!("{}: {}", place_of(&e.field, &job), e.message)}</li> }).collect_view()}
+                    </ul>
+                </div>
+            }
+        })
+    }
+}
+
+#[component]
+fn ReportView(report: JobReport, d: usize, units: UnitSystem, currency: String) -> impl IntoView {
+    let d = d.min(report.designs.len().saturating_sub(1));
+    let design = report.designs[d].clone();
+    // One power scale for every design, so their bars compare.
+    let scale = report
+        .designs
+        .iter()
+        .flat_map(|x| x.phases.iter().map(|p| p.ledger.electrical_input.value))
+        .fold(0.0, f64::max);
+    let comparison = (d > 0).then(|| report.comparisons.get(d - 1).cloned()).flatten();
+    let drawn = scale > 0.0;
+    view! {
+        <Totals design=design.clone() units=units currency=currency.clone() />
+        {comparison.map(|c| view! {
+            <div class="comparison card" data-comparison="true">
+                <h2>{format!("Against “{}”", c.baseline)}</h2>
+                <dl class="figures">
+                    <Figure label="Average power saved" value=Measure::Power.with_unit(units, c.average_power_saved.value) key="saved-power" />
+                    <Figure label="Heat load saved" value=Measure::Heat.with_unit(units, c.heat_load_saved.value) key="saved-heat" />
+                    <Figure label="Motor RMS load saved" value=Measure::Power.with_unit(units, c.rms_shaft_saved.value) key="saved-rms" />
+                    <Figure label="Energy saved a year" value=format!("{:.0} kWh", c.annual_energy_saved_kwh) key="saved-energy" />
+                    <Figure label="Cost saved a year" value=format!("{:.0} {currency}", c.annual_cost_saved) key="saved-cost" />
+                    <Figure label="Simple payback" value=c.payback_years.map_or("no saving".to_string(), |y| format!("{:.1} years", y)) key="payback" />
+                </dl>
+            </div>
+        })}
+        <h2>"Where the power goes"</h2>
+        {if drawn {
+            view! { <LedgerChart design=design.clone() units=units scale_w=scale /> }.into_any()
+        } else {
+            view! { <p class="empty-note">"No power is drawn in this cycle (the motor is stopped throughout), so there is nothing to chart."</p> }.into_any()
+        }}
+        <h2>"Through the cycle"</h2>
+        <TimelineChart design=design.clone() units=units />
+        <h2>"Phase by phase"</h2>
+        <ol class="phase-results">
+            {design.phases.iter().enumerate().map(|(i, p)| view! { <PhaseResult i=i phase=p.clone() units=units /> }).collect_view()}
+        </ol>
+        {(!design.findings.is_empty()).then(|| view! {
+            <h2>"About this unit"</h2>
+            <ul class="findings">
+                {design.findings.iter().map(|f| view! { <li>{f.describe(units)}</li> }).collect_view()}
+            </ul>
+        })}
+    }
+}
+
+#[component]
+fn Figure(label: &'static str, #[prop(into)] value: String, key: &'static str) -> impl IntoView {
+    view! {
+        <div class="figure">
+            <dt>{label}</dt>
+            <dd data-total=key>{value}</dd>
+        </div>
+    }
+}
+
+#[component]
+fn Totals(design: DesignReport, units: UnitSystem, currency: String) -> impl IntoView {
+    let t = design.totals;
+    view! {
+        <div class="card totals">
+            <h2>{format!("“{}” over one cycle", design.name)}</h2>
+            <dl class="figures">
+                <Figure label="Cycle time" value=Measure::Duration.with_unit(units, t.cycle_time.value) key="cycle-time" />
+                <Figure label="Energy per cycle" value=Measure::Energy.with_unit(units, t.energy_per_cycle.value) key="energy-per-cycle" />
+                <Figure label="Average input" value=Measure::Power.with_unit(units, t.average_electrical.value) key="average" />
+                <Figure label="Peak input" value=Measure::Power.with_unit(units, t.peak_electrical.value) key="peak" />
+                <Figure label="Motor load, RMS" value=Measure::Power.with_unit(units, t.rms_shaft.value) key="rms-shaft" />
+                <Figure label="Motor load, peak" value=Measure::Power.with_unit(units, t.peak_shaft.value) key="peak-shaft" />
+                <Figure label="Heat into the oil" value=Measure::Heat.with_unit(units, t.heat_load.value) key="heat" />
+                <Figure label="Oil warms, no cooler" value=Measure::RiseRate.with_unit(units, t.oil_rise_k_per_minute) key="oil-rise" />
+                <Figure label="Energy a year" value=format!("{:.0} kWh", t.annual_energy_kwh) key="annual-energy" />
+                <Figure label="Cost a year" value=format!("{:.0} {currency}", t.annual_cost) key="annual-cost" />
+            </dl>
+        </div>
+    }
+}
+
+#[component]
+fn PhaseResult(i: usize, phase: crate::engine::PhaseReport, units: UnitSystem) -> impl IntoView {
+    let p = &phase.point;
+    let l = &phase.ledger;
+    let unloaded: Vec<String> = p
+        .pumps
+        .iter()
+        .enumerate()
+        .filter(|(_, x)| x.state == PumpState::Unloaded)
+        .map(|(n, _)| format!("{}", n + 1))
+        .collect();
+    let pumps = if !p.motor_running {
+        "motor stopped".to_string()
+    } else if unloaded.is_empty() {
+        "all feeding".to_string()
+    } else {
+        format!("pump {} unloaded", unloaded.join(" and "))
+    };
+    let limit = match p.limit.limit {
+        ActiveLimit::Main => "main",
+        ActiveLimit::Remote { .. } => "remote stage",
+        ActiveLimit::Vented => "vented",
+    };
+    let row = |label: &'static str, key: &'static str, value: String| {
+        view! {
+            <div class="figure">
+                <dt>{label}</dt>
+                <dd data-value=key>{value}</dd>
+            </div>
+        }
+    };
+    view! {
+        <li class="card phase-result" data-phase=i>
+            <h3>{format!("{}. {}", i + 1, phase.name)}</h3>
+            <dl class="figures">
+                {row("Pressure", "pressure", Measure::Pressure.with_unit(units, p.system_pressure.value))}
+                {row("Flow to actuator", "flow", Measure::Flow.with_unit(units, p.actuator_flow.value))}
+                {p.actuator_speed.map(|s| row("Cylinder speed", "speed", Measure::Speed.with_unit(units, s.value)))}
+                {row("Over the relief", "relief-flow", Measure::Flow.with_unit(units, p.relief_flow.value))}
+                {row("Duration", "duration", Measure::Duration.with_unit(units, p.duration.value))}
+                {row("Pumps", "pumps", pumps)}
+                {row("Limit", "limit", format!("{limit}, {}", Measure::Pressure.with_unit(units, p.limit.setting.value)))}
+                {row("Electrical input", "input", Measure::Power.with_unit(units, l.electrical_input.value))}
+                {row("Useful work", "useful", Measure::Power.with_unit(units, l.useful_power.value))}
+                {row("Heat into the oil", "heat", Measure::Power.with_unit(units, l.heat_into_oil().value))}
+            </dl>
+            <details>
+                <summary>"The whole ledger"</summary>
+                <dl class="figures">
+                    {row("Motor loss", "motor-loss", Measure::Power.with_unit(units, l.motor_loss.value))}
+                    {row("Inside the pumps", "pump-loss", Measure::Power.with_unit(units, l.pump_internal_loss.value))}
+                    {row("Unloading valves", "unloading-loss", Measure::Power.with_unit(units, l.unloading_loss.value))}
+                    {row("Relief valve", "relief-loss", Measure::Power.with_unit(units, l.relief_loss.value))}
+                    {row("Flow control", "metering-loss", Measure::Power.with_unit(units, l.metering_loss.value))}
+                    {row("Lines and valves", "line-loss", Measure::Power.with_unit(units, l.line_valve_loss.value))}
+                </dl>
+            </details>
+            {(!phase.findings.is_empty()).then(|| view! {
+                <ul class="findings">
+                    {phase.findings.iter().map(|f| view! { <li>{f.describe(units)}</li> }).collect_view()}
+                </ul>
+            })}
+        </li>
+    }
+}

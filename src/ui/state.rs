@@ -1,0 +1,79 @@
+//! The job being edited, and what the engine says about it: shared by every area through
+//! Leptos context. The UI keeps no physics of its own: every figure it shows comes from the
+//! engine's report for the current job (or, while the job has errors, the last good one).
+
+use crate::engine::job::RemovedPhase;
+use crate::engine::units::UnitSystem;
+use crate::engine::{solve, InputError, Job, JobReport};
+use leptos::prelude::*;
+
+/// How the app is shown; not part of the job.
+#[derive(Clone, Copy, Debug, PartialEq, Eq, Default)]
+pub struct Display {
+    /// Large type and results first, for a workshop projector.
+    pub projector: bool,
+    /// Black, white and yellow, for glare or a dim corner.
+    pub high_contrast: bool,
+}
+
+#[derive(Clone, Copy)]
+pub struct JobState {
+    pub job: RwSignal<Job>,
+    /// The engine's answer for the current job.
+    pub result: Memo<Result<JobReport, Vec<InputError>>>,
+    /// The last report of a job without errors: shown, marked stale, while the job has errors.
+    pub last_good: RwSignal<Option<JobReport>>,
+    /// The design the power-unit and results areas show.
+    pub design: RwSignal<usize>,
+    /// The phase open for editing in the cycle area.
+    pub open_phase: RwSignal<Option<usize>>,
+    /// The last phase deleted, until it is restored or another goes.
+    pub deleted: RwSignal<Option<RemovedPhase>>,
+    pub display: RwSignal<Display>,
+}
+
+impl JobState {
+    pub fn new(job: Job) -> JobState {
+        let job = RwSignal::new(job);
+        let result = Memo::new(move |_| job.with(solve));
+        // Kept by an effect, not a memo: a memo is only computed when read, and the results
+        // may not be on screen while the job is still good.
+        let last_good = RwSignal::new(None);
+        Effect::new(move |_| {
+            if let Ok(report) = result.get() {
+                last_good.set(Some(report));
+            }
+        });
+        JobState {
+            job,
+            result,
+            last_good,
+            design: RwSignal::new(0),
+            open_phase: RwSignal::new(None),
+            deleted: RwSignal::new(None),
+            display: RwSignal::new(Display::default()),
+        }
+    }
+
+    pub fn units(&self) -> UnitSystem {
+        self.job.with(|j| j.units)
+    }
+
+    /// The engine's message for a field (by its path in the job file), if it has one.
+    pub fn error_for(&self, field: &str) -> Option<String> {
+        self.result.with(|r| match r {
+            Ok(_) => None,
+            Err(errors) => errors.iter().find(|e| e.field == field).map(|e| e.message.clone()),
+        })
+    }
+
+    /// The design index to show, kept inside the job's designs.
+    pub fn design_index(&self) -> usize {
+        let count = self.job.with(|j| j.designs.len());
+        self.design.get().min(count.saturating_sub(1))
+    }
+}
+
+pub fn use_job() -> JobState {
+    expect_context::<JobState>()
+}

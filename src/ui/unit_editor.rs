@@ -1,0 +1,417 @@
+//! The power-unit area: each design's motor, pumps, valves, and the pressure limit it uses in
+//! each phase.
+
+use super::field::{ChoiceField, NumberField, TextField, UnitSwitch};
+use super::icons::CautionIcon;
+use super::state::use_job;
+use crate::engine::cycle::PhaseKind;
+use crate::engine::power_unit::{Design, UnloadingStage, MAX_PUMPS};
+use crate::engine::pump::{Pump, PumpControl};
+use crate::engine::units::Measure;
+use crate::engine::valve::{ActiveLimit, CheckValve, IdlePath, ReliefKind, UnloadingValve};
+use crate::engine::Job;
+use leptos::prelude::*;
+use uom::si::f64::Pressure;
+use uom::si::pressure::{bar, pascal};
+
+/// The pump at place `p` in shaft order (stages, then the base pump) of design `d`.
+fn pump(j: &Job, d: usize, p: usize) -> Option<&Pump> {
+    let design = j.designs.get(d)?;
+    match design.unloading_stages.get(p) {
+        Some(stage) => Some(&stage.pump),
+        None if p == design.unloading_stages.len() => Some(&design.base_pump),
+        None => None,
+    }
+}
+
+fn pump_mut(j: &mut Job, d: usize, p: usize) -> Option<&mut Pump> {
+    let design = j.designs.get_mut(d)?;
+    let stages = design.unloading_stages.len();
+    if p < stages {
+        Some(&mut design.unloading_stages[p].pump)
+    } else if p == stages {
+        Some(&mut design.base_pump)
+    } else {
+        None
+    }
+}
+
+fn pump_path(j: &Job, d: usize, p: usize) -> String {
+    let stages = j.designs.get(d).map_or(0, |x| x.unloading_stages.len());
+    if p < stages {
+        format!("designs[{d}].unloading_stages[{p}].pump")
+    } else {
+        format!("designs[{d}].base_pump")
+    }
+}
+
+fn design<'a>(j: &'a Job, d: usize) -> Option<&'a Design> {
+    j.designs.get(d)
+}
+
+fn design_mut(j: &mut Job, d: usize) -> Option<&mut Design> {
+    j.designs.get_mut(d)
+}
+
+/// Tabs choosing the design shown, shared by the unit and results areas.
+#[component]
+pub fn DesignTabs() -> impl IntoView {
+    let state = use_job();
+    let names = move || state.job.with(|j| j.designs.iter().map(|d| d.name.clone()).collect::<Vec<_>>());
+    view! {
+        <div class="segmented design-tabs" role="group" aria-label="Power unit shown">
+            {move || {
+                names()
+                    .into_iter()
+                    .enumerate()
+                    .map(|(i, name)| {
+                        view! {
+                            <button
+                                type="button"
+                                class="toggle"
+                                data-design=i
+                                aria-pressed=move || if state.design_index() == i { "true" } else { "false" }
+                                on:click=move |_| state.design.set(i)
+                            >
+                                {if name.trim().is_empty() { format!("Unit {}", i + 1) } else { name }}
+                            </button>
+                        }
+                    })
+                    .collect_view()
+            }}
+        </div>
+    }
+}
+
+#[component]
+pub fn UnitArea() -> impl IntoView {
+    let state = use_job();
+    let add_design = move |_: leptos::ev::MouseEvent| {
+        let from = state.design_index();
+        state.job.update(|j| {
+            if let Some(mut copy) = j.designs.get(from).cloned() {
+                copy.name = format!("Proposal {}", j.designs.len());
+                j.designs.push(copy);
+            }
+        });
+        state.design.set(state.job.with_untracked(|j| j.designs.len() - 1));
+    };
+    let remove_design = move |_: leptos::ev::MouseEvent| {
+        let d = state.design_index();
+        state.job.update(|j| {
+            if j.designs.len() > 1 {
+                j.designs.remove(d);
+            }
+        });
+        state.design.set(d.saturating_sub(1));
+    };
+    let designs = Memo::new(move |_| state.job.with(|j| j.designs.len()));
+    let designs = move || designs.get();
+    let shown = Memo::new(move |_| state.design_index());
+    view! {
+        <section class="area" aria-labelledby="area-title">
+            <div class="area-head">
+                <h1 id="area-title">"Power unit"</h1>
+                <UnitSwitch />
+            </div>
+            <super::cycle_editor::ExampleBanner />
+            <DesignTabs />
+            <div class="row-tools">
+                <button type="button" class="button" on:click=add_design>"Copy as a new proposal"</button>
+                <button type="button" class="button danger" disabled=move || { designs() <= 1 } on:click=remove_design>"Remove this unit"</button>
+            </div>
+            {move || {
+                let d = shown.get();
+                view! { <DesignEditor d=d /> }
+            }}
+        </section>
+    }
+}
+
+#[component]
+fn DesignEditor(d: usize) -> impl IntoView {
+    let state = use_job();
+    let pumps = Memo::new(move |_| state.job.with(|j| design(j, d).map_or(0, |x| x.pump_count())));
+    let pumps = move || pumps.get();
+    let add_pump = move |_: leptos::ev::MouseEvent| {
+        state.job.update(|j| {
+            if let Some(x) = design_mut(j, d) {
+                if x.pump_count() < MAX_PUMPS {
+                    let pump = x.base_pump;
+                    x.unloading_stages.insert(
+                        0,
+                        UnloadingStage {
+                            pump,
+                            unloading: UnloadingValve { setting: Pressure::new::<bar>(60.0), unloaded_drop: Pressure::new::<bar>(3.0) },
+                            check: CheckValve { cracking: Pressure::new::<bar>(0.5) },
+                        },
+                    );
+                }
+            }
+        })
+    };
+    let remotes = Memo::new(move |_| state.job.with(|j| design(j, d).map_or(0, |x| x.remote_stages.len())));
+    let remotes = move || remotes.get();
+    let phases = Memo::new(move |_| state.job.with(|j| j.cycle.len()));
+    let phases = move || phases.get();
+    view! {
+        <TextField label="Name of this unit" path=format!("designs[{d}].name")
+            get=move |j: &Job| design(j, d).map(|x| x.name.clone()).unwrap_or_default()
+            set=move |j: &mut Job, v| if let Some(x) = design_mut(j, d) { x.name = v } />
+
+        <h2>"Motor"</h2>
+        <div class="field-grid">
+            <NumberField label="Rated power" path=format!("designs[{d}].motor.rated_power_w") measure=Measure::Power
+                get=move |j: &Job| design(j, d).map_or(f64::NAN, |x| x.motor.rated_power.value)
+                set=move |j: &mut Job, v| if let Some(x) = design_mut(j, d) { x.motor.rated_power.value = v } />
+            <NumberField label="Full-load speed" path=format!("designs[{d}].motor.full_load_speed_rad_per_s") measure=Measure::ShaftSpeed
+                get=move |j: &Job| design(j, d).map_or(f64::NAN, |x| x.motor.full_load_speed.value)
+                set=move |j: &mut Job, v| if let Some(x) = design_mut(j, d) { x.motor.full_load_speed.value = v } />
+            <NumberField label="Full-load efficiency" path=format!("designs[{d}].motor.full_load_efficiency") measure=Measure::Percent
+                get=move |j: &Job| design(j, d).map_or(f64::NAN, |x| x.motor.full_load_efficiency)
+                set=move |j: &mut Job, v| if let Some(x) = design_mut(j, d) { x.motor.full_load_efficiency = v } />
+            <NumberField label="Share of its loss that is fixed" path=format!("designs[{d}].motor.fixed_loss_share") measure=Measure::Percent
+                get=move |j: &Job| design(j, d).map_or(f64::NAN, |x| x.motor.fixed_loss_share)
+                set=move |j: &mut Job, v| if let Some(x) = design_mut(j, d) { x.motor.fixed_loss_share = v } />
+            <NumberField label="Service factor" path=format!("designs[{d}].motor.service_factor") measure=Measure::Factor
+                get=move |j: &Job| design(j, d).map_or(f64::NAN, |x| x.motor.service_factor)
+                set=move |j: &mut Job, v| if let Some(x) = design_mut(j, d) { x.motor.service_factor = v } />
+        </div>
+
+        <h2>"Pumps, in shaft order"</h2>
+        {move || (0..pumps()).map(|p| view! { <PumpEditor d=d p=p /> }).collect_view()}
+        <button type="button" class="button wide" disabled=move || { pumps() >= MAX_PUMPS } on:click=add_pump>
+            "Add a pump with an unloading valve"
+        </button>
+
+        <h2>"Relief valve"</h2>
+        <p class="inline-caution">
+            <CautionIcon />
+            <span>"Pressure settings are changed only by a qualified person, with the machine locked out and pressure released, and never above any component's rating. "
+                <a href="#/safety">"Safety notes"</a></span>
+        </p>
+        <div class="field-grid">
+            <ChoiceField label="Type" path=format!("designs[{d}].relief.kind")
+                options=vec![("pilot_operated", "Pilot-operated".into()), ("direct_acting", "Direct-acting".into())]
+                get=move |j: &Job| match design(j, d).map(|x| x.relief.kind) { Some(ReliefKind::DirectActing) => "direct_acting", _ => "pilot_operated" }
+                set=move |j: &mut Job, key| if let Some(x) = design_mut(j, d) {
+                    let kind = if key == "direct_acting" { ReliefKind::DirectActing } else { ReliefKind::PilotOperated };
+                    if kind != x.relief.kind {
+                        x.relief.kind = kind;
+                        x.relief.cracking_fraction = kind.typical_cracking_fraction();
+                    }
+                } />
+            <NumberField label="Setting (at rated flow)" path=format!("designs[{d}].relief.setting_pa") measure=Measure::Pressure
+                get=move |j: &Job| design(j, d).map_or(f64::NAN, |x| x.relief.setting.value)
+                set=move |j: &mut Job, v| if let Some(x) = design_mut(j, d) { x.relief.setting.value = v } />
+            <NumberField label="Rated flow" path=format!("designs[{d}].relief.rated_flow_m3_per_s") measure=Measure::Flow
+                get=move |j: &Job| design(j, d).map_or(f64::NAN, |x| x.relief.rated_flow.value)
+                set=move |j: &mut Job, v| if let Some(x) = design_mut(j, d) { x.relief.rated_flow.value = v } />
+            <NumberField label="Cracks at (share of setting)" path=format!("designs[{d}].relief.cracking_fraction") measure=Measure::Percent
+                get=move |j: &Job| design(j, d).map_or(f64::NAN, |x| x.relief.cracking_fraction)
+                set=move |j: &mut Job, v| if let Some(x) = design_mut(j, d) { x.relief.cracking_fraction = v } />
+            <NumberField label="Pressure when vented" path=format!("designs[{d}].vent_pressure_pa") measure=Measure::Pressure
+                get=move |j: &Job| design(j, d).map_or(f64::NAN, |x| x.vent_pressure.value)
+                set=move |j: &mut Job, v| if let Some(x) = design_mut(j, d) { x.vent_pressure.value = v } />
+        </div>
+        <h3>"Remote pilot stages"</h3>
+        {move || (0..remotes()).map(|r| view! {
+            <div class="stage-row">
+                <NumberField label=format!("Remote stage {}", r + 1) path=format!("designs[{d}].remote_stages_pa[{r}]") measure=Measure::Pressure
+                    get=move |j: &Job| design(j, d).and_then(|x| x.remote_stages.get(r)).map_or(f64::NAN, |p| p.value)
+                    set=move |j: &mut Job, v| if let Some(p) = design_mut(j, d).and_then(|x| x.remote_stages.get_mut(r)) { p.value = v } />
+                <button type="button" class="button danger" on:click=move |_| state.job.update(|j| {
+                    if let Some(x) = design_mut(j, d) {
+                        if r < x.remote_stages.len() {
+                            x.remote_stages.remove(r);
+                            // Phases on a later stage keep their stage; one on the removed stage returns to the main setting.
+                            for s in &mut x.phase_settings {
+                                s.limit = match s.limit {
+                                    ActiveLimit::Remote { stage } if stage == r => ActiveLimit::Main,
+                                    ActiveLimit::Remote { stage } if stage > r => ActiveLimit::Remote { stage: stage - 1 },
+                                    other => other,
+                                };
+                            }
+                        }
+                    }
+                })>"Remove"</button>
+            </div>
+        }).collect_view()}
+        <button type="button" class="button wide" on:click=move |_| state.job.update(|j| {
+            if let Some(x) = design_mut(j, d) {
+                x.remote_stages.push(Pressure::new::<pascal>(x.relief.setting.value * 0.6));
+            }
+        })>"Add a remote pilot stage"</button>
+
+        <h2>"Limit in each phase"</h2>
+        <p class="hint">"Which pressure limit governs each phase, and where the flow goes while idle."</p>
+        {move || (0..phases()).map(|i| view! { <PhaseLimit d=d i=i /> }).collect_view()}
+    }
+}
+
+#[component]
+fn PumpEditor(d: usize, p: usize) -> impl IntoView {
+    let state = use_job();
+    let path = move || state.job.with(|j| pump_path(j, d, p));
+    let is_stage = Memo::new(move |_| state.job.with(|j| design(j, d).is_some_and(|x| p < x.unloading_stages.len())));
+    let is_stage = move || is_stage.get();
+    let compensated = Memo::new(move |_| state.job.with(|j| matches!(pump(j, d, p).map(|x| x.control), Some(PumpControl::Compensated { .. }))));
+    let compensated = move || compensated.get();
+    let remove = move |_: leptos::ev::MouseEvent| {
+        state.job.update(|j| {
+            if let Some(x) = design_mut(j, d) {
+                if p < x.unloading_stages.len() {
+                    x.unloading_stages.remove(p);
+                }
+            }
+        })
+    };
+    let field = move |f: &str| format!("{}.{f}", path());
+    view! {
+        <fieldset class="pump-card">
+            <legend>{move || if is_stage() { format!("Pump {} (unloads)", p + 1) } else { format!("Pump {} (to the relief)", p + 1) }}</legend>
+            <div class="field-grid">
+                <NumberField label="Displacement" path=field("displacement_m3_per_rev") measure=Measure::Displacement
+                    get=move |j: &Job| pump(j, d, p).map_or(f64::NAN, |x| x.displacement.value)
+                    set=move |j: &mut Job, v| if let Some(x) = pump_mut(j, d, p) { x.displacement.value = v } />
+                <NumberField label="Volumetric efficiency" path=field("volumetric_efficiency") measure=Measure::Percent
+                    get=move |j: &Job| pump(j, d, p).map_or(f64::NAN, |x| x.volumetric_efficiency)
+                    set=move |j: &mut Job, v| if let Some(x) = pump_mut(j, d, p) { x.volumetric_efficiency = v } />
+                <NumberField label="Measured at" path=field("efficiency_pressure_pa") measure=Measure::Pressure
+                    get=move |j: &Job| pump(j, d, p).map_or(f64::NAN, |x| x.efficiency_pressure.value)
+                    set=move |j: &mut Job, v| if let Some(x) = pump_mut(j, d, p) { x.efficiency_pressure.value = v } />
+                <NumberField label="Hydromechanical efficiency" path=field("hydromechanical_efficiency") measure=Measure::Percent
+                    get=move |j: &Job| pump(j, d, p).map_or(f64::NAN, |x| x.hydromechanical_efficiency)
+                    set=move |j: &mut Job, v| if let Some(x) = pump_mut(j, d, p) { x.hydromechanical_efficiency = v } />
+                <NumberField label="Drag with no pressure" path=field("drag_power_w") measure=Measure::Power
+                    get=move |j: &Job| pump(j, d, p).map_or(f64::NAN, |x| x.drag_power.value)
+                    set=move |j: &mut Job, v| if let Some(x) = pump_mut(j, d, p) { x.drag_power.value = v } />
+                <NumberField label="Rated pressure" path=field("rated_pressure_pa") measure=Measure::Pressure
+                    get=move |j: &Job| pump(j, d, p).map_or(f64::NAN, |x| x.rated_pressure.value)
+                    set=move |j: &mut Job, v| if let Some(x) = pump_mut(j, d, p) { x.rated_pressure.value = v } />
+                <ChoiceField label="Control" path=field("control.type")
+                    options=vec![("fixed", "Fixed displacement".into()), ("compensated", "Pressure-compensated".into())]
+                    get=move |j: &Job| if matches!(pump(j, d, p).map(|x| x.control), Some(PumpControl::Compensated { .. })) { "compensated" } else { "fixed" }
+                    set=move |j: &mut Job, key| if let Some(x) = pump_mut(j, d, p) {
+                        x.control = if key == "compensated" { PumpControl::Compensated { setting: Pressure::new::<pascal>(x.rated_pressure.value * 0.8) } } else { PumpControl::Fixed };
+                    } />
+                {move || compensated().then(|| view! {
+                    <NumberField label="Compensator setting" path=field("control.setting_pa") measure=Measure::Pressure
+                        get=move |j: &Job| match pump(j, d, p).map(|x| x.control) { Some(PumpControl::Compensated { setting }) => setting.value, _ => f64::NAN }
+                        set=move |j: &mut Job, v| if let Some(x) = pump_mut(j, d, p) { x.control = PumpControl::Compensated { setting: Pressure::new::<pascal>(v) } } />
+                })}
+                {move || is_stage().then(|| view! {
+                    <NumberField label="Unloads at" path=format!("designs[{d}].unloading_stages[{p}].unloading.setting_pa") measure=Measure::Pressure
+                        get=move |j: &Job| design(j, d).and_then(|x| x.unloading_stages.get(p)).map_or(f64::NAN, |s| s.unloading.setting.value)
+                        set=move |j: &mut Job, v| if let Some(s) = design_mut(j, d).and_then(|x| x.unloading_stages.get_mut(p)) { s.unloading.setting.value = v } />
+                    <NumberField label="Pressure when unloaded" path=format!("designs[{d}].unloading_stages[{p}].unloading.unloaded_drop_pa") measure=Measure::Pressure
+                        get=move |j: &Job| design(j, d).and_then(|x| x.unloading_stages.get(p)).map_or(f64::NAN, |s| s.unloading.unloaded_drop.value)
+                        set=move |j: &mut Job, v| if let Some(s) = design_mut(j, d).and_then(|x| x.unloading_stages.get_mut(p)) { s.unloading.unloaded_drop.value = v } />
+                    <NumberField label="Check valve cracking" path=format!("designs[{d}].unloading_stages[{p}].check.cracking_pa") measure=Measure::Pressure
+                        get=move |j: &Job| design(j, d).and_then(|x| x.unloading_stages.get(p)).map_or(f64::NAN, |s| s.check.cracking.value)
+                        set=move |j: &mut Job, v| if let Some(s) = design_mut(j, d).and_then(|x| x.unloading_stages.get_mut(p)) { s.check.cracking.value = v } />
+                })}
+            </div>
+            {move || is_stage().then(|| view! {
+                <button type="button" class="button danger" on:click=remove>"Remove this pump"</button>
+            })}
+        </fieldset>
+    }
+}
+
+#[component]
+fn PhaseLimit(d: usize, i: usize) -> impl IntoView {
+    let state = use_job();
+    let name = move || state.job.with(|j| j.cycle.get(i).map(|p| p.name.clone()).unwrap_or_default());
+    let is_idle = Memo::new(move |_| state.job.with(|j| matches!(j.cycle.get(i).map(|p| &p.kind), Some(PhaseKind::Idle(_)))));
+    let is_idle = move || is_idle.get();
+    let options = move || {
+        state.job.with(|j| {
+            let mut options = vec![("main".to_string(), "Main setting".to_string())];
+            if let Some(x) = design(j, d) {
+                for (r, p) in x.remote_stages.iter().enumerate() {
+                    options.push((format!("remote-{r}"), format!("Remote stage {} ({})", r + 1, Measure::Pressure.with_unit(j.units, p.value))));
+                }
+                if x.relief.kind.has_vent_port() {
+                    options.push(("vented".into(), "Vented".into()));
+                }
+            }
+            options
+        })
+    };
+    let current = move || {
+        state.job.with(|j| match design(j, d).and_then(|x| x.phase_settings.get(i)).map(|s| s.limit) {
+            Some(ActiveLimit::Remote { stage }) => format!("remote-{stage}"),
+            Some(ActiveLimit::Vented) => "vented".into(),
+            _ => "main".into(),
+        })
+    };
+    let set_limit = move |ev: leptos::ev::Event| {
+        let key = event_target_value(&ev);
+        state.job.update(|j| {
+            if let Some(s) = design_mut(j, d).and_then(|x| x.phase_settings.get_mut(i)) {
+                s.limit = match key.as_str() {
+                    "vented" => ActiveLimit::Vented,
+                    k => k.strip_prefix("remote-").and_then(|n| n.parse().ok()).map_or(ActiveLimit::Main, |stage| ActiveLimit::Remote { stage }),
+                };
+            }
+        })
+    };
+    let limit_id = format!("limit-{d}-{i}");
+    view! {
+        <div class="phase-limit">
+            <div class="field">
+                <label for=limit_id.clone()>{move || format!("{}. {}", i + 1, name())}</label>
+                <select id=limit_id data-path=format!("designs[{d}].phase_settings[{i}].limit") on:change=set_limit>
+                    {move || {
+                        let now = current();
+                        options()
+                            .into_iter()
+                            .map(|(key, text)| {
+                                let selected = key == now;
+                                view! { <option value=key selected=selected>{text}</option> }
+                            })
+                            .collect_view()
+                    }}
+                </select>
+            </div>
+            {move || is_idle().then(|| view! { <IdlePathField d=d i=i /> })}
+        </div>
+    }
+}
+
+#[component]
+fn IdlePathField(d: usize, i: usize) -> impl IntoView {
+    let state = use_job();
+    let path = move |j: &Job| design(j, d).and_then(|x| x.phase_settings.get(i)).map(|s| s.idle_path);
+    let open_centre = Memo::new(move |_| state.job.with(|j| matches!(path(j), Some(IdlePath::OpenCentre { .. }))));
+    let open_centre = move || open_centre.get();
+    view! {
+        <ChoiceField label="Flow while idle" path=format!("designs[{d}].phase_settings[{i}].idle_path")
+            options=vec![
+                ("over_limit", "Over the limit above".into()),
+                ("vented", "Vented relief".into()),
+                ("open_centre", "Through an open-centre valve".into()),
+                ("motor_stopped", "Motor stopped".into()),
+            ]
+            get=move |j: &Job| match path(j) {
+                Some(IdlePath::Vented) => "vented",
+                Some(IdlePath::OpenCentre { .. }) => "open_centre",
+                Some(IdlePath::MotorStopped) => "motor_stopped",
+                _ => "over_limit",
+            }
+            set=move |j: &mut Job, key| if let Some(s) = design_mut(j, d).and_then(|x| x.phase_settings.get_mut(i)) {
+                s.idle_path = match key {
+                    "vented" => IdlePath::Vented,
+                    "open_centre" => IdlePath::OpenCentre { drop: Pressure::new::<bar>(5.0) },
+                    "motor_stopped" => IdlePath::MotorStopped,
+                    _ => IdlePath::OverLimit,
+                };
+            } />
+        {move || open_centre().then(|| view! {
+            <NumberField label="Open-centre pressure drop" path=format!("designs[{d}].phase_settings[{i}].idle_path.drop_pa") measure=Measure::Pressure
+                get=move |j: &Job| match path(j) { Some(IdlePath::OpenCentre { drop }) => drop.value, _ => f64::NAN }
+                set=move |j: &mut Job, v| if let Some(s) = design_mut(j, d).and_then(|x| x.phase_settings.get_mut(i)) { s.idle_path = IdlePath::OpenCentre { drop: Pressure::new::<pascal>(v) } } />
+        })}
+    }
+}

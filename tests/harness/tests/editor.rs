@@ -1,0 +1,211 @@
+//! The job editor and the live results, in headless Chromium at phone size unless stated.
+//! Expected figures come from the engine itself, run natively on the same job, formatted the
+//! way the app formats them: what the phone shows must be what the engine says.
+
+use phasewise::engine::cycle::{Load, PhaseKind};
+use phasewise::engine::demo::scrap_baler;
+use phasewise::engine::units::{Measure, UnitSystem};
+use phasewise::engine::{solve, Job};
+use phasewise_harness::browser::{AppSession, Browser, Viewport};
+use uom::si::f64::Force;
+
+fn field(path: &str) -> String {
+    format!("input[data-path='{path}']")
+}
+
+async fn open_phase(b: &Browser, i: usize) {
+    if b.count(&format!("li[data-phase='{i}'].open")).await == 0 {
+        b.click(&format!("li[data-phase='{i}'] .phase-head")).await;
+    }
+    b.wait_for(&format!("li[data-phase='{i}'].open")).await;
+}
+
+/// Fails if the page shows NaN or an infinity anywhere.
+async fn assert_no_nonsense(b: &Browser) {
+    let text = b.eval("return document.body.innerText;").await;
+    let text = text.as_str().unwrap_or("");
+    for bad in ["NaN", "inf", "Infinity"] {
+        assert!(!text.contains(bad), "the page shows {bad}:\n{text}");
+    }
+}
+
+#[tokio::test]
+async fn the_demo_results_are_the_engines() {
+    let app = AppSession::start_at("demo_results", Viewport::PHONE, "#/results").await;
+    let b = &app.browser;
+    let report = solve(&scrap_baler()).unwrap();
+    let si = UnitSystem::Si;
+    b.wait_for(".example-banner").await;
+    for (i, phase) in report.designs[0].phases.iter().enumerate() {
+        let at = |key: &str| format!("li.phase-result[data-phase='{i}'] [data-value='{key}']");
+        assert_eq!(b.text(&at("pressure")).await, Measure::Pressure.with_unit(si, phase.point.system_pressure.value), "{}", phase.name);
+        assert_eq!(b.text(&at("flow")).await, Measure::Flow.with_unit(si, phase.point.actuator_flow.value));
+        assert_eq!(b.text(&at("duration")).await, Measure::Duration.with_unit(si, phase.point.duration.value));
+        assert_eq!(b.text(&at("input")).await, Measure::Power.with_unit(si, phase.ledger.electrical_input.value));
+    }
+    let totals = &report.designs[0].totals;
+    assert_eq!(b.text("[data-total='average']").await, Measure::Power.with_unit(si, totals.average_electrical.value));
+    assert_eq!(b.text("[data-total='rms-shaft']").await, Measure::Power.with_unit(si, totals.rms_shaft.value));
+    assert_eq!(b.text("[data-total='annual-energy']").await, format!("{:.0} kWh", totals.annual_energy_kwh));
+    // The charts are drawn: a bar segment per ledger item with power, a line per timeline panel.
+    assert!(b.count(".chart rect").await >= report.designs[0].phases.len());
+    assert_eq!(b.count(".chart polyline").await, 3);
+    assert_no_nonsense(b).await;
+    b.screenshot("results-top").await;
+    b.screenshot_of(".chart", "ledger-chart").await;
+    // The proposal, with its comparison against the baseline.
+    b.click("button[data-design='1']").await;
+    let saved = report.comparisons[0].annual_energy_saved_kwh;
+    b.wait_for_text("[data-total='saved-energy']", |t| t == format!("{saved:.0} kWh")).await;
+    b.screenshot("proposal").await;
+    app.finish().await;
+}
+
+#[tokio::test]
+async fn editing_a_load_changes_the_ledger_and_the_totals() {
+    let app = AppSession::start("edit_load", Viewport::PHONE).await;
+    let b = &app.browser;
+    open_phase(b, 1).await;
+    // The compress stroke's 300 kN becomes 250 kN, typed with a decimal comma.
+    b.fill(&field("cycle[1].load.force_n"), "250,0").await;
+    let mut job: Job = scrap_baler();
+    if let PhaseKind::Move(m) = &mut job.cycle[1].kind {
+        m.load = Load::Force { force: Force::new::<uom::si::force::kilonewton>(250.0) };
+    }
+    let edited = solve(&job).unwrap();
+    let before = solve(&scrap_baler()).unwrap();
+    assert_ne!(edited.designs[0].totals.average_electrical, before.designs[0].totals.average_electrical);
+    b.click("nav.areas a[href='#/results']").await;
+    let si = UnitSystem::Si;
+    let expected = Measure::Power.with_unit(si, edited.designs[0].totals.average_electrical.value);
+    b.wait_for_text("[data-total='average']", |t| t == expected).await;
+    let compress = "li.phase-result[data-phase='1'] [data-value='input']";
+    assert_eq!(b.text(compress).await, Measure::Power.with_unit(si, edited.designs[0].phases[1].ledger.electrical_input.value));
+    assert_eq!(b.count(".stale-notice").await, 0);
+    app.finish().await;
+}
+
+#[tokio::test]
+async fn phases_are_added_deleted_and_brought_back() {
+    let app = AppSession::start("phase_list", Viewport::PHONE).await;
+    let b = &app.browser;
+    let cards = "li.phase-card";
+    assert_eq!(b.count(cards).await, 5);
+    b.click("button.wide").await;
+    b.wait_for("li.phase-card[data-phase='5'].open").await;
+    assert_eq!(b.count(cards).await, 6);
+    // Delete the dwell, then bring it back where it was.
+    open_phase(b, 2).await;
+    b.click("li[data-phase='2'] .button.danger").await;
+    b.wait_for(".undo-bar").await;
+    assert_eq!(b.count(cards).await, 5);
+    assert_ne!(b.text("li[data-phase='2'] .phase-name").await, "Dwell");
+    b.screenshot("after-delete").await;
+    b.click(".undo-bar .button").await;
+    b.wait_for_text("li[data-phase='2'] .phase-name", |t| t == "Dwell").await;
+    assert_eq!(b.count(cards).await, 6);
+    assert_eq!(b.count(".undo-bar").await, 0);
+    // Duplicate it: the copy follows the original.
+    b.click("li[data-phase='2'] .phase-tools .button:nth-child(3)").await;
+    b.wait_for_text("li[data-phase='3'] .phase-name", |t| t == "Dwell").await;
+    assert_eq!(b.count(cards).await, 7);
+    app.finish().await;
+}
+
+#[tokio::test]
+async fn switching_units_changes_what_is_shown_and_not_the_physics() {
+    let app = AppSession::start("units", Viewport::PHONE).await;
+    let b = &app.browser;
+    open_phase(b, 0).await;
+    let bore = field("cycle[0].cylinder.bore_m");
+    assert_eq!(b.value(&bore).await, "160.0");
+    b.click(".segmented button:nth-child(2)").await;
+    // 160 mm is 6.299 in (NIST SP 811: 1 in = 25.4 mm exactly).
+    b.wait_for_text(&format!("{bore} + .unit"), |t| t == "in").await;
+    assert_eq!(b.value(&bore).await, "6.299");
+    b.click("nav.areas a[href='#/results']").await;
+    let report = solve(&scrap_baler()).unwrap();
+    let us = Measure::Power.with_unit(UnitSystem::UsCustomary, report.designs[0].totals.average_electrical.value);
+    b.wait_for_text("[data-total='average']", |t| t == us).await;
+    // And back: the same figures as before, to the digit.
+    b.click(".segmented button:nth-child(1)").await;
+    let si = Measure::Power.with_unit(UnitSystem::Si, report.designs[0].totals.average_electrical.value);
+    b.wait_for_text("[data-total='average']", |t| t == si).await;
+    b.click("nav.areas a[href='#/cycle']").await;
+    open_phase(b, 0).await;
+    assert_eq!(b.value(&bore).await, "160.0");
+    app.finish().await;
+}
+
+#[tokio::test]
+async fn bad_input_is_kept_and_explained_at_the_field() {
+    let app = AppSession::start("bad_input", Viewport::PHONE).await;
+    let b = &app.browser;
+    open_phase(b, 0).await;
+    let bore = field("cycle[0].cylinder.bore_m");
+    let message = "#f-cycle-0-cylinder-bore_m-error";
+    for (typed, says) in [
+        ("abc", "is not a number: type a value"),
+        ("-5", "cannot be negative"),
+        ("", "is not a number: type a value"),
+        ("0", "must be more than zero"),
+        ("80", "the rod must be thinner than the bore"),
+    ] {
+        b.fill(&bore, typed).await;
+        assert_eq!(b.value(&bore).await, typed, "what was typed stays");
+        let at = if says.starts_with("the rod") { "#f-cycle-0-cylinder-rod_m-error" } else { message };
+        b.wait_for_text(at, |t| t == says).await;
+        assert_no_nonsense(b).await;
+    }
+    b.screenshot("field-error").await;
+    // Results keep the last good figures, marked as stale.
+    b.click("nav.areas a[href='#/results']").await;
+    b.wait_for(".stale-notice").await;
+    assert!(b.text(".stale-notice").await.contains("Phase 1 (Fast approach)"));
+    assert!(b.count("li.phase-result").await > 0);
+    assert_no_nonsense(b).await;
+    b.screenshot("stale-results").await;
+    // A good value clears it all.
+    b.click("nav.areas a[href='#/cycle']").await;
+    b.fill(&bore, "160").await;
+    b.wait_for_text(message, |t| t.is_empty()).await;
+    b.click("nav.areas a[href='#/results']").await;
+    b.wait_for("li.phase-result").await;
+    assert_eq!(b.count(".stale-notice").await, 0);
+    // Console errors are not expected from bad input: it is handled, not thrown.
+    app.finish().await;
+}
+
+#[tokio::test]
+async fn nothing_overflows_sideways_and_the_projector_view_reads_large() {
+    for (name, viewport) in [("small-phone", Viewport::SMALL_PHONE), ("phone", Viewport::PHONE), ("laptop", Viewport::LAPTOP)] {
+        let app = AppSession::start("editor_layouts", viewport).await;
+        let b = &app.browser;
+        open_phase(b, 1).await;
+        assert_eq!(b.sideways_overflow().await, 0, "{name} cycle");
+        b.screenshot(&format!("{name}-cycle")).await;
+        for fragment in ["#/unit", "#/results"] {
+            b.click(&format!("nav.areas a[href='{fragment}']")).await;
+            b.wait_for(&format!("main[data-area='{}']", &fragment[2..])).await;
+            assert_eq!(b.sideways_overflow().await, 0, "{name} {fragment}");
+            b.screenshot(&format!("{name}-{}", &fragment[2..])).await;
+        }
+        app.finish().await;
+    }
+    let app = AppSession::start_at("projector", Viewport::PROJECTOR, "#/results").await;
+    let b = &app.browser;
+    let normal = b.eval("return parseFloat(getComputedStyle(document.querySelector('.figure dd')).fontSize);").await;
+    b.click(".segmented[aria-label='Display'] button:nth-child(1)").await;
+    b.wait_for(".shell.projector").await;
+    let large = b.eval("return parseFloat(getComputedStyle(document.querySelector('.figure dd')).fontSize);").await;
+    assert!(large.as_f64() > normal.as_f64(), "{large} > {normal}");
+    // Charts come first in the projector view.
+    let chart_first = b.eval("const c = document.querySelector('.results .chart').getBoundingClientRect().top, t = document.querySelector('.results .totals').getBoundingClientRect().top; return c < t;").await;
+    assert_eq!(chart_first, true);
+    assert_eq!(b.sideways_overflow().await, 0);
+    b.screenshot("projector").await;
+    b.click(".segmented[aria-label='Display'] button:nth-child(2)").await;
+    b.wait_for(".shell.contrast").await;
+    b.screenshot("projector-contrast").await;
+    app.finish().await;
+}
