@@ -49,8 +49,12 @@ impl MovePhase {
     pub fn give_load_as_pressure(&mut self, as_pressure: bool) {
         let area = self.cylinder.working_area_m2(self.direction);
         self.load = match (as_pressure, self.load) {
-            (true, Load::Force { force }) => Load::Pressure { pressure: Pressure::new::<uom::si::pressure::pascal>(force.value / area) },
-            (false, Load::Pressure { pressure }) => Load::Force { force: Force::new::<uom::si::force::newton>(pressure.value * area) },
+            (true, Load::Force { force }) => Load::Pressure {
+                pressure: Pressure::new::<uom::si::pressure::pascal>(force.value / area),
+            },
+            (false, Load::Pressure { pressure }) => Load::Force {
+                force: Force::new::<uom::si::force::newton>(pressure.value * area),
+            },
             (_, load) => load,
         };
     }

@@ -29,7 +29,9 @@ fn ram(name: &str, stroke_mm: f64, direction: Direction, force_kn: f64, line_bar
                 stroke: Length::new::<millimeter>(stroke_mm),
             },
             direction,
-            load: Load::Force { force: Force::new::<kilonewton>(force_kn) },
+            load: Load::Force {
+                force: Force::new::<kilonewton>(force_kn),
+            },
             line_loss: Pressure::new::<bar>(line_bar),
             speed: SpeedRule::AllPumpFlow,
         }),
@@ -62,7 +64,12 @@ pub fn scrap_baler() -> Job {
             }),
         },
         ram("Return", 1200.0, Direction::Retract, 10.0, 8.0),
-        Phase { name: "Load scrap".into(), kind: PhaseKind::Idle(IdlePhase { duration: Time::new::<second>(25.0) }) },
+        Phase {
+            name: "Load scrap".into(),
+            kind: PhaseKind::Idle(IdlePhase {
+                duration: Time::new::<second>(25.0),
+            }),
+        },
     ];
     let as_found = Design {
         name: "As found".into(),
@@ -75,8 +82,13 @@ pub fn scrap_baler() -> Job {
         },
         unloading_stages: vec![UnloadingStage {
             pump: pump(63.0),
-            unloading: UnloadingValve { setting: Pressure::new::<bar>(70.0), unloaded_drop: Pressure::new::<bar>(4.0) },
-            check: CheckValve { cracking: Pressure::new::<bar>(0.5) },
+            unloading: UnloadingValve {
+                setting: Pressure::new::<bar>(70.0),
+                unloaded_drop: Pressure::new::<bar>(4.0),
+            },
+            check: CheckValve {
+                cracking: Pressure::new::<bar>(0.5),
+            },
         }],
         base_pump: pump(16.0),
         relief: ReliefValve {
@@ -116,9 +128,19 @@ mod tests {
         let saved = report.comparisons[0].annual_energy_saved_kwh;
         assert!(saved > 0.0, "{saved}");
         for design in &report.designs {
-            assert!(design.findings.is_empty(), "{}: {:?}", design.name, design.findings);
+            assert!(
+                design.findings.is_empty(),
+                "{}: {:?}",
+                design.name,
+                design.findings
+            );
             for phase in &design.phases {
-                assert!(phase.findings.is_empty(), "{}: {:?}", phase.name, phase.findings);
+                assert!(
+                    phase.findings.is_empty(),
+                    "{}: {:?}",
+                    phase.name,
+                    phase.findings
+                );
             }
         }
     }

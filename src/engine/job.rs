@@ -113,7 +113,9 @@ impl Job {
 
     /// Copies the phase at `index` (and each design's setting for it) just after it.
     pub fn duplicate_phase(&mut self, index: usize) {
-        let Some(phase) = self.cycle.get(index).cloned() else { return };
+        let Some(phase) = self.cycle.get(index).cloned() else {
+            return;
+        };
         self.cycle.insert(index + 1, phase);
         for design in &mut self.designs {
             if let Some(setting) = design.phase_settings.get(index).copied() {
@@ -131,9 +133,19 @@ impl Job {
         let settings = self
             .designs
             .iter_mut()
-            .map(|d| if index < d.phase_settings.len() { d.phase_settings.remove(index) } else { PhaseSetting::default() })
+            .map(|d| {
+                if index < d.phase_settings.len() {
+                    d.phase_settings.remove(index)
+                } else {
+                    PhaseSetting::default()
+                }
+            })
             .collect();
-        Some(RemovedPhase { index, phase, settings })
+        Some(RemovedPhase {
+            index,
+            phase,
+            settings,
+        })
     }
 
     /// Puts back a removed phase where it was (or at the end, if the cycle is now shorter).

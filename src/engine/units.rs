@@ -154,7 +154,11 @@ impl Measure {
         }
         // No "-0.0": a value that rounds to zero is shown as zero.
         let text = format!("{shown:.decimals$}");
-        if text.trim_start_matches('-').chars().all(|c| c == '0' || c == '.') {
+        if text
+            .trim_start_matches('-')
+            .chars()
+            .all(|c| c == '0' || c == '.')
+        {
             text.trim_start_matches('-').to_string()
         } else {
             text
@@ -171,13 +175,20 @@ impl Measure {
 /// exponent. `None` for anything else, empty included ("inf" and "NaN" are not numbers here).
 pub fn parse_number(text: &str) -> Option<f64> {
     let text = text.trim();
-    if text.is_empty() || !text.chars().all(|c| c.is_ascii_digit() || matches!(c, '.' | ',' | '-' | '+' | 'e' | 'E')) {
+    if text.is_empty()
+        || !text
+            .chars()
+            .all(|c| c.is_ascii_digit() || matches!(c, '.' | ',' | '-' | '+' | 'e' | 'E'))
+    {
         return None;
     }
     if !text.chars().any(|c| c.is_ascii_digit()) {
         return None;
     }
-    text.replace(',', ".").parse::<f64>().ok().filter(|v| v.is_finite())
+    text.replace(',', ".")
+        .parse::<f64>()
+        .ok()
+        .filter(|v| v.is_finite())
 }
 
 /// Seconds, shown to a tenth: durations in a machine cycle.
@@ -244,7 +255,9 @@ mod tests {
         assert_eq!(parse_number(" 210 "), Some(210.0));
         assert_eq!(parse_number("-3.5"), Some(-3.5));
         assert_eq!(parse_number("1e3"), Some(1000.0));
-        for bad in ["", "  ", "abc", "inf", "NaN", "1.2.3", "12 bar", "-", ",", "1e999"] {
+        for bad in [
+            "", "  ", "abc", "inf", "NaN", "1.2.3", "12 bar", "-", ",", "1e999",
+        ] {
             assert_eq!(parse_number(bad), None, "{bad:?}");
         }
     }
@@ -252,17 +265,38 @@ mod tests {
     #[test]
     fn every_measure_converts_there_and_back_in_both_systems() {
         use Measure::*;
-        let all = [Pressure, Flow, Power, Length, Force, Displacement, Speed, ShaftSpeed, Duration, Percent, OilVolume, Density, SpecificHeat, Heat, RiseRate, Energy, Factor];
+        let all = [
+            Pressure,
+            Flow,
+            Power,
+            Length,
+            Force,
+            Displacement,
+            Speed,
+            ShaftSpeed,
+            Duration,
+            Percent,
+            OilVolume,
+            Density,
+            SpecificHeat,
+            Heat,
+            RiseRate,
+            Energy,
+            Factor,
+        ];
         for m in all {
             for system in [UnitSystem::Si, UnitSystem::UsCustomary] {
                 let si = 123.456;
-                assert!(close(m.from_shown(system, m.shown(system, si)), si, 1e-12), "{m:?} {system:?}");
+                assert!(
+                    close(m.from_shown(system, m.shown(system, si)), si, 1e-12),
+                    "{m:?} {system:?}"
+                );
                 assert!(!m.label(system).is_empty());
             }
         }
         // From the exact definitions: 1 in = 25.4 mm, 1 lbf = 4.4482216152605 N (NIST SP 811).
         assert_eq!(Length.format(UnitSystem::UsCustomary, 0.0254), "1.000");
-        assert_eq!(Force.format(UnitSystem::Si, 4448.221_615_260_5), "4.45");
+        assert_eq!(Force.format(UnitSystem::Si, 4_448.221_615_260_5), "4.45");
         assert_eq!(Pressure.with_unit(UnitSystem::Si, 210e5), "210.0 bar");
         assert_eq!(Pressure.format(UnitSystem::Si, -1.0), "0.0");
         assert_eq!(Pressure.format(UnitSystem::Si, f64::NAN), "–");

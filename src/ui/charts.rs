@@ -40,8 +40,12 @@ pub fn nice_step(max: f64) -> f64 {
     }
     let raw = max / 4.0;
     let magnitude = 10f64.powf(raw.log10().floor());
-    let step = [1.0, 2.0, 5.0, 10.0].into_iter().map(|m| m * magnitude).find(|s| *s >= raw).unwrap_or(10.0 * magnitude);
-    step
+
+    [1.0, 2.0, 5.0, 10.0]
+        .into_iter()
+        .map(|m| m * magnitude)
+        .find(|s| *s >= raw)
+        .unwrap_or(10.0 * magnitude)
 }
 
 fn ticks(max: f64) -> Vec<f64> {
@@ -52,7 +56,11 @@ fn ticks(max: f64) -> Vec<f64> {
 
 /// Each phase's electrical input split into where it goes, on one power scale.
 #[component]
-pub fn LedgerChart(design: DesignReport, units: UnitSystem, #[prop(into)] scale_w: f64) -> impl IntoView {
+pub fn LedgerChart(
+    design: DesignReport,
+    units: UnitSystem,
+    #[prop(into)] scale_w: f64,
+) -> impl IntoView {
     let row = 30.0;
     let top = 8.0;
     let axis = 34.0;
@@ -84,7 +92,11 @@ pub fn LedgerChart(design: DesignReport, units: UnitSystem, #[prop(into)] scale_
                     }
                 })
                 .collect_view();
-            let name: String = phase.name.chars().take(12).collect();
+            let name: String = if phase.name.chars().count() > 12 {
+                phase.name.chars().take(11).chain(std::iter::once('…')).collect()
+            } else {
+                phase.name.clone()
+            };
             view! {
                 <text class="chart-label" x=LEFT - 6.0 y=y + row / 2.0 + 5.0 text-anchor="end">{name}</text>
                 {segments}
@@ -128,9 +140,20 @@ fn format_tick(t: f64) -> String {
 }
 
 /// One panel of the timeline: a quantity through the cycle, phase by phase.
-fn timeline_panel(title: String, values: &[(f64, f64)], measure: Measure, units: UnitSystem, top: f64, height: f64, total: f64) -> impl IntoView {
+fn timeline_panel(
+    title: String,
+    values: &[(f64, f64)],
+    measure: Measure,
+    units: UnitSystem,
+    top: f64,
+    height: f64,
+    total: f64,
+) -> impl IntoView {
     let plot = WIDTH - LEFT - RIGHT;
-    let max = values.iter().map(|(_, v)| measure.shown(units, *v)).fold(0.0, f64::max);
+    let max = values
+        .iter()
+        .map(|(_, v)| measure.shown(units, *v))
+        .fold(0.0, f64::max);
     let axis_ticks = ticks(max);
     let axis_max = *axis_ticks.last().unwrap_or(&1.0);
     let y = move |v: f64| top + height - height * measure.shown(units, v) / axis_max;
@@ -138,7 +161,13 @@ fn timeline_panel(title: String, values: &[(f64, f64)], measure: Measure, units:
     let mut points = String::new();
     let mut t = 0.0;
     for (duration, value) in values {
-        points += &format!("{:.2},{:.2} {:.2},{:.2} ", x(t), y(*value), x(t + duration), y(*value));
+        points += &format!(
+            "{:.2},{:.2} {:.2},{:.2} ",
+            x(t),
+            y(*value),
+            x(t + duration),
+            y(*value)
+        );
         t += duration;
     }
     let grid = axis_ticks
@@ -165,7 +194,13 @@ pub fn TimelineChart(design: DesignReport, units: UnitSystem) -> impl IntoView {
     let panel = 70.0;
     let gap = 34.0;
     let height = 3.0 * (panel + gap) + 30.0;
-    let series = |f: &dyn Fn(&crate::engine::PhaseReport) -> f64| design.phases.iter().map(|p| (p.point.duration.value, f(p))).collect::<Vec<_>>();
+    let series = |f: &dyn Fn(&crate::engine::PhaseReport) -> f64| {
+        design
+            .phases
+            .iter()
+            .map(|p| (p.point.duration.value, f(p)))
+            .collect::<Vec<_>>()
+    };
     let pressure = series(&|p| p.point.system_pressure.value);
     let flow = series(&|p| p.point.actuator_flow.value);
     let power = series(&|p| p.ledger.electrical_input.value);
@@ -212,7 +247,14 @@ mod tests {
 
     #[test]
     fn axis_steps_are_round_and_cover_the_maximum() {
-        for (max, step) in [(9.3, 5.0), (11.28, 5.0), (62.4, 20.0), (0.8, 0.2), (210.0, 100.0), (1.0, 0.5)] {
+        for (max, step) in [
+            (9.3, 5.0),
+            (11.28, 5.0),
+            (62.4, 20.0),
+            (0.8, 0.2),
+            (210.0, 100.0),
+            (1.0, 0.5),
+        ] {
             assert_eq!(nice_step(max), step, "{max}");
             assert!(*ticks(max).last().unwrap() >= max);
         }

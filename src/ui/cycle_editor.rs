@@ -10,7 +10,10 @@ use uom::si::f64::*;
 
 /// A new phase of a kind, with everyday figures to start from.
 pub fn new_phase(kind: &str, name: &str) -> Phase {
-    use uom::si::{force::kilonewton, length::millimeter, pressure::bar, time::second, volume_rate::liter_per_minute};
+    use uom::si::{
+        force::kilonewton, length::millimeter, pressure::bar, time::second,
+        volume_rate::liter_per_minute,
+    };
     let kind = match kind {
         "move" => PhaseKind::Move(MovePhase {
             cylinder: Cylinder {
@@ -19,7 +22,9 @@ pub fn new_phase(kind: &str, name: &str) -> Phase {
                 stroke: Length::new::<millimeter>(300.0),
             },
             direction: Direction::Extend,
-            load: Load::Force { force: Force::new::<kilonewton>(10.0) },
+            load: Load::Force {
+                force: Force::new::<kilonewton>(10.0),
+            },
             line_loss: Pressure::new::<bar>(3.0),
             speed: SpeedRule::AllPumpFlow,
         }),
@@ -33,9 +38,14 @@ pub fn new_phase(kind: &str, name: &str) -> Phase {
             pressure: Pressure::new::<bar>(50.0),
             duration: Time::new::<second>(5.0),
         }),
-        _ => PhaseKind::Idle(IdlePhase { duration: Time::new::<second>(10.0) }),
+        _ => PhaseKind::Idle(IdlePhase {
+            duration: Time::new::<second>(10.0),
+        }),
     };
-    Phase { name: name.into(), kind }
+    Phase {
+        name: name.into(),
+        kind,
+    }
 }
 
 fn kind_key(kind: &PhaseKind) -> &'static str {
@@ -90,6 +100,7 @@ pub fn CycleArea() -> impl IntoView {
                 <UnitSwitch />
             </div>
             <ExampleBanner />
+            <super::results::LiveSummary />
             <p class="purpose">"The phases the machine repeats, in order. Open a phase to change its figures."</p>
             <UndoBar />
             <ol class="phase-list">
@@ -104,15 +115,14 @@ pub fn CycleArea() -> impl IntoView {
 #[component]
 pub fn ExampleBanner() -> impl IntoView {
     let state = use_job();
-    move || {
-        state.job.with(|j| j.example).then(|| {
-            view! {
-                <p class="example-banner" role="note">
-                    <strong>"Example data. "</strong>
-                    "An invented machine to show how Phasewise works: change any figure, or describe your own."
-                </p>
-            }
-        })
+    let example = Memo::new(move |_| state.job.with(|j| j.example));
+    view! {
+        <Show when=move || example.get()>
+            <p class="example-banner" role="note">
+                <strong>"Example data. "</strong>
+                "An invented machine to show how Phasewise works: change any figure, or describe your own."
+            </p>
+        </Show>
     }
 }
 
@@ -150,13 +160,31 @@ fn UndoBar() -> impl IntoView {
 #[component]
 fn PhaseCard(index: usize) -> impl IntoView {
     let state = use_job();
-    let name = move || state.job.with(|j| j.cycle.get(index).map(|p| p.name.clone()).unwrap_or_default());
-    let kind = Memo::new(move |_| state.job.with(|j| j.cycle.get(index).map(|p| kind_key(&p.kind)).unwrap_or("idle")));
+    let name = move || {
+        state.job.with(|j| {
+            j.cycle
+                .get(index)
+                .map(|p| p.name.clone())
+                .unwrap_or_default()
+        })
+    };
+    let kind = Memo::new(move |_| {
+        state.job.with(|j| {
+            j.cycle
+                .get(index)
+                .map(|p| kind_key(&p.kind))
+                .unwrap_or("idle")
+        })
+    });
     let kind = move || kind.get();
     let open = move || state.open_phase.get() == Some(index);
     let count = Memo::new(move |_| state.job.with(|j| j.cycle.len()));
     let count = move || count.get();
-    let toggle = move |_| state.open_phase.update(|o| *o = if *o == Some(index) { None } else { Some(index) });
+    let toggle = move |_| {
+        state
+            .open_phase
+            .update(|o| *o = if *o == Some(index) { None } else { Some(index) })
+    };
     let up = move |_: leptos::ev::MouseEvent| {
         state.job.update(|j| j.move_phase_down(index - 1));
         state.open_phase.set(Some(index - 1));
@@ -177,7 +205,11 @@ fn PhaseCard(index: usize) -> impl IntoView {
     };
     let has_error = move || {
         let prefix = format!("cycle[{index}].");
-        state.result.with(|r| r.as_ref().err().is_some_and(|es| es.iter().any(|e| e.field.starts_with(&prefix))))
+        state.result.with(|r| {
+            r.as_ref()
+                .err()
+                .is_some_and(|es| es.iter().any(|e| e.field.starts_with(&prefix)))
+        })
     };
     view! {
         <li class="phase-card" class:open=open class:invalid=has_error data-phase=index>

@@ -53,10 +53,17 @@ pub fn NumberField(
         move || state.job.with(|j| get(j))
     };
     let units = move || state.units();
-    let text = RwSignal::new(shown_text(measure, state.job.with_untracked(|j| j.units), state.job.with_untracked(|j| get(j))));
+    let text = RwSignal::new(shown_text(
+        measure,
+        state.job.with_untracked(|j| j.units),
+        state.job.with_untracked(|j| get(j)),
+    ));
     // What this field last showed or wrote: a different model value or unit system means the
     // job changed elsewhere (undo, a unit switch, another field), so the text is redrawn.
-    let shown = StoredValue::new((state.job.with_untracked(|j| get(j)), state.job.with_untracked(|j| j.units)));
+    let shown = StoredValue::new((
+        state.job.with_untracked(|j| get(j)),
+        state.job.with_untracked(|j| j.units),
+    ));
     Effect::new({
         let model = model.clone();
         move |_| {

@@ -6,13 +6,18 @@ use super::field::UnitSwitch;
 use super::state::{use_job, Display};
 use super::unit_editor::DesignTabs;
 use crate::engine::units::{Measure, UnitSystem};
-use crate::engine::{DesignReport, Job, JobReport, PumpState};
 use crate::engine::valve::ActiveLimit;
+use crate::engine::{DesignReport, Job, JobReport, PumpState};
 use leptos::prelude::*;
 
 /// Where a field path points, in words: "Phase 3 (Dwell)" or "Unit “Proposed”".
 pub fn place_of(field: &str, job: &Job) -> String {
-    let index = |prefix: &str| field.strip_prefix(prefix).and_then(|rest| rest.split(']').next()).and_then(|n| n.parse::<usize>().ok());
+    let index = |prefix: &str| {
+        field
+            .strip_prefix(prefix)
+            .and_then(|rest| rest.split(']').next())
+            .and_then(|n| n.parse::<usize>().ok())
+    };
     if let Some(i) = index("cycle[") {
         let name = job.cycle.get(i).map(|p| p.name.as_str()).unwrap_or("");
         return format!("Phase {} ({name})", i + 1);
@@ -49,6 +54,61 @@ pub fn DisplaySwitches() -> impl IntoView {
             {toggle("Projector", |d| d.projector, |d| d.projector = !d.projector)}
             {toggle("High contrast", |d| d.high_contrast, |d| d.high_contrast = !d.high_contrast)}
         </div>
+    }
+}
+
+/// A strip of the key figures, shown while editing so every change shows its effect at once.
+/// Its markup stays; only its texts change, so an edit costs a solve and three text updates.
+#[component]
+pub fn LiveSummary() -> impl IntoView {
+    let state = use_job();
+    let figures = Memo::new(move |_| {
+        let units = state.units();
+        let d = state.design.get();
+        let pick = |report: &JobReport| {
+            let design = report
+                .designs
+                .get(d.min(report.designs.len().saturating_sub(1)))?;
+            let t = &design.totals;
+            Some((
+                design.name.clone(),
+                [
+                    Measure::Power.with_unit(units, t.average_electrical.value),
+                    Measure::Heat.with_unit(units, t.heat_load.value),
+                    Measure::Duration.with_unit(units, t.cycle_time.value),
+                ],
+            ))
+        };
+        match state.result.with(|r| r.as_ref().ok().and_then(|r| pick(r))) {
+            Some((name, values)) => Some((false, name, values)),
+            None => state
+                .last_good
+                .with(|g| g.as_ref().and_then(|r| pick(r)))
+                .map(|(name, values)| (true, name, values)),
+        }
+    });
+    let stale = move || figures.with(|f| f.as_ref().is_some_and(|f| f.0));
+    let name = move || {
+        figures.with(|f| {
+            f.as_ref().map(|(stale, name, _)| {
+                if *stale {
+                    format!("{name} (not up to date)")
+                } else {
+                    name.clone()
+                }
+            })
+        })
+    };
+    let value = move |i: usize| move || figures.with(|f| f.as_ref().map(|f| f.2[i].clone()));
+    view! {
+        <Show when=move || figures.with(|f| f.is_some())>
+            <a class="live-summary" class:stale=stale href="#/results" aria-live="polite">
+                <span class="live-name">{name}</span>
+                <span class="live-figure"><span class="live-label">"Average"</span><strong data-live="average">{value(0)}</strong></span>
+                <span class="live-figure"><span class="live-label">"Heat"</span><strong data-live="heat">{value(1)}</strong></span>
+                <span class="live-figure"><span class="live-label">"Cycle"</span><strong data-live="cycle-time">{value(2)}</strong></span>
+            </a>
+        </Show>
     }
 }
 
@@ -102,7 +162,12 @@ fn StaleNotice() -> impl IntoView {
 }
 
 #[component]
-fn ReportView(report: JobReport, d: usize, units: UnitSystem, currency: String) -> impl IntoView {
+fn ReportView(
+    report: std::sync::Arc<JobReport>,
+    d: usize,
+    units: UnitSystem,
+    currency: String,
+) -> impl IntoView {
     let d = d.min(report.designs.len().saturating_sub(1));
     let design = report.designs[d].clone();
     // One power scale for every design, so their bars compare.
@@ -111,7 +176,9 @@ fn ReportView(report: JobReport, d: usize, units: UnitSystem, currency: String) 
         .iter()
         .flat_map(|x| x.phases.iter().map(|p| p.ledger.electrical_input.value))
         .fold(0.0, f64::max);
-    let comparison = (d > 0).then(|| report.comparisons.get(d - 1).cloned()).flatten();
+    let comparison = (d > 0)
+        .then(|| report.comparisons.get(d - 1).cloned())
+        .flatten();
     let drawn = scale > 0.0;
     view! {
         <Totals design=design.clone() units=units currency=currency.clone() />

@@ -6,6 +6,11 @@ use crate::engine::job::RemovedPhase;
 use crate::engine::units::UnitSystem;
 use crate::engine::{solve, InputError, Job, JobReport};
 use leptos::prelude::*;
+use std::sync::Arc;
+
+/// The engine's answer, shared rather than copied: results, stale notices and the live strip
+/// all read the same one.
+pub type Outcome = Result<Arc<JobReport>, Arc<Vec<InputError>>>;
 
 /// How the app is shown; not part of the job.
 #[derive(Clone, Copy, Debug, PartialEq, Eq, Default)]
@@ -20,9 +25,9 @@ pub struct Display {
 pub struct JobState {
     pub job: RwSignal<Job>,
     /// The engine's answer for the current job.
-    pub result: Memo<Result<JobReport, Vec<InputError>>>,
+    pub result: Memo<Outcome>,
     /// The last report of a job without errors: shown, marked stale, while the job has errors.
-    pub last_good: RwSignal<Option<JobReport>>,
+    pub last_good: RwSignal<Option<Arc<JobReport>>>,
     /// The design the power-unit and results areas show.
     pub design: RwSignal<usize>,
     /// The phase open for editing in the cycle area.
@@ -35,7 +40,12 @@ pub struct JobState {
 impl JobState {
     pub fn new(job: Job) -> JobState {
         let job = RwSignal::new(job);
-        let result = Memo::new(move |_| job.with(solve));
+        // Every new answer counts as a change: comparing two reports field by field costs as
+        // much as drawing them, and nearly every edit changes the report anyway.
+        let result = Memo::new_with_compare(
+            move |_| job.with(|j| solve(j).map(Arc::new).map_err(Arc::new)),
+            |_, _| true,
+        );
         // Kept by an effect, not a memo: a memo is only computed when read, and the results
         // may not be on screen while the job is still good.
         let last_good = RwSignal::new(None);
@@ -63,7 +73,10 @@ impl JobState {
     pub fn error_for(&self, field: &str) -> Option<String> {
         self.result.with(|r| match r {
             Ok(_) => None,
-            Err(errors) => errors.iter().find(|e| e.field == field).map(|e| e.message.clone()),
+            Err(errors) => errors
+                .iter()
+                .find(|e| e.field == field)
+                .map(|e| e.message.clone()),
         })
     }
 

@@ -45,7 +45,7 @@ fn pump_path(j: &Job, d: usize, p: usize) -> String {
     }
 }
 
-fn design<'a>(j: &'a Job, d: usize) -> Option<&'a Design> {
+fn design(j: &Job, d: usize) -> Option<&Design> {
     j.designs.get(d)
 }
 
@@ -57,7 +57,11 @@ fn design_mut(j: &mut Job, d: usize) -> Option<&mut Design> {
 #[component]
 pub fn DesignTabs() -> impl IntoView {
     let state = use_job();
-    let names = move || state.job.with(|j| j.designs.iter().map(|d| d.name.clone()).collect::<Vec<_>>());
+    let names = move || {
+        state
+            .job
+            .with(|j| j.designs.iter().map(|d| d.name.clone()).collect::<Vec<_>>())
+    };
     view! {
         <div class="segmented design-tabs" role="group" aria-label="Power unit shown">
             {move || {
@@ -94,7 +98,9 @@ pub fn UnitArea() -> impl IntoView {
                 j.designs.push(copy);
             }
         });
-        state.design.set(state.job.with_untracked(|j| j.designs.len() - 1));
+        state
+            .design
+            .set(state.job.with_untracked(|j| j.designs.len() - 1));
     };
     let remove_design = move |_: leptos::ev::MouseEvent| {
         let d = state.design_index();
@@ -115,6 +121,7 @@ pub fn UnitArea() -> impl IntoView {
                 <UnitSwitch />
             </div>
             <super::cycle_editor::ExampleBanner />
+            <super::results::LiveSummary />
             <DesignTabs />
             <div class="row-tools">
                 <button type="button" class="button" on:click=add_design>"Copy as a new proposal"</button>
@@ -131,7 +138,11 @@ pub fn UnitArea() -> impl IntoView {
 #[component]
 fn DesignEditor(d: usize) -> impl IntoView {
     let state = use_job();
-    let pumps = Memo::new(move |_| state.job.with(|j| design(j, d).map_or(0, |x| x.pump_count())));
+    let pumps = Memo::new(move |_| {
+        state
+            .job
+            .with(|j| design(j, d).map_or(0, |x| x.pump_count()))
+    });
     let pumps = move || pumps.get();
     let add_pump = move |_: leptos::ev::MouseEvent| {
         state.job.update(|j| {
@@ -142,15 +153,24 @@ fn DesignEditor(d: usize) -> impl IntoView {
                         0,
                         UnloadingStage {
                             pump,
-                            unloading: UnloadingValve { setting: Pressure::new::<bar>(60.0), unloaded_drop: Pressure::new::<bar>(3.0) },
-                            check: CheckValve { cracking: Pressure::new::<bar>(0.5) },
+                            unloading: UnloadingValve {
+                                setting: Pressure::new::<bar>(60.0),
+                                unloaded_drop: Pressure::new::<bar>(3.0),
+                            },
+                            check: CheckValve {
+                                cracking: Pressure::new::<bar>(0.5),
+                            },
                         },
                     );
                 }
             }
         })
     };
-    let remotes = Memo::new(move |_| state.job.with(|j| design(j, d).map_or(0, |x| x.remote_stages.len())));
+    let remotes = Memo::new(move |_| {
+        state
+            .job
+            .with(|j| design(j, d).map_or(0, |x| x.remote_stages.len()))
+    });
     let remotes = move || remotes.get();
     let phases = Memo::new(move |_| state.job.with(|j| j.cycle.len()));
     let phases = move || phases.get();
@@ -253,9 +273,20 @@ fn DesignEditor(d: usize) -> impl IntoView {
 fn PumpEditor(d: usize, p: usize) -> impl IntoView {
     let state = use_job();
     let path = move || state.job.with(|j| pump_path(j, d, p));
-    let is_stage = Memo::new(move |_| state.job.with(|j| design(j, d).is_some_and(|x| p < x.unloading_stages.len())));
+    let is_stage = Memo::new(move |_| {
+        state
+            .job
+            .with(|j| design(j, d).is_some_and(|x| p < x.unloading_stages.len()))
+    });
     let is_stage = move || is_stage.get();
-    let compensated = Memo::new(move |_| state.job.with(|j| matches!(pump(j, d, p).map(|x| x.control), Some(PumpControl::Compensated { .. }))));
+    let compensated = Memo::new(move |_| {
+        state.job.with(|j| {
+            matches!(
+                pump(j, d, p).map(|x| x.control),
+                Some(PumpControl::Compensated { .. })
+            )
+        })
+    });
     let compensated = move || compensated.get();
     let remove = move |_: leptos::ev::MouseEvent| {
         state.job.update(|j| {
@@ -322,15 +353,30 @@ fn PumpEditor(d: usize, p: usize) -> impl IntoView {
 #[component]
 fn PhaseLimit(d: usize, i: usize) -> impl IntoView {
     let state = use_job();
-    let name = move || state.job.with(|j| j.cycle.get(i).map(|p| p.name.clone()).unwrap_or_default());
-    let is_idle = Memo::new(move |_| state.job.with(|j| matches!(j.cycle.get(i).map(|p| &p.kind), Some(PhaseKind::Idle(_)))));
+    let name = move || {
+        state
+            .job
+            .with(|j| j.cycle.get(i).map(|p| p.name.clone()).unwrap_or_default())
+    };
+    let is_idle = Memo::new(move |_| {
+        state
+            .job
+            .with(|j| matches!(j.cycle.get(i).map(|p| &p.kind), Some(PhaseKind::Idle(_))))
+    });
     let is_idle = move || is_idle.get();
     let options = move || {
         state.job.with(|j| {
             let mut options = vec![("main".to_string(), "Main setting".to_string())];
             if let Some(x) = design(j, d) {
                 for (r, p) in x.remote_stages.iter().enumerate() {
-                    options.push((format!("remote-{r}"), format!("Remote stage {} ({})", r + 1, Measure::Pressure.with_unit(j.units, p.value))));
+                    options.push((
+                        format!("remote-{r}"),
+                        format!(
+                            "Remote stage {} ({})",
+                            r + 1,
+                            Measure::Pressure.with_unit(j.units, p.value)
+                        ),
+                    ));
                 }
                 if x.relief.kind.has_vent_port() {
                     options.push(("vented".into(), "Vented".into()));
@@ -340,10 +386,15 @@ fn PhaseLimit(d: usize, i: usize) -> impl IntoView {
         })
     };
     let current = move || {
-        state.job.with(|j| match design(j, d).and_then(|x| x.phase_settings.get(i)).map(|s| s.limit) {
-            Some(ActiveLimit::Remote { stage }) => format!("remote-{stage}"),
-            Some(ActiveLimit::Vented) => "vented".into(),
-            _ => "main".into(),
+        state.job.with(|j| {
+            match design(j, d)
+                .and_then(|x| x.phase_settings.get(i))
+                .map(|s| s.limit)
+            {
+                Some(ActiveLimit::Remote { stage }) => format!("remote-{stage}"),
+                Some(ActiveLimit::Vented) => "vented".into(),
+                _ => "main".into(),
+            }
         })
     };
     let set_limit = move |ev: leptos::ev::Event| {
@@ -352,7 +403,10 @@ fn PhaseLimit(d: usize, i: usize) -> impl IntoView {
             if let Some(s) = design_mut(j, d).and_then(|x| x.phase_settings.get_mut(i)) {
                 s.limit = match key.as_str() {
                     "vented" => ActiveLimit::Vented,
-                    k => k.strip_prefix("remote-").and_then(|n| n.parse().ok()).map_or(ActiveLimit::Main, |stage| ActiveLimit::Remote { stage }),
+                    k => k
+                        .strip_prefix("remote-")
+                        .and_then(|n| n.parse().ok())
+                        .map_or(ActiveLimit::Main, |stage| ActiveLimit::Remote { stage }),
                 };
             }
         })
@@ -383,8 +437,16 @@ fn PhaseLimit(d: usize, i: usize) -> impl IntoView {
 #[component]
 fn IdlePathField(d: usize, i: usize) -> impl IntoView {
     let state = use_job();
-    let path = move |j: &Job| design(j, d).and_then(|x| x.phase_settings.get(i)).map(|s| s.idle_path);
-    let open_centre = Memo::new(move |_| state.job.with(|j| matches!(path(j), Some(IdlePath::OpenCentre { .. }))));
+    let path = move |j: &Job| {
+        design(j, d)
+            .and_then(|x| x.phase_settings.get(i))
+            .map(|s| s.idle_path)
+    };
+    let open_centre = Memo::new(move |_| {
+        state
+            .job
+            .with(|j| matches!(path(j), Some(IdlePath::OpenCentre { .. })))
+    });
     let open_centre = move || open_centre.get();
     view! {
         <ChoiceField label="Flow while idle" path=format!("designs[{d}].phase_settings[{i}].idle_path")

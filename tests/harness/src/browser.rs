@@ -208,9 +208,16 @@ impl Browser {
         }
     }
 
+    /// Scrolls the element to the middle of the screen, as a user would before tapping it
+    /// (WebDriver only scrolls what is off screen, not what a sticky bar covers), and taps it.
     pub async fn click(&self, css: &str) {
-        self.wait_for(css)
-            .await
+        let element = self.wait_for(css).await;
+        let arg = serde_json::to_value(&element).expect("an element reference serialises");
+        let _ = self
+            .client()
+            .execute("arguments[0].scrollIntoView({block: 'center'});", vec![arg])
+            .await;
+        element
             .click()
             .await
             .unwrap_or_else(|e| panic!("cannot click `{css}`: {e}"));
@@ -230,17 +237,31 @@ impl Browser {
 
     /// An input's current value.
     pub async fn value(&self, css: &str) -> String {
-        self.wait_for(css).await.prop("value").await.ok().flatten().unwrap_or_default()
+        self.wait_for(css)
+            .await
+            .prop("value")
+            .await
+            .ok()
+            .flatten()
+            .unwrap_or_default()
     }
 
     /// Picks an option of a `<select>` by its value.
     pub async fn choose(&self, css: &str, value: &str) {
-        self.wait_for(css).await.select_by_value(value).await.unwrap_or_else(|e| panic!("cannot choose {value} in `{css}`: {e}"));
+        self.wait_for(css)
+            .await
+            .select_by_value(value)
+            .await
+            .unwrap_or_else(|e| panic!("cannot choose {value} in `{css}`: {e}"));
     }
 
     /// How many elements match `css` right now.
     pub async fn count(&self, css: &str) -> usize {
-        self.client().find_all(Locator::Css(css)).await.map(|v| v.len()).unwrap_or(0)
+        self.client()
+            .find_all(Locator::Css(css))
+            .await
+            .map(|v| v.len())
+            .unwrap_or(0)
     }
 
     /// Waits up to ten seconds until the text of `css` satisfies `ok`, and returns it.
@@ -256,7 +277,10 @@ impl Browser {
             }
             if started.elapsed() > Duration::from_secs(10) {
                 let shot = self.screenshot("text-timeout").await;
-                panic!("`{css}` still reads {text:?} after 10 s (screenshot: {})", shot.display());
+                panic!(
+                    "`{css}` still reads {text:?} after 10 s (screenshot: {})",
+                    shot.display()
+                );
             }
             tokio::time::sleep(Duration::from_millis(50)).await;
         }
@@ -346,6 +370,23 @@ impl Browser {
             .collect()
     }
 
+    /// Sends a DevTools Protocol command, e.g. `("Emulation.setCPUThrottlingRate", {"rate": 4})`.
+    pub async fn devtools(&self, command: &str, params: Value) -> Value {
+        let body = json!({ "cmd": command, "params": params }).to_string();
+        self.client()
+            .issue_cmd(DevTools { body })
+            .await
+            .unwrap_or_else(|e| panic!("{command} failed: {e}"))
+    }
+
+    /// Runs asynchronous JavaScript: the script calls `arguments[arguments.length - 1](value)`.
+    pub async fn eval_async(&self, script: &str) -> Value {
+        self.client()
+            .execute_async(script, vec![])
+            .await
+            .unwrap_or_else(|e| panic!("script failed: {e}\n{script}"))
+    }
+
     /// Ends the session cleanly.
     pub async fn close(mut self) {
         if let Some(client) = self.client.take() {
@@ -363,6 +404,29 @@ impl Drop for Browser {
         let _ = self.driver.kill();
         let _ = self.driver.wait();
         let _ = std::fs::remove_dir_all(&self.profile);
+    }
+}
+
+/// A Chrome DevTools Protocol command, through chromedriver's `goog/cdp/execute`.
+#[derive(Debug)]
+struct DevTools {
+    body: String,
+}
+
+impl WebDriverCompatibleCommand for DevTools {
+    fn endpoint(
+        &self,
+        base: &url::Url,
+        session: Option<&str>,
+    ) -> Result<url::Url, url::ParseError> {
+        base.join(&format!(
+            "session/{}/goog/cdp/execute",
+            session.unwrap_or_default()
+        ))
+    }
+
+    fn method_and_body(&self, _: &url::Url) -> (http::Method, Option<String>) {
+        (http::Method::POST, Some(self.body.clone()))
     }
 }
 

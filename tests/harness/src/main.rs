@@ -4,6 +4,8 @@
 //!   cargo xtask test [-- ARGS]                  every test: native, then the browser tests
 //!   cargo xtask build                           the release build into dist/
 //!   cargo xtask size [--no-build | --profiles]  raw and gzip sizes of dist/, or of each release-profile variant
+//!   cargo xtask size --counter                  the app's bundle against a plain Leptos counter, same profile
+//!   cargo xtask latency [--no-build]            time from an edit to updated figures in Chromium, 1x and 4x CPU
 //!   cargo xtask smoke URL                       open a served Phasewise in headless Chromium and check it starts
 //!   cargo xtask setup                           install whatever tool is missing
 //!
@@ -13,7 +15,7 @@ use phasewise_harness::{build, dist_dir, project_root, server::StaticServer, siz
 use std::process::ExitCode;
 use std::time::Instant;
 
-const USAGE: &str = "usage: cargo xtask <serve [--port N] [--no-build] | test [-- CARGO-TEST-ARGS] | build | size [--no-build | --profiles] | smoke URL | setup>";
+const USAGE: &str = "usage: cargo xtask <serve [--port N] [--no-build] | test [-- CARGO-TEST-ARGS] | build | size [--no-build | --profiles] | size --counter | latency [--no-build] | smoke URL | setup>";
 
 fn main() -> ExitCode {
     let args: Vec<String> = std::env::args().skip(1).collect();
@@ -24,6 +26,7 @@ fn main() -> ExitCode {
         Some("build") => release_build().map(|_| ()),
         Some("size") => size_report(&args[1..]),
         Some("smoke") => smoke(&args[1..]),
+        Some("latency") => latency(&args[1..]),
         Some("setup") => {
             tools::prepare_build(&project_root()).and_then(|_| tools::prepare_browser())
         }
@@ -101,6 +104,9 @@ fn test(args: &[String]) -> Result<(), String> {
 fn size_report(args: &[String]) -> Result<(), String> {
     if args.iter().any(|a| a == "--profiles") {
         return profile_sizes();
+    }
+    if args.iter().any(|a| a == "--counter") {
+        return counter_comparison();
     }
     if !args.iter().any(|a| a == "--no-build") {
         release_build()?;
@@ -198,3 +204,122 @@ fn smoke(args: &[String]) -> Result<(), String> {
         }
     })
 }
+
+/// Builds the app and a plain Leptos counter with the same release profile, in one run, and
+/// prints what each ships (wasm + js, raw and gzip) and the ratio.
+fn counter_comparison() -> Result<(), String> {
+    let root = project_root();
+    let tools = release_build()?;
+    let counter_dist = phasewise_harness::target_dir().join("counter-dist");
+    tools::run(
+        tools
+            .command("trunk")
+            .args([
+                "build",
+                "--release",
+                "--offline",
+                "tests/counter/index.html",
+                "--dist",
+            ])
+            .arg(&counter_dist)
+            .current_dir(&root),
+    )?;
+    let shipped = |dir: &std::path::Path| -> Result<(u64, u64), String> {
+        let sizes =
+            size::measure(dir).map_err(|e| format!("cannot measure {}: {e}", dir.display()))?;
+        Ok(sizes
+            .iter()
+            .filter(|f| f.kind == "wasm" || f.kind == "js")
+            .fold((0, 0), |(raw, gz), f| (raw + f.raw, gz + f.gzip)))
+    };
+    let (app_raw, app_gz) = shipped(&dist_dir())?;
+    let (counter_raw, counter_gz) = shipped(&counter_dist)?;
+    println!("{:<34} {:>22} {:>22}", "wasm + js", "raw", "gzip");
+    println!(
+        "{:<34} {:>22} {:>22}",
+        "Phasewise",
+        size::human(app_raw),
+        size::human(app_gz)
+    );
+    println!(
+        "{:<34} {:>22} {:>22}",
+        "plain Leptos counter",
+        size::human(counter_raw),
+        size::human(counter_gz)
+    );
+    println!(
+        "{:<34} {:>22} {:>22}",
+        "ratio",
+        format!("{:.2}x", app_raw as f64 / counter_raw as f64),
+        format!("{:.2}x", app_gz as f64 / counter_gz as f64)
+    );
+    Ok(())
+}
+
+/// Times edits in headless Chromium at phone size: a load typed into the cycle area, until the
+/// live figures above it change. Prints median, 90th percentile and worst, unthrottled and with
+/// the CPU slowed 4x through the DevTools protocol.
+fn latency(args: &[String]) -> Result<(), String> {
+    use phasewise_harness::browser::{Browser, Viewport, APP_READY};
+    if !args.iter().any(|a| a == "--no-build") {
+        release_build()?;
+    }
+    tools::prepare_browser()?;
+    let server = StaticServer::start(dist_dir(), "127.0.0.1:0")
+        .map_err(|e| format!("cannot serve dist/: {e}"))?;
+    let runtime = tokio::runtime::Builder::new_current_thread()
+        .enable_all()
+        .build()
+        .map_err(|e| format!("cannot start the async runtime: {e}"))?;
+    runtime.block_on(async {
+        let b = Browser::launch("latency", Viewport::PHONE).await;
+        b.goto(&server.url()).await;
+        b.wait_for(APP_READY).await;
+        b.click("li[data-phase='1'] .phase-head").await;
+        b.wait_for("input[data-path='cycle[1].load.force_n']").await;
+        for rate in [1, 4] {
+            b.devtools("Emulation.setCPUThrottlingRate", serde_json::json!({ "rate": rate })).await;
+            let times = b.eval_async(EDIT_TIMING).await;
+            let mut times: Vec<f64> = times.as_array().into_iter().flatten().filter_map(|t| t.as_f64()).collect();
+            if times.is_empty() {
+                return Err(format!("no timings came back: {times:?}"));
+            }
+            times.sort_by(f64::total_cmp);
+            let at = |q: f64| times[((times.len() - 1) as f64 * q).round() as usize];
+            println!(
+                "edit to updated figures, CPU {rate}x slower: median {:.2} ms, 90th percentile {:.2} ms, worst {:.2} ms ({} edits)",
+                at(0.5),
+                at(0.9),
+                at(1.0),
+                times.len()
+            );
+        }
+        b.close().await;
+        Ok(())
+    })
+}
+
+/// Types 40 alternating loads and times each until the live average power changes.
+const EDIT_TIMING: &str = r#"
+const done = arguments[arguments.length - 1];
+const input = document.querySelector("input[data-path='cycle[1].load.force_n']");
+const times = [];
+(async () => {
+  for (let k = 0; k < 40; k++) {
+    const target = document.querySelector("[data-live='average']");
+    const before = target.textContent;
+    const t0 = performance.now();
+    await new Promise((resolve) => {
+      const observer = new MutationObserver(() => {
+        if (document.querySelector("[data-live='average']").textContent !== before) { observer.disconnect(); resolve(); }
+      });
+      observer.observe(document.querySelector(".live-summary").parentNode, { subtree: true, childList: true, characterData: true });
+      input.value = k % 2 ? "300" : "250";
+      input.dispatchEvent(new Event("input", { bubbles: true }));
+    });
+    times.push(performance.now() - t0);
+    await new Promise((r) => setTimeout(r, 20));
+  }
+  done(times);
+})();
+"#;

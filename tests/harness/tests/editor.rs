@@ -38,15 +38,38 @@ async fn the_demo_results_are_the_engines() {
     b.wait_for(".example-banner").await;
     for (i, phase) in report.designs[0].phases.iter().enumerate() {
         let at = |key: &str| format!("li.phase-result[data-phase='{i}'] [data-value='{key}']");
-        assert_eq!(b.text(&at("pressure")).await, Measure::Pressure.with_unit(si, phase.point.system_pressure.value), "{}", phase.name);
-        assert_eq!(b.text(&at("flow")).await, Measure::Flow.with_unit(si, phase.point.actuator_flow.value));
-        assert_eq!(b.text(&at("duration")).await, Measure::Duration.with_unit(si, phase.point.duration.value));
-        assert_eq!(b.text(&at("input")).await, Measure::Power.with_unit(si, phase.ledger.electrical_input.value));
+        assert_eq!(
+            b.text(&at("pressure")).await,
+            Measure::Pressure.with_unit(si, phase.point.system_pressure.value),
+            "{}",
+            phase.name
+        );
+        assert_eq!(
+            b.text(&at("flow")).await,
+            Measure::Flow.with_unit(si, phase.point.actuator_flow.value)
+        );
+        assert_eq!(
+            b.text(&at("duration")).await,
+            Measure::Duration.with_unit(si, phase.point.duration.value)
+        );
+        assert_eq!(
+            b.text(&at("input")).await,
+            Measure::Power.with_unit(si, phase.ledger.electrical_input.value)
+        );
     }
     let totals = &report.designs[0].totals;
-    assert_eq!(b.text("[data-total='average']").await, Measure::Power.with_unit(si, totals.average_electrical.value));
-    assert_eq!(b.text("[data-total='rms-shaft']").await, Measure::Power.with_unit(si, totals.rms_shaft.value));
-    assert_eq!(b.text("[data-total='annual-energy']").await, format!("{:.0} kWh", totals.annual_energy_kwh));
+    assert_eq!(
+        b.text("[data-total='average']").await,
+        Measure::Power.with_unit(si, totals.average_electrical.value)
+    );
+    assert_eq!(
+        b.text("[data-total='rms-shaft']").await,
+        Measure::Power.with_unit(si, totals.rms_shaft.value)
+    );
+    assert_eq!(
+        b.text("[data-total='annual-energy']").await,
+        format!("{:.0} kWh", totals.annual_energy_kwh)
+    );
     // The charts are drawn: a bar segment per ledger item with power, a line per timeline panel.
     assert!(b.count(".chart rect").await >= report.designs[0].phases.len());
     assert_eq!(b.count(".chart polyline").await, 3);
@@ -56,7 +79,10 @@ async fn the_demo_results_are_the_engines() {
     // The proposal, with its comparison against the baseline.
     b.click("button[data-design='1']").await;
     let saved = report.comparisons[0].annual_energy_saved_kwh;
-    b.wait_for_text("[data-total='saved-energy']", |t| t == format!("{saved:.0} kWh")).await;
+    b.wait_for_text("[data-total='saved-energy']", |t| {
+        t == format!("{saved:.0} kWh")
+    })
+    .await;
     b.screenshot("proposal").await;
     app.finish().await;
 }
@@ -70,17 +96,29 @@ async fn editing_a_load_changes_the_ledger_and_the_totals() {
     b.fill(&field("cycle[1].load.force_n"), "250,0").await;
     let mut job: Job = scrap_baler();
     if let PhaseKind::Move(m) = &mut job.cycle[1].kind {
-        m.load = Load::Force { force: Force::new::<uom::si::force::kilonewton>(250.0) };
+        m.load = Load::Force {
+            force: Force::new::<uom::si::force::kilonewton>(250.0),
+        };
     }
     let edited = solve(&job).unwrap();
     let before = solve(&scrap_baler()).unwrap();
-    assert_ne!(edited.designs[0].totals.average_electrical, before.designs[0].totals.average_electrical);
+    assert_ne!(
+        edited.designs[0].totals.average_electrical,
+        before.designs[0].totals.average_electrical
+    );
     b.click("nav.areas a[href='#/results']").await;
     let si = UnitSystem::Si;
     let expected = Measure::Power.with_unit(si, edited.designs[0].totals.average_electrical.value);
-    b.wait_for_text("[data-total='average']", |t| t == expected).await;
+    b.wait_for_text("[data-total='average']", |t| t == expected)
+        .await;
     let compress = "li.phase-result[data-phase='1'] [data-value='input']";
-    assert_eq!(b.text(compress).await, Measure::Power.with_unit(si, edited.designs[0].phases[1].ledger.electrical_input.value));
+    assert_eq!(
+        b.text(compress).await,
+        Measure::Power.with_unit(
+            si,
+            edited.designs[0].phases[1].ledger.electrical_input.value
+        )
+    );
     assert_eq!(b.count(".stale-notice").await, 0);
     app.finish().await;
 }
@@ -102,12 +140,15 @@ async fn phases_are_added_deleted_and_brought_back() {
     assert_ne!(b.text("li[data-phase='2'] .phase-name").await, "Dwell");
     b.screenshot("after-delete").await;
     b.click(".undo-bar .button").await;
-    b.wait_for_text("li[data-phase='2'] .phase-name", |t| t == "Dwell").await;
+    b.wait_for_text("li[data-phase='2'] .phase-name", |t| t == "Dwell")
+        .await;
     assert_eq!(b.count(cards).await, 6);
     assert_eq!(b.count(".undo-bar").await, 0);
     // Duplicate it: the copy follows the original.
-    b.click("li[data-phase='2'] .phase-tools .button:nth-child(3)").await;
-    b.wait_for_text("li[data-phase='3'] .phase-name", |t| t == "Dwell").await;
+    b.click("li[data-phase='2'] .phase-tools .button:nth-child(3)")
+        .await;
+    b.wait_for_text("li[data-phase='3'] .phase-name", |t| t == "Dwell")
+        .await;
     assert_eq!(b.count(cards).await, 7);
     app.finish().await;
 }
@@ -121,15 +162,22 @@ async fn switching_units_changes_what_is_shown_and_not_the_physics() {
     assert_eq!(b.value(&bore).await, "160.0");
     b.click(".segmented button:nth-child(2)").await;
     // 160 mm is 6.299 in (NIST SP 811: 1 in = 25.4 mm exactly).
-    b.wait_for_text(&format!("{bore} + .unit"), |t| t == "in").await;
+    b.wait_for_text(&format!("{bore} + .unit"), |t| t == "in")
+        .await;
     assert_eq!(b.value(&bore).await, "6.299");
     b.click("nav.areas a[href='#/results']").await;
     let report = solve(&scrap_baler()).unwrap();
-    let us = Measure::Power.with_unit(UnitSystem::UsCustomary, report.designs[0].totals.average_electrical.value);
+    let us = Measure::Power.with_unit(
+        UnitSystem::UsCustomary,
+        report.designs[0].totals.average_electrical.value,
+    );
     b.wait_for_text("[data-total='average']", |t| t == us).await;
     // And back: the same figures as before, to the digit.
     b.click(".segmented button:nth-child(1)").await;
-    let si = Measure::Power.with_unit(UnitSystem::Si, report.designs[0].totals.average_electrical.value);
+    let si = Measure::Power.with_unit(
+        UnitSystem::Si,
+        report.designs[0].totals.average_electrical.value,
+    );
     b.wait_for_text("[data-total='average']", |t| t == si).await;
     b.click("nav.areas a[href='#/cycle']").await;
     open_phase(b, 0).await;
@@ -153,7 +201,11 @@ async fn bad_input_is_kept_and_explained_at_the_field() {
     ] {
         b.fill(&bore, typed).await;
         assert_eq!(b.value(&bore).await, typed, "what was typed stays");
-        let at = if says.starts_with("the rod") { "#f-cycle-0-cylinder-rod_m-error" } else { message };
+        let at = if says.starts_with("the rod") {
+            "#f-cycle-0-cylinder-rod_m-error"
+        } else {
+            message
+        };
         b.wait_for_text(at, |t| t == says).await;
         assert_no_nonsense(b).await;
     }
@@ -161,7 +213,10 @@ async fn bad_input_is_kept_and_explained_at_the_field() {
     // Results keep the last good figures, marked as stale.
     b.click("nav.areas a[href='#/results']").await;
     b.wait_for(".stale-notice").await;
-    assert!(b.text(".stale-notice").await.contains("Phase 1 (Fast approach)"));
+    assert!(b
+        .text(".stale-notice")
+        .await
+        .contains("Phase 1 (Fast approach)"));
     assert!(b.count("li.phase-result").await > 0);
     assert_no_nonsense(b).await;
     b.screenshot("stale-results").await;
@@ -178,7 +233,11 @@ async fn bad_input_is_kept_and_explained_at_the_field() {
 
 #[tokio::test]
 async fn nothing_overflows_sideways_and_the_projector_view_reads_large() {
-    for (name, viewport) in [("small-phone", Viewport::SMALL_PHONE), ("phone", Viewport::PHONE), ("laptop", Viewport::LAPTOP)] {
+    for (name, viewport) in [
+        ("small-phone", Viewport::SMALL_PHONE),
+        ("phone", Viewport::PHONE),
+        ("laptop", Viewport::LAPTOP),
+    ] {
         let app = AppSession::start("editor_layouts", viewport).await;
         let b = &app.browser;
         open_phase(b, 1).await;
@@ -186,7 +245,8 @@ async fn nothing_overflows_sideways_and_the_projector_view_reads_large() {
         b.screenshot(&format!("{name}-cycle")).await;
         for fragment in ["#/unit", "#/results"] {
             b.click(&format!("nav.areas a[href='{fragment}']")).await;
-            b.wait_for(&format!("main[data-area='{}']", &fragment[2..])).await;
+            b.wait_for(&format!("main[data-area='{}']", &fragment[2..]))
+                .await;
             assert_eq!(b.sideways_overflow().await, 0, "{name} {fragment}");
             b.screenshot(&format!("{name}-{}", &fragment[2..])).await;
         }
@@ -194,17 +254,23 @@ async fn nothing_overflows_sideways_and_the_projector_view_reads_large() {
     }
     let app = AppSession::start_at("projector", Viewport::PROJECTOR, "#/results").await;
     let b = &app.browser;
-    let normal = b.eval("return parseFloat(getComputedStyle(document.querySelector('.figure dd')).fontSize);").await;
-    b.click(".segmented[aria-label='Display'] button:nth-child(1)").await;
+    let normal = b
+        .eval("return parseFloat(getComputedStyle(document.querySelector('.figure dd')).fontSize);")
+        .await;
+    b.click(".segmented[aria-label='Display'] button:nth-child(1)")
+        .await;
     b.wait_for(".shell.projector").await;
-    let large = b.eval("return parseFloat(getComputedStyle(document.querySelector('.figure dd')).fontSize);").await;
+    let large = b
+        .eval("return parseFloat(getComputedStyle(document.querySelector('.figure dd')).fontSize);")
+        .await;
     assert!(large.as_f64() > normal.as_f64(), "{large} > {normal}");
     // Charts come first in the projector view.
     let chart_first = b.eval("const c = document.querySelector('.results .chart').getBoundingClientRect().top, t = document.querySelector('.results .totals').getBoundingClientRect().top; return c < t;").await;
     assert_eq!(chart_first, true);
     assert_eq!(b.sideways_overflow().await, 0);
     b.screenshot("projector").await;
-    b.click(".segmented[aria-label='Display'] button:nth-child(2)").await;
+    b.click(".segmented[aria-label='Display'] button:nth-child(2)")
+        .await;
     b.wait_for(".shell.contrast").await;
     b.screenshot("projector-contrast").await;
     app.finish().await;
