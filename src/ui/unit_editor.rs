@@ -199,17 +199,14 @@ fn DesignEditor(d: usize) -> impl IntoView {
         </div>
 
         <h2>"Pumps, in shaft order"</h2>
+        <SettingsCaution />
         {move || (0..pumps()).map(|p| view! { <PumpEditor d=d p=p /> }).collect_view()}
         <button type="button" class="button wide" disabled=move || { pumps() >= MAX_PUMPS } on:click=add_pump>
             "Add a pump with an unloading valve"
         </button>
 
         <h2>"Relief valve"</h2>
-        <p class="inline-caution">
-            <CautionIcon />
-            <span>"Pressure settings are changed only by a qualified person, with the machine locked out and pressure released, and never above any component's rating. "
-                <a href="#/safety">"Safety notes"</a></span>
-        </p>
+        <SettingsCaution />
         <div class="field-grid">
             <ChoiceField label="Type" path=format!("designs[{d}].relief.kind")
                 options=vec![("pilot_operated", "Pilot-operated".into()), ("direct_acting", "Direct-acting".into())]
@@ -266,6 +263,20 @@ fn DesignEditor(d: usize) -> impl IntoView {
         <h2>"Limit in each phase"</h2>
         <p class="hint">"Which pressure limit governs each phase, and where the flow goes while idle."</p>
         {move || (0..phases()).map(|i| view! { <PhaseLimit d=d i=i /> }).collect_view()}
+    }
+}
+
+/// The caution shown beside every group of pressure settings.
+#[component]
+fn SettingsCaution() -> impl IntoView {
+    view! {
+        <p class="inline-caution">
+            <CautionIcon />
+            <span>
+                "Pressure settings are changed only by a qualified person, with the machine locked out and pressure released, and never above any component's rating. "
+                <a href="#/safety">"Safety notes"</a>
+            </span>
+        </p>
     }
 }
 

@@ -214,11 +214,12 @@ fn counter_comparison() -> Result<(), String> {
     tools::run(
         tools
             .command("trunk")
+            // The target first: `--offline` takes an optional value and would swallow it.
             .args([
                 "build",
+                "tests/counter/index.html",
                 "--release",
                 "--offline",
-                "tests/counter/index.html",
                 "--dist",
             ])
             .arg(&counter_dist)
