@@ -7,7 +7,7 @@ use crate::engine::{DesignReport, PowerLedger};
 use leptos::prelude::*;
 
 const WIDTH: f64 = 400.0;
-const LEFT: f64 = 92.0;
+const LEFT: f64 = 104.0;
 const RIGHT: f64 = 12.0;
 
 /// The ledger's items in the order they are stacked, with their legend text and CSS class.
@@ -63,7 +63,7 @@ pub fn LedgerChart(
 ) -> impl IntoView {
     let row = 30.0;
     let top = 8.0;
-    let axis = 34.0;
+    let axis = 44.0;
     let height = top + row * design.phases.len() as f64 + axis;
     let plot = WIDTH - LEFT - RIGHT;
     let shown_max = Measure::Power.shown(units, scale_w);
@@ -109,7 +109,7 @@ pub fn LedgerChart(
             let gx = LEFT + plot * t / axis_max;
             view! {
                 <line class="chart-grid" x1=gx x2=gx y1=top y2=height - axis + 4.0 />
-                <text class="chart-tick" x=gx y=height - axis + 20.0 text-anchor="middle">{format_tick(*t)}</text>
+                <text class="chart-tick" x=gx y=height - axis + 19.0 text-anchor="middle">{format_tick(*t)}</text>
             }
         })
         .collect_view();
@@ -118,7 +118,7 @@ pub fn LedgerChart(
             <svg viewBox=format!("0 0 {WIDTH} {height}") role="img" aria-label="Where the power goes in each phase">
                 {grid}
                 {rows}
-                <text class="chart-axis" x=LEFT + plot / 2.0 y=height - 2.0 text-anchor="middle">{format!("Electrical input, {label}")}</text>
+                <text class="chart-axis" x=LEFT + plot / 2.0 y=height - 4.0 text-anchor="middle">{format!("Electrical input, {label}")}</text>
             </svg>
             <ul class="legend">
                 {LEDGER_ITEMS.iter().map(|(name, class)| view! {
