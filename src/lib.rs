@@ -6,6 +6,7 @@
 //! - [`ui`], the Leptos front end, which only edits a job and shows what the engine returns.
 
 pub mod engine;
+pub mod library;
 pub mod ui;
 
 pub use ui::App;

@@ -32,9 +32,12 @@ pub struct Job {
     pub oil: Oil,
 }
 
-/// What running the machine costs.
+/// Where the machine is and what running it costs.
 #[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
 pub struct Site {
+    /// The customer or plant and the machine's place in it, as the user writes it.
+    #[serde(default)]
+    pub location: String,
     /// Hours a year the machine cycles.
     pub operating_hours_per_year: f64,
     /// Price of a kilowatt-hour, in `currency`.

@@ -7,6 +7,7 @@ mod charts;
 mod cycle_editor;
 pub mod field;
 mod icons;
+pub mod jobs;
 mod results;
 mod safety;
 pub mod state;
@@ -21,9 +22,11 @@ use safety::SafetyPage;
 /// navigation bar (at the bottom on a phone, at the side on a wider screen).
 #[component]
 pub fn App() -> impl IntoView {
-    // Until jobs are kept on the device, every start opens the example job.
-    let state = state::JobState::new(crate::engine::demo::scrap_baler());
+    // The job open last, else the newest saved, else (first start) the example.
+    let (job, current) = jobs::startup_job();
+    let state = state::JobState::new(job, current);
     provide_context(state);
+    jobs::keep_saved(state);
     let area = RwSignal::new(area_in_address());
 
     let listener = window_event_listener(leptos::ev::hashchange, move |_| {
@@ -88,6 +91,7 @@ fn page(area: Area) -> AnyView {
         Area::Cycle => view! { <cycle_editor::CycleArea /> }.into_any(),
         Area::PowerUnit => view! { <unit_editor::UnitArea /> }.into_any(),
         Area::Results => view! { <results::ResultsArea /> }.into_any(),
+        Area::Jobs => view! { <jobs::JobsArea /> }.into_any(),
         other => view! { <AreaIntro area=other /> }.into_any(),
     }
 }

@@ -35,10 +35,22 @@ pub struct JobState {
     /// The last phase deleted, until it is restored or another goes.
     pub deleted: RwSignal<Option<RemovedPhase>>,
     pub display: RwSignal<Display>,
+    /// The stored id of the open job; none until it is first saved.
+    pub current: RwSignal<Option<String>>,
+    pub save_note: RwSignal<super::jobs::SaveNote>,
+    /// What storage holds, as last read.
+    pub library: RwSignal<Vec<crate::library::Entry>>,
+    /// The text this window last wrote for the open job: a storage event with other text
+    /// means another window changed it.
+    pub last_written: StoredValue<Option<String>>,
+    /// Set when the job is replaced by an opened one, so the autosave does not fire for it.
+    pub skip_save: StoredValue<bool>,
+    /// The last job entry deleted from the library (id, stored text), until undone.
+    pub deleted_entry: RwSignal<Option<(String, String)>>,
 }
 
 impl JobState {
-    pub fn new(job: Job) -> JobState {
+    pub fn new(job: Job, current: Option<String>) -> JobState {
         let job = RwSignal::new(job);
         // Every new answer counts as a change: comparing two reports field by field costs as
         // much as drawing them, and nearly every edit changes the report anyway.
@@ -62,6 +74,18 @@ impl JobState {
             open_phase: RwSignal::new(None),
             deleted: RwSignal::new(None),
             display: RwSignal::new(Display::default()),
+            save_note: RwSignal::new(if current.is_some() {
+                super::jobs::SaveNote::Saved {
+                    at_ms: super::jobs::now_ms(),
+                }
+            } else {
+                super::jobs::SaveNote::NotSaved
+            }),
+            current: RwSignal::new(current),
+            library: RwSignal::new(super::jobs::load_all()),
+            last_written: StoredValue::new(None),
+            skip_save: StoredValue::new(false),
+            deleted_entry: RwSignal::new(None),
         }
     }
 

@@ -210,6 +210,7 @@ pub fn job(cycle: Vec<Phase>, designs: Vec<Design>) -> Job {
         cycle,
         designs,
         site: Site {
+            location: String::new(),
             operating_hours_per_year: 4000.0,
             tariff_per_kwh: 0.20,
             currency: "EUR".into(),

@@ -1,0 +1,402 @@
+//! Jobs kept on this device: the storage I/O around `library`, the autosave, the watch on
+//! other windows, and the jobs area.
+
+use super::field::TextField;
+use super::state::use_job;
+use super::state::JobState;
+use crate::engine::Job;
+use crate::library::{self, Entry};
+use gloo_storage::Storage as _;
+use leptos::prelude::*;
+use wasm_bindgen::JsCast;
+
+/// How the open job stands against what is stored.
+#[derive(Clone, Debug, PartialEq)]
+pub enum SaveNote {
+    /// Not saved yet (the example, until it is changed).
+    NotSaved,
+    Saved {
+        at_ms: f64,
+    },
+    /// The last change could not be written; the stored copy is the one before it.
+    Failed(String),
+    /// Another window changed this job; saving waits for the user's choice.
+    Conflict,
+}
+
+fn local_storage() -> Result<web_sys::Storage, String> {
+    // gloo-storage's `raw()` throws where storage is switched off: ask the window first.
+    match window().local_storage() {
+        Ok(Some(_)) => Ok(gloo_storage::LocalStorage::raw()),
+        _ => Err("this browser does not let Phasewise keep jobs (private browsing, or storage switched off)".into()),
+    }
+}
+
+pub fn now_ms() -> f64 {
+    js_sys::Date::now()
+}
+
+/// Every job entry in storage, read (good or damaged), newest first.
+pub fn load_all() -> Vec<Entry> {
+    let Ok(storage) = local_storage() else {
+        return Vec::new();
+    };
+    let count = storage.length().unwrap_or(0);
+    let keys: Vec<String> = (0..count)
+        .filter_map(|i| storage.key(i).ok().flatten())
+        .collect();
+    let entries = keys
+        .iter()
+        .filter_map(|key| {
+            let id = library::id_of(key)?;
+            let raw = storage.get_item(key).ok().flatten()?;
+            Some(library::read_entry(id, &raw))
+        })
+        .collect();
+    library::sorted(entries)
+}
+
+/// Writes one entry; a full storage gets its own message, and leaves the old value in place.
+fn write(key: &str, text: &str) -> Result<(), String> {
+    let storage = local_storage()?;
+    storage.set_item(key, text).map_err(|e| {
+        let name = e.dyn_ref::<web_sys::DomException>().map(|d| d.name()).unwrap_or_default();
+        if name == "QuotaExceededError" {
+            "this device's storage for Phasewise is full, so the last change is not saved (the copy before it is kept). Export or delete some jobs to make room.".to_string()
+        } else {
+            format!("the job could not be saved ({name})")
+        }
+    })
+}
+
+/// The job to open at start: the one open last, else the newest, else the example.
+pub fn startup_job() -> (Job, Option<String>) {
+    let last = local_storage()
+        .ok()
+        .and_then(|s| s.get_item(library::LAST_OPEN_KEY).ok().flatten());
+    let entries = load_all();
+    let good = |e: &Entry| match e {
+        Entry::Good { id, saved } => Some((saved.job.clone(), Some(id.clone()))),
+        Entry::Damaged { .. } => None,
+    };
+    entries
+        .iter()
+        .find(|e| Some(e.id()) == last.as_deref())
+        .and_then(good)
+        .or_else(|| entries.iter().find_map(good))
+        .unwrap_or_else(|| (crate::engine::demo::scrap_baler(), None))
+}
+
+/// Saves the open job under its id (a new one if it has none yet).
+pub fn save_now(state: &JobState) {
+    let id = state.current.get_untracked().unwrap_or_else(|| {
+        let taken: Vec<String> = state
+            .library
+            .with_untracked(|l| l.iter().map(|e| e.id().to_string()).collect());
+        library::new_id(
+            now_ms(),
+            &taken.iter().map(String::as_str).collect::<Vec<_>>(),
+        )
+    });
+    let at = now_ms();
+    let text = state.job.with_untracked(|j| library::write_entry(j, at));
+    match write(&library::key_of(&id), &text) {
+        Ok(()) => {
+            let _ = write(library::LAST_OPEN_KEY, &id);
+            state.last_written.set_value(Some(text));
+            state.current.set(Some(id));
+            state.save_note.set(SaveNote::Saved { at_ms: at });
+            state.library.set(load_all());
+        }
+        Err(message) => state.save_note.set(SaveNote::Failed(message)),
+    }
+}
+
+/// Opens a stored job (without saving it again).
+fn open(state: &JobState, id: &str, job: Job) {
+    state.skip_save.set_value(true);
+    state.job.set(job);
+    state.current.set(Some(id.to_string()));
+    state.design.set(0);
+    state.open_phase.set(None);
+    state.deleted.set(None);
+    let _ = write(library::LAST_OPEN_KEY, id);
+    let raw = local_storage()
+        .ok()
+        .and_then(|s| s.get_item(&library::key_of(id)).ok().flatten());
+    state.last_written.set_value(raw);
+    state.save_note.set(SaveNote::Saved { at_ms: now_ms() });
+}
+
+/// Starts the autosave (a moment after the last edit) and the watch on other windows.
+pub fn keep_saved(state: JobState) {
+    let timer = StoredValue::new(None::<TimeoutHandle>);
+    Effect::new(move |first: Option<()>| {
+        state.job.track();
+        if first.is_none() || std::mem::take(&mut *state.skip_save.write_value()) {
+            return;
+        }
+        if state.save_note.get_untracked() == SaveNote::Conflict {
+            return;
+        }
+        if let Some(handle) = timer.get_value() {
+            handle.clear();
+        }
+        let handle = set_timeout_with_handle(
+            move || save_now(&state),
+            std::time::Duration::from_millis(400),
+        )
+        .ok();
+        timer.set_value(handle);
+    });
+    let listener =
+        window_event_listener(leptos::ev::storage, move |event: web_sys::StorageEvent| {
+            state.library.set(load_all());
+            let Some(id) = state.current.get_untracked() else {
+                return;
+            };
+            if event.key().as_deref() == Some(library::key_of(&id).as_str())
+                && event.new_value() != state.last_written.get_value()
+            {
+                state.save_note.set(SaveNote::Conflict);
+            }
+        });
+    on_cleanup(move || listener.remove());
+}
+
+/// Offers text as a file download.
+fn download(name: &str, text: &str) {
+    let parts = js_sys::Array::of1(&wasm_bindgen::JsValue::from_str(text));
+    let options = web_sys::BlobPropertyBag::new();
+    options.set_type("application/json");
+    let Ok(blob) = web_sys::Blob::new_with_str_sequence_and_options(&parts, &options) else {
+        return;
+    };
+    let Ok(url) = web_sys::Url::create_object_url_with_blob(&blob) else {
+        return;
+    };
+    if let Ok(a) = document().create_element("a") {
+        if let Ok(a) = a.dyn_into::<web_sys::HtmlAnchorElement>() {
+            a.set_href(&url);
+            a.set_download(name);
+            a.click();
+        }
+    }
+    let _ = web_sys::Url::revoke_object_url(&url);
+}
+
+fn when(ms: f64) -> String {
+    let date = js_sys::Date::new(&wasm_bindgen::JsValue::from_f64(ms));
+    String::from(date.to_locale_string("en-GB", &wasm_bindgen::JsValue::UNDEFINED))
+}
+
+/// The line saying whether the open job is saved.
+#[component]
+pub fn SaveStatus() -> impl IntoView {
+    let state = use_job();
+    move || {
+        let (class, text) = match state.save_note.get() {
+            SaveNote::NotSaved => ("save-note", "Not saved yet: the example is saved on this device once you change it.".to_string()),
+            SaveNote::Saved { at_ms } => ("save-note", format!("Saved on this device, {}.", when(at_ms))),
+            SaveNote::Failed(why) => ("save-note failed", format!("Not saved: {why}")),
+            SaveNote::Conflict => ("save-note failed", "This job was changed in another window. Choose which version to keep below; nothing is saved until you do.".to_string()),
+        };
+        view! { <p class=class role="status" data-save-note="true">{text}</p> }
+    }
+}
+
+#[component]
+pub fn JobsArea() -> impl IntoView {
+    let state = use_job();
+    let new_job = move |_: leptos::ev::MouseEvent| {
+        let taken: Vec<String> = state.library.with_untracked(|l| {
+            l.iter()
+                .filter_map(|e| {
+                    if let Entry::Good { saved, .. } = e {
+                        Some(saved.job.name.clone())
+                    } else {
+                        None
+                    }
+                })
+                .collect()
+        });
+        let mut job = crate::engine::demo::scrap_baler();
+        job.example = false;
+        job.name = library::unique_name(
+            "New job",
+            &taken.iter().map(String::as_str).collect::<Vec<_>>(),
+        );
+        job.notes.clear();
+        job.site.location.clear();
+        state.skip_save.set_value(true);
+        state.job.set(job);
+        state.current.set(None);
+        save_now(&state);
+    };
+    let restore = move |_: leptos::ev::MouseEvent| {
+        if let Some((id, raw)) = state.deleted_entry.get_untracked() {
+            if write(&library::key_of(&id), &raw).is_ok() {
+                state.deleted_entry.set(None);
+                state.library.set(load_all());
+            }
+        }
+    };
+    view! {
+        <section class="area" aria-labelledby="area-title">
+            <div class="area-head">
+                <h1 id="area-title">"Jobs on this device"</h1>
+            </div>
+            <SaveStatus />
+            <Conflict />
+            <div class="card">
+                <h2>"Open now"</h2>
+                <TextField label="Job name" path="name" get=|j: &Job| j.name.clone() set=|j: &mut Job, v| j.name = v />
+                <TextField label="Site" path="site.location" get=|j: &Job| j.site.location.clone() set=|j: &mut Job, v| j.site.location = v />
+            </div>
+            <button type="button" class="button wide" on:click=new_job>"Start a new job"</button>
+            {move || state.deleted_entry.get().map(|_| view! {
+                <div class="undo-bar" role="status">
+                    <span>"Job deleted."</span>
+                    <button type="button" class="button" on:click=restore>"Undo"</button>
+                </div>
+            })}
+            <ul class="job-list">
+                {move || state.library.get().into_iter().map(|entry| view! { <JobRow entry=entry /> }).collect_view()}
+            </ul>
+        </section>
+    }
+}
+
+#[component]
+fn JobRow(entry: Entry) -> impl IntoView {
+    let state = use_job();
+    match entry {
+        Entry::Good { id, saved } => {
+            let is_open = {
+                let id = id.clone();
+                Memo::new(move |_| state.current.get().as_deref() == Some(id.as_str()))
+            };
+            let open_it = {
+                let (id, job) = (id.clone(), saved.job.clone());
+                move |_: leptos::ev::MouseEvent| open(&state, &id, job.clone())
+            };
+            let duplicate = {
+                let job = saved.job.clone();
+                move |_: leptos::ev::MouseEvent| {
+                    let taken: Vec<String> = state.library.with_untracked(|l| {
+                        l.iter()
+                            .filter_map(|e| {
+                                if let Entry::Good { saved, .. } = e {
+                                    Some(saved.job.name.clone())
+                                } else {
+                                    None
+                                }
+                            })
+                            .collect()
+                    });
+                    let mut copy = job.clone();
+                    copy.name = library::unique_name(
+                        &job.name,
+                        &taken.iter().map(String::as_str).collect::<Vec<_>>(),
+                    );
+                    let ids: Vec<String> = state
+                        .library
+                        .with_untracked(|l| l.iter().map(|e| e.id().to_string()).collect());
+                    let new = library::new_id(
+                        now_ms(),
+                        &ids.iter().map(String::as_str).collect::<Vec<_>>(),
+                    );
+                    if write(
+                        &library::key_of(&new),
+                        &library::write_entry(&copy, now_ms()),
+                    )
+                    .is_ok()
+                    {
+                        state.library.set(load_all());
+                    }
+                }
+            };
+            let delete = {
+                let id = id.clone();
+                move |_: leptos::ev::MouseEvent| {
+                    let Ok(storage) = local_storage() else { return };
+                    let key = library::key_of(&id);
+                    if let Ok(Some(raw)) = storage.get_item(&key) {
+                        let _ = storage.remove_item(&key);
+                        state.deleted_entry.set(Some((id.clone(), raw)));
+                        state.library.set(load_all());
+                    }
+                }
+            };
+            let name = saved.job.name.clone();
+            let detail = format!(
+                "{}{} phases, {} units · changed {}",
+                if saved.job.site.location.is_empty() {
+                    String::new()
+                } else {
+                    format!("{} · ", saved.job.site.location)
+                },
+                saved.job.cycle.len(),
+                saved.job.designs.len(),
+                when(saved.changed_ms)
+            );
+            view! {
+                <li class="card job-row" class:current=move || is_open.get() data-job=id.clone()>
+                    <h3>{name}</h3>
+                    <p class="hint">{detail}</p>
+                    <div class="row-tools">
+                        <button type="button" class="button" disabled=move || is_open.get() on:click=open_it>
+                            {move || if is_open.get() { "Open now" } else { "Open" }}
+                        </button>
+                        <button type="button" class="button" on:click=duplicate>"Duplicate"</button>
+                        <button type="button" class="button danger" disabled=move || is_open.get() on:click=delete title="Open another job to delete this one">"Delete"</button>
+                    </div>
+                </li>
+            }
+            .into_any()
+        }
+        Entry::Damaged { id, raw, reason } => {
+            let file = format!("phasewise-damaged-{id}.json");
+            view! {
+                <li class="card job-row damaged" data-damaged=id.clone()>
+                    <h3>"A saved job that cannot be read"</h3>
+                    <p>{format!("It is kept unchanged on this device: {reason}.")}</p>
+                    <button type="button" class="button" on:click=move |_| download(&file, &raw)>"Download it as a file"</button>
+                </li>
+            }
+            .into_any()
+        }
+    }
+}
+
+/// The choice offered when another window changed the open job.
+#[component]
+fn Conflict() -> impl IntoView {
+    let state = use_job();
+    let keep_mine = move |_: leptos::ev::MouseEvent| {
+        state.save_note.set(SaveNote::NotSaved);
+        save_now(&state);
+    };
+    let take_theirs = move |_: leptos::ev::MouseEvent| {
+        let Some(id) = state.current.get_untracked() else {
+            return;
+        };
+        let raw = local_storage()
+            .ok()
+            .and_then(|s| s.get_item(&library::key_of(&id)).ok().flatten());
+        match raw.map(|raw| library::read_entry(&id, &raw)) {
+            Some(Entry::Good { saved, .. }) => open(&state, &id, saved.job),
+            _ => state.save_note.set(SaveNote::Failed(
+                "the other window's version cannot be read; yours is still here".into(),
+            )),
+        }
+    };
+    move || {
+        (state.save_note.get() == SaveNote::Conflict).then(|| view! {
+            <div class="row-tools conflict">
+                <button type="button" class="button" on:click=take_theirs>"Load the other window's version"</button>
+                <button type="button" class="button danger" on:click=keep_mine>"Keep mine and save it"</button>
+            </div>
+        })
+    }
+}
