@@ -78,7 +78,7 @@ impl Checker {
         value: f64,
         zero_ok: bool,
         max: f64,
-        show: fn(UnitSystem, f64) -> String,
+        show: impl Fn(UnitSystem, f64) -> String,
     ) -> bool {
         let units = self.units;
         if !value.is_finite() {
@@ -114,6 +114,7 @@ impl Checker {
         self.amount(field, value, zero_ok, MAX_POWER, UnitSystem::power)
     }
 
+    /// As `amount`, for a quantity shown as it is stored (metres, seconds, hours...).
     fn plain(
         &mut self,
         field: &str,
@@ -122,21 +123,9 @@ impl Checker {
         max: f64,
         unit: &'static str,
     ) -> bool {
-        if !value.is_finite() {
-            self.fail(field, "is not a number: type a value");
-        } else if value < 0.0 {
-            self.fail(field, "cannot be negative");
-        } else if value == 0.0 && !zero_ok {
-            self.fail(field, "must be more than zero");
-        } else if value > max {
-            self.fail(
-                field,
-                format!("{value} {unit} is more than any machine has: at most {max} {unit}"),
-            );
-        } else {
-            return true;
-        }
-        false
+        self.amount(field, value, zero_ok, max, move |_, v| {
+            format!("{v} {unit}")
+        })
     }
 
     /// An efficiency or share in (0, 1] (or [0, 1] when `zero_ok`).

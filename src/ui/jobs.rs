@@ -69,14 +69,17 @@ fn write(key: &str, text: &str) -> Result<(), String> {
     })
 }
 
-/// The job to open at start: the one open last, else the newest, else the example.
-pub fn startup_job() -> (Job, Option<String>) {
+/// The job to open at start: the one open last, else the newest, else the example; with its
+/// id and when it was saved.
+pub fn startup_job() -> (Job, Option<(String, f64)>) {
     let last = local_storage()
         .ok()
         .and_then(|s| s.get_item(library::LAST_OPEN_KEY).ok().flatten());
     let entries = load_all();
     let good = |e: &Entry| match e {
-        Entry::Good { id, saved } => Some((saved.job.clone(), Some(id.clone()))),
+        Entry::Good { id, saved } => {
+            Some((saved.job.clone(), Some((id.clone(), saved.changed_ms))))
+        }
         Entry::Damaged { .. } => None,
     };
     entries

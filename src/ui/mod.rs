@@ -23,8 +23,8 @@ use safety::SafetyPage;
 #[component]
 pub fn App() -> impl IntoView {
     // The job open last, else the newest saved, else (first start) the example.
-    let (job, current) = jobs::startup_job();
-    let state = state::JobState::new(job, current);
+    let (job, saved) = jobs::startup_job();
+    let state = state::JobState::new(job, saved);
     provide_context(state);
     jobs::keep_saved(state);
     let area = RwSignal::new(area_in_address());

@@ -50,7 +50,8 @@ pub struct JobState {
 }
 
 impl JobState {
-    pub fn new(job: Job, current: Option<String>) -> JobState {
+    /// The state for `job`, stored under `saved` (its id and when it was saved) if it is.
+    pub fn new(job: Job, saved: Option<(String, f64)>) -> JobState {
         let job = RwSignal::new(job);
         // Every new answer counts as a change: comparing two reports field by field costs as
         // much as drawing them, and nearly every edit changes the report anyway.
@@ -74,14 +75,11 @@ impl JobState {
             open_phase: RwSignal::new(None),
             deleted: RwSignal::new(None),
             display: RwSignal::new(Display::default()),
-            save_note: RwSignal::new(if current.is_some() {
-                super::jobs::SaveNote::Saved {
-                    at_ms: super::jobs::now_ms(),
-                }
-            } else {
-                super::jobs::SaveNote::NotSaved
+            save_note: RwSignal::new(match saved {
+                Some((_, at_ms)) => super::jobs::SaveNote::Saved { at_ms },
+                None => super::jobs::SaveNote::NotSaved,
             }),
-            current: RwSignal::new(current),
+            current: RwSignal::new(saved.map(|(id, _)| id)),
             library: RwSignal::new(super::jobs::load_all()),
             last_written: StoredValue::new(None),
             skip_save: StoredValue::new(false),
