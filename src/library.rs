@@ -148,6 +148,66 @@ pub fn unique_name(name: &str, taken: &[&str]) -> String {
         .expect("an unused name")
 }
 
+/// The largest file the import reads: far above any real set of jobs, far below what would
+/// stall a phone.
+pub const IMPORT_LIMIT_BYTES: usize = 2 * 1024 * 1024;
+const BUNDLE: &str = "phasewise-jobs";
+
+/// Several jobs in one file: `{"format": "phasewise-jobs", "jobs": [job file, ...]}`.
+pub fn export_all(jobs: &[&Job]) -> String {
+    let jobs: Vec<&Job> = jobs.to_vec();
+    serde_json::to_string_pretty(&serde_json::json!({ "format": BUNDLE, "jobs": jobs }))
+        .expect("jobs always serialise")
+}
+
+/// The jobs in an imported file (a job file, or several from [`export_all`]), each checked by
+/// the engine's own validation, renamed where a name is taken. Any problem refuses the whole
+/// file with a sentence saying what is wrong, so an import changes nothing or adds everything.
+pub fn parse_import(text: &str, taken_names: &[&str]) -> Result<Vec<Job>, String> {
+    if text.len() > IMPORT_LIMIT_BYTES {
+        return Err(format!(
+            "the file is {} KB; a Phasewise file is at most {} KB",
+            text.len() / 1024,
+            IMPORT_LIMIT_BYTES / 1024
+        ));
+    }
+    let value: serde_json::Value = serde_json::from_str(text)
+        .map_err(|_| "this is not a Phasewise job file (it is not JSON)".to_string())?;
+    let files: Vec<String> = if value.get("format").and_then(|f| f.as_str()) == Some(BUNDLE) {
+        match value.get("jobs").and_then(|j| j.as_array()) {
+            Some(jobs) if !jobs.is_empty() => jobs.iter().map(|j| j.to_string()).collect(),
+            _ => return Err("this Phasewise file holds no jobs".into()),
+        }
+    } else if value.get("schema_version").is_some() {
+        vec![text.to_string()]
+    } else {
+        return Err("this is not a Phasewise job file".into());
+    };
+    let mut taken: Vec<String> = taken_names.iter().map(|n| n.to_string()).collect();
+    let mut jobs = Vec::with_capacity(files.len());
+    for (i, file) in files.iter().enumerate() {
+        let mut job = Job::from_json(file).map_err(|e| format!("job {}: {e}", i + 1))?;
+        if let Err(errors) = crate::engine::validate::validate(&job) {
+            let first = &errors[0];
+            return Err(format!(
+                "job {} (“{}”) has {} problem(s), the first at {}: {}",
+                i + 1,
+                job.name,
+                errors.len(),
+                first.field,
+                first.message
+            ));
+        }
+        job.name = unique_name(
+            &job.name,
+            &taken.iter().map(String::as_str).collect::<Vec<_>>(),
+        );
+        taken.push(job.name.clone());
+        jobs.push(job);
+    }
+    Ok(jobs)
+}
+
 /// The good entries, newest first, then the damaged ones.
 pub fn sorted(mut entries: Vec<Entry>) -> Vec<Entry> {
     entries.sort_by(|a, b| match (a, b) {
@@ -229,6 +289,42 @@ mod tests {
         assert_eq!(new_id(255.0, &["ff", "ff-2"]), "ff-3");
         assert_eq!(unique_name("Baler", &["Baler", "Baler (2)"]), "Baler (3)");
         assert_eq!(unique_name(" ", &[]), "Untitled job");
+    }
+
+    #[test]
+    fn an_export_imports_back_equal_and_beside_same_named_jobs() {
+        let a = scrap_baler();
+        let mut b = scrap_baler();
+        b.name = "Second".into();
+        let file = export_all(&[&a, &b]);
+        assert_eq!(
+            parse_import(&file, &[]).unwrap(),
+            vec![a.clone(), b.clone()]
+        );
+        let beside = parse_import(&file, &[a.name.as_str()]).unwrap();
+        assert_eq!(beside[0].name, format!("{} (2)", a.name));
+        assert_eq!(beside[1].name, "Second");
+        // A single job file imports too.
+        assert_eq!(parse_import(&a.to_json(), &[]).unwrap(), vec![a]);
+    }
+
+    #[test]
+    fn a_bad_file_is_refused_whole_with_a_reason() {
+        let good = scrap_baler().to_json();
+        let mut invalid = scrap_baler();
+        invalid.designs[0].motor.full_load_efficiency = 1.5;
+        let cases = [
+            ("not json at all".to_string(), "not JSON"),
+            ("{\"some\": \"other file\"}".to_string(), "not a Phasewise job file"),
+            ("{\"format\": \"phasewise-jobs\", \"jobs\": []}".to_string(), "holds no jobs"),
+            (good.replace("\"schema_version\": 1", "\"schema_version\": 5"), "newer Phasewise"),
+            (export_all(&[&scrap_baler(), &invalid]), "job 2 (“Scrap baler (example)”) has 1 problem(s), the first at designs[0].motor.full_load_efficiency"),
+            ("x".repeat(IMPORT_LIMIT_BYTES + 1), "at most 2048 KB"),
+        ];
+        for (text, says) in cases {
+            let err = parse_import(&text, &[]).unwrap_err();
+            assert!(err.contains(says), "{err} / {says}");
+        }
     }
 
     #[test]

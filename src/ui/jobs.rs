@@ -257,6 +257,7 @@ pub fn JobsArea() -> impl IntoView {
                 <TextField label="Site" path="site.location" get=|j: &Job| j.site.location.clone() set=|j: &mut Job, v| j.site.location = v />
             </div>
             <button type="button" class="button wide" on:click=new_job>"Start a new job"</button>
+            <Transfer />
             {move || state.deleted_entry.get().map(|_| view! {
                 <div class="undo-bar" role="status">
                     <span>"Job deleted."</span>
@@ -401,5 +402,155 @@ fn Conflict() -> impl IntoView {
                 <button type="button" class="button danger" on:click=keep_mine>"Keep mine and save it"</button>
             </div>
         })
+    }
+}
+
+/// Export of the open job or of all jobs, and import from a file.
+#[component]
+fn Transfer() -> impl IntoView {
+    let state = use_job();
+    let message = RwSignal::new(None::<(bool, String)>);
+    let export_one = move |_: leptos::ev::MouseEvent| {
+        let (name, text) = state.job.with_untracked(|j| (j.name.clone(), j.to_json()));
+        download(&format!("{}.phasewise.json", file_stem(&name)), &text);
+    };
+    let export_all = move |_: leptos::ev::MouseEvent| {
+        let text = state.library.with_untracked(|l| {
+            let jobs: Vec<&Job> = l
+                .iter()
+                .filter_map(|e| {
+                    if let Entry::Good { saved, .. } = e {
+                        Some(&saved.job)
+                    } else {
+                        None
+                    }
+                })
+                .collect();
+            library::export_all(&jobs)
+        });
+        download("all-jobs.phasewise.json", &text);
+    };
+    let import = move |ev: leptos::ev::Event| {
+        let Some(input) = ev
+            .target()
+            .and_then(|t| t.dyn_into::<web_sys::HtmlInputElement>().ok())
+        else {
+            return;
+        };
+        let Some(file) = input.files().and_then(|f| f.get(0)) else {
+            return;
+        };
+        input.set_value("");
+        if file.size() > library::IMPORT_LIMIT_BYTES as f64 {
+            message.set(Some((
+                false,
+                format!(
+                    "Nothing imported: the file is {} KB; a Phasewise file is at most {} KB.",
+                    file.size() as u64 / 1024,
+                    library::IMPORT_LIMIT_BYTES / 1024
+                ),
+            )));
+            return;
+        }
+        leptos::task::spawn_local(async move {
+            let text = match wasm_bindgen_futures::JsFuture::from(file.text()).await {
+                Ok(text) => text.as_string().unwrap_or_default(),
+                Err(_) => {
+                    message.set(Some((
+                        false,
+                        "Nothing imported: the file could not be read.".into(),
+                    )));
+                    return;
+                }
+            };
+            let taken: Vec<String> = state.library.with_untracked(|l| {
+                l.iter()
+                    .filter_map(|e| {
+                        if let Entry::Good { saved, .. } = e {
+                            Some(saved.job.name.clone())
+                        } else {
+                            None
+                        }
+                    })
+                    .collect()
+            });
+            match library::parse_import(
+                &text,
+                &taken.iter().map(String::as_str).collect::<Vec<_>>(),
+            ) {
+                Err(why) => message.set(Some((false, format!("Nothing imported: {why}.")))),
+                Ok(jobs) => {
+                    let mut ids: Vec<String> = state
+                        .library
+                        .with_untracked(|l| l.iter().map(|e| e.id().to_string()).collect());
+                    let mut failed = None;
+                    for job in &jobs {
+                        let id = library::new_id(
+                            now_ms(),
+                            &ids.iter().map(String::as_str).collect::<Vec<_>>(),
+                        );
+                        if let Err(why) =
+                            write(&library::key_of(&id), &library::write_entry(job, now_ms()))
+                        {
+                            failed = Some(why);
+                            break;
+                        }
+                        ids.push(id);
+                    }
+                    state.library.set(load_all());
+                    message.set(Some(match failed {
+                        Some(why) => (false, format!("Not every job was imported: {why}")),
+                        None => (
+                            true,
+                            format!(
+                                "Imported {} job{}.",
+                                jobs.len(),
+                                if jobs.len() == 1 { "" } else { "s" }
+                            ),
+                        ),
+                    }));
+                }
+            }
+        });
+    };
+    view! {
+        <div class="card transfer">
+            <h2>"Move jobs in and out"</h2>
+            <div class="row-tools">
+                <button type="button" class="button" on:click=export_one>"Export this job"</button>
+                <button type="button" class="button" on:click=export_all>"Export all jobs"</button>
+            </div>
+            <div class="field">
+                <label for="import-file">"Import jobs from a file"</label>
+                <input id="import-file" type="file" accept=".json,application/json" on:change=import />
+            </div>
+            {move || message.get().map(|(ok, text)| view! {
+                <p class=if ok { "save-note" } else { "save-note failed" } role="status" data-import-note="true">{text}</p>
+            })}
+        </div>
+    }
+}
+
+/// A file name from a job name: letters, digits and dashes.
+fn file_stem(name: &str) -> String {
+    let stem: String = name
+        .chars()
+        .map(|c| {
+            if c.is_alphanumeric() {
+                c.to_ascii_lowercase()
+            } else {
+                '-'
+            }
+        })
+        .collect();
+    let stem = stem
+        .split('-')
+        .filter(|s| !s.is_empty())
+        .collect::<Vec<_>>()
+        .join("-");
+    if stem.is_empty() {
+        "job".into()
+    } else {
+        stem
     }
 }

@@ -148,3 +148,77 @@ async fn a_change_in_another_window_is_noticed_and_not_overwritten() {
     );
     app.finish().await;
 }
+
+/// Writes `text` to a file of the test's own and returns its path.
+fn temp_file(name: &str, text: &[u8]) -> String {
+    let dir = phasewise_harness::browser::unique_dir("import");
+    std::fs::create_dir_all(&dir).unwrap();
+    let path = dir.join(name);
+    std::fs::write(&path, text).unwrap();
+    path.display().to_string()
+}
+
+#[tokio::test]
+async fn an_import_adds_its_jobs_beside_same_named_ones_and_a_bad_file_changes_nothing() {
+    let app = AppSession::start("import", Viewport::PHONE).await;
+    let b = &app.browser;
+    rename_open_job(b, "Baler").await;
+    let mut second = phasewise::engine::demo::scrap_baler();
+    second.name = "Baler".into();
+    let third = phasewise::engine::demo::scrap_baler();
+    let file = temp_file(
+        "two.json",
+        phasewise::library::export_all(&[&second, &third]).as_bytes(),
+    );
+    let stored =
+        "return Object.keys(localStorage).filter(k => k.startsWith('phasewise.job.')).length;";
+    b.wait_for("#import-file")
+        .await
+        .send_keys(&file)
+        .await
+        .unwrap();
+    b.wait_for_text("[data-import-note]", |t| t == "Imported 2 jobs.")
+        .await;
+    assert_eq!(b.eval(stored).await, 3);
+    let names = b.eval("return [...document.querySelectorAll('li.job-row h3')].map(h => h.textContent).sort();").await;
+    assert_eq!(
+        names,
+        serde_json::json!(["Baler", "Baler (2)", "Scrap baler (example)"])
+    );
+    for (name, bytes, says) in [
+        (
+            "broken.json",
+            b"{\"format\": \"phasewise-jobs\", \"jobs\": [" as &[u8],
+            "not JSON",
+        ),
+        (
+            "other.json",
+            b"{\"hello\": \"world\"}",
+            "not a Phasewise job file",
+        ),
+        ("picture.png", b"\x89PNG\r\n\x1a\n\0\0\0\rIHDR", "not JSON"),
+    ] {
+        let path = temp_file(name, bytes);
+        b.wait_for("#import-file")
+            .await
+            .send_keys(&path)
+            .await
+            .unwrap();
+        b.wait_for_text("[data-import-note]", |t| {
+            t.starts_with("Nothing imported") && t.contains(says)
+        })
+        .await;
+        assert_eq!(b.eval(stored).await, 3, "{name} changed nothing");
+    }
+    let big = temp_file("big.json", &vec![b' '; 3 * 1024 * 1024]);
+    b.wait_for("#import-file")
+        .await
+        .send_keys(&big)
+        .await
+        .unwrap();
+    b.wait_for_text("[data-import-note]", |t| t.contains("at most 2048 KB"))
+        .await;
+    assert_eq!(b.eval(stored).await, 3);
+    b.screenshot("imported").await;
+    app.finish().await;
+}
