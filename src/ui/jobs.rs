@@ -69,13 +69,12 @@ fn write(key: &str, text: &str) -> Result<(), String> {
     })
 }
 
-/// The job to open at start: the one open last, else the newest, else the example; with its
-/// id and when it was saved.
-pub fn startup_job() -> (Job, Option<(String, f64)>) {
+/// The job to open at start among the stored `entries`: the one open last, else the newest,
+/// else the example; with its id and when it was saved.
+pub fn startup_job(entries: &[Entry]) -> (Job, Option<(String, f64)>) {
     let last = local_storage()
         .ok()
         .and_then(|s| s.get_item(library::LAST_OPEN_KEY).ok().flatten());
-    let entries = load_all();
     let good = |e: &Entry| match e {
         Entry::Good { id, saved } => {
             Some((saved.job.clone(), Some((id.clone(), saved.changed_ms))))
@@ -90,16 +89,34 @@ pub fn startup_job() -> (Job, Option<(String, f64)>) {
         .unwrap_or_else(|| (crate::engine::demo::scrap_baler(), None))
 }
 
+/// The names of the stored jobs that read (damaged entries have none).
+fn stored_names(state: &JobState) -> Vec<String> {
+    state.library.with_untracked(|l| {
+        l.iter()
+            .filter_map(|e| match e {
+                Entry::Good { saved, .. } => Some(saved.job.name.clone()),
+                Entry::Damaged { .. } => None,
+            })
+            .collect()
+    })
+}
+
+/// The ids of every stored entry, damaged ones included, so a new id never takes theirs.
+fn stored_ids(state: &JobState) -> Vec<String> {
+    state
+        .library
+        .with_untracked(|l| l.iter().map(|e| e.id().to_string()).collect())
+}
+
+fn strs(v: &[String]) -> Vec<&str> {
+    v.iter().map(String::as_str).collect()
+}
+
 /// Saves the open job under its id (a new one if it has none yet).
 pub fn save_now(state: &JobState) {
     let id = state.current.get_untracked().unwrap_or_else(|| {
-        let taken: Vec<String> = state
-            .library
-            .with_untracked(|l| l.iter().map(|e| e.id().to_string()).collect());
-        library::new_id(
-            now_ms(),
-            &taken.iter().map(String::as_str).collect::<Vec<_>>(),
-        )
+        let taken = stored_ids(state);
+        library::new_id(now_ms(), &strs(&taken))
     });
     let at = now_ms();
     let text = state.job.with_untracked(|j| library::write_entry(j, at));
@@ -212,23 +229,10 @@ pub fn SaveStatus() -> impl IntoView {
 pub fn JobsArea() -> impl IntoView {
     let state = use_job();
     let new_job = move |_: leptos::ev::MouseEvent| {
-        let taken: Vec<String> = state.library.with_untracked(|l| {
-            l.iter()
-                .filter_map(|e| {
-                    if let Entry::Good { saved, .. } = e {
-                        Some(saved.job.name.clone())
-                    } else {
-                        None
-                    }
-                })
-                .collect()
-        });
+        let taken = stored_names(&state);
         let mut job = crate::engine::demo::scrap_baler();
         job.example = false;
-        job.name = library::unique_name(
-            "New job",
-            &taken.iter().map(String::as_str).collect::<Vec<_>>(),
-        );
+        job.name = library::unique_name("New job", &strs(&taken));
         job.notes.clear();
         job.site.location.clear();
         state.skip_save.set_value(true);
@@ -287,29 +291,11 @@ fn JobRow(entry: Entry) -> impl IntoView {
             let duplicate = {
                 let job = saved.job.clone();
                 move |_: leptos::ev::MouseEvent| {
-                    let taken: Vec<String> = state.library.with_untracked(|l| {
-                        l.iter()
-                            .filter_map(|e| {
-                                if let Entry::Good { saved, .. } = e {
-                                    Some(saved.job.name.clone())
-                                } else {
-                                    None
-                                }
-                            })
-                            .collect()
-                    });
+                    let taken = stored_names(&state);
                     let mut copy = job.clone();
-                    copy.name = library::unique_name(
-                        &job.name,
-                        &taken.iter().map(String::as_str).collect::<Vec<_>>(),
-                    );
-                    let ids: Vec<String> = state
-                        .library
-                        .with_untracked(|l| l.iter().map(|e| e.id().to_string()).collect());
-                    let new = library::new_id(
-                        now_ms(),
-                        &ids.iter().map(String::as_str).collect::<Vec<_>>(),
-                    );
+                    copy.name = library::unique_name(&job.name, &strs(&taken));
+                    let ids = stored_ids(&state);
+                    let new = library::new_id(now_ms(), &strs(&ids));
                     if write(
                         &library::key_of(&new),
                         &library::write_entry(&copy, now_ms()),
@@ -463,32 +449,14 @@ fn Transfer() -> impl IntoView {
                     return;
                 }
             };
-            let taken: Vec<String> = state.library.with_untracked(|l| {
-                l.iter()
-                    .filter_map(|e| {
-                        if let Entry::Good { saved, .. } = e {
-                            Some(saved.job.name.clone())
-                        } else {
-                            None
-                        }
-                    })
-                    .collect()
-            });
-            match library::parse_import(
-                &text,
-                &taken.iter().map(String::as_str).collect::<Vec<_>>(),
-            ) {
+            let taken = stored_names(&state);
+            match library::parse_import(&text, &strs(&taken)) {
                 Err(why) => message.set(Some((false, format!("Nothing imported: {why}.")))),
                 Ok(jobs) => {
-                    let mut ids: Vec<String> = state
-                        .library
-                        .with_untracked(|l| l.iter().map(|e| e.id().to_string()).collect());
+                    let mut ids = stored_ids(&state);
                     let mut failed = None;
                     for job in &jobs {
-                        let id = library::new_id(
-                            now_ms(),
-                            &ids.iter().map(String::as_str).collect::<Vec<_>>(),
-                        );
+                        let id = library::new_id(now_ms(), &strs(&ids));
                         if let Err(why) =
                             write(&library::key_of(&id), &library::write_entry(job, now_ms()))
                         {

@@ -23,8 +23,10 @@ use safety::SafetyPage;
 #[component]
 pub fn App() -> impl IntoView {
     // The job open last, else the newest saved, else (first start) the example.
-    let (job, saved) = jobs::startup_job();
-    let state = state::JobState::new(job, saved);
+    // Storage is read once at start: for the job to open and for the library list.
+    let entries = jobs::load_all();
+    let (job, saved) = jobs::startup_job(&entries);
+    let state = state::JobState::new(job, saved, entries);
     provide_context(state);
     jobs::keep_saved(state);
     let area = RwSignal::new(area_in_address());

@@ -50,8 +50,13 @@ pub struct JobState {
 }
 
 impl JobState {
-    /// The state for `job`, stored under `saved` (its id and when it was saved) if it is.
-    pub fn new(job: Job, saved: Option<(String, f64)>) -> JobState {
+    /// The state for `job`, stored under `saved` (its id and when it was saved) if it is, with
+    /// what storage holds.
+    pub fn new(
+        job: Job,
+        saved: Option<(String, f64)>,
+        library: Vec<crate::library::Entry>,
+    ) -> JobState {
         let job = RwSignal::new(job);
         // Every new answer counts as a change: comparing two reports field by field costs as
         // much as drawing them, and nearly every edit changes the report anyway.
@@ -80,7 +85,7 @@ impl JobState {
                 None => super::jobs::SaveNote::NotSaved,
             }),
             current: RwSignal::new(saved.map(|(id, _)| id)),
-            library: RwSignal::new(super::jobs::load_all()),
+            library: RwSignal::new(library),
             last_written: StoredValue::new(None),
             skip_save: StoredValue::new(false),
             deleted_entry: RwSignal::new(None),
