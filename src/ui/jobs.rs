@@ -132,6 +132,15 @@ pub fn save_now(state: &JobState) {
     }
 }
 
+/// Writes an autosave that is still waiting for its moment (before the page reloads).
+pub fn flush_pending(state: &JobState) {
+    if let Some(handle) = state.pending_save.get_value() {
+        handle.clear();
+        state.pending_save.set_value(None);
+        save_now(state);
+    }
+}
+
 /// Opens a stored job (without saving it again).
 fn open(state: &JobState, id: &str, job: Job) {
     state.skip_save.set_value(true);
@@ -150,7 +159,7 @@ fn open(state: &JobState, id: &str, job: Job) {
 
 /// Starts the autosave (a moment after the last edit) and the watch on other windows.
 pub fn keep_saved(state: JobState) {
-    let timer = StoredValue::new(None::<TimeoutHandle>);
+    let timer = state.pending_save;
     Effect::new(move |first: Option<()>| {
         state.job.track();
         if first.is_none() || std::mem::take(&mut *state.skip_save.write_value()) {
@@ -163,7 +172,10 @@ pub fn keep_saved(state: JobState) {
             handle.clear();
         }
         let handle = set_timeout_with_handle(
-            move || save_now(&state),
+            move || {
+                timer.set_value(None);
+                save_now(&state);
+            },
             std::time::Duration::from_millis(400),
         )
         .ok();
@@ -225,6 +237,20 @@ pub fn SaveStatus() -> impl IntoView {
     }
 }
 
+/// Whether the app itself is kept on the device yet.
+#[component]
+fn OfflineNote() -> impl IntoView {
+    let offline = super::offline::use_offline();
+    move || {
+        let text = if offline.kept.get() {
+            "The app is kept on this device: it and these jobs open with no network."
+        } else {
+            "The app is not kept on this device yet: open it once with a network (in a browser that allows it) to use it with none."
+        };
+        view! { <p class="hint offline-note">{text}</p> }
+    }
+}
+
 #[component]
 pub fn JobsArea() -> impl IntoView {
     let state = use_job();
@@ -254,6 +280,7 @@ pub fn JobsArea() -> impl IntoView {
                 <h1 id="area-title">"Jobs on this device"</h1>
             </div>
             <SaveStatus />
+            <OfflineNote />
             <Conflict />
             <div class="card">
                 <h2>"Open now"</h2>

@@ -8,6 +8,7 @@ mod cycle_editor;
 pub mod field;
 mod icons;
 pub mod jobs;
+mod offline;
 mod results;
 mod safety;
 pub mod state;
@@ -29,6 +30,7 @@ pub fn App() -> impl IntoView {
     let state = state::JobState::new(job, saved, entries);
     provide_context(state);
     jobs::keep_saved(state);
+    provide_context(offline::start());
     let area = RwSignal::new(area_in_address());
 
     let listener = window_event_listener(leptos::ev::hashchange, move |_| {
@@ -63,6 +65,7 @@ pub fn App() -> impl IntoView {
                 </a>
             </header>
             <main id="main" class="page" data-area=move || area.get().slug()>
+                <offline::NewerVersionNotice />
                 {move || page(area.get())}
             </main>
             <nav class="areas" aria-label="Areas">

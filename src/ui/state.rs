@@ -47,6 +47,8 @@ pub struct JobState {
     pub skip_save: StoredValue<bool>,
     /// The last job entry deleted from the library (id, stored text), until undone.
     pub deleted_entry: RwSignal<Option<(String, String)>>,
+    /// The autosave waiting for the edits to pause, if one is.
+    pub pending_save: StoredValue<Option<leptos::prelude::TimeoutHandle>>,
 }
 
 impl JobState {
@@ -89,6 +91,7 @@ impl JobState {
             last_written: StoredValue::new(None),
             skip_save: StoredValue::new(false),
             deleted_entry: RwSignal::new(None),
+            pending_save: StoredValue::new(None),
         }
     }
 

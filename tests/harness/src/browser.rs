@@ -3,7 +3,9 @@
 //! Every [`Browser`] has its own chromedriver, its own Chromium and a fresh, empty profile
 //! folder, so no test sees another's storage, cache or service worker. The browser's console
 //! is collected through chromedriver's log endpoint, so an error while the wasm module starts
-//! (a broken module, a panic) fails the test that caused it.
+//! (a broken module, a panic) fails the test that caused it. Every request the page makes is
+//! collected the same way (chromedriver's performance log), so a session can prove it never
+//! asked any origin but its own.
 //!
 //! A new browser test is a few lines (see `tests/harness/tests/shell.rs`):
 //!
@@ -78,6 +80,7 @@ pub struct Browser {
     profile: PathBuf,
     shots: PathBuf,
     console: Mutex<Vec<LogEntry>>,
+    requests: Mutex<Vec<String>>,
 }
 
 /// One line of the browser's console.
@@ -128,7 +131,7 @@ impl Browser {
         }
         let capabilities = json!({
             "browserName": "chrome",
-            "goog:loggingPrefs": { "browser": "ALL" },
+            "goog:loggingPrefs": { "browser": "ALL", "performance": "ALL" },
             "goog:chromeOptions": {
                 "binary": chromium,
                 // As root on this machine: no sandbox; and nothing that phones home, because the
@@ -147,6 +150,7 @@ impl Browser {
                     format!("--user-data-dir={}", profile.display()),
                 ],
                 "mobileEmulation": { "deviceMetrics": metrics },
+                "perfLoggingPrefs": { "enableNetwork": true, "enablePage": false },
             },
         });
         let Value::Object(capabilities) = capabilities else {
@@ -163,6 +167,7 @@ impl Browser {
             profile,
             shots,
             console: Mutex::new(Vec::new()),
+            requests: Mutex::new(Vec::new()),
         }
     }
 
@@ -347,7 +352,7 @@ impl Browser {
     pub async fn console(&self) -> Vec<LogEntry> {
         let fresh = self
             .client()
-            .issue_cmd(BrowserLog)
+            .issue_cmd(BrowserLog { kind: "browser" })
             .await
             .unwrap_or_else(|e| panic!("cannot read the console: {e}"));
         let mut kept = self.console.lock().unwrap();
@@ -356,6 +361,26 @@ impl Browser {
                 level: entry["level"].as_str().unwrap_or("").to_string(),
                 message: entry["message"].as_str().unwrap_or("").to_string(),
             });
+        }
+        kept.clone()
+    }
+
+    /// The address of every request the page has sent so far, in order.
+    pub async fn requests(&self) -> Vec<String> {
+        let fresh = self
+            .client()
+            .issue_cmd(BrowserLog { kind: "performance" })
+            .await
+            .unwrap_or_else(|e| panic!("cannot read the performance log: {e}"));
+        let mut kept = self.requests.lock().unwrap();
+        for entry in fresh.as_array().into_iter().flatten() {
+            let Some(text) = entry["message"].as_str() else { continue };
+            let Ok(event) = serde_json::from_str::<Value>(text) else { continue };
+            if event["message"]["method"] == "Network.requestWillBeSent" {
+                if let Some(url) = event["message"]["params"]["request"]["url"].as_str() {
+                    kept.push(url.to_string());
+                }
+            }
         }
         kept.clone()
     }
@@ -430,10 +455,12 @@ impl WebDriverCompatibleCommand for DevTools {
     }
 }
 
-/// chromedriver's console log endpoint (outside the W3C command set, so fantoccini has no
-/// method for it).
+/// chromedriver's log endpoint (outside the W3C command set, so fantoccini has no method for
+/// it): `browser` is the console, `performance` the DevTools events asked for at launch.
 #[derive(Debug)]
-struct BrowserLog;
+struct BrowserLog {
+    kind: &'static str,
+}
 
 impl WebDriverCompatibleCommand for BrowserLog {
     fn endpoint(
@@ -447,7 +474,7 @@ impl WebDriverCompatibleCommand for BrowserLog {
     fn method_and_body(&self, _: &url::Url) -> (http::Method, Option<String>) {
         (
             http::Method::POST,
-            Some(r#"{"type":"browser"}"#.to_string()),
+            Some(json!({ "type": self.kind }).to_string()),
         )
     }
 }
@@ -495,15 +522,32 @@ impl AppSession {
         self.browser.wait_for(APP_READY).await;
     }
 
-    /// Fails on any console error, then closes the browser.
+    /// Fails on any console error or any request to another origin, then closes the browser.
     pub async fn finish(self) {
         let errors = self.browser.console_errors().await;
         assert!(
             errors.is_empty(),
             "the browser console has errors: {errors:#?}"
         );
+        let foreign = foreign_requests(&self.browser.requests().await, &self.server.url());
+        assert!(
+            foreign.is_empty(),
+            "the page asked other origins: {foreign:#?}"
+        );
         self.browser.close().await;
     }
+}
+
+/// The requests in `requests` that went anywhere but `own` (the app's address, ending in `/`).
+/// Addresses of data the page made itself (`data:`, `blob:`) are not requests to anyone, nor
+/// are the browser's own pages (`chrome:`, `about:`: the blank tab before the app opens).
+pub fn foreign_requests(requests: &[String], own: &str) -> Vec<String> {
+    const NOT_A_NETWORK: [&str; 4] = ["data:", "blob:", "chrome:", "about:"];
+    requests
+        .iter()
+        .filter(|url| !(url.starts_with(own) || NOT_A_NETWORK.iter().any(|s| url.starts_with(s))))
+        .cloned()
+        .collect()
 }
 
 /// Present once the app has mounted: the main area carries the current area's name.

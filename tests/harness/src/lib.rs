@@ -11,6 +11,7 @@
 
 pub mod browser;
 pub mod build;
+pub mod offline;
 pub mod server;
 pub mod size;
 pub mod tools;

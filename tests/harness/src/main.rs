@@ -8,6 +8,7 @@
 //!   cargo xtask latency [--no-build]            time from an edit to updated figures in Chromium, 1x and 4x CPU
 //!   cargo xtask smoke URL                       open a served Phasewise in headless Chromium and check it starts
 //!   cargo xtask setup                           install whatever tool is missing
+//!   cargo xtask seal [DIR]                      Trunk's post-build hook: service worker and CSP
 //!
 //! Each command first installs what it needs and is missing (see `tools`).
 
@@ -27,6 +28,7 @@ fn main() -> ExitCode {
         Some("size") => size_report(&args[1..]),
         Some("smoke") => smoke(&args[1..]),
         Some("latency") => latency(&args[1..]),
+        Some("seal") => seal(&args[1..]),
         Some("setup") => {
             tools::prepare_build(&project_root()).and_then(|_| tools::prepare_browser())
         }
@@ -42,6 +44,24 @@ fn main() -> ExitCode {
             ExitCode::FAILURE
         }
     }
+}
+
+/// Trunk's post-build hook: seals the staged build (Trunk names it in TRUNK_STAGING_DIR).
+fn seal(args: &[String]) -> Result<(), String> {
+    let dir = args
+        .first()
+        .map(std::path::PathBuf::from)
+        .or_else(|| std::env::var_os("TRUNK_STAGING_DIR").map(Into::into))
+        .ok_or("seal needs the build folder: as an argument, or TRUNK_STAGING_DIR from Trunk")?;
+    let template = project_root().join("src/offline/service-worker.js");
+    let sealed = phasewise_harness::offline::seal(&dir, &template)?;
+    tools::say(&format!(
+        "sealed the build: content security policy in index.html; service worker version {} precaches {} files, {}",
+        sealed.version,
+        sealed.files.len(),
+        size::human(sealed.total_bytes())
+    ));
+    Ok(())
 }
 
 fn release_build() -> Result<tools::BuildTools, String> {

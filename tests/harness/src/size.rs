@@ -37,7 +37,7 @@ pub fn measure(dist: &Path) -> std::io::Result<Vec<FileSize>> {
     Ok(sizes)
 }
 
-fn walk(dir: &Path, out: &mut Vec<PathBuf>) -> std::io::Result<()> {
+pub(crate) fn walk(dir: &Path, out: &mut Vec<PathBuf>) -> std::io::Result<()> {
     for entry in std::fs::read_dir(dir)? {
         let path = entry?.path();
         if path.is_dir() {

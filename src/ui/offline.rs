@@ -1,0 +1,124 @@
+//! The app kept on the device: registers the service worker that the release build carries
+//! (`service-worker.js`, written at build time, see DEVELOPERS.md "Offline"), and tells the
+//! user when a newer version has been fetched and is waiting.
+
+use leptos::prelude::*;
+use wasm_bindgen::prelude::*;
+use wasm_bindgen::JsCast;
+use wasm_bindgen_futures::JsFuture;
+use web_sys::{ServiceWorkerContainer, ServiceWorkerRegistration, ServiceWorkerState};
+
+/// What the page knows about its offline copy.
+#[derive(Clone, Copy)]
+pub struct Offline {
+    /// Every file of this version is kept on the device: the app starts with no network.
+    pub kept: RwSignal<bool>,
+    /// A newer version is on the device, waiting for the user to restart with it.
+    pub newer_waiting: RwSignal<bool>,
+}
+
+pub fn use_offline() -> Offline {
+    expect_context::<Offline>()
+}
+
+/// The browser's service-worker container, where there is one (not on plain http from another
+/// machine, nor in some private modes).
+fn container() -> Option<ServiceWorkerContainer> {
+    let navigator = window().navigator();
+    js_sys::Reflect::has(&navigator, &JsValue::from_str("serviceWorker"))
+        .unwrap_or(false)
+        .then(|| navigator.service_worker())
+}
+
+/// Registers the worker and watches for a newer one.
+pub fn start() -> Offline {
+    let offline = Offline {
+        kept: RwSignal::new(false),
+        newer_waiting: RwSignal::new(false),
+    };
+    let Some(container) = container() else {
+        return offline;
+    };
+    // A page that already had a worker is being updated when a new one installs; on the first
+    // visit, the first worker installing is not news.
+    let had_worker = container.controller().is_some();
+    wasm_bindgen_futures::spawn_local(async move {
+        let registration = match JsFuture::from(container.register("service-worker.js")).await {
+            Ok(r) => r.unchecked_into::<ServiceWorkerRegistration>(),
+            Err(e) => {
+                leptos::logging::warn!("the app could not be kept for offline use: {e:?}");
+                return;
+            }
+        };
+        if registration.waiting().is_some() && had_worker {
+            offline.newer_waiting.set(true);
+        }
+        let watched = registration.clone();
+        let on_update = Closure::<dyn FnMut()>::new(move || {
+            let Some(worker) = watched.installing() else { return };
+            let this = worker.clone();
+            let on_state = Closure::<dyn FnMut()>::new(move || {
+                let has_controller = container_controls();
+                if this.state() == ServiceWorkerState::Installed && has_controller {
+                    offline.newer_waiting.set(true);
+                }
+            });
+            worker.set_onstatechange(Some(on_state.as_ref().unchecked_ref()));
+            on_state.forget();
+        });
+        registration.set_onupdatefound(Some(on_update.as_ref().unchecked_ref()));
+        on_update.forget();
+        if let Some(ready) = self::container().and_then(|c| c.ready().ok()) {
+            if JsFuture::from(ready).await.is_ok() {
+                offline.kept.set(true);
+            }
+        }
+    });
+    offline
+}
+
+fn container_controls() -> bool {
+    container().and_then(|c| c.controller()).is_some()
+}
+
+/// Hands over to the waiting version, then reloads once it has taken over.
+fn restart_with_newer() {
+    let Some(container) = container() else { return };
+    let reload = Closure::<dyn FnMut()>::new(|| {
+        let _ = window().location().reload();
+    });
+    container.set_oncontrollerchange(Some(reload.as_ref().unchecked_ref()));
+    reload.forget();
+    wasm_bindgen_futures::spawn_local(async move {
+        let Ok(found) = JsFuture::from(container.get_registration()).await else { return };
+        let Some(registration) = found.dyn_into::<ServiceWorkerRegistration>().ok() else { return };
+        if let Some(waiting) = registration.waiting() {
+            let message = js_sys::Object::new();
+            let _ = js_sys::Reflect::set(&message, &"kind".into(), &"use-new-version".into());
+            let _ = waiting.post_message(&message);
+        }
+    });
+}
+
+/// A strip at the top of the page while a newer version waits.
+#[component]
+pub fn NewerVersionNotice() -> impl IntoView {
+    let offline = use_offline();
+    let dismissed = RwSignal::new(false);
+    let restart = move |_| {
+        // Whatever was typed in the last moment is written before the page reloads.
+        super::jobs::flush_pending(&super::state::use_job());
+        restart_with_newer();
+    };
+    view! {
+        <Show when=move || offline.newer_waiting.get() && !dismissed.get()>
+            <div class="newer-version" role="status">
+                <p>"A newer version of Phasewise is ready on this device."</p>
+                <div class="actions">
+                    <button type="button" class="button primary" on:click=restart>"Restart with it"</button>
+                    <button type="button" class="button" on:click=move |_| dismissed.set(true)>"Later"</button>
+                </div>
+            </div>
+        </Show>
+    }
+}

@@ -1,0 +1,163 @@
+//! The app kept on the device, in headless Chromium: after one visit it starts, and its saved
+//! jobs open, with the server gone; a new build is fetched beside the old one and offered;
+//! the page's Content Security Policy refuses other origins and stray scripts; the manifest
+//! reads cleanly. Every session here (as everywhere, see `AppSession::finish`) also proves the
+//! page asked no origin but its own.
+
+use phasewise_harness::browser::{foreign_requests, AppSession, Browser, Viewport, APP_READY};
+use phasewise_harness::{browser::unique_dir, dist_dir};
+use std::path::Path;
+use std::time::Duration;
+
+/// Waits until the service worker is active and controls the page.
+async fn wait_until_kept(b: &Browser) {
+    let controlled = b
+        .eval_async(
+            "const done = arguments[arguments.length - 1];
+             navigator.serviceWorker.ready.then(() => {
+               const check = () => navigator.serviceWorker.controller ? done(true) : setTimeout(check, 50);
+               check();
+             });",
+        )
+        .await;
+    assert_eq!(controlled, true);
+}
+
+fn copy_dir(from: &Path, to: &Path) {
+    std::fs::create_dir_all(to).unwrap();
+    for entry in std::fs::read_dir(from).unwrap() {
+        let path = entry.unwrap().path();
+        let target = to.join(path.file_name().unwrap());
+        if path.is_dir() {
+            copy_dir(&path, &target);
+        } else {
+            std::fs::copy(&path, &target).unwrap();
+        }
+    }
+}
+
+#[tokio::test]
+async fn after_one_visit_the_app_and_its_jobs_start_with_no_server() {
+    let mut app = AppSession::start("offline_start", Viewport::PHONE).await;
+    wait_until_kept(&app.browser).await;
+    let b = &app.browser;
+    b.click("nav.areas a[href='#/jobs']").await;
+    b.wait_for_text(".offline-note", |t| t.contains("no network")).await;
+    b.fill("input[data-path='name']", "Basement press").await;
+    b.wait_for_text("[data-save-note]", |t| t.starts_with("Saved on this device")).await;
+
+    app.server.stop();
+    let address = app.server.addr();
+    assert!(
+        std::net::TcpStream::connect_timeout(&address, Duration::from_millis(500)).is_err(),
+        "the server still answers"
+    );
+    let b = &app.browser;
+    b.goto(&app.url("#/jobs")).await;
+    b.wait_for(APP_READY).await;
+    b.wait_for_text("li.job-row.current h3", |t| t.contains("Basement press")).await;
+    // Opening another area and coming back works from the device alone.
+    b.click("nav.areas a[href='#/results']").await;
+    b.wait_for("[data-total]").await;
+    b.screenshot("results-offline").await;
+    app.finish().await;
+}
+
+#[tokio::test]
+async fn a_new_build_is_fetched_beside_the_old_and_offered() {
+    let site = unique_dir("next-build");
+    copy_dir(&dist_dir(), &site);
+    let app = AppSession::open("next_build", Viewport::PHONE, &site, "").await;
+    app.wait_until_ready().await;
+    let b = &app.browser;
+    wait_until_kept(b).await;
+    let first = b
+        .eval_async("const done = arguments[arguments.length - 1]; caches.keys().then(done);")
+        .await;
+    assert_eq!(first.as_array().map(Vec::len), Some(1), "{first}");
+    assert!(b.try_wait_for(".newer-version", Duration::from_millis(300)).await.is_none());
+
+    // The next build: its worker differs (its cache version is new).
+    let worker = site.join("service-worker.js");
+    let text = std::fs::read_to_string(&worker).unwrap();
+    let version = first[0].as_str().unwrap().trim_start_matches("phasewise-");
+    std::fs::write(&worker, text.replace(version, "next-build")).unwrap();
+    b.eval_async(
+        "const done = arguments[arguments.length - 1];
+         navigator.serviceWorker.getRegistration().then(r => r.update()).then(() => done(true));",
+    )
+    .await;
+    b.wait_for_text(".newer-version", |t| t.contains("newer version")).await;
+    b.screenshot("newer-version").await;
+    b.click(".newer-version .button.primary").await;
+    // The page reloads under the new worker, and the old cache is gone. Asked again and again
+    // from here, since the reload ends any script still running in the page.
+    let wanted = serde_json::json!(["phasewise-next-build"]);
+    let mut caches = serde_json::Value::Null;
+    for _ in 0..100 {
+        tokio::time::sleep(Duration::from_millis(100)).await;
+        let asked = b
+            .client()
+            .execute_async("const done = arguments[arguments.length - 1]; caches.keys().then(done);", vec![])
+            .await;
+        if let Ok(keys) = asked {
+            caches = keys;
+            if caches == wanted {
+                break;
+            }
+        }
+    }
+    assert_eq!(caches, wanted);
+    b.wait_for(APP_READY).await;
+    assert!(b.try_wait_for(".newer-version", Duration::from_millis(300)).await.is_none());
+    app.finish().await;
+    let _ = std::fs::remove_dir_all(&site);
+}
+
+#[tokio::test]
+async fn the_policy_refuses_other_origins_and_stray_scripts() {
+    let app = AppSession::start("content_policy", Viewport::PHONE).await;
+    let b = &app.browser;
+    let refused = b
+        .eval_async(
+            "const done = arguments[arguments.length - 1];
+             const seen = [];
+             document.addEventListener('securitypolicyviolation', e => seen.push(e.effectiveDirective));
+             const s = document.createElement('script');
+             s.textContent = 'window.strayRan = true;';
+             document.head.appendChild(s);
+             fetch('http://127.0.0.2:9/elsewhere').catch(() => {}).finally(() =>
+               setTimeout(() => done({ seen, strayRan: window.strayRan === true }), 200));",
+        )
+        .await;
+    assert_eq!(refused["strayRan"], false, "{refused}");
+    let seen: Vec<&str> = refused["seen"].as_array().unwrap().iter().filter_map(|v| v.as_str()).collect();
+    assert!(seen.contains(&"script-src-elem"), "{refused}");
+    assert!(seen.contains(&"connect-src"), "{refused}");
+    // The refused fetch never left the page.
+    let requests = b.requests().await;
+    assert_eq!(foreign_requests(&requests, &app.server.url()), Vec::<String>::new());
+    // The refusals are console errors on purpose, so this session ends without `finish`.
+    app.browser.close().await;
+}
+
+#[tokio::test]
+async fn the_manifest_reads_cleanly_and_its_icons_load() {
+    let app = AppSession::start("manifest", Viewport::PHONE).await;
+    let b = &app.browser;
+    let manifest = b.devtools("Page.getAppManifest", serde_json::json!({})).await;
+    assert_eq!(manifest["errors"], serde_json::json!([]), "{manifest}");
+    let parsed: serde_json::Value = serde_json::from_str(manifest["data"].as_str().unwrap()).unwrap();
+    assert_eq!(parsed["display"], "standalone");
+    assert_eq!(parsed["short_name"], "Phasewise");
+    let loaded = b
+        .eval_async(
+            "const done = arguments[arguments.length - 1];
+             fetch('/public/manifest.webmanifest').then(r => r.json()).then(m =>
+               Promise.all(m.icons.map(i => fetch(new URL(i.src, location.origin + '/public/')).then(r => r.ok && r.headers.get('content-type') === i.type))))
+               .then(done);",
+        )
+        .await;
+    assert_eq!(loaded, serde_json::json!([true, true, true, true]));
+    app.finish().await;
+}
