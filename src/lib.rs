@@ -6,7 +6,9 @@
 //! - [`ui`], the Leptos front end, which only edits a job and shows what the engine returns.
 
 pub mod engine;
+pub mod ledger_csv;
 pub mod library;
+pub mod share;
 pub mod ui;
 
 pub use ui::App;

@@ -73,6 +73,16 @@ pub fn write_entry(job: &Job, changed_ms: f64) -> String {
 
 /// Reads a stored entry. Anything that is not a readable saved job of a known version is
 /// `Damaged`, with the reason in words and the text untouched.
+/// Brings a stored entry of format `from` up to [`STORE_VERSION`], one format at a time.
+/// A new format adds its step here and a fixture `tests/fixtures/saved-job-v<N>.json` of the
+/// format before it (the test `every_store_format_has_a_fixture_that_reads` asks for it).
+fn upgrade(entry: serde_json::Value, from: u32) -> Result<serde_json::Value, String> {
+    match from {
+        STORE_VERSION => Ok(entry),
+        other => Err(format!("it has store format {other}, which no Phasewise wrote")),
+    }
+}
+
 pub fn read_entry(id: &str, raw: &str) -> Entry {
     let damaged = |reason: String| Entry::Damaged {
         id: id.to_string(),
@@ -86,15 +96,18 @@ pub fn read_entry(id: &str, raw: &str) -> Entry {
     if value.get("format").and_then(|f| f.as_str()) != Some(FORMAT) {
         return damaged("it is not a Phasewise saved job".into());
     }
-    match value.get("store_version").and_then(|v| v.as_u64()) {
-        Some(v) if v as u32 == STORE_VERSION => {}
-        Some(v) if v as u32 > STORE_VERSION => {
+    let value = match value.get("store_version").and_then(|v| v.as_u64()) {
+        Some(v) if v > u64::from(STORE_VERSION) => {
             return damaged(format!(
                 "it was saved by a newer Phasewise (store format {v})"
             ))
         }
-        _ => return damaged("it has no known store format".into()),
-    }
+        Some(v) => match upgrade(value, v as u32) {
+            Ok(value) => value,
+            Err(why) => return damaged(why),
+        },
+        None => return damaged("it has no known store format".into()),
+    };
     let changed_ms = value
         .get("changed_ms")
         .and_then(|c| c.as_f64())
@@ -274,10 +287,25 @@ mod tests {
     }
 
     #[test]
-    fn the_format_1_fixture_reads() {
-        // tests/fixtures/saved-job-v1.json is a store entry of format 1, kept for migrations.
-        let raw = include_str!("../tests/fixtures/saved-job-v1.json");
-        assert!(matches!(read_entry("fixture", raw), Entry::Good { .. }));
+    fn every_store_format_has_a_fixture_that_reads() {
+        // tests/fixtures/saved-job-v<N>.json: one store entry as each format wrote it, read
+        // through every upgrade step to the current format.
+        let fixtures = std::path::Path::new(env!("CARGO_MANIFEST_DIR")).join("tests/fixtures");
+        for version in 1..=STORE_VERSION {
+            let path = fixtures.join(format!("saved-job-v{version}.json"));
+            let raw = std::fs::read_to_string(&path)
+                .unwrap_or_else(|_| panic!("{} is missing: keep a fixture of every store format", path.display()));
+            match read_entry("fixture", &raw) {
+                Entry::Good { saved, .. } => assert_eq!(saved.store_version, STORE_VERSION),
+                Entry::Damaged { reason, .. } => panic!("format {version} fixture: {reason}"),
+            }
+        }
+        // Format 0 never existed: refused, and kept.
+        let zero = std::fs::read_to_string(fixtures.join("saved-job-v1.json"))
+            .unwrap()
+            .replace("\"store_version\": 1", "\"store_version\": 0")
+            .replace("\"store_version\":1", "\"store_version\":0");
+        assert!(matches!(read_entry("zero", &zero), Entry::Damaged { .. }));
     }
 
     #[test]

@@ -24,7 +24,7 @@ pub enum SaveNote {
     Conflict,
 }
 
-fn local_storage() -> Result<web_sys::Storage, String> {
+pub(super) fn local_storage() -> Result<web_sys::Storage, String> {
     // gloo-storage's `raw()` throws where storage is switched off: ask the window first.
     match window().local_storage() {
         Ok(Some(_)) => Ok(gloo_storage::LocalStorage::raw()),
@@ -57,7 +57,7 @@ pub fn load_all() -> Vec<Entry> {
 }
 
 /// Writes one entry; a full storage gets its own message, and leaves the old value in place.
-fn write(key: &str, text: &str) -> Result<(), String> {
+pub(super) fn write(key: &str, text: &str) -> Result<(), String> {
     let storage = local_storage()?;
     storage.set_item(key, text).map_err(|e| {
         let name = e.dyn_ref::<web_sys::DomException>().map(|d| d.name()).unwrap_or_default();
@@ -90,7 +90,7 @@ pub fn startup_job(entries: &[Entry]) -> (Job, Option<(String, f64)>) {
 }
 
 /// The names of the stored jobs that read (damaged entries have none).
-fn stored_names(state: &JobState) -> Vec<String> {
+pub(super) fn stored_names(state: &JobState) -> Vec<String> {
     state.library.with_untracked(|l| {
         l.iter()
             .filter_map(|e| match e {
@@ -102,13 +102,13 @@ fn stored_names(state: &JobState) -> Vec<String> {
 }
 
 /// The ids of every stored entry, damaged ones included, so a new id never takes theirs.
-fn stored_ids(state: &JobState) -> Vec<String> {
+pub(super) fn stored_ids(state: &JobState) -> Vec<String> {
     state
         .library
         .with_untracked(|l| l.iter().map(|e| e.id().to_string()).collect())
 }
 
-fn strs(v: &[String]) -> Vec<&str> {
+pub(super) fn strs(v: &[String]) -> Vec<&str> {
     v.iter().map(String::as_str).collect()
 }
 
@@ -142,7 +142,7 @@ pub fn flush_pending(state: &JobState) {
 }
 
 /// Opens a stored job (without saving it again).
-fn open(state: &JobState, id: &str, job: Job) {
+pub(super) fn open(state: &JobState, id: &str, job: Job) {
     state.skip_save.set_value(true);
     state.job.set(job);
     state.current.set(Some(id.to_string()));
@@ -198,9 +198,14 @@ pub fn keep_saved(state: JobState) {
 
 /// Offers text as a file download.
 fn download(name: &str, text: &str) {
+    download_as(name, "application/json", text);
+}
+
+/// Offers text of a media type as a file download.
+pub(super) fn download_as(name: &str, media_type: &str, text: &str) {
     let parts = js_sys::Array::of1(&wasm_bindgen::JsValue::from_str(text));
     let options = web_sys::BlobPropertyBag::new();
-    options.set_type("application/json");
+    options.set_type(media_type);
     let Ok(blob) = web_sys::Blob::new_with_str_sequence_and_options(&parts, &options) else {
         return;
     };
@@ -280,6 +285,9 @@ pub fn JobsArea() -> impl IntoView {
                 <h1 id="area-title">"Jobs on this device"</h1>
             </div>
             <SaveStatus />
+            {move || state.notice.get().map(|(ok, text)| view! {
+                <p class=if ok { "save-note" } else { "save-note failed" } role="status" data-share-note="true">{text}</p>
+            })}
             <OfflineNote />
             <Conflict />
             <div class="card">
@@ -289,6 +297,7 @@ pub fn JobsArea() -> impl IntoView {
             </div>
             <button type="button" class="button wide" on:click=new_job>"Start a new job"</button>
             <Transfer />
+            <super::share::SharePanel />
             {move || state.deleted_entry.get().map(|_| view! {
                 <div class="undo-bar" role="status">
                     <span>"Job deleted."</span>
@@ -345,6 +354,47 @@ fn JobRow(entry: Entry) -> impl IntoView {
                     }
                 }
             };
+            let renaming = RwSignal::new(false);
+            let new_name = RwSignal::new(saved.job.name.clone());
+            let rename_problem = RwSignal::new(None::<String>);
+            let rename = {
+                let id = id.clone();
+                let saved = saved.clone();
+                move || {
+                    let name = new_name.get_untracked().trim().to_string();
+                    let mut job = saved.job.clone();
+                    job.name = name.clone();
+                    if let Some(problem) = crate::engine::validate::validate(&job)
+                        .err()
+                        .and_then(|errors| errors.into_iter().find(|e| e.field == "name"))
+                    {
+                        rename_problem.set(Some(problem.message));
+                        return;
+                    }
+                    let others: Vec<String> = stored_names(&state)
+                        .into_iter()
+                        .filter(|n| *n != saved.job.name)
+                        .collect();
+                    job.name = library::unique_name(&name, &strs(&others));
+                    match write(&library::key_of(&id), &library::write_entry(&job, now_ms())) {
+                        Ok(()) => {
+                            renaming.set(false);
+                            rename_problem.set(None);
+                            state.library.set(load_all());
+                        }
+                        Err(why) => rename_problem.set(Some(why)),
+                    }
+                }
+            };
+            let rename_on_enter = {
+                let rename = rename.clone();
+                move |ev: leptos::ev::KeyboardEvent| {
+                    if ev.key() == "Enter" {
+                        rename();
+                    }
+                }
+            };
+            let input_id = format!("rename-{id}");
             let name = saved.job.name.clone();
             let detail = format!(
                 "{}{} phases, {} units · changed {}",
@@ -366,8 +416,29 @@ fn JobRow(entry: Entry) -> impl IntoView {
                             {move || if is_open.get() { "Open now" } else { "Open" }}
                         </button>
                         <button type="button" class="button" on:click=duplicate>"Duplicate"</button>
+                        <button type="button" class="button" data-action="rename" disabled=move || is_open.get() title="The open job is renamed above" on:click=move |_| renaming.set(true)>"Rename"</button>
                         <button type="button" class="button danger" disabled=move || is_open.get() on:click=delete title="Open another job to delete this one">"Delete"</button>
                     </div>
+                    <Show when=move || renaming.get()>
+                        <div class="field rename" class:invalid=move || rename_problem.with(Option::is_some)>
+                            <label for=input_id.clone()>"New name"</label>
+                            <input
+                                id=input_id.clone()
+                                type="text"
+                                prop:value=move || new_name.get()
+                                on:input=move |ev| new_name.set(event_target_value(&ev))
+                                on:keydown=rename_on_enter.clone()
+                            />
+                            {move || rename_problem.get().map(|p| view! { <p class="field-error" role="alert">{p}</p> })}
+                            <div class="row-tools">
+                                <button type="button" class="button primary" data-action="rename-save" on:click={
+                                    let rename = rename.clone();
+                                    move |_| rename()
+                                }>"Save the name"</button>
+                                <button type="button" class="button" on:click=move |_| { renaming.set(false); rename_problem.set(None); }>"Cancel"</button>
+                            </div>
+                        </div>
+                    </Show>
                 </li>
             }
             .into_any()
@@ -512,8 +583,8 @@ fn Transfer() -> impl IntoView {
         <div class="card transfer">
             <h2>"Move jobs in and out"</h2>
             <div class="row-tools">
-                <button type="button" class="button" on:click=export_one>"Export this job"</button>
-                <button type="button" class="button" on:click=export_all>"Export all jobs"</button>
+                <button type="button" class="button" data-export="one" on:click=export_one>"Export this job"</button>
+                <button type="button" class="button" data-export="all" on:click=export_all>"Export all jobs"</button>
             </div>
             <div class="field">
                 <label for="import-file">"Import jobs from a file"</label>
@@ -527,7 +598,7 @@ fn Transfer() -> impl IntoView {
 }
 
 /// A file name from a job name: letters, digits and dashes.
-fn file_stem(name: &str) -> String {
+pub(super) fn file_stem(name: &str) -> String {
     let stem: String = name
         .chars()
         .map(|c| {

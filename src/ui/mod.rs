@@ -11,6 +11,7 @@ pub mod jobs;
 mod offline;
 mod results;
 mod safety;
+mod share;
 pub mod state;
 mod unit_editor;
 
@@ -31,9 +32,13 @@ pub fn App() -> impl IntoView {
     provide_context(state);
     jobs::keep_saved(state);
     provide_context(offline::start());
+    // A job arriving by a share link is taken in first; the address then names the jobs area.
+    share::receive(&state, &window().location().hash().unwrap_or_default());
     let area = RwSignal::new(area_in_address());
 
     let listener = window_event_listener(leptos::ev::hashchange, move |_| {
+        // A share link pasted into the address bar of an open app.
+        share::receive(&state, &window().location().hash().unwrap_or_default());
         area.set(area_in_address());
         // A new area starts at its top, as a new page would.
         window().scroll_to_with_x_and_y(0.0, 0.0);

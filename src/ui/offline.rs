@@ -36,6 +36,11 @@ pub fn start() -> Offline {
         kept: RwSignal::new(false),
         newer_waiting: RwSignal::new(false),
     };
+    // A development build (`trunk serve`) changes on every save: caching it would only hide
+    // the changes. Release builds, which carry the worker's real file list, register it.
+    if cfg!(debug_assertions) {
+        return offline;
+    }
     let Some(container) = container() else {
         return offline;
     };

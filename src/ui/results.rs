@@ -180,6 +180,18 @@ fn ReportView(
         .then(|| report.comparisons.get(d - 1).cloned())
         .flatten();
     let drawn = scale > 0.0;
+    let csv_design = design.clone();
+    let state = use_job();
+    let download_csv = move |_: leptos::ev::MouseEvent| {
+        let job_name = state.job.with_untracked(|j| j.name.clone());
+        let name = format!(
+            "{}-{}-ledger.csv",
+            super::jobs::file_stem(&job_name),
+            super::jobs::file_stem(&csv_design.name)
+        );
+        let text = crate::ledger_csv::ledger_csv(&csv_design, units);
+        super::jobs::download_as(&name, "text/csv", &text);
+    };
     view! {
         <Totals design=design.clone() units=units currency=currency.clone() />
         {comparison.map(|c| view! {
@@ -201,6 +213,7 @@ fn ReportView(
         } else {
             view! { <p class="empty-note">"No power is drawn in this cycle (the motor is stopped throughout), so there is nothing to chart."</p> }.into_any()
         }}
+        <button type="button" class="button" data-action="ledger-csv" on:click=download_csv>"Download this ledger for a spreadsheet (CSV)"</button>
         <h2>"Through the cycle"</h2>
         <TimelineChart design=design.clone() units=units />
         <h2>"Phase by phase"</h2>

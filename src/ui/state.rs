@@ -47,6 +47,9 @@ pub struct JobState {
     pub skip_save: StoredValue<bool>,
     /// The last job entry deleted from the library (id, stored text), until undone.
     pub deleted_entry: RwSignal<Option<(String, String)>>,
+    /// A one-off message for the jobs area (a job arrived by a link, or a link was unreadable):
+    /// whether it is good news, and the sentence.
+    pub notice: RwSignal<Option<(bool, String)>>,
     /// The autosave waiting for the edits to pause, if one is.
     pub pending_save: StoredValue<Option<leptos::prelude::TimeoutHandle>>,
 }
@@ -92,6 +95,7 @@ impl JobState {
             skip_save: StoredValue::new(false),
             deleted_entry: RwSignal::new(None),
             pending_save: StoredValue::new(None),
+            notice: RwSignal::new(None),
         }
     }
 

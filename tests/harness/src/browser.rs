@@ -291,10 +291,16 @@ impl Browser {
         }
     }
 
-    /// Saves a PNG of one element (scrolled into view) as `target/screenshots/<test>/<name>.png`.
+    /// Saves a PNG of one element (scrolled to the middle of the screen) as `target/screenshots/<test>/<name>.png`.
     pub async fn screenshot_of(&self, css: &str, name: &str) -> PathBuf {
         let path = self.shots.join(format!("{name}.png"));
         let element = self.wait_for(css).await;
+        // Centred, so no sticky bar covers it.
+        let arg = serde_json::to_value(&element).expect("an element reference serialises");
+        let _ = self
+            .client()
+            .execute("arguments[0].scrollIntoView({block: 'center'});", vec![arg])
+            .await;
         match element.screenshot().await {
             Ok(png) => std::fs::write(&path, png).expect("write screenshot"),
             Err(e) => eprintln!("screenshot {name} failed: {e}"),
@@ -402,6 +408,45 @@ impl Browser {
             .issue_cmd(DevTools { body })
             .await
             .unwrap_or_else(|e| panic!("{command} failed: {e}"))
+    }
+
+    /// Lets the page download files, into a fresh folder of this browser's own, and returns it.
+    pub async fn allow_downloads(&self) -> PathBuf {
+        let folder = self.profile.join("downloads");
+        std::fs::create_dir_all(&folder).expect("create the download folder");
+        self.devtools(
+            "Browser.setDownloadBehavior",
+            json!({ "behavior": "allow", "downloadPath": folder.display().to_string() }),
+        )
+        .await;
+        folder
+    }
+
+    /// Waits up to ten seconds for a finished download whose name ends with `suffix` in
+    /// `folder`; its name and text.
+    pub async fn downloaded(&self, folder: &Path, suffix: &str) -> (String, String) {
+        let started = Instant::now();
+        loop {
+            let names: Vec<String> = std::fs::read_dir(folder)
+                .map(|d| {
+                    d.filter_map(|e| e.ok())
+                        .map(|e| e.file_name().to_string_lossy().into_owned())
+                        .collect()
+                })
+                .unwrap_or_default();
+            // Chromium writes to a `.crdownload` file and renames it when done.
+            let writing = names.iter().any(|n| n.ends_with(".crdownload"));
+            if let Some(name) = names.iter().find(|n| n.ends_with(suffix)).filter(|_| !writing) {
+                match std::fs::read_to_string(folder.join(name)) {
+                    Ok(text) if !text.is_empty() => return (name.clone(), text),
+                    _ => {}
+                }
+            }
+            if started.elapsed() > Duration::from_secs(10) {
+                panic!("no download ending {suffix} after 10 s; the folder holds {names:?}");
+            }
+            tokio::time::sleep(Duration::from_millis(100)).await;
+        }
     }
 
     /// Runs asynchronous JavaScript: the script calls `arguments[arguments.length - 1](value)`.

@@ -1,0 +1,136 @@
+//! Sharing a job by link and QR code, and taking in a job that arrives by a link. The packing
+//! and the QR modules come from [`crate::share`]; this only shows them and stores the job.
+
+use super::jobs::{load_all, now_ms, open, stored_ids, stored_names, strs, write};
+use super::state::{use_job, JobState};
+use crate::library::{self, Entry};
+use crate::share;
+use leptos::prelude::*;
+use wasm_bindgen::JsValue;
+
+/// If `fragment` carries a job, adds it to the jobs on this device (or opens the stored one it
+/// equals, so opening a link twice adds it once) and says so; then takes the job out of the
+/// address, so a reload does not bring it in again. False when the fragment carries none.
+pub fn receive(state: &JobState, fragment: &str) -> bool {
+    let Some(payload) = share::payload_in(fragment) else {
+        return false;
+    };
+    let notice = match share::unpack(payload, &[]) {
+        Err(why) => (false, format!("The shared link could not be read: {why}. Nothing was added.")),
+        Ok(job) => {
+            let same = state.library.with_untracked(|l| {
+                l.iter().find_map(|e| match e {
+                    Entry::Good { id, saved } if saved.job == job => Some(id.clone()),
+                    _ => None,
+                })
+            });
+            if let Some(id) = same {
+                open(state, &id, job.clone());
+                (true, format!("“{}” from the shared link is already on this device; it is open now.", job.name))
+            } else {
+                let mut job = job;
+                job.name = library::unique_name(&job.name, &strs(&stored_names(state)));
+                let id = library::new_id(now_ms(), &strs(&stored_ids(state)));
+                match write(&library::key_of(&id), &library::write_entry(&job, now_ms())) {
+                    Ok(()) => {
+                        state.library.set(load_all());
+                        let name = job.name.clone();
+                        open(state, &id, job);
+                        (true, format!("Added “{name}” from the shared link; it is open now."))
+                    }
+                    Err(why) => (false, format!("The shared job was not added: {why}")),
+                }
+            }
+        }
+    };
+    state.notice.set(Some(notice));
+    if let Ok(history) = window().history() {
+        let _ = history.replace_state_with_url(&JsValue::NULL, "", Some("#/jobs"));
+    }
+    true
+}
+
+/// The page's address without its fragment: where a share link points.
+fn app_address() -> String {
+    let location = window().location();
+    format!(
+        "{}{}",
+        location.origin().unwrap_or_default(),
+        location.pathname().unwrap_or_default()
+    )
+}
+
+/// Puts text on the clipboard where the browser allows it (a secure page, a user's tap).
+fn copy_to_clipboard(text: &str) -> bool {
+    let navigator = window().navigator();
+    let Ok(clipboard) = js_sys::Reflect::get(&navigator, &"clipboard".into()) else {
+        return false;
+    };
+    let Ok(write_text) = js_sys::Reflect::get(&clipboard, &"writeText".into()) else {
+        return false;
+    };
+    let Some(write_text) = wasm_bindgen::JsCast::dyn_ref::<js_sys::Function>(&write_text) else {
+        return false;
+    };
+    write_text.call1(&clipboard, &JsValue::from_str(text)).is_ok()
+}
+
+/// The open job as a link and a QR code, made when asked and kept up to date while shown.
+#[component]
+pub fn SharePanel() -> impl IntoView {
+    let state = use_job();
+    let shown = RwSignal::new(false);
+    let large = RwSignal::new(false);
+    let copied = RwSignal::new(false);
+    let address = StoredValue::new(app_address());
+    let link = Memo::new(move |_| {
+        shown
+            .get()
+            .then(|| state.job.with(|job| share::link(&address.get_value(), job)))
+    });
+    let drawing = Memo::new(move |_| link.get().map(|l| share::qr(&l)));
+    let copy = move |_: leptos::ev::MouseEvent| {
+        if let Some(l) = link.get_untracked() {
+            copied.set(copy_to_clipboard(&l));
+        }
+    };
+    view! {
+        <div class="card share">
+            <h2>"Share this job"</h2>
+            <p class="hint">"The link holds the whole job. Whoever opens it in Phasewise gets a copy on their device; nothing is sent anywhere else."</p>
+            <Show
+                when=move || shown.get()
+                fallback=move || view! {
+                    <button type="button" class="button" data-action="make-link" on:click=move |_| shown.set(true)>"Make a link and a QR code"</button>
+                }
+            >
+                <div class="field">
+                    <label for="share-link">"Link"</label>
+                    <input id="share-link" type="text" readonly prop:value=move || link.get().unwrap_or_default() on:focus={|ev: leptos::ev::FocusEvent| event_target::<web_sys::HtmlInputElement>(&ev).select()} />
+                </div>
+                <div class="row-tools">
+                    <button type="button" class="button" on:click=copy>{move || if copied.get() { "Copied" } else { "Copy the link" }}</button>
+                    <button type="button" class="button" data-action="qr-large" on:click=move |_| large.set(true)>"Show the code large"</button>
+                </div>
+                {move || match drawing.get() {
+                    Some(Ok(qr)) => view! {
+                        <button
+                            type="button"
+                            class="qr-frame"
+                            class:large=move || large.get()
+                            aria-label="QR code of the share link; tap to close the large view"
+                            on:click=move |_| large.set(false)
+                        >
+                            <svg class="qr" viewBox=format!("0 0 {0} {0}", qr.size) role="img" aria-hidden="true" shape-rendering="crispEdges">
+                                <rect width=qr.size height=qr.size fill="#fff" />
+                                <path d=qr.path fill="#000" />
+                            </svg>
+                        </button>
+                    }.into_any(),
+                    Some(Err(why)) => view! { <p class="save-note failed">{why}</p> }.into_any(),
+                    None => ().into_any(),
+                }}
+            </Show>
+        </div>
+    }
+}
