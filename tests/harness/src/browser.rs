@@ -213,15 +213,20 @@ impl Browser {
         }
     }
 
-    /// Scrolls the element to the middle of the screen, as a user would before tapping it
-    /// (WebDriver only scrolls what is off screen, not what a sticky bar covers), and taps it.
-    pub async fn click(&self, css: &str) {
-        let element = self.wait_for(css).await;
-        let arg = serde_json::to_value(&element).expect("an element reference serialises");
+    /// Scrolls an element to the middle of the screen, clear of the sticky bars.
+    async fn scroll_to_middle(&self, element: &fantoccini::elements::Element) {
+        let arg = serde_json::to_value(element).expect("an element reference serialises");
         let _ = self
             .client()
             .execute("arguments[0].scrollIntoView({block: 'center'});", vec![arg])
             .await;
+    }
+
+    /// Scrolls the element to the middle of the screen, as a user would before tapping it
+    /// (WebDriver only scrolls what is off screen, not what a sticky bar covers), and taps it.
+    pub async fn click(&self, css: &str) {
+        let element = self.wait_for(css).await;
+        self.scroll_to_middle(&element).await;
         element
             .click()
             .await
@@ -295,12 +300,7 @@ impl Browser {
     pub async fn screenshot_of(&self, css: &str, name: &str) -> PathBuf {
         let path = self.shots.join(format!("{name}.png"));
         let element = self.wait_for(css).await;
-        // Centred, so no sticky bar covers it.
-        let arg = serde_json::to_value(&element).expect("an element reference serialises");
-        let _ = self
-            .client()
-            .execute("arguments[0].scrollIntoView({block: 'center'});", vec![arg])
-            .await;
+        self.scroll_to_middle(&element).await;
         match element.screenshot().await {
             Ok(png) => std::fs::write(&path, png).expect("write screenshot"),
             Err(e) => eprintln!("screenshot {name} failed: {e}"),
