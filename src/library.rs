@@ -9,7 +9,7 @@ use crate::engine::job::{Job, JobFileError};
 use serde::{Deserialize, Serialize};
 
 /// The envelope's version. Raise it when the envelope (not the job inside) changes, and add
-/// the step to [`read_entry`].
+/// the step to [`upgrade`].
 pub const STORE_VERSION: u32 = 1;
 /// The key prefix of job entries.
 pub const JOB_PREFIX: &str = "phasewise.job.";
@@ -71,8 +71,6 @@ pub fn write_entry(job: &Job, changed_ms: f64) -> String {
     serde_json::to_string(&saved).expect("a saved job always serialises")
 }
 
-/// Reads a stored entry. Anything that is not a readable saved job of a known version is
-/// `Damaged`, with the reason in words and the text untouched.
 /// Brings a stored entry of format `from` up to [`STORE_VERSION`], one format at a time.
 /// A new format adds its step here and a fixture `tests/fixtures/saved-job-v<N>.json` of the
 /// format before it (the test `every_store_format_has_a_fixture_that_reads` asks for it).
@@ -83,6 +81,8 @@ fn upgrade(entry: serde_json::Value, from: u32) -> Result<serde_json::Value, Str
     }
 }
 
+/// Reads a stored entry. Anything that is not a readable saved job of a known version is
+/// `Damaged`, with the reason in words and the text untouched.
 pub fn read_entry(id: &str, raw: &str) -> Entry {
     let damaged = |reason: String| Entry::Damaged {
         id: id.to_string(),
@@ -159,6 +159,17 @@ pub fn unique_name(name: &str, taken: &[&str]) -> String {
         .map(|n| format!("{name} ({n})"))
         .find(|candidate| !taken.contains(&candidate.as_str()))
         .expect("an unused name")
+}
+
+/// Whether `stored` is `name` or the name [`unique_name`] gives it beside others ("Baler (2)").
+pub fn is_name_of(stored: &str, name: &str) -> bool {
+    let name = name.trim();
+    stored == name
+        || stored
+            .strip_prefix(name)
+            .and_then(|rest| rest.strip_prefix(" ("))
+            .and_then(|rest| rest.strip_suffix(')'))
+            .is_some_and(|n| !n.is_empty() && n.bytes().all(|b| b.is_ascii_digit()))
 }
 
 /// The largest file the import reads: far above any real set of jobs, far below what would
@@ -317,6 +328,9 @@ mod tests {
         assert_eq!(new_id(255.0, &["ff", "ff-2"]), "ff-3");
         assert_eq!(unique_name("Baler", &["Baler", "Baler (2)"]), "Baler (3)");
         assert_eq!(unique_name(" ", &[]), "Untitled job");
+        assert!(is_name_of("Baler", "Baler") && is_name_of("Baler (12)", "Baler"));
+        assert!(!is_name_of("Baler (x)", "Baler") && !is_name_of("Baler ()", "Baler"));
+        assert!(!is_name_of("Baler 2", "Baler") && !is_name_of("Bale", "Baler"));
     }
 
     #[test]

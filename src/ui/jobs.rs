@@ -133,16 +133,25 @@ pub fn save_now(state: &JobState) {
 }
 
 /// Writes an autosave that is still waiting for its moment (before the page reloads).
+/// Not while another window's change waits for the user's choice.
 pub fn flush_pending(state: &JobState) {
     if let Some(handle) = state.pending_save.get_value() {
         handle.clear();
         state.pending_save.set_value(None);
-        save_now(state);
+        if state.save_note.get_untracked() != SaveNote::Conflict {
+            save_now(state);
+        }
     }
 }
 
 /// Opens a stored job (without saving it again).
 pub(super) fn open(state: &JobState, id: &str, job: Job) {
+    // A waiting autosave belonged to the job being closed: callers flush it first where it
+    // should be kept; here it must not fire for the job being opened.
+    if let Some(handle) = state.pending_save.get_value() {
+        handle.clear();
+        state.pending_save.set_value(None);
+    }
     state.skip_save.set_value(true);
     state.job.set(job);
     state.current.set(Some(id.to_string()));
@@ -174,7 +183,10 @@ pub fn keep_saved(state: JobState) {
         let handle = set_timeout_with_handle(
             move || {
                 timer.set_value(None);
-                save_now(&state);
+                // Another window may have saved this job since the edit: then the user chooses.
+                if state.save_note.get_untracked() != SaveNote::Conflict {
+                    save_now(&state);
+                }
             },
             std::time::Duration::from_millis(400),
         )
@@ -260,6 +272,7 @@ fn OfflineNote() -> impl IntoView {
 pub fn JobsArea() -> impl IntoView {
     let state = use_job();
     let new_job = move |_: leptos::ev::MouseEvent| {
+        flush_pending(&state);
         let taken = stored_names(&state);
         let mut job = crate::engine::demo::scrap_baler();
         job.example = false;
@@ -322,7 +335,10 @@ fn JobRow(entry: Entry) -> impl IntoView {
             };
             let open_it = {
                 let (id, job) = (id.clone(), saved.job.clone());
-                move |_: leptos::ev::MouseEvent| open(&state, &id, job.clone())
+                move |_: leptos::ev::MouseEvent| {
+                    flush_pending(&state);
+                    open(&state, &id, job.clone())
+                }
             };
             let duplicate = {
                 let job = saved.job.clone();
@@ -359,10 +375,19 @@ fn JobRow(entry: Entry) -> impl IntoView {
             let rename_problem = RwSignal::new(None::<String>);
             let rename = {
                 let id = id.clone();
-                let saved = saved.clone();
                 move || {
                     let name = new_name.get_untracked().trim().to_string();
-                    let mut job = saved.job.clone();
+                    // The entry as stored now, not as listed: another window may have changed it.
+                    let stored = local_storage()
+                        .ok()
+                        .and_then(|s| s.get_item(&library::key_of(&id)).ok().flatten())
+                        .map(|raw| library::read_entry(&id, &raw));
+                    let Some(Entry::Good { saved: current, .. }) = stored else {
+                        rename_problem.set(Some("this job is no longer stored as it was listed; nothing was changed".into()));
+                        state.library.set(load_all());
+                        return;
+                    };
+                    let mut job = current.job.clone();
                     job.name = name.clone();
                     if let Some(problem) = crate::engine::validate::validate(&job)
                         .err()
@@ -373,7 +398,7 @@ fn JobRow(entry: Entry) -> impl IntoView {
                     }
                     let others: Vec<String> = stored_names(&state)
                         .into_iter()
-                        .filter(|n| *n != saved.job.name)
+                        .filter(|n| *n != current.job.name)
                         .collect();
                     job.name = library::unique_name(&name, &strs(&others));
                     match write(&library::key_of(&id), &library::write_entry(&job, now_ms())) {
@@ -419,7 +444,7 @@ fn JobRow(entry: Entry) -> impl IntoView {
                         <button type="button" class="button" data-action="rename" disabled=move || is_open.get() title="The open job is renamed above" on:click=move |_| renaming.set(true)>"Rename"</button>
                         <button type="button" class="button danger" disabled=move || is_open.get() on:click=delete title="Open another job to delete this one">"Delete"</button>
                     </div>
-                    <Show when=move || renaming.get()>
+                    <Show when=move || renaming.get() && !is_open.get()>
                         <div class="field rename" class:invalid=move || rename_problem.with(Option::is_some)>
                             <label for=input_id.clone()>"New name"</label>
                             <input

@@ -36,14 +36,24 @@ pub fn start() -> Offline {
         kept: RwSignal::new(false),
         newer_waiting: RwSignal::new(false),
     };
-    // A development build (`trunk serve`) changes on every save: caching it would only hide
-    // the changes. Release builds, which carry the worker's real file list, register it.
-    if cfg!(debug_assertions) {
-        return offline;
-    }
     let Some(container) = container() else {
         return offline;
     };
+    // A development build (`trunk serve`) changes on every save: caching it would only hide
+    // the changes. It removes a worker that a release build on the same address left, so the
+    // next reload comes from the server.
+    if cfg!(debug_assertions) {
+        wasm_bindgen_futures::spawn_local(async move {
+            let Ok(found) = JsFuture::from(container.get_registration()).await else { return };
+            if let Ok(registration) = found.dyn_into::<ServiceWorkerRegistration>() {
+                if let Ok(done) = registration.unregister() {
+                    let _ = JsFuture::from(done).await;
+                    leptos::logging::log!("development build: removed the offline copy a release build left; reload for fresh files");
+                }
+            }
+        });
+        return offline;
+    }
     // A page that already had a worker is being updated when a new one installs; on the first
     // visit, the first worker installing is not news.
     let had_worker = container.controller().is_some();
@@ -60,19 +70,17 @@ pub fn start() -> Offline {
         }
         let watched = registration.clone();
         let on_update = Closure::<dyn FnMut()>::new(move || {
-            let Some(worker) = watched.installing() else { return };
-            let this = worker.clone();
-            let on_state = Closure::<dyn FnMut()>::new(move || {
-                let has_controller = container_controls();
-                if this.state() == ServiceWorkerState::Installed && has_controller {
-                    offline.newer_waiting.set(true);
-                }
-            });
-            worker.set_onstatechange(Some(on_state.as_ref().unchecked_ref()));
-            on_state.forget();
+            if let Some(worker) = watched.installing() {
+                watch_install(worker, offline);
+            }
         });
         registration.set_onupdatefound(Some(on_update.as_ref().unchecked_ref()));
         on_update.forget();
+        // The browser looks for a new worker as the page loads, before the app registers: one
+        // may be installing already, its `updatefound` gone by.
+        if let Some(worker) = registration.installing() {
+            watch_install(worker, offline);
+        }
         if let Some(ready) = self::container().and_then(|c| c.ready().ok()) {
             if JsFuture::from(ready).await.is_ok() {
                 offline.kept.set(true);
@@ -86,6 +94,18 @@ fn container_controls() -> bool {
     container().and_then(|c| c.controller()).is_some()
 }
 
+/// Tells the page once `worker` has installed beside the one that controls the page.
+fn watch_install(worker: web_sys::ServiceWorker, offline: Offline) {
+    let this = worker.clone();
+    let on_state = Closure::<dyn FnMut()>::new(move || {
+        if this.state() == ServiceWorkerState::Installed && container_controls() {
+            offline.newer_waiting.set(true);
+        }
+    });
+    worker.set_onstatechange(Some(on_state.as_ref().unchecked_ref()));
+    on_state.forget();
+}
+
 /// Hands over to the waiting version, then reloads once it has taken over.
 fn restart_with_newer() {
     let Some(container) = container() else { return };
@@ -97,10 +117,17 @@ fn restart_with_newer() {
     wasm_bindgen_futures::spawn_local(async move {
         let Ok(found) = JsFuture::from(container.get_registration()).await else { return };
         let Some(registration) = found.dyn_into::<ServiceWorkerRegistration>().ok() else { return };
-        if let Some(waiting) = registration.waiting() {
-            let message = js_sys::Object::new();
-            let _ = js_sys::Reflect::set(&message, &"kind".into(), &"use-new-version".into());
-            let _ = waiting.post_message(&message);
+        match registration.waiting() {
+            Some(waiting) => {
+                let message = js_sys::Object::new();
+                let _ = js_sys::Reflect::set(&message, &"kind".into(), &"use-new-version".into());
+                let _ = waiting.post_message(&message);
+            }
+            // Another window has already handed over: the newer version is in charge, so a
+            // reload is all that is left.
+            None => {
+                let _ = window().location().reload();
+            }
         }
     });
 }

@@ -3,6 +3,7 @@
 
 use super::jobs::{load_all, now_ms, open, stored_ids, stored_names, strs, write};
 use super::state::{use_job, JobState};
+use crate::engine::Job;
 use crate::library::{self, Entry};
 use crate::share;
 use leptos::prelude::*;
@@ -15,18 +16,27 @@ pub fn receive(state: &JobState, fragment: &str) -> bool {
     let Some(payload) = share::payload_in(fragment) else {
         return false;
     };
+    // What was typed in the open job a moment ago is written before another job opens.
+    super::jobs::flush_pending(state);
     let notice = match share::unpack(payload, &[]) {
         Err(why) => (false, format!("The shared link could not be read: {why}. Nothing was added.")),
         Ok(job) => {
+            // The same job, perhaps stored under " (2)" because its name was taken on arrival.
             let same = state.library.with_untracked(|l| {
                 l.iter().find_map(|e| match e {
-                    Entry::Good { id, saved } if saved.job == job => Some(id.clone()),
+                    Entry::Good { id, saved }
+                        if library::is_name_of(&saved.job.name, &job.name)
+                            && Job { name: job.name.clone(), ..saved.job.clone() } == job =>
+                    {
+                        Some(id.clone())
+                    }
                     _ => None,
                 })
             });
-            if let Some(id) = same {
-                open(state, &id, job.clone());
-                (true, format!("“{}” from the shared link is already on this device; it is open now.", job.name))
+            if let Some((id, stored)) = same.and_then(|id| stored_job(state, &id).map(|j| (id, j))) {
+                let name = stored.name.clone();
+                open(state, &id, stored);
+                (true, format!("“{name}” from the shared link is already on this device; it is open now."))
             } else {
                 let mut job = job;
                 job.name = library::unique_name(&job.name, &strs(&stored_names(state)));
@@ -48,6 +58,16 @@ pub fn receive(state: &JobState, fragment: &str) -> bool {
         let _ = history.replace_state_with_url(&JsValue::NULL, "", Some("#/jobs"));
     }
     true
+}
+
+/// The stored job under `id`, as the library last read it.
+fn stored_job(state: &JobState, id: &str) -> Option<Job> {
+    state.library.with_untracked(|l| {
+        l.iter().find_map(|e| match e {
+            Entry::Good { id: this, saved } if this == id => Some(saved.job.clone()),
+            _ => None,
+        })
+    })
 }
 
 /// The page's address without its fragment: where a share link points.

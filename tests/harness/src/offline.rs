@@ -38,7 +38,7 @@ pub fn policy(inline_script_hashes: &[String]) -> String {
         .collect();
     format!(
         "default-src 'none'; script-src 'self' 'wasm-unsafe-eval'{hashes}; style-src 'self'; \
-         img-src 'self' data: blob:; connect-src 'self'; manifest-src 'self'; worker-src 'self'; \
+         img-src 'self'; connect-src 'self'; manifest-src 'self'; worker-src 'self'; \
          base-uri 'none'; form-action 'none'; object-src 'none'"
     )
 }

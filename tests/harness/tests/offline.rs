@@ -53,8 +53,15 @@ async fn after_one_visit_the_app_and_its_jobs_start_with_no_server() {
         "the server still answers"
     );
     let b = &app.browser;
+    // A real new start: leave the page, then come back to it.
+    b.goto("about:blank").await;
     b.goto(&app.url("#/jobs")).await;
     b.wait_for(APP_READY).await;
+    assert_eq!(
+        b.eval("return navigator.serviceWorker.controller !== null;").await,
+        true,
+        "the page came from the kept copy"
+    );
     b.wait_for_text("li.job-row.current h3", |t| t.contains("Basement press")).await;
     // Opening another area and coming back works from the device alone.
     b.click("nav.areas a[href='#/results']").await;
@@ -89,7 +96,20 @@ async fn a_new_build_is_fetched_beside_the_old_and_offered() {
     .await;
     b.wait_for_text(".newer-version", |t| t.contains("newer version")).await;
     b.screenshot("newer-version").await;
+    b.eval("window.oldPage = true;").await;
     b.click(".newer-version .button.primary").await;
+    // The old page goes: a new one, under the new worker, takes its place.
+    let mut reloaded = false;
+    for _ in 0..100 {
+        tokio::time::sleep(Duration::from_millis(100)).await;
+        if let Ok(v) = b.client().execute("return window.oldPage === undefined;", vec![]).await {
+            if v == true {
+                reloaded = true;
+                break;
+            }
+        }
+    }
+    assert!(reloaded, "the page did not reload");
     // The page reloads under the new worker, and the old cache is gone. Asked again and again
     // from here, since the reload ends any script still running in the page.
     let wanted = serde_json::json!(["phasewise-next-build"]);

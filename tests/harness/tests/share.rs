@@ -50,7 +50,13 @@ async fn a_shared_link_adds_the_same_job_in_a_fresh_browser_and_its_qr_code_read
     assert!(note.contains("Press 4, sent by link"), "{note}");
     assert_eq!(other.eval(STORED_JOBS).await, sent, "the same job, unchanged");
     assert_eq!(other.eval("return location.hash;").await, "#/jobs");
-    // Opening the link again adds nothing new.
+    // Opening the link again adds nothing new: pasted into the open app (a fragment change)...
+    other.goto(&link).await;
+    other.wait_for(APP_READY).await;
+    other.wait_for_text("[data-share-note]", |t| t.contains("already on this device")).await;
+    assert_eq!(other.eval(STORED_JOBS).await, sent);
+    // ... or opened afresh.
+    other.goto("about:blank").await;
     other.goto(&link).await;
     other.wait_for(APP_READY).await;
     other.wait_for_text("[data-share-note]", |t| t.contains("already on this device")).await;
@@ -76,5 +82,29 @@ async fn a_damaged_link_says_so_and_adds_nothing() {
     b.wait_for_text("[data-share-note]", |t| t.contains("could not be read") && t.contains("Nothing was added")).await;
     assert_eq!(b.eval(STORED_JOBS).await, Value::Array(vec![]));
     b.screenshot("damaged-link").await;
+    app.finish().await;
+}
+
+#[tokio::test]
+async fn a_link_whose_name_is_taken_is_added_beside_it_once() {
+    let app = AppSession::start_at("share_name_taken", Viewport::PHONE, "#/jobs").await;
+    let b = &app.browser;
+    b.fill("input[data-path='name']", "Yard baler").await;
+    b.wait_for_text("li.job-row.current h3", |t| t == "Yard baler").await;
+    let mut theirs = phasewise::engine::demo::scrap_baler();
+    theirs.name = "Yard baler".into();
+    theirs.site.location = "Their yard".into();
+    let link = phasewise::share::link(&app.server.url(), &theirs);
+    b.goto(&link).await;
+    b.wait_for(APP_READY).await;
+    b.wait_for_text("[data-share-note]", |t| t.contains("Added “Yard baler (2)”")).await;
+    for _ in 0..2 {
+        b.goto("about:blank").await;
+        b.goto(&link).await;
+        b.wait_for(APP_READY).await;
+        b.wait_for_text("[data-share-note]", |t| t.contains("“Yard baler (2)” from the shared link is already")).await;
+    }
+    let names = b.eval("return Object.keys(localStorage).filter(k => k.startsWith('phasewise.job.')).map(k => JSON.parse(localStorage.getItem(k)).job.name).sort();").await;
+    assert_eq!(names, serde_json::json!(["Yard baler", "Yard baler (2)"]));
     app.finish().await;
 }
