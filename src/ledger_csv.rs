@@ -69,7 +69,11 @@ pub fn ledger_csv(design: &DesignReport, units: UnitSystem) -> String {
     ];
     header.extend(ITEM_NAMES.iter().map(|n| format!("{n} ({power})")));
     header.push(format!("Energy ({})", Measure::Energy.label(units)));
-    let mut rows = vec![header.iter().map(|h| field(h)).collect::<Vec<_>>().join(",")];
+    let mut rows = vec![header
+        .iter()
+        .map(|h| field(h))
+        .collect::<Vec<_>>()
+        .join(",")];
 
     let mut weighted = [0.0; 9];
     for phase in &design.phases {
@@ -86,7 +90,11 @@ pub fn ledger_csv(design: &DesignReport, units: UnitSystem) -> String {
             *sum += item * t;
             row.push(number(Measure::Power, units, item));
         }
-        row.push(number(Measure::Energy, units, phase.ledger.electrical_input.value * t));
+        row.push(number(
+            Measure::Energy,
+            units,
+            phase.ledger.electrical_input.value * t,
+        ));
         rows.push(row.join(","));
     }
     // The whole cycle: each item's time-weighted average, and the energy per cycle.
@@ -102,7 +110,11 @@ pub fn ledger_csv(design: &DesignReport, units: UnitSystem) -> String {
         let average = if cycle > 0.0 { sum / cycle } else { 0.0 };
         row.push(number(Measure::Power, units, average));
     }
-    row.push(number(Measure::Energy, units, design.totals.energy_per_cycle.value));
+    row.push(number(
+        Measure::Energy,
+        units,
+        design.totals.energy_per_cycle.value,
+    ));
     rows.push(row.join(","));
     format!("\u{feff}{}\r\n", rows.join("\r\n"))
 }
@@ -156,7 +168,10 @@ mod tests {
         let report = solve(&job).unwrap();
         let csv = ledger_csv(&report.designs[0], UnitSystem::UsCustomary);
         assert!(csv.contains("System pressure (psi)") && csv.contains("Electrical input (hp)"));
-        assert!(csv.contains("\r\n\"Approach, fast \"\"rapid\"\"\","), "{csv}");
+        assert!(
+            csv.contains("\r\n\"Approach, fast \"\"rapid\"\"\","),
+            "{csv}"
+        );
         assert!(csv.contains("\r\n'=HYPERLINK(1),"), "{csv}");
     }
 }

@@ -28,6 +28,8 @@ pub struct SavedJob {
 }
 
 /// What a storage entry turned out to hold.
+// A library holds tens of entries, read once: boxing the good one would buy nothing.
+#[allow(clippy::large_enum_variant)]
 #[derive(Clone, Debug, PartialEq)]
 pub enum Entry {
     Good {
@@ -77,7 +79,9 @@ pub fn write_entry(job: &Job, changed_ms: f64) -> String {
 fn upgrade(entry: serde_json::Value, from: u32) -> Result<serde_json::Value, String> {
     match from {
         STORE_VERSION => Ok(entry),
-        other => Err(format!("it has store format {other}, which no Phasewise wrote")),
+        other => Err(format!(
+            "it has store format {other}, which no Phasewise wrote"
+        )),
     }
 }
 
@@ -304,8 +308,12 @@ mod tests {
         let fixtures = std::path::Path::new(env!("CARGO_MANIFEST_DIR")).join("tests/fixtures");
         for version in 1..=STORE_VERSION {
             let path = fixtures.join(format!("saved-job-v{version}.json"));
-            let raw = std::fs::read_to_string(&path)
-                .unwrap_or_else(|_| panic!("{} is missing: keep a fixture of every store format", path.display()));
+            let raw = std::fs::read_to_string(&path).unwrap_or_else(|_| {
+                panic!(
+                    "{} is missing: keep a fixture of every store format",
+                    path.display()
+                )
+            });
             match read_entry("fixture", &raw) {
                 Entry::Good { saved, .. } => assert_eq!(saved.store_version, STORE_VERSION),
                 Entry::Damaged { reason, .. } => panic!("format {version} fixture: {reason}"),

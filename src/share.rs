@@ -40,14 +40,15 @@ pub fn payload_in(fragment: &str) -> Option<&str> {
 /// The job in a payload, checked as an import is and renamed beside `taken_names`; or a
 /// sentence saying why the link cannot be read.
 pub fn unpack(payload: &str, taken_names: &[&str]) -> Result<Job, String> {
-    let data = payload.strip_prefix(PACKING).ok_or(
-        "it was made by a different version of Phasewise, or it is not a Phasewise link",
-    )?;
+    let data = payload
+        .strip_prefix(PACKING)
+        .ok_or("it was made by a different version of Phasewise, or it is not a Phasewise link")?;
     let deflated = BASE64
         .decode(data.trim())
         .map_err(|_| "part of it is missing or changed (was it cut short when copied?)")?;
-    let json = miniz_oxide::inflate::decompress_to_vec_with_limit(&deflated, library::IMPORT_LIMIT_BYTES)
-        .map_err(|_| "part of it is missing or changed, or it holds more than a job")?;
+    let json =
+        miniz_oxide::inflate::decompress_to_vec_with_limit(&deflated, library::IMPORT_LIMIT_BYTES)
+            .map_err(|_| "part of it is missing or changed, or it holds more than a job")?;
     let text = String::from_utf8(json).map_err(|_| "it does not hold a Phasewise job")?;
     let mut jobs = library::parse_import(&text, taken_names)?;
     match (jobs.pop(), jobs.is_empty()) {
@@ -72,7 +73,9 @@ const QUIET_ZONE: usize = 4;
 /// is long, and the code is shown on a screen, not printed on a dirty label).
 pub fn qr(text: &str) -> Result<QrDrawing, String> {
     let code = qrcode::QrCode::with_error_correction_level(text.as_bytes(), qrcode::EcLevel::L)
-        .map_err(|_| "this job is too large for a QR code; share the link or a file instead".to_string())?;
+        .map_err(|_| {
+            "this job is too large for a QR code; share the link or a file instead".to_string()
+        })?;
     let width = code.width();
     let colors = code.to_colors();
     let mut path = String::with_capacity(width * width * 3);
@@ -112,11 +115,16 @@ mod tests {
     fn a_link_carries_the_job_unchanged() {
         let job = scrap_baler();
         let link = link("http://127.0.0.1:8080/#/jobs", &job);
-        assert!(link.starts_with("http://127.0.0.1:8080/#share=1."), "{link}");
+        assert!(
+            link.starts_with("http://127.0.0.1:8080/#share=1."),
+            "{link}"
+        );
         let fragment = &link[link.find('#').unwrap()..];
         // URL-safe: nothing a browser or a chat app would change or cut at.
         let payload = payload_in(fragment).unwrap();
-        assert!(payload.bytes().all(|b| b.is_ascii_alphanumeric() || b"-_.".contains(&b)));
+        assert!(payload
+            .bytes()
+            .all(|b| b.is_ascii_alphanumeric() || b"-_.".contains(&b)));
         assert_eq!(unpack(payload, &[]).unwrap(), job);
         // Beside a job of the same name it is renamed, as an import is.
         let renamed = unpack(payload, &[&job.name]).unwrap();
@@ -129,17 +137,29 @@ mod tests {
         let payload = pack(&scrap_baler());
         let cut = &payload[..payload.len() / 2];
         assert!(unpack(cut, &[]).unwrap_err().contains("missing or changed"));
-        assert!(unpack("2.abc", &[]).unwrap_err().contains("different version"));
-        assert!(unpack("1.%%%", &[]).unwrap_err().contains("missing or changed"));
-        let not_a_job = format!("{PACKING}{}", BASE64.encode(miniz_oxide::deflate::compress_to_vec(b"{\"a\":1}", 6)));
-        assert!(unpack(&not_a_job, &[]).unwrap_err().contains("not a Phasewise job file"));
+        assert!(unpack("2.abc", &[])
+            .unwrap_err()
+            .contains("different version"));
+        assert!(unpack("1.%%%", &[])
+            .unwrap_err()
+            .contains("missing or changed"));
+        let not_a_job = format!(
+            "{PACKING}{}",
+            BASE64.encode(miniz_oxide::deflate::compress_to_vec(b"{\"a\":1}", 6))
+        );
+        assert!(unpack(&not_a_job, &[])
+            .unwrap_err()
+            .contains("not a Phasewise job file"));
     }
 
     #[test]
     fn a_link_that_inflates_beyond_the_import_limit_is_refused() {
         // 3 MB of spaces deflate to a few kilobytes: the limit is on what comes out.
         let bomb = vec![b' '; 3 * 1024 * 1024];
-        let payload = format!("{PACKING}{}", BASE64.encode(miniz_oxide::deflate::compress_to_vec(&bomb, 6)));
+        let payload = format!(
+            "{PACKING}{}",
+            BASE64.encode(miniz_oxide::deflate::compress_to_vec(&bomb, 6))
+        );
         assert!(payload.len() < 10_000);
         assert!(unpack(&payload, &[]).is_err());
     }
@@ -150,9 +170,19 @@ mod tests {
         // Byte mode at level L: version 2 holds 32 bytes, version 3 holds 53 (ISO/IEC 18004
         // capacity table, from memory); this text is 34, so version 3: 29 modules across.
         assert_eq!(drawing.size, 29 + 2 * QUIET_ZONE);
-        assert!(drawing.path.starts_with(&format!("M{QUIET_ZONE} {QUIET_ZONE}h7")), "finder pattern first: {}", &drawing.path[..20]);
+        assert!(
+            drawing
+                .path
+                .starts_with(&format!("M{QUIET_ZONE} {QUIET_ZONE}h7")),
+            "finder pattern first: {}",
+            &drawing.path[..20]
+        );
         let demo = link("https://example.invalid/", &scrap_baler());
-        assert!(qr(&demo).is_ok(), "the demo job's link ({} chars) fits a QR code", demo.len());
+        assert!(
+            qr(&demo).is_ok(),
+            "the demo job's link ({} chars) fits a QR code",
+            demo.len()
+        );
         assert!(qr(&"x".repeat(3000)).is_err());
     }
 }

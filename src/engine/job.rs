@@ -30,6 +30,9 @@ pub struct Job {
     pub designs: Vec<Design>,
     pub site: Site,
     pub oil: Oil,
+    /// The margins the settings advice uses (absent in older files: the defaults).
+    #[serde(default)]
+    pub advice: super::settings::AdvicePolicy,
 }
 
 /// Where the machine is and what running it costs.

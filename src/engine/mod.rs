@@ -11,6 +11,7 @@ pub mod ledger;
 pub mod motor;
 pub mod power_unit;
 pub mod pump;
+pub mod settings;
 pub mod solve;
 pub mod units;
 pub mod validate;
@@ -81,7 +82,7 @@ pub fn solve_json(text: &str) -> Result<String, String> {
 }
 
 /// Solves one (validated) design over the job's cycle.
-fn solve_design(job: &Job, design: &power_unit::Design) -> DesignReport {
+pub(crate) fn solve_design(job: &Job, design: &power_unit::Design) -> DesignReport {
     let unit = solve::PreparedUnit::new(design);
     let phases: Vec<PhaseReport> = job
         .cycle

@@ -209,6 +209,15 @@ pub fn validate(job: &Job) -> Result<(), Vec<InputError>> {
         10_000.0,
         "J/(kg.K)",
     );
+    let a = &job.advice;
+    c.fraction("advice.margin_fraction", a.margin_fraction, true);
+    c.pressure("advice.margin_min_pa", a.margin_min.value, true);
+    c.pressure(
+        "advice.flow_control_drop_pa",
+        a.flow_control_drop.value,
+        true,
+    );
+    c.power("advice.least_saving_w", a.least_saving_w, true);
     if c.errors.is_empty() {
         Ok(())
     } else {

@@ -383,7 +383,10 @@ fn JobRow(entry: Entry) -> impl IntoView {
                         .and_then(|s| s.get_item(&library::key_of(&id)).ok().flatten())
                         .map(|raw| library::read_entry(&id, &raw));
                     let Some(Entry::Good { saved: current, .. }) = stored else {
-                        rename_problem.set(Some("this job is no longer stored as it was listed; nothing was changed".into()));
+                        rename_problem.set(Some(
+                            "this job is no longer stored as it was listed; nothing was changed"
+                                .into(),
+                        ));
                         state.library.set(load_all());
                         return;
                     };

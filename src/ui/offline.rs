@@ -44,7 +44,9 @@ pub fn start() -> Offline {
     // next reload comes from the server.
     if cfg!(debug_assertions) {
         wasm_bindgen_futures::spawn_local(async move {
-            let Ok(found) = JsFuture::from(container.get_registration()).await else { return };
+            let Ok(found) = JsFuture::from(container.get_registration()).await else {
+                return;
+            };
             if let Ok(registration) = found.dyn_into::<ServiceWorkerRegistration>() {
                 if let Ok(done) = registration.unregister() {
                     let _ = JsFuture::from(done).await;
@@ -115,8 +117,12 @@ fn restart_with_newer() {
     container.set_oncontrollerchange(Some(reload.as_ref().unchecked_ref()));
     reload.forget();
     wasm_bindgen_futures::spawn_local(async move {
-        let Ok(found) = JsFuture::from(container.get_registration()).await else { return };
-        let Some(registration) = found.dyn_into::<ServiceWorkerRegistration>().ok() else { return };
+        let Ok(found) = JsFuture::from(container.get_registration()).await else {
+            return;
+        };
+        let Some(registration) = found.dyn_into::<ServiceWorkerRegistration>().ok() else {
+            return;
+        };
         match registration.waiting() {
             Some(waiting) => {
                 let message = js_sys::Object::new();

@@ -19,24 +19,36 @@ pub fn receive(state: &JobState, fragment: &str) -> bool {
     // What was typed in the open job a moment ago is written before another job opens.
     super::jobs::flush_pending(state);
     let notice = match share::unpack(payload, &[]) {
-        Err(why) => (false, format!("The shared link could not be read: {why}. Nothing was added.")),
+        Err(why) => (
+            false,
+            format!("The shared link could not be read: {why}. Nothing was added."),
+        ),
         Ok(job) => {
             // The same job, perhaps stored under " (2)" because its name was taken on arrival.
             let same = state.library.with_untracked(|l| {
                 l.iter().find_map(|e| match e {
                     Entry::Good { id, saved }
                         if library::is_name_of(&saved.job.name, &job.name)
-                            && Job { name: job.name.clone(), ..saved.job.clone() } == job =>
+                            && Job {
+                                name: job.name.clone(),
+                                ..saved.job.clone()
+                            } == job =>
                     {
                         Some(id.clone())
                     }
                     _ => None,
                 })
             });
-            if let Some((id, stored)) = same.and_then(|id| stored_job(state, &id).map(|j| (id, j))) {
+            if let Some((id, stored)) = same.and_then(|id| stored_job(state, &id).map(|j| (id, j)))
+            {
                 let name = stored.name.clone();
                 open(state, &id, stored);
-                (true, format!("“{name}” from the shared link is already on this device; it is open now."))
+                (
+                    true,
+                    format!(
+                        "“{name}” from the shared link is already on this device; it is open now."
+                    ),
+                )
             } else {
                 let mut job = job;
                 job.name = library::unique_name(&job.name, &strs(&stored_names(state)));
@@ -46,7 +58,10 @@ pub fn receive(state: &JobState, fragment: &str) -> bool {
                         state.library.set(load_all());
                         let name = job.name.clone();
                         open(state, &id, job);
-                        (true, format!("Added “{name}” from the shared link; it is open now."))
+                        (
+                            true,
+                            format!("Added “{name}” from the shared link; it is open now."),
+                        )
                     }
                     Err(why) => (false, format!("The shared job was not added: {why}")),
                 }
@@ -92,7 +107,9 @@ fn copy_to_clipboard(text: &str) -> bool {
     let Some(write_text) = wasm_bindgen::JsCast::dyn_ref::<js_sys::Function>(&write_text) else {
         return false;
     };
-    write_text.call1(&clipboard, &JsValue::from_str(text)).is_ok()
+    write_text
+        .call1(&clipboard, &JsValue::from_str(text))
+        .is_ok()
 }
 
 /// The open job as a link and a QR code, made when asked and kept up to date while shown.

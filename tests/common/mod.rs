@@ -217,5 +217,6 @@ pub fn job(cycle: Vec<Phase>, designs: Vec<Design>) -> Job {
             retrofit_price: 3000.0,
         },
         oil: Oil::mineral(Volume::new::<liter>(200.0)),
+        advice: Default::default(),
     }
 }

@@ -375,13 +375,19 @@ impl Browser {
     pub async fn requests(&self) -> Vec<String> {
         let fresh = self
             .client()
-            .issue_cmd(BrowserLog { kind: "performance" })
+            .issue_cmd(BrowserLog {
+                kind: "performance",
+            })
             .await
             .unwrap_or_else(|e| panic!("cannot read the performance log: {e}"));
         let mut kept = self.requests.lock().unwrap();
         for entry in fresh.as_array().into_iter().flatten() {
-            let Some(text) = entry["message"].as_str() else { continue };
-            let Ok(event) = serde_json::from_str::<Value>(text) else { continue };
+            let Some(text) = entry["message"].as_str() else {
+                continue;
+            };
+            let Ok(event) = serde_json::from_str::<Value>(text) else {
+                continue;
+            };
             if event["message"]["method"] == "Network.requestWillBeSent" {
                 if let Some(url) = event["message"]["params"]["request"]["url"].as_str() {
                     kept.push(url.to_string());
@@ -436,7 +442,11 @@ impl Browser {
                 .unwrap_or_default();
             // Chromium writes to a `.crdownload` file and renames it when done.
             let writing = names.iter().any(|n| n.ends_with(".crdownload"));
-            if let Some(name) = names.iter().find(|n| n.ends_with(suffix)).filter(|_| !writing) {
+            if let Some(name) = names
+                .iter()
+                .find(|n| n.ends_with(suffix))
+                .filter(|_| !writing)
+            {
                 match std::fs::read_to_string(folder.join(name)) {
                     Ok(text) if !text.is_empty() => return (name.clone(), text),
                     _ => {}

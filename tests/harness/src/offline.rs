@@ -49,10 +49,14 @@ pub fn inline_scripts(html: &str) -> Vec<&str> {
     let mut rest = html;
     while let Some(start) = rest.find("<script") {
         let after = &rest[start..];
-        let Some(open_end) = after.find('>') else { break };
+        let Some(open_end) = after.find('>') else {
+            break;
+        };
         let tag = &after[..open_end];
         let body_start = open_end + 1;
-        let Some(close) = after[body_start..].find("</script>") else { break };
+        let Some(close) = after[body_start..].find("</script>") else {
+            break;
+        };
         if !tag.contains(" src=") {
             found.push(&after[body_start..body_start + close]);
         }
@@ -83,7 +87,8 @@ pub fn with_policy(html: &str) -> Result<String, String> {
 /// Every file under `dir` as a path relative to it with `/` separators, sorted.
 fn files_under(dir: &Path) -> Result<Vec<PathBuf>, String> {
     let mut files = Vec::new();
-    crate::size::walk(dir, &mut files).map_err(|e| format!("cannot list {}: {e}", dir.display()))?;
+    crate::size::walk(dir, &mut files)
+        .map_err(|e| format!("cannot list {}: {e}", dir.display()))?;
     let mut relative: Vec<PathBuf> = files
         .into_iter()
         .filter_map(|p| p.strip_prefix(dir).ok().map(Path::to_path_buf))
@@ -107,7 +112,8 @@ pub fn seal(dir: &Path, template: &Path) -> Result<Sealed, String> {
         if name == WORKER {
             continue;
         }
-        let bytes = std::fs::read(dir.join(&relative)).map_err(|e| format!("cannot read {name}: {e}"))?;
+        let bytes =
+            std::fs::read(dir.join(&relative)).map_err(|e| format!("cannot read {name}: {e}"))?;
         digest.update(name.as_bytes());
         digest.update([0]);
         digest.update(&bytes);
@@ -116,7 +122,10 @@ pub fn seal(dir: &Path, template: &Path) -> Result<Sealed, String> {
     let template_text = std::fs::read_to_string(template)
         .map_err(|e| format!("cannot read {}: {e}", template.display()))?;
     digest.update(template_text.as_bytes());
-    let version: String = digest.finalize()[..8].iter().map(|b| format!("{b:02x}")).collect();
+    let version: String = digest.finalize()[..8]
+        .iter()
+        .map(|b| format!("{b:02x}"))
+        .collect();
     let worker = worker_script(&template_text, &version, &files)?;
     std::fs::write(dir.join(WORKER), worker).map_err(|e| format!("cannot write {WORKER}: {e}"))?;
     Ok(Sealed { version, files })
@@ -124,13 +133,23 @@ pub fn seal(dir: &Path, template: &Path) -> Result<Sealed, String> {
 
 /// The template with the version and the file list filled in. The page itself is cached as
 /// `./` (the address every visit starts from), not as `index.html`.
-pub fn worker_script(template: &str, version: &str, files: &[(String, u64)]) -> Result<String, String> {
+pub fn worker_script(
+    template: &str,
+    version: &str,
+    files: &[(String, u64)],
+) -> Result<String, String> {
     if !template.contains("__PHASEWISE_VERSION__") || !template.contains("__PHASEWISE_FILES__") {
         return Err("the service worker template lacks its placeholders".into());
     }
     let urls: Vec<String> = files
         .iter()
-        .map(|(name, _)| if name == "index.html" { "./".to_string() } else { format!("./{name}") })
+        .map(|(name, _)| {
+            if name == "index.html" {
+                "./".to_string()
+            } else {
+                format!("./{name}")
+            }
+        })
         .collect();
     let list = serde_json::to_string(&urls).map_err(|e| e.to_string())?;
     Ok(template
@@ -150,7 +169,10 @@ mod tests {
         let body = "\nimport init from '/a.js';\n";
         assert_eq!(inline_scripts(PAGE), vec![body]);
         // FIPS 180-2, appendix B.1: SHA-256 of "abc" is ba7816bf...f20015ad; here in base64.
-        assert_eq!(script_hash("abc"), "ungWv48Bz+pBQUDeXa4iI7ADYaOWF3qctBD/YfIAFa0=");
+        assert_eq!(
+            script_hash("abc"),
+            "ungWv48Bz+pBQUDeXa4iI7ADYaOWF3qctBD/YfIAFa0="
+        );
         assert!(sealed.contains(&format!("'sha256-{}'", script_hash(body))));
         assert!(sealed.find("Content-Security-Policy").unwrap() < sealed.find("<script").unwrap());
         assert!(with_policy(&sealed).is_err(), "sealing twice is refused");
@@ -162,7 +184,11 @@ mod tests {
         let _ = std::fs::remove_dir_all(&dir);
         std::fs::create_dir_all(dir.join("public")).unwrap();
         let template = dir.join("template.js");
-        std::fs::write(&template, "const V = \"__PHASEWISE_VERSION__\"; const F = __PHASEWISE_FILES__;").unwrap();
+        std::fs::write(
+            &template,
+            "const V = \"__PHASEWISE_VERSION__\"; const F = __PHASEWISE_FILES__;",
+        )
+        .unwrap();
         let build = |icon: &str| {
             std::fs::write(dir.join("index.html"), PAGE).unwrap();
             std::fs::write(dir.join("public/icon.svg"), icon).unwrap();
@@ -177,7 +203,10 @@ mod tests {
         let names: Vec<&str> = first.files.iter().map(|(n, _)| n.as_str()).collect();
         assert_eq!(names, ["index.html", "public/icon.svg", "template.js"]);
         let worker = std::fs::read_to_string(dir.join(WORKER)).unwrap();
-        assert!(worker.contains(r#"["./","./public/icon.svg","./template.js"]"#), "{worker}");
+        assert!(
+            worker.contains(r#"["./","./public/icon.svg","./template.js"]"#),
+            "{worker}"
+        );
         assert!(worker.contains(&changed.version));
         let _ = std::fs::remove_dir_all(&dir);
     }

@@ -42,9 +42,13 @@ async fn after_one_visit_the_app_and_its_jobs_start_with_no_server() {
     wait_until_kept(&app.browser).await;
     let b = &app.browser;
     b.click("nav.areas a[href='#/jobs']").await;
-    b.wait_for_text(".offline-note", |t| t.contains("no network")).await;
+    b.wait_for_text(".offline-note", |t| t.contains("no network"))
+        .await;
     b.fill("input[data-path='name']", "Basement press").await;
-    b.wait_for_text("[data-save-note]", |t| t.starts_with("Saved on this device")).await;
+    b.wait_for_text("[data-save-note]", |t| {
+        t.starts_with("Saved on this device")
+    })
+    .await;
 
     app.server.stop();
     let address = app.server.addr();
@@ -58,11 +62,13 @@ async fn after_one_visit_the_app_and_its_jobs_start_with_no_server() {
     b.goto(&app.url("#/jobs")).await;
     b.wait_for(APP_READY).await;
     assert_eq!(
-        b.eval("return navigator.serviceWorker.controller !== null;").await,
+        b.eval("return navigator.serviceWorker.controller !== null;")
+            .await,
         true,
         "the page came from the kept copy"
     );
-    b.wait_for_text("li.job-row.current h3", |t| t.contains("Basement press")).await;
+    b.wait_for_text("li.job-row.current h3", |t| t.contains("Basement press"))
+        .await;
     // Opening another area and coming back works from the device alone.
     b.click("nav.areas a[href='#/results']").await;
     b.wait_for("[data-total]").await;
@@ -82,7 +88,10 @@ async fn a_new_build_is_fetched_beside_the_old_and_offered() {
         .eval_async("const done = arguments[arguments.length - 1]; caches.keys().then(done);")
         .await;
     assert_eq!(first.as_array().map(Vec::len), Some(1), "{first}");
-    assert!(b.try_wait_for(".newer-version", Duration::from_millis(300)).await.is_none());
+    assert!(b
+        .try_wait_for(".newer-version", Duration::from_millis(300))
+        .await
+        .is_none());
 
     // The next build: its worker differs (its cache version is new).
     let worker = site.join("service-worker.js");
@@ -94,7 +103,8 @@ async fn a_new_build_is_fetched_beside_the_old_and_offered() {
          navigator.serviceWorker.getRegistration().then(r => r.update()).then(() => done(true));",
     )
     .await;
-    b.wait_for_text(".newer-version", |t| t.contains("newer version")).await;
+    b.wait_for_text(".newer-version", |t| t.contains("newer version"))
+        .await;
     b.screenshot("newer-version").await;
     b.eval("window.oldPage = true;").await;
     b.click(".newer-version .button.primary").await;
@@ -102,7 +112,11 @@ async fn a_new_build_is_fetched_beside_the_old_and_offered() {
     let mut reloaded = false;
     for _ in 0..100 {
         tokio::time::sleep(Duration::from_millis(100)).await;
-        if let Ok(v) = b.client().execute("return window.oldPage === undefined;", vec![]).await {
+        if let Ok(v) = b
+            .client()
+            .execute("return window.oldPage === undefined;", vec![])
+            .await
+        {
             if v == true {
                 reloaded = true;
                 break;
@@ -118,7 +132,10 @@ async fn a_new_build_is_fetched_beside_the_old_and_offered() {
         tokio::time::sleep(Duration::from_millis(100)).await;
         let asked = b
             .client()
-            .execute_async("const done = arguments[arguments.length - 1]; caches.keys().then(done);", vec![])
+            .execute_async(
+                "const done = arguments[arguments.length - 1]; caches.keys().then(done);",
+                vec![],
+            )
             .await;
         if let Ok(keys) = asked {
             caches = keys;
@@ -129,7 +146,10 @@ async fn a_new_build_is_fetched_beside_the_old_and_offered() {
     }
     assert_eq!(caches, wanted);
     b.wait_for(APP_READY).await;
-    assert!(b.try_wait_for(".newer-version", Duration::from_millis(300)).await.is_none());
+    assert!(b
+        .try_wait_for(".newer-version", Duration::from_millis(300))
+        .await
+        .is_none());
     app.finish().await;
     let _ = std::fs::remove_dir_all(&site);
 }
@@ -151,12 +171,20 @@ async fn the_policy_refuses_other_origins_and_stray_scripts() {
         )
         .await;
     assert_eq!(refused["strayRan"], false, "{refused}");
-    let seen: Vec<&str> = refused["seen"].as_array().unwrap().iter().filter_map(|v| v.as_str()).collect();
+    let seen: Vec<&str> = refused["seen"]
+        .as_array()
+        .unwrap()
+        .iter()
+        .filter_map(|v| v.as_str())
+        .collect();
     assert!(seen.contains(&"script-src-elem"), "{refused}");
     assert!(seen.contains(&"connect-src"), "{refused}");
     // The refused fetch never left the page.
     let requests = b.requests().await;
-    assert_eq!(foreign_requests(&requests, &app.server.url()), Vec::<String>::new());
+    assert_eq!(
+        foreign_requests(&requests, &app.server.url()),
+        Vec::<String>::new()
+    );
     // The refusals are console errors on purpose, so this session ends without `finish`.
     app.browser.close().await;
 }
@@ -165,9 +193,12 @@ async fn the_policy_refuses_other_origins_and_stray_scripts() {
 async fn the_manifest_reads_cleanly_and_its_icons_load() {
     let app = AppSession::start("manifest", Viewport::PHONE).await;
     let b = &app.browser;
-    let manifest = b.devtools("Page.getAppManifest", serde_json::json!({})).await;
+    let manifest = b
+        .devtools("Page.getAppManifest", serde_json::json!({}))
+        .await;
     assert_eq!(manifest["errors"], serde_json::json!([]), "{manifest}");
-    let parsed: serde_json::Value = serde_json::from_str(manifest["data"].as_str().unwrap()).unwrap();
+    let parsed: serde_json::Value =
+        serde_json::from_str(manifest["data"].as_str().unwrap()).unwrap();
     assert_eq!(parsed["display"], "standalone");
     assert_eq!(parsed["short_name"], "Phasewise");
     let loaded = b

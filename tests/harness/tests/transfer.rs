@@ -23,7 +23,10 @@ fn jobs(values: &Value) -> Vec<Job> {
 /// Waits until a job of this name is stored (the autosave waits for typing to pause).
 async fn stored_as(b: &Browser, name: &str) {
     for _ in 0..100 {
-        if jobs(&b.eval(STORED_JOBS).await).iter().any(|j| j.name == name) {
+        if jobs(&b.eval(STORED_JOBS).await)
+            .iter()
+            .any(|j| j.name == name)
+        {
             return;
         }
         tokio::time::sleep(std::time::Duration::from_millis(50)).await;
@@ -59,10 +62,19 @@ async fn export_all_then_clear_then_import_gives_the_same_jobs() {
     assert_eq!(b.eval(STORED_JOBS).await, Value::Array(vec![]));
     let file = downloads.join("all-jobs.phasewise.json");
     assert!(bundle.len() > 100);
-    b.wait_for("#import-file").await.send_keys(&file.display().to_string()).await.unwrap();
-    b.wait_for_text("[data-import-note]", |t| t == "Imported 2 jobs.").await;
+    b.wait_for("#import-file")
+        .await
+        .send_keys(&file.display().to_string())
+        .await
+        .unwrap();
+    b.wait_for_text("[data-import-note]", |t| t == "Imported 2 jobs.")
+        .await;
     let imported = b.eval(STORED_JOBS).await;
-    assert_eq!(jobs(&imported), jobs(&originals), "the jobs are equal to the originals");
+    assert_eq!(
+        jobs(&imported),
+        jobs(&originals),
+        "the jobs are equal to the originals"
+    );
     app.finish().await;
 }
 
@@ -77,7 +89,10 @@ async fn the_ledger_csv_holds_the_engines_figures() {
     // The engine's own answer for the same (example) job, natively.
     let report = solve(&scrap_baler()).unwrap();
     let design = &report.designs[0];
-    assert_eq!(csv, phasewise::ledger_csv::ledger_csv(design, phasewise::engine::units::UnitSystem::Si));
+    assert_eq!(
+        csv,
+        phasewise::ledger_csv::ledger_csv(design, phasewise::engine::units::UnitSystem::Si)
+    );
     let rows: Vec<&str> = csv.trim_end().split("\r\n").collect();
     assert_eq!(rows.len(), design.phases.len() + 2);
     app.finish().await;
@@ -94,21 +109,38 @@ async fn a_job_is_renamed_from_the_list_without_opening_it() {
     other.name = "Old name".into();
     other.example = false;
     let text = phasewise::library::write_entry(&other, 1.0);
-    b.eval(&format!("localStorage.setItem('phasewise.job.zz-other', {});", serde_json::to_string(&text).unwrap())).await;
+    b.eval(&format!(
+        "localStorage.setItem('phasewise.job.zz-other', {});",
+        serde_json::to_string(&text).unwrap()
+    ))
+    .await;
     b.client().refresh().await.unwrap();
     b.wait_for(APP_READY).await;
     let open_before = b.value("input[data-path='name']").await;
-    b.click("li[data-job='zz-other'] [data-action='rename']").await;
+    b.click("li[data-job='zz-other'] [data-action='rename']")
+        .await;
     b.fill("#rename-zz-other", "").await;
-    b.click("li[data-job='zz-other'] [data-action='rename-save']").await;
-    b.wait_for_text("li[data-job='zz-other'] .field-error", |t| t.contains("give the job a name")).await;
+    b.click("li[data-job='zz-other'] [data-action='rename-save']")
+        .await;
+    b.wait_for_text("li[data-job='zz-other'] .field-error", |t| {
+        t.contains("give the job a name")
+    })
+    .await;
     b.fill("#rename-zz-other", "Baler, yard 3").await;
-    b.click("li[data-job='zz-other'] [data-action='rename-save']").await;
-    b.wait_for_text("li[data-job='zz-other'] h3", |t| t == "Baler, yard 3").await;
-    let stored = b.eval("return JSON.parse(localStorage.getItem('phasewise.job.zz-other')).job;").await;
+    b.click("li[data-job='zz-other'] [data-action='rename-save']")
+        .await;
+    b.wait_for_text("li[data-job='zz-other'] h3", |t| t == "Baler, yard 3")
+        .await;
+    let stored = b
+        .eval("return JSON.parse(localStorage.getItem('phasewise.job.zz-other')).job;")
+        .await;
     let mut expected = other.clone();
     expected.name = "Baler, yard 3".into();
     assert_eq!(as_job(&stored), expected, "only the name changed");
-    assert_eq!(b.value("input[data-path='name']").await, open_before, "the open job is untouched");
+    assert_eq!(
+        b.value("input[data-path='name']").await,
+        open_before,
+        "the open job is untouched"
+    );
     app.finish().await;
 }

@@ -1,0 +1,645 @@
+//! Pressure-settings advice: for every phase, the pressure it needs and the lowest limit that
+//! serves it; across the cycle, the main relief setting, each unloading setting, and the
+//! remote stages. Each piece of advice carries the rule and numbers behind it and, where one
+//! change applies it, an [`Action`] for a proposed design (never for the baseline: see
+//! [`apply_to_proposed`]). Savings are not estimated: the design is solved again with the
+//! action applied and the two results are compared.
+//!
+//! The rules are common practice, not a standard (DOMAIN.md, "Relief valves and pressure
+//! settings per phase"); their margins are the user's, in [`AdvicePolicy`].
+
+use super::cycle::{HoldMode, PhaseKind, SpeedRule};
+use super::job::Job;
+use super::power_unit::Design;
+use super::pump::PumpAtSpeed;
+use super::valve::{ActiveLimit, IdlePath};
+use super::{solve_design, DesignReport};
+use serde::{Deserialize, Serialize};
+use uom::si::f64::Pressure;
+
+/// The margins and thresholds the advice uses. Every default is common practice.
+#[derive(Clone, Copy, Debug, PartialEq, Serialize, Deserialize)]
+pub struct AdvicePolicy {
+    /// A setting stays at least this share above the pressure it must reach (common
+    /// practice: about 10 %).
+    pub margin_fraction: f64,
+    /// ... and at least this much above it (common practice: 7 to 15 bar, 100 to 200 psi).
+    #[serde(rename = "margin_min_pa")]
+    pub margin_min: Pressure,
+    /// The drop a pressure-compensated flow control needs across it to hold its flow (common
+    /// practice: 5 to 10 bar; the maker's curve decides).
+    #[serde(rename = "flow_control_drop_pa")]
+    pub flow_control_drop: Pressure,
+    /// A change that saves less than this in its phase is not worth advising (W).
+    pub least_saving_w: f64,
+}
+
+impl Default for AdvicePolicy {
+    fn default() -> Self {
+        AdvicePolicy {
+            margin_fraction: 0.10,
+            margin_min: bar(7.0),
+            flow_control_drop: bar(7.0),
+            least_saving_w: 100.0,
+        }
+    }
+}
+
+fn bar(b: f64) -> Pressure {
+    Pressure::new::<uom::si::pressure::bar>(b)
+}
+
+fn pascals(pa: f64) -> Pressure {
+    Pressure::new::<uom::si::pressure::pascal>(pa)
+}
+
+/// How much a piece of advice matters.
+#[derive(Clone, Copy, Debug, PartialEq, Eq, PartialOrd, Ord, Serialize)]
+#[serde(rename_all = "snake_case")]
+pub enum Severity {
+    /// A setting that cannot do its job, or one above a component's rating.
+    Caution,
+    /// Power (and heat) that a change would save.
+    Saving,
+    /// Worth knowing; nothing to change.
+    Note,
+}
+
+/// One change to a design.
+#[derive(Clone, Copy, Debug, PartialEq, Serialize, Deserialize)]
+#[serde(tag = "action", rename_all = "snake_case")]
+pub enum Action {
+    /// Govern phase `phase` by a remote stage at `pressure` (the stage is added if the design
+    /// has none at that setting).
+    LimitPhase {
+        phase: usize,
+        #[serde(rename = "pressure_pa")]
+        pressure: Pressure,
+    },
+    /// Vent the relief in phase `phase`: an idle sends its flow to tank through the vent, a
+    /// hold whose pressure a check valve keeps lets the pump off load.
+    VentPhase { phase: usize },
+    /// Set the main relief.
+    SetMain {
+        #[serde(rename = "pressure_pa")]
+        pressure: Pressure,
+    },
+    /// Set the unloading valve of pump `pump` (numbered from 1 in shaft order).
+    SetUnloading {
+        pump: usize,
+        #[serde(rename = "pressure_pa")]
+        pressure: Pressure,
+    },
+    /// Take away remote stage `stage` (from 0), and any phase selecting it goes back to main.
+    RemoveRemote { stage: usize },
+}
+
+/// Which rule a piece of advice comes from, with its numbers (SI).
+#[derive(Clone, Debug, PartialEq, Serialize)]
+#[serde(tag = "rule", rename_all = "snake_case")]
+pub enum Rule {
+    /// The phase's limit is further above what it needs than the margin asks: the surplus
+    /// flow goes over the relief (or the flow control) at the higher pressure.
+    LimitAboveNeed {
+        phase: usize,
+        need_pa: f64,
+        limit_pa: f64,
+        lowest_pa: f64,
+    },
+    /// The phase's limit (or the valve's cracking pressure) is too close to, or below, what
+    /// it needs: flow leaks over the relief while working, or the work stalls.
+    LimitBelowNeed {
+        phase: usize,
+        need_pa: f64,
+        limit_pa: f64,
+        lowest_pa: f64,
+    },
+    /// The phase needs no pressure but the pump pushes its flow over a limit.
+    NeedsNoPressure { phase: usize, limit_pa: f64 },
+    /// As `NeedsNoPressure`, but the relief has no vent port to use.
+    NoVentPort { phase: usize },
+    /// The lowest limit that serves the phase is above a component's rating.
+    BeyondRating {
+        phase: usize,
+        lowest_pa: f64,
+        rating_pa: f64,
+    },
+    /// The main relief is further above the highest need of the cycle than the margin asks.
+    MainAboveNeed { main_pa: f64, lowest_pa: f64 },
+    /// The main relief is below what the most demanding phase needs.
+    MainBelowNeed { main_pa: f64, lowest_pa: f64 },
+    /// An unloading setting outside the window its phases allow; `window` is (lowest,
+    /// highest) setting that keeps the pump feeding where its flow is needed and unloads it
+    /// where it is not.
+    UnloadingOutside {
+        pump: usize,
+        setting_pa: f64,
+        window: (f64, f64),
+    },
+    /// No unloading setting can serve both: `with_phase` needs the pump's flow up to
+    /// `with_pa`, `without_phase` should run without it from `without_pa`.
+    UnloadingImpossible {
+        pump: usize,
+        with_phase: usize,
+        with_pa: f64,
+        without_phase: usize,
+        without_pa: f64,
+    },
+    /// A remote stage at or above the main setting never governs.
+    RemoteRedundant {
+        stage: usize,
+        remote_pa: f64,
+        main_pa: f64,
+    },
+    /// A remote stage no phase selects.
+    RemoteUnused { stage: usize, remote_pa: f64 },
+}
+
+/// One piece of advice for a design.
+#[derive(Clone, Debug, PartialEq, Serialize)]
+pub struct Advice {
+    pub severity: Severity,
+    pub rule: Rule,
+    pub action: Option<Action>,
+    /// What the action saves, found by solving the design again with it: in the phase it
+    /// concerns (W, zero for cycle-wide changes) and per year (kWh).
+    pub saving_w: f64,
+    pub annual_saving_kwh: f64,
+}
+
+/// What one phase needs, and what its limit is.
+#[derive(Clone, Copy, Debug, PartialEq, Serialize)]
+pub struct PhaseNeed {
+    /// The system pressure the phase needs; `None` for an idle, or a hold a check valve keeps.
+    pub need_pa: Option<f64>,
+    /// The governing limit now.
+    pub limit_pa: f64,
+    /// The lowest limit that serves the need with the margin and above the valve's cracking.
+    pub lowest_pa: Option<f64>,
+}
+
+/// The system pressure a phase needs (Pa), or `None` when it needs none.
+pub fn needed_pressure(kind: &PhaseKind, policy: &AdvicePolicy) -> Option<f64> {
+    match kind {
+        PhaseKind::Move(m) => {
+            let base = m.load_pressure() + m.line_loss.value;
+            Some(match m.speed {
+                SpeedRule::AllPumpFlow => base,
+                // A flow control holds its flow only with a drop across it.
+                SpeedRule::MeteredSpeed { .. } | SpeedRule::MeteredFlow { .. } => {
+                    base + policy.flow_control_drop.value
+                }
+            })
+        }
+        PhaseKind::Hold(h) => match h.mode {
+            HoldMode::HeldByPump => Some(h.pressure.value),
+            HoldMode::LockedByCheck => None,
+        },
+        PhaseKind::Idle(_) => None,
+        PhaseKind::Direct(d) => Some(d.pressure.value),
+    }
+}
+
+/// The lowest limit that serves `need`: the margin above it, and the valve's cracking
+/// pressure (`cracking_fraction` of the setting) at or above it.
+pub fn lowest_limit(need: f64, policy: &AdvicePolicy, cracking_fraction: f64) -> f64 {
+    let margin = (need * policy.margin_fraction).max(policy.margin_min.value);
+    (need + margin).max(need / cracking_fraction.max(1e-3))
+}
+
+/// A setting rounded up to a step a gauge is read in: 1 bar, or 10 psi for US units.
+pub fn round_up_setting(pa: f64, us_units: bool) -> f64 {
+    let step = if us_units {
+        super::units::PSI * 10.0
+    } else {
+        super::units::BAR
+    };
+    (pa / step - 1e-9).ceil() * step
+}
+
+/// The governing limit of phase `i` of `design`, as the solver uses it (Pa).
+fn governing(design: &Design, i: usize, idle: bool) -> f64 {
+    let main = design.relief.setting.value;
+    let setting = design.phase_settings.get(i).copied().unwrap_or_default();
+    if idle && setting.idle_path == IdlePath::Vented {
+        return design.vent_pressure.value;
+    }
+    match setting.limit {
+        ActiveLimit::Main => main,
+        ActiveLimit::Remote { stage } => design
+            .remote_stages
+            .get(stage)
+            .map_or(main, |r| r.value.min(main)),
+        ActiveLimit::Vented => design.vent_pressure.value,
+    }
+}
+
+/// Each phase's need and limit for `design`.
+pub fn phase_needs(job: &Job, design: &Design) -> Vec<PhaseNeed> {
+    let policy = &job.advice;
+    job.cycle
+        .iter()
+        .enumerate()
+        .map(|(i, phase)| {
+            let need = needed_pressure(&phase.kind, policy);
+            PhaseNeed {
+                need_pa: need,
+                limit_pa: governing(design, i, matches!(phase.kind, PhaseKind::Idle(_))),
+                lowest_pa: need.map(|n| lowest_limit(n, policy, design.relief.cracking_fraction)),
+            }
+        })
+        .collect()
+}
+
+/// The lowest pressure rating on the system line: the base pump sees system pressure.
+fn system_rating(design: &Design) -> f64 {
+    design.base_pump.rated_pressure.value
+}
+
+/// The design with `action` applied. Indices out of range change nothing.
+pub fn apply(design: &Design, action: &Action) -> Design {
+    let mut d = design.clone();
+    match *action {
+        Action::LimitPhase { phase, pressure } => {
+            let stage = match d
+                .remote_stages
+                .iter()
+                .position(|r| (r.value - pressure.value).abs() < 1.0)
+            {
+                Some(stage) => stage,
+                None => {
+                    d.remote_stages.push(pressure);
+                    d.remote_stages.len() - 1
+                }
+            };
+            if let Some(s) = d.phase_settings.get_mut(phase) {
+                s.limit = ActiveLimit::Remote { stage };
+            }
+        }
+        Action::VentPhase { phase } => {
+            if let Some(s) = d.phase_settings.get_mut(phase) {
+                s.limit = ActiveLimit::Vented;
+                s.idle_path = IdlePath::Vented;
+            }
+        }
+        Action::SetMain { pressure } => d.relief.setting = pressure,
+        Action::SetUnloading { pump, pressure } => {
+            if let Some(s) = pump
+                .checked_sub(1)
+                .and_then(|i| d.unloading_stages.get_mut(i))
+            {
+                s.unloading.setting = pressure;
+            }
+        }
+        Action::RemoveRemote { stage } => {
+            if stage < d.remote_stages.len() {
+                d.remote_stages.remove(stage);
+                for s in &mut d.phase_settings {
+                    s.limit = match s.limit {
+                        ActiveLimit::Remote { stage: k } if k == stage => ActiveLimit::Main,
+                        ActiveLimit::Remote { stage: k } if k > stage => {
+                            ActiveLimit::Remote { stage: k - 1 }
+                        }
+                        other => other,
+                    };
+                }
+            }
+        }
+    }
+    d
+}
+
+/// `job` with `action` applied to a proposed design: the design `shown` if it is not the
+/// baseline, else the second design, else a new copy of the baseline named "Proposed". The
+/// baseline ("as found") is never changed. Returns the job and the design changed.
+pub fn apply_to_proposed(job: &Job, shown: usize, action: &Action) -> (Job, usize) {
+    let mut job = job.clone();
+    let target = if shown > 0 && shown < job.designs.len() {
+        shown
+    } else if job.designs.len() > 1 {
+        1
+    } else {
+        let mut copy = job.designs[0].clone();
+        copy.name = "Proposed".into();
+        job.designs.push(copy);
+        1
+    };
+    job.designs[target] = apply(&job.designs[target], action);
+    (job, target)
+}
+
+/// What `action` saves on `design`: in phase `phase` (W) and per year (kWh). Solved, not
+/// estimated.
+fn saving(
+    job: &Job,
+    design: &Design,
+    before: &DesignReport,
+    action: &Action,
+    phase: Option<usize>,
+) -> (f64, f64) {
+    let after = solve_design(job, &apply(design, action));
+    let in_phase = phase
+        .and_then(|i| {
+            Some(
+                before.phases.get(i)?.ledger.electrical_input.value
+                    - after.phases.get(i)?.ledger.electrical_input.value,
+            )
+        })
+        .unwrap_or(0.0);
+    (
+        in_phase,
+        before.totals.annual_energy_kwh - after.totals.annual_energy_kwh,
+    )
+}
+
+/// Every piece of advice for design `index` of a valid job (one that `solve` accepts),
+/// most serious first.
+pub fn advise(job: &Job, index: usize) -> Vec<Advice> {
+    let Some(design) = job.designs.get(index) else {
+        return Vec::new();
+    };
+    let policy = &job.advice;
+    let us = job.units == super::units::UnitSystem::UsCustomary;
+    let before = solve_design(job, design);
+    let needs = phase_needs(job, design);
+    let rating = system_rating(design);
+    let vent_port = design.relief.kind.has_vent_port();
+    let main = design.relief.setting.value;
+    let mut advice = Vec::new();
+    let mut push = |severity, rule, action: Option<Action>, phase: Option<usize>| {
+        let (saving_w, annual_saving_kwh) = action
+            .map(|a| saving(job, design, &before, &a, phase))
+            .unwrap_or((0.0, 0.0));
+        advice.push(Advice {
+            severity,
+            rule,
+            action,
+            saving_w,
+            annual_saving_kwh,
+        });
+    };
+
+    for (i, need) in needs.iter().enumerate() {
+        let limit = need.limit_pa;
+        match (need.need_pa, need.lowest_pa) {
+            (Some(n), Some(lowest)) => {
+                if lowest > rating {
+                    push(
+                        Severity::Caution,
+                        Rule::BeyondRating {
+                            phase: i,
+                            lowest_pa: lowest,
+                            rating_pa: rating,
+                        },
+                        None,
+                        None,
+                    );
+                    continue;
+                }
+                let target = round_up_setting(lowest, us).min(main);
+                if limit < lowest * (1.0 - 1e-9) {
+                    // Raising a phase's limit past main means raising main: the cycle rule does.
+                    let action = (vent_port && target >= lowest).then_some(Action::LimitPhase {
+                        phase: i,
+                        pressure: pascals(target),
+                    });
+                    push(
+                        Severity::Caution,
+                        Rule::LimitBelowNeed {
+                            phase: i,
+                            need_pa: n,
+                            limit_pa: limit,
+                            lowest_pa: lowest,
+                        },
+                        action,
+                        Some(i),
+                    );
+                } else if target < limit * (1.0 - 1e-9) && vent_port {
+                    let action = Action::LimitPhase {
+                        phase: i,
+                        pressure: pascals(target),
+                    };
+                    let (w, _) = saving(job, design, &before, &action, Some(i));
+                    if w >= policy.least_saving_w {
+                        push(
+                            Severity::Saving,
+                            Rule::LimitAboveNeed {
+                                phase: i,
+                                need_pa: n,
+                                limit_pa: limit,
+                                lowest_pa: lowest,
+                            },
+                            Some(action),
+                            Some(i),
+                        );
+                    }
+                }
+            }
+            _ => {
+                let vented = limit <= design.vent_pressure.value * (1.0 + 1e-9);
+                let stopped = design.phase_settings.get(i).is_some_and(|s| {
+                    matches!(job.cycle[i].kind, PhaseKind::Idle(_))
+                        && matches!(
+                            s.idle_path,
+                            IdlePath::MotorStopped | IdlePath::OpenCentre { .. }
+                        )
+                });
+                if vented || stopped {
+                    continue;
+                }
+                if vent_port {
+                    let action = Action::VentPhase { phase: i };
+                    let (w, _) = saving(job, design, &before, &action, Some(i));
+                    if w >= policy.least_saving_w {
+                        push(
+                            Severity::Saving,
+                            Rule::NeedsNoPressure {
+                                phase: i,
+                                limit_pa: limit,
+                            },
+                            Some(action),
+                            Some(i),
+                        );
+                    }
+                } else {
+                    push(Severity::Note, Rule::NoVentPort { phase: i }, None, None);
+                }
+            }
+        }
+    }
+
+    // The main relief serves the most demanding phase (remote stages only go lower).
+    if let Some(highest) = needs.iter().filter_map(|n| n.lowest_pa).reduce(f64::max) {
+        if highest <= rating {
+            let target = round_up_setting(highest, us).min(rating);
+            if main < highest * (1.0 - 1e-9) {
+                push(
+                    Severity::Caution,
+                    Rule::MainBelowNeed {
+                        main_pa: main,
+                        lowest_pa: highest,
+                    },
+                    Some(Action::SetMain {
+                        pressure: pascals(target),
+                    }),
+                    None,
+                );
+            } else if target < main * (1.0 - 1e-9) {
+                let action = Action::SetMain {
+                    pressure: pascals(target),
+                };
+                let (_, kwh) = saving(job, design, &before, &action, None);
+                // A lower main also narrows the margin against a pressure spike: worth it
+                // only when it saves energy; otherwise a note.
+                let severity = if kwh > 0.0 {
+                    Severity::Saving
+                } else {
+                    Severity::Note
+                };
+                push(
+                    severity,
+                    Rule::MainAboveNeed {
+                        main_pa: main,
+                        lowest_pa: highest,
+                    },
+                    Some(action),
+                    None,
+                );
+            }
+        }
+    }
+
+    unloading_advice(job, design, &needs, us, &mut push);
+
+    for (stage, remote) in design.remote_stages.iter().enumerate() {
+        let action = Some(Action::RemoveRemote { stage });
+        if remote.value >= main {
+            push(
+                Severity::Note,
+                Rule::RemoteRedundant {
+                    stage,
+                    remote_pa: remote.value,
+                    main_pa: main,
+                },
+                action,
+                None,
+            );
+        } else if !design
+            .phase_settings
+            .iter()
+            .any(|s| s.limit == ActiveLimit::Remote { stage })
+        {
+            push(
+                Severity::Note,
+                Rule::RemoteUnused {
+                    stage,
+                    remote_pa: remote.value,
+                },
+                action,
+                None,
+            );
+        }
+    }
+
+    advice.sort_by(|a, b| {
+        a.severity
+            .cmp(&b.severity)
+            .then(b.annual_saving_kwh.total_cmp(&a.annual_saving_kwh))
+    });
+    advice
+}
+
+/// Each unloading valve's window: above the highest need of the phases that need its pump's
+/// flow (plus the margin), below the lowest need of the phases that should run without it
+/// (less the margin). A move at all pump flow needs pump `k`'s flow when the motor can carry
+/// it with pumps `k` onward feeding (stages unload in shaft order, pump 1 first); any other
+/// phase that needs pressure should run without it unless its metered flow needs it.
+fn unloading_advice(
+    job: &Job,
+    design: &Design,
+    needs: &[PhaseNeed],
+    us: bool,
+    push: &mut impl FnMut(Severity, Rule, Option<Action>, Option<usize>),
+) {
+    let policy = &job.advice;
+    let rps = design.motor.revolutions_per_second();
+    let pumps: Vec<PumpAtSpeed> = design.pumps().map(|p| PumpAtSpeed::new(p, rps)).collect();
+    let motor_limit = design.motor.rated_power.value * design.motor.service_factor;
+    for (k, stage) in design.unloading_stages.iter().enumerate() {
+        let later_flow = |p: f64| pumps[k + 1..].iter().map(|q| q.delivered(p)).sum::<f64>();
+        let mut with: Option<(usize, f64)> = None;
+        let mut without: Option<(usize, f64)> = None;
+        for (i, phase) in job.cycle.iter().enumerate() {
+            let Some(need) = needs[i].need_pa else {
+                continue;
+            };
+            let needs_flow = match &phase.kind {
+                PhaseKind::Move(m) => match m.speed {
+                    SpeedRule::AllPumpFlow => {
+                        let shaft: f64 = pumps[k..]
+                            .iter()
+                            .map(|q| q.shaft_power(need, q.delivered(need)))
+                            .sum();
+                        shaft <= motor_limit
+                    }
+                    SpeedRule::MeteredSpeed { speed } => {
+                        speed.value * m.cylinder.working_area_m2(m.direction) > later_flow(need)
+                    }
+                    SpeedRule::MeteredFlow { flow } => flow.value > later_flow(need),
+                },
+                PhaseKind::Direct(d) => d.flow.value > later_flow(need),
+                PhaseKind::Hold(_) | PhaseKind::Idle(_) => false,
+            };
+            let slot = if needs_flow { &mut with } else { &mut without };
+            let better = |old: f64| if needs_flow { need > old } else { need < old };
+            if slot.is_none_or(|(_, old)| better(old)) {
+                *slot = Some((i, need));
+            }
+        }
+        let margin = |p: f64| (p * policy.margin_fraction).max(policy.margin_min.value);
+        let low = with.map_or(0.0, |(_, p)| p + margin(p));
+        let high = without.map_or(f64::INFINITY, |(_, p)| p - margin(p));
+        let setting = stage.unloading.setting.value;
+        let pump = k + 1;
+        if low > high {
+            let ((wi, wp), (oi, op)) = (with.unwrap_or_default(), without.unwrap_or_default());
+            push(
+                Severity::Caution,
+                Rule::UnloadingImpossible {
+                    pump,
+                    with_phase: wi,
+                    with_pa: wp,
+                    without_phase: oi,
+                    without_pa: op,
+                },
+                None,
+                None,
+            );
+        } else if setting < low || setting > high {
+            let target = round_up_setting(low.max(design.vent_pressure.value), us);
+            let target = if target > high { low } else { target };
+            let action = (target + stage.check.cracking.value <= stage.pump.rated_pressure.value)
+                .then_some(Action::SetUnloading {
+                    pump,
+                    pressure: pascals(target),
+                });
+            // Too low, the pump unloads where its flow is needed (a slow move); too high, it
+            // keeps feeding at pressure (power and heat).
+            let severity = if setting < low {
+                Severity::Caution
+            } else {
+                Severity::Saving
+            };
+            push(
+                severity,
+                Rule::UnloadingOutside {
+                    pump,
+                    setting_pa: setting,
+                    window: (low, high),
+                },
+                action,
+                None,
+            );
+        }
+    }
+}

@@ -1,0 +1,489 @@
+//! The settings advice (engine `settings`): each rule with a case that triggers it and one that
+//! does not, and a high-low press whose unloading and relief settings follow from its loads,
+//! bore and line losses, worked by hand below. The rules are common practice (DOMAIN.md,
+//! "Relief valves and pressure settings per phase"), with the default margins: 10 % or 7 bar,
+//! whichever is more; a flow control's drop 7 bar; cracking 0.97 (pilot-operated) or 0.80
+//! (direct-acting) of the setting.
+
+mod common;
+use common::*;
+use phasewise::engine::cycle::{Direction, HoldMode, SpeedRule};
+use phasewise::engine::settings::{self, Action, Advice, Rule, Severity};
+use phasewise::engine::valve::{ActiveLimit, ReliefKind};
+use phasewise::engine::{solve, Job};
+
+const BAR: f64 = 1e5;
+
+fn rules(advice: &[Advice]) -> Vec<&Rule> {
+    advice.iter().map(|a| &a.rule).collect()
+}
+
+fn find(advice: &[Advice], pick: impl Fn(&Rule) -> bool) -> Option<&Advice> {
+    advice.iter().find(|a| pick(&a.rule))
+}
+
+/// An invented high-low press. Ideal pumps (no leakage, no friction) so the powers are
+/// pressure x flow: pump 1 40 cm^3/rev (60 L/min at 1500 rpm), the base pump 8 cm^3/rev
+/// (12 L/min). Motor 7.5 kW. Cylinder bore 100 mm (7.853982e-3 m^2), rod 56 mm (annulus
+/// 5.390973e-3 m^2). Pilot-operated relief, 60 L/min rated.
+///
+/// - approach: 5 kN / 7.853982e-3 = 6.366 bar, + 4 bar line = 10.366 bar needed. Both pumps:
+///   10.366e5 x 1.2e-3 = 1.24 kW, within 7.5 kW: it needs pump 1's flow.
+/// - press: 100 kN / 7.853982e-3 = 127.324 bar, + 4 = 131.324 bar. Both pumps: 15.8 kW, over
+///   the motor: it should run without pump 1.
+/// - return: 3 kN / 5.390973e-3 = 5.564858 bar, + 6 = 11.564858 bar: needs pump 1.
+/// - idle 20 s: needs no pressure.
+///
+/// Unloading window for pump 1: above 11.564858 + max(1.156, 7) = 18.564858 bar, below
+/// 131.324 - max(13.132, 7) = 118.19 bar. Main relief: the press's lowest serving limit is
+/// max(131.324 x 1.1, 131.324 + 7, 131.324 / 0.97) = max(144.46, 138.32, 135.39) = 144.46 bar,
+/// rounded up to 145 bar.
+fn high_low(unload_bar: f64, main_bar: f64) -> Job {
+    let cycle = vec![
+        move_phase(
+            "approach",
+            100.0,
+            56.0,
+            300.0,
+            Direction::Extend,
+            5.0,
+            4.0,
+            SpeedRule::AllPumpFlow,
+        ),
+        move_phase(
+            "press",
+            100.0,
+            56.0,
+            40.0,
+            Direction::Extend,
+            100.0,
+            4.0,
+            SpeedRule::AllPumpFlow,
+        ),
+        move_phase(
+            "return",
+            100.0,
+            56.0,
+            340.0,
+            Direction::Retract,
+            3.0,
+            6.0,
+            SpeedRule::AllPumpFlow,
+        ),
+        idle("unload parts", 20.0),
+    ];
+    let d = design(
+        "As found",
+        motor(7.5, 1500.0, 0.9),
+        vec![stage(ideal_pump(40.0), unload_bar, 3.0, 0.5)],
+        ideal_pump(8.0),
+        relief(ReliefKind::PilotOperated, main_bar, 60.0, 0.97),
+        4,
+    );
+    job(cycle, vec![d])
+}
+
+#[test]
+fn the_high_low_unloading_window_and_main_setting_follow_from_the_loads() {
+    // As found: pump 1 unloads at 140 bar, above the press, so it feeds the press (and would
+    // overload the motor); main at 210 bar.
+    let job = high_low(140.0, 210.0);
+    let needs = settings::phase_needs(&job, &job.designs[0]);
+    assert_close(
+        needs[0].need_pa.unwrap() / BAR,
+        10.366198,
+        1e-6,
+        "approach need",
+    );
+    assert_close(
+        needs[1].need_pa.unwrap() / BAR,
+        131.323954,
+        1e-6,
+        "press need",
+    );
+    assert_close(
+        needs[2].need_pa.unwrap() / BAR,
+        11.564858,
+        1e-6,
+        "return need",
+    );
+    assert_eq!(needs[3].need_pa, None);
+    assert_close(
+        needs[1].lowest_pa.unwrap() / BAR,
+        144.456349,
+        1e-6,
+        "press lowest limit",
+    );
+
+    let advice = settings::advise(&job, 0);
+    let unloading =
+        find(&advice, |r| matches!(r, Rule::UnloadingOutside { .. })).expect("unloading advice");
+    let Rule::UnloadingOutside {
+        pump,
+        setting_pa,
+        window,
+    } = unloading.rule
+    else {
+        unreachable!()
+    };
+    assert_eq!(pump, 1);
+    assert_close(setting_pa / BAR, 140.0, 1e-12, "setting now");
+    assert_close(window.0 / BAR, 18.564858, 1e-6, "window low");
+    assert_close(window.1 / BAR, 118.191559, 1e-6, "window high");
+    assert_eq!(unloading.severity, Severity::Saving);
+    assert_eq!(
+        unloading.action,
+        Some(Action::SetUnloading {
+            pump: 1,
+            pressure: bar_(19.0)
+        })
+    );
+    // Unloading pump 1 in the press: it then runs at 131.3 bar on 12 L/min instead of 72.
+    assert!(unloading.annual_saving_kwh > 0.0);
+
+    let main = find(&advice, |r| matches!(r, Rule::MainAboveNeed { .. })).expect("main advice");
+    assert_eq!(
+        main.action,
+        Some(Action::SetMain {
+            pressure: bar_(145.0)
+        })
+    );
+    let idle = find(&advice, |r| {
+        matches!(r, Rule::NeedsNoPressure { phase: 3, .. })
+    })
+    .expect("vent the idle");
+    assert_eq!(idle.action, Some(Action::VentPhase { phase: 3 }));
+
+    // Settings inside the window and at the rounded main: no unloading or main advice.
+    let good = high_low(50.0, 145.0);
+    let advice = settings::advise(&good, 0);
+    assert!(
+        !rules(&advice).iter().any(|r| matches!(
+            r,
+            Rule::UnloadingOutside { .. } | Rule::MainAboveNeed { .. } | Rule::MainBelowNeed { .. }
+        )),
+        "{advice:#?}"
+    );
+}
+
+#[test]
+fn an_unloading_setting_below_the_window_is_a_caution() {
+    // At 15 bar pump 1 unloads during the return (11.6 bar + the margin): a slow return.
+    let advice = settings::advise(&high_low(15.0, 145.0), 0);
+    let a = find(&advice, |r| matches!(r, Rule::UnloadingOutside { .. })).expect("advice");
+    assert_eq!(a.severity, Severity::Caution);
+}
+
+#[test]
+fn no_unloading_setting_can_serve_a_fast_move_and_a_hold_just_above_it() {
+    // A 15 kW motor carries both pumps at 100 bar, so a move needing 100 bar wants pump 1's
+    // flow; a hold at 105 bar should run without it. Window: above 100 + 10 = 110 bar, below
+    // 105 - 10.5 = 94.5 bar: empty.
+    let cycle = vec![
+        direct("fast feed", 72.0, 100.0, 5.0),
+        hold("hold", 105.0, 5.0, HoldMode::HeldByPump),
+    ];
+    let d = design(
+        "As found",
+        motor(15.0, 1500.0, 0.9),
+        vec![stage(ideal_pump(40.0), 102.0, 3.0, 0.5)],
+        ideal_pump(8.0),
+        relief(ReliefKind::PilotOperated, 160.0, 80.0, 0.97),
+        2,
+    );
+    let advice = settings::advise(&job(cycle, vec![d]), 0);
+    let a = find(&advice, |r| matches!(r, Rule::UnloadingImpossible { .. })).expect("impossible");
+    assert_eq!(a.severity, Severity::Caution);
+    assert_eq!(a.action, None);
+    let Rule::UnloadingImpossible {
+        with_phase,
+        with_pa,
+        without_phase,
+        without_pa,
+        ..
+    } = a.rule
+    else {
+        unreachable!()
+    };
+    assert_eq!((with_phase, without_phase), (0, 1));
+    assert_close(with_pa / BAR, 100.0, 1e-12, "with");
+    assert_close(without_pa / BAR, 105.0, 1e-12, "without");
+}
+
+/// One ideal 8 cm^3/rev pump (12 L/min) on a 5.5 kW motor, a metered move at 0.01 m/s on a
+/// 100 mm bore (4.712 L/min) against 20 kN: 25.465 bar + 2 bar line + 7 bar for the flow
+/// control = 34.465 bar needed; lowest limit max(37.91, 41.465, 35.53) = 41.465 bar -> 42 bar.
+fn metered(main_bar: f64, kind: ReliefKind) -> Job {
+    let cycle = vec![move_phase(
+        "feed",
+        100.0,
+        56.0,
+        200.0,
+        Direction::Extend,
+        20.0,
+        2.0,
+        metered_speed(0.01),
+    )];
+    let cracking = kind.typical_cracking_fraction();
+    let d = design(
+        "As found",
+        motor(5.5, 1500.0, 0.9),
+        vec![],
+        ideal_pump(8.0),
+        relief(kind, main_bar, 60.0, cracking),
+        1,
+    );
+    job(cycle, vec![d])
+}
+
+#[test]
+fn a_metered_phase_on_a_high_limit_is_offered_the_lowest_that_serves_it() {
+    let job = metered(160.0, ReliefKind::PilotOperated);
+    let needs = settings::phase_needs(&job, &job.designs[0]);
+    assert_close(needs[0].need_pa.unwrap() / BAR, 34.464790, 1e-6, "need");
+    assert_close(needs[0].lowest_pa.unwrap() / BAR, 41.464790, 1e-6, "lowest");
+    let advice = settings::advise(&job, 0);
+    let a = find(&advice, |r| {
+        matches!(r, Rule::LimitAboveNeed { phase: 0, .. })
+    })
+    .expect("advice");
+    assert_eq!(
+        a.action,
+        Some(Action::LimitPhase {
+            phase: 0,
+            pressure: bar_(42.0)
+        })
+    );
+
+    // Applied to a proposed design (made, since the job has only the baseline): the surplus
+    // 12 - 4.712 = 7.288 L/min crosses the relief at 40.74 + 1.26 x 7.288 / 60 = 40.893 bar
+    // instead of 155.2 + 4.8 x 7.288 / 60 = 155.783 bar, so the pump's shaft power falls from
+    // 155.783e5 x 2e-4 = 3115.7 W to 40.893e5 x 2e-4 = 817.9 W.
+    let (proposed, target) = settings::apply_to_proposed(&job, 0, &a.action.unwrap());
+    assert_eq!(target, 1);
+    assert_eq!(
+        proposed.designs[0], job.designs[0],
+        "the baseline is never changed"
+    );
+    assert_eq!(proposed.designs[1].name, "Proposed");
+    assert_eq!(proposed.designs[1].remote_stages, vec![bar_(42.0)]);
+    assert_eq!(
+        proposed.designs[1].phase_settings[0].limit,
+        ActiveLimit::Remote { stage: 0 }
+    );
+    let report = solve(&proposed).unwrap();
+    let shaft = |d: usize| report.designs[d].phases[0].ledger.shaft_power().value;
+    let surplus = (12.0 - 0.01 * 7.853982e-3 * 60000.0) / 60.0;
+    assert_close(
+        shaft(0),
+        (155.2 + 4.8 * surplus) * BAR * 2e-4,
+        1e-6,
+        "shaft before",
+    );
+    assert_close(
+        shaft(1),
+        (42.0 * 0.97 + 42.0 * 0.03 * surplus) * BAR * 2e-4,
+        1e-6,
+        "shaft after",
+    );
+    assert_close(
+        a.saving_w,
+        report.designs[0].phases[0].ledger.electrical_input.value
+            - report.designs[1].phases[0].ledger.electrical_input.value,
+        1e-9,
+        "saving as solved",
+    );
+
+    // At 42 bar already: nothing to lower.
+    let advice = settings::advise(&metered(42.0, ReliefKind::PilotOperated), 0);
+    assert!(
+        find(&advice, |r| matches!(
+            r,
+            Rule::LimitAboveNeed { .. } | Rule::MainAboveNeed { .. }
+        ))
+        .is_none(),
+        "{advice:#?}"
+    );
+}
+
+#[test]
+fn a_direct_acting_valve_set_too_close_cracks_into_the_work() {
+    // Direct-acting, cracking at 0.80: at 40 bar it passes flow from 32 bar, below the 34.5
+    // bar needed. Lowest serving: max(37.91, 41.46, 34.465 / 0.8 = 43.08) = 43.08 -> 44 bar.
+    let advice = settings::advise(&metered(40.0, ReliefKind::DirectActing), 0);
+    let below = find(&advice, |r| matches!(r, Rule::LimitBelowNeed { .. })).expect("below need");
+    assert_eq!(below.severity, Severity::Caution);
+    assert_eq!(below.action, None, "no vent port for a remote stage");
+    let main = find(&advice, |r| matches!(r, Rule::MainBelowNeed { .. })).expect("raise main");
+    assert_eq!(
+        main.action,
+        Some(Action::SetMain {
+            pressure: bar_(44.0)
+        })
+    );
+    assert!(find(
+        &settings::advise(&metered(44.0, ReliefKind::DirectActing), 0),
+        |r| matches!(r, Rule::LimitBelowNeed { .. } | Rule::MainBelowNeed { .. })
+    )
+    .is_none());
+}
+
+#[test]
+fn a_need_above_the_pumps_rating_is_a_caution_with_no_setting() {
+    // The common pump is rated 250 bar; a hold at 240 bar needs 264 bar with the margin.
+    let cycle = vec![hold("hold", 240.0, 5.0, HoldMode::HeldByPump)];
+    let d = design(
+        "As found",
+        motor(5.5, 1500.0, 0.9),
+        vec![],
+        ideal_pump(8.0),
+        relief(ReliefKind::PilotOperated, 245.0, 60.0, 0.97),
+        1,
+    );
+    let advice = settings::advise(&job(cycle, vec![d.clone()]), 0);
+    let a = find(&advice, |r| matches!(r, Rule::BeyondRating { .. })).expect("beyond rating");
+    assert_eq!((a.severity, a.action), (Severity::Caution, None));
+    let cycle = vec![hold("hold", 200.0, 5.0, HoldMode::HeldByPump)];
+    assert!(
+        find(&settings::advise(&job(cycle, vec![d]), 0), |r| matches!(
+            r,
+            Rule::BeyondRating { .. }
+        ))
+        .is_none()
+    );
+}
+
+#[test]
+fn idles_and_check_held_holds_are_vented_where_the_valve_allows() {
+    let locked = vec![
+        hold("clamp held by check", 150.0, 30.0, HoldMode::LockedByCheck),
+        idle("idle", 20.0),
+    ];
+    let mk = |kind| {
+        design(
+            "As found",
+            motor(5.5, 1500.0, 0.9),
+            vec![],
+            ideal_pump(8.0),
+            relief(kind, 160.0, 60.0, kind.typical_cracking_fraction()),
+            2,
+        )
+    };
+    let advice = settings::advise(&job(locked.clone(), vec![mk(ReliefKind::PilotOperated)]), 0);
+    for phase in [0, 1] {
+        let a = find(
+            &advice,
+            |r| matches!(r, Rule::NeedsNoPressure { phase: p, .. } if *p == phase),
+        )
+        .expect("vent");
+        assert_eq!(a.action, Some(Action::VentPhase { phase }));
+        // 12 L/min over 155.2+ bar: about 3.1 kW, against about 30 W vented.
+        assert!(a.saving_w > 2500.0, "{}", a.saving_w);
+    }
+    // Vented already: nothing to say.
+    let mut vented = mk(ReliefKind::PilotOperated);
+    vented = settings::apply(&vented, &Action::VentPhase { phase: 0 });
+    vented = settings::apply(&vented, &Action::VentPhase { phase: 1 });
+    assert!(find(
+        &settings::advise(&job(locked.clone(), vec![vented]), 0),
+        |r| matches!(r, Rule::NeedsNoPressure { .. })
+    )
+    .is_none());
+    // No vent port: a note, no action.
+    let advice = settings::advise(&job(locked, vec![mk(ReliefKind::DirectActing)]), 0);
+    let a = find(&advice, |r| matches!(r, Rule::NoVentPort { .. })).expect("note");
+    assert_eq!((a.severity, a.action), (Severity::Note, None));
+}
+
+#[test]
+fn remote_stages_above_main_or_never_selected_are_flagged_and_removable() {
+    let mut job = metered(42.0, ReliefKind::PilotOperated);
+    job.designs[0].remote_stages = vec![bar_(30.0), bar_(50.0), bar_(45.0)];
+    // The feed selects stage 2 (45 bar): the lower of it and main (42 bar) governs.
+    job.designs[0].phase_settings[0].limit = ActiveLimit::Remote { stage: 2 };
+    let advice = settings::advise(&job, 0);
+    let redundant = find(&advice, |r| {
+        matches!(r, Rule::RemoteRedundant { stage: 1, .. })
+    })
+    .expect("above main");
+    assert_eq!(redundant.action, Some(Action::RemoveRemote { stage: 1 }));
+    assert!(
+        find(&advice, |r| matches!(
+            r,
+            Rule::RemoteRedundant { stage: 2, .. }
+        ))
+        .is_some(),
+        "45 >= 42 too"
+    );
+    assert!(find(&advice, |r| matches!(
+        r,
+        Rule::RemoteUnused { stage: 0, .. }
+    ))
+    .is_some());
+    // Removing stage 1 keeps the feed on the stage it chose (now numbered 1).
+    let d = settings::apply(&job.designs[0], &Action::RemoveRemote { stage: 1 });
+    assert_eq!(d.remote_stages, vec![bar_(30.0), bar_(45.0)]);
+    assert_eq!(d.phase_settings[0].limit, ActiveLimit::Remote { stage: 1 });
+    // A stage below main that a phase selects is neither.
+    job.designs[0].remote_stages = vec![bar_(41.5)];
+    job.designs[0].phase_settings[0].limit = ActiveLimit::Remote { stage: 0 };
+    let advice = settings::advise(&job, 0);
+    assert!(
+        find(&advice, |r| matches!(
+            r,
+            Rule::RemoteRedundant { .. } | Rule::RemoteUnused { .. }
+        ))
+        .is_none(),
+        "{advice:#?}"
+    );
+}
+
+#[test]
+fn actions_go_to_the_proposed_design_never_the_baseline() {
+    let demo = phasewise::engine::demo::scrap_baler();
+    let action = Action::SetMain {
+        pressure: bar_(180.0),
+    };
+    // Shown: the baseline; the job has a proposed design: that one changes.
+    let (after, target) = settings::apply_to_proposed(&demo, 0, &action);
+    assert_eq!(target, 1);
+    assert_eq!(after.designs[0], demo.designs[0]);
+    assert_eq!(after.designs[1].relief.setting, bar_(180.0));
+    assert_eq!(after.designs.len(), demo.designs.len());
+    // Bad indices change nothing and never panic.
+    let d = &demo.designs[0];
+    for bad in [
+        Action::VentPhase { phase: 99 },
+        Action::SetUnloading {
+            pump: 0,
+            pressure: bar_(1.0),
+        },
+        Action::SetUnloading {
+            pump: 9,
+            pressure: bar_(1.0),
+        },
+        Action::RemoveRemote { stage: 9 },
+    ] {
+        assert_eq!(&settings::apply(d, &bad), d, "{bad:?}");
+    }
+    assert!(settings::advise(&demo, 7).is_empty());
+}
+
+#[test]
+fn the_margins_are_the_users() {
+    let mut job = metered(160.0, ReliefKind::PilotOperated);
+    job.advice.margin_fraction = 0.25;
+    let needs = settings::phase_needs(&job, &job.designs[0]);
+    // 34.465 x 1.25 = 43.08 bar, more than 34.465 + 7.
+    assert_close(
+        needs[0].lowest_pa.unwrap() / BAR,
+        34.464790 * 1.25,
+        1e-6,
+        "lowest with 25 %",
+    );
+    job.advice.margin_fraction = 1.5;
+    assert!(
+        solve(&job).is_err(),
+        "a margin over 100 % is refused by validation"
+    );
+}
