@@ -487,3 +487,25 @@ fn the_margins_are_the_users() {
         "a margin over 100 % is refused by validation"
     );
 }
+
+#[test]
+fn a_limit_inside_the_margin_but_above_cracking_is_a_note_and_below_cracking_a_caution() {
+    // Pilot-operated, need 34.465 bar, lowest 41.465. At 40 bar it cracks at 38.8: shut while
+    // working, thin margin. At 35 bar it cracks at 33.95, below the need: it leaks.
+    let at = |limit: f64| settings::advise(&metered(limit, ReliefKind::PilotOperated), 0);
+    let thin = at(40.0);
+    let a = find(&thin, |r| matches!(r, Rule::MarginThin { phase: 0, .. })).expect("thin");
+    assert_eq!(a.severity, Severity::Note);
+    assert!(find(&thin, |r| matches!(r, Rule::LimitBelowNeed { .. })).is_none());
+    let leaking = at(35.0);
+    let a = find(&leaking, |r| {
+        matches!(r, Rule::LimitBelowNeed { phase: 0, .. })
+    })
+    .expect("leaks");
+    assert_eq!(a.severity, Severity::Caution);
+    assert!(find(&at(42.0), |r| matches!(
+        r,
+        Rule::MarginThin { .. } | Rule::LimitBelowNeed { .. }
+    ))
+    .is_none());
+}

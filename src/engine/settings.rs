@@ -106,9 +106,17 @@ pub enum Rule {
         limit_pa: f64,
         lowest_pa: f64,
     },
-    /// The phase's limit (or the valve's cracking pressure) is too close to, or below, what
-    /// it needs: flow leaks over the relief while working, or the work stalls.
+    /// The valve's cracking pressure at the phase's limit is below what it needs: flow leaks
+    /// over the relief while working, or the work stalls.
     LimitBelowNeed {
+        phase: usize,
+        need_pa: f64,
+        limit_pa: f64,
+        lowest_pa: f64,
+    },
+    /// The limit is above the need and the valve stays shut while working, but with less
+    /// margin than the rule asks.
+    MarginThin {
         phase: usize,
         need_pa: f64,
         limit_pa: f64,
@@ -403,17 +411,29 @@ pub fn advise(job: &Job, index: usize) -> Vec<Advice> {
                         phase: i,
                         pressure: pascals(target),
                     });
-                    push(
-                        Severity::Caution,
-                        Rule::LimitBelowNeed {
-                            phase: i,
-                            need_pa: n,
-                            limit_pa: limit,
-                            lowest_pa: lowest,
-                        },
-                        action,
-                        Some(i),
-                    );
+                    let (need_pa, limit_pa, lowest_pa) = (n, limit, lowest);
+                    let (severity, rule) = if limit * design.relief.cracking_fraction < n {
+                        (
+                            Severity::Caution,
+                            Rule::LimitBelowNeed {
+                                phase: i,
+                                need_pa,
+                                limit_pa,
+                                lowest_pa,
+                            },
+                        )
+                    } else {
+                        (
+                            Severity::Note,
+                            Rule::MarginThin {
+                                phase: i,
+                                need_pa,
+                                limit_pa,
+                                lowest_pa,
+                            },
+                        )
+                    };
+                    push(severity, rule, action, Some(i));
                 } else if target < limit * (1.0 - 1e-9) && vent_port {
                     let action = Action::LimitPhase {
                         phase: i,
@@ -640,6 +660,142 @@ fn unloading_advice(
                 action,
                 None,
             );
+        }
+    }
+}
+
+/// A piece of advice in words: a heading, the rule and the numbers behind it, and what its
+/// action does.
+#[derive(Clone, Debug, PartialEq, Eq)]
+pub struct Described {
+    pub title: String,
+    pub explanation: String,
+    pub action: Option<String>,
+}
+
+impl Advice {
+    /// The advice in plain words, with the job's phase names and units.
+    pub fn describe(&self, job: &Job) -> Described {
+        let u = job.units;
+        let p = |pa: f64| u.pressure(pa);
+        let phase = |i: usize| {
+            job.cycle.get(i).map_or(format!("Phase {}", i + 1), |ph| {
+                format!("Phase {} ({})", i + 1, ph.name)
+            })
+        };
+        let phase_in = |i: usize| {
+            job.cycle.get(i).map_or(format!("phase {}", i + 1), |ph| {
+                format!("phase {} ({})", i + 1, ph.name)
+            })
+        };
+        let margin = format!(
+            "{:.0} % or {}, whichever is more",
+            job.advice.margin_fraction * 100.0,
+            p(job.advice.margin_min.value)
+        );
+        let (title, explanation) = match self.rule {
+            Rule::LimitAboveNeed { phase: i, need_pa, limit_pa, lowest_pa } => (
+                format!("{}: a lower limit would do", phase(i)),
+                format!(
+                    "It needs {} but works against {}; the surplus flow crosses the relief (or the flow control) at that pressure as heat. The lowest limit that serves it is {} (the margin of {margin} above the need, and the valve's cracking pressure above it).",
+                    p(need_pa), p(limit_pa), p(lowest_pa)
+                ),
+            ),
+            Rule::LimitBelowNeed { phase: i, need_pa, limit_pa, lowest_pa } => (
+                format!("{}: the limit is too close to the work", phase(i)),
+                format!(
+                    "It needs {} and its limit is {}: the relief starts to open before the work is done, so flow leaks over it, or the load stalls. It needs at least {} ({margin} above the need, cracking above it).",
+                    p(need_pa), p(limit_pa), p(lowest_pa)
+                ),
+            ),
+            Rule::MarginThin { phase: i, need_pa, limit_pa, lowest_pa } => (
+                format!("{}: less margin than the rule asks", phase(i)),
+                format!(
+                    "It needs {} and its limit is {}: the valve stays shut while working, but with less than the margin of {margin}, so a pressure peak or a drifting pilot reaches the relief. The rule asks for at least {}.",
+                    p(need_pa), p(limit_pa), p(lowest_pa)
+                ),
+            ),
+            Rule::NeedsNoPressure { phase: i, limit_pa } => (
+                format!("{}: needs no pressure, vent it", phase(i)),
+                format!(
+                    "No work is done, yet the pump's flow crosses a limit of {}. Venting the relief sends it to tank at the vent pressure ({}).",
+                    p(limit_pa),
+                    p(job.designs.first().map_or(0.0, |d| d.vent_pressure.value))
+                ),
+            ),
+            Rule::NoVentPort { phase: i } => (
+                format!("{}: needs no pressure", phase(i)),
+                "The flow crosses the relief at pressure, but a direct-acting relief has no vent port: an open-centre valve, a vent-capable pilot-operated relief, or stopping the motor would save it.".to_string(),
+            ),
+            Rule::BeyondRating { phase: i, lowest_pa, rating_pa } => (
+                format!("{}: beyond the pump's rating", phase(i)),
+                format!(
+                    "With the margin it needs a limit of {}, above the {} rating of the pump on the system line. No setting serves it safely: the load, the bore or the components must change.",
+                    p(lowest_pa), p(rating_pa)
+                ),
+            ),
+            Rule::MainAboveNeed { main_pa, lowest_pa } => (
+                "Main relief: higher than the cycle needs".to_string(),
+                format!(
+                    "Set at {}; the most demanding phase needs a limit of {} ({margin} above its pressure). Every phase on the main setting works against the excess.",
+                    p(main_pa), p(lowest_pa)
+                ),
+            ),
+            Rule::MainBelowNeed { main_pa, lowest_pa } => (
+                "Main relief: lower than the cycle needs".to_string(),
+                format!(
+                    "Set at {}; the most demanding phase needs a limit of {}: it leaks over the relief or stalls.",
+                    p(main_pa), p(lowest_pa)
+                ),
+            ),
+            Rule::UnloadingOutside { pump, setting_pa, window: (low, high) } => (
+                format!("Pump {pump}: unloading setting outside its window"),
+                format!(
+                    "Set at {}. The phases that need its flow need up to {} with the margin, and the phases that should run without it start from {} less the margin: a setting from {} to {} serves both.",
+                    p(setting_pa),
+                    p(low),
+                    if high.is_finite() { p(high) } else { "nothing".into() },
+                    p(low),
+                    if high.is_finite() { p(high) } else { "the relief".into() }
+                ),
+            ),
+            Rule::UnloadingImpossible { pump, with_phase, with_pa, without_phase, without_pa } => (
+                format!("Pump {pump}: no unloading setting serves both"),
+                format!(
+                    "{} needs its flow up to {}, and {} should run without it from {}: with the margin of {margin} the two overlap. Change the pumps or the phases (a slower move, or a remote stage and a check-held hold).",
+                    phase(with_phase), p(with_pa), phase(without_phase), p(without_pa)
+                ),
+            ),
+            Rule::RemoteRedundant { stage, remote_pa, main_pa } => (
+                format!("Remote stage {}: never governs", stage + 1),
+                format!("Set at {}, not below the main {}: the lower setting always governs.", p(remote_pa), p(main_pa)),
+            ),
+            Rule::RemoteUnused { stage, remote_pa } => (
+                format!("Remote stage {}: no phase uses it", stage + 1),
+                format!("Set at {}, but no phase selects it.", p(remote_pa)),
+            ),
+        };
+        let action = self.action.map(|a| match a {
+            Action::LimitPhase { phase: i, pressure } => {
+                format!(
+                    "Govern {} by a remote stage at {}",
+                    phase_in(i),
+                    p(pressure.value)
+                )
+            }
+            Action::VentPhase { phase: i } => {
+                format!("Vent the relief in {}", phase_in(i))
+            }
+            Action::SetMain { pressure } => format!("Set the main relief to {}", p(pressure.value)),
+            Action::SetUnloading { pump, pressure } => {
+                format!("Set pump {pump}'s unloading valve to {}", p(pressure.value))
+            }
+            Action::RemoveRemote { stage } => format!("Remove remote stage {}", stage + 1),
+        });
+        Described {
+            title,
+            explanation,
+            action,
         }
     }
 }

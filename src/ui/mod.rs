@@ -11,6 +11,7 @@ pub mod jobs;
 mod offline;
 mod results;
 mod safety;
+mod settings_area;
 mod share;
 pub mod state;
 mod unit_editor;
@@ -102,6 +103,7 @@ fn page(area: Area) -> AnyView {
         Area::PowerUnit => view! { <unit_editor::UnitArea /> }.into_any(),
         Area::Results => view! { <results::ResultsArea /> }.into_any(),
         Area::Jobs => view! { <jobs::JobsArea /> }.into_any(),
+        Area::Settings => view! { <settings_area::SettingsArea /> }.into_any(),
         other => view! { <AreaIntro area=other /> }.into_any(),
     }
 }

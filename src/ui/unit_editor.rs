@@ -268,7 +268,7 @@ fn DesignEditor(d: usize) -> impl IntoView {
 
 /// The caution shown beside every group of pressure settings.
 #[component]
-fn SettingsCaution() -> impl IntoView {
+pub(super) fn SettingsCaution() -> impl IntoView {
     view! {
         <p class="inline-caution">
             <CautionIcon />

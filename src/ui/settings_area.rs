@@ -1,0 +1,168 @@
+//! The pressure-settings area: for the design shown, what each phase needs against its limit,
+//! and the engine's advice (`engine::settings`), each with one action that changes a proposed
+//! design, never the baseline. The margins the advice uses are edited here too.
+
+use super::field::NumberField;
+use super::state::use_job;
+use super::unit_editor::{DesignTabs, SettingsCaution};
+use crate::engine::settings::{self, Severity};
+use crate::engine::units::Measure;
+use crate::engine::Job;
+use leptos::prelude::*;
+
+#[component]
+pub fn SettingsArea() -> impl IntoView {
+    let state = use_job();
+    let applied = RwSignal::new(None::<String>);
+    // Advice for a job the engine accepts; none while it has errors (the results area says
+    // what to fix).
+    let advice = Memo::new(move |_| {
+        let d = state.design_index();
+        state.result.with(|r| r.is_ok()).then(|| {
+            state.job.with(|job| {
+                (
+                    settings::phase_needs(job, &job.designs[d]),
+                    settings::advise(job, d),
+                )
+            })
+        })
+    });
+    let apply = move |action: settings::Action| {
+        let shown = state.design_index();
+        let (job, target) = state
+            .job
+            .with_untracked(|j| settings::apply_to_proposed(j, shown, &action));
+        let name = job.designs[target].name.clone();
+        state.job.set(job);
+        state.design.set(target);
+        applied.set(Some(format!(
+            "Applied to “{name}”, now shown. The baseline is unchanged."
+        )));
+    };
+    view! {
+        <section class="area settings" aria-labelledby="area-title">
+            <div class="area-head">
+                <h1 id="area-title">"Pressure settings"</h1>
+            </div>
+            <p class="purpose">"What each phase needs, the limit it works against, and the settings that would serve it with the least heat."</p>
+            <SettingsCaution />
+            <DesignTabs />
+            {move || applied.get().map(|t| view! { <p class="save-note" role="status" data-applied="true">{t}</p> })}
+            {move || match advice.get() {
+                None => view! { <p class="empty-note">"Advice appears once every figure of the job is valid."</p> }.into_any(),
+                Some((needs, list)) => {
+                    let job = state.job.get_untracked();
+                    view! {
+                        <PhaseNeeds job=job.clone() needs=needs />
+                        <h2>"Advice"</h2>
+                        {if list.is_empty() {
+                            view! { <p class="empty-note" data-advice-count="0">"Nothing to change: every setting of this design is within the rules below."</p> }.into_any()
+                        } else {
+                            let count = list.len();
+                            view! {
+                                <ol class="advice-list" data-advice-count=count>
+                                    {list.into_iter().map(|a| view! { <AdviceCard advice=a job=job.clone() apply=apply /> }).collect_view()}
+                                </ol>
+                            }.into_any()
+                        }}
+                    }.into_any()
+                }
+            }}
+            <Margins />
+        </section>
+    }
+}
+
+/// Each phase: what it needs, its limit now, the lowest limit that serves it.
+#[component]
+fn PhaseNeeds(job: Job, needs: Vec<settings::PhaseNeed>) -> impl IntoView {
+    let u = job.units;
+    let p = move |pa: Option<f64>| {
+        pa.map_or("none".to_string(), |pa| Measure::Pressure.with_unit(u, pa))
+    };
+    view! {
+        <h2>"Phase by phase"</h2>
+        <div class="table-wrap">
+            <table class="needs">
+                <thead><tr><th scope="col">"Phase"</th><th scope="col">"Needs"</th><th scope="col">"Limit now"</th><th scope="col">"Lowest that serves"</th></tr></thead>
+                <tbody>
+                    {needs.iter().zip(&job.cycle).map(|(n, phase)| view! {
+                        <tr>
+                            <th scope="row">{phase.name.clone()}</th>
+                            <td>{p(n.need_pa)}</td>
+                            <td>{p(Some(n.limit_pa))}</td>
+                            <td>{p(n.lowest_pa)}</td>
+                        </tr>
+                    }).collect_view()}
+                </tbody>
+            </table>
+        </div>
+    }
+}
+
+#[component]
+fn AdviceCard(
+    advice: settings::Advice,
+    job: Job,
+    apply: impl Fn(settings::Action) + Copy + Send + Sync + 'static,
+) -> impl IntoView {
+    let text = advice.describe(&job);
+    let u = job.units;
+    let (class, label) = match advice.severity {
+        Severity::Caution => ("advice caution", "Caution"),
+        Severity::Saving => ("advice saving", "Saving"),
+        Severity::Note => ("advice note", "Note"),
+    };
+    // Solved, not estimated: the engine ran the design again with the change.
+    let saving = (advice.action.is_some()
+        && (advice.saving_w.abs() > 0.5 || advice.annual_saving_kwh.abs() > 0.5))
+        .then(|| {
+            let costs = advice.annual_saving_kwh < 0.0;
+            let mut parts = Vec::new();
+            if advice.saving_w.abs() > 0.5 {
+                parts.push(format!(
+                    "{} in the phase",
+                    Measure::Power.with_unit(u, advice.saving_w.abs())
+                ));
+            }
+            parts.push(format!("{:.0} kWh a year", advice.annual_saving_kwh.abs()));
+            if costs {
+                format!("Costs {} more: the price of the margin.", parts.join(", "))
+            } else {
+                format!("Saves {}.", parts.join(", "))
+            }
+        });
+    let action = advice.action;
+    view! {
+        <li class=class>
+            <p class="advice-kind">{label}</p>
+            <h3>{text.title}</h3>
+            <p>{text.explanation}</p>
+            {saving.map(|s| view! { <p class="advice-saving">{s}</p> })}
+            {action.zip(text.action).map(|(a, what)| view! {
+                <button type="button" class="button" data-action="apply-advice" on:click=move |_| apply(a)>
+                    {format!("{what}, in the proposed design")}
+                </button>
+            })}
+        </li>
+    }
+}
+
+/// The margins and thresholds the advice uses.
+#[component]
+fn Margins() -> impl IntoView {
+    view! {
+        <details class="card margins">
+            <summary>"Margins the advice uses"</summary>
+            <p class="hint">"Defaults are common practice, not a standard: use the component makers' figures and your site's rules where they differ."</p>
+            <NumberField label="Margin above the need, share" path="advice.margin_fraction" measure=Measure::Percent
+                get=|j: &Job| j.advice.margin_fraction set=|j: &mut Job, v| j.advice.margin_fraction = v />
+            <NumberField label="Margin above the need, at least" path="advice.margin_min_pa" measure=Measure::Pressure
+                get=|j: &Job| j.advice.margin_min.value set=|j: &mut Job, v| j.advice.margin_min.value = v />
+            <NumberField label="Drop a flow control needs" path="advice.flow_control_drop_pa" measure=Measure::Pressure
+                get=|j: &Job| j.advice.flow_control_drop.value set=|j: &mut Job, v| j.advice.flow_control_drop.value = v />
+            <NumberField label="Smallest saving worth advising" path="advice.least_saving_w" measure=Measure::Power
+                get=|j: &Job| j.advice.least_saving_w set=|j: &mut Job, v| j.advice.least_saving_w = v />
+        </details>
+    }
+}

@@ -1,0 +1,81 @@
+//! The pressure-settings area, in headless Chromium: the advice for the demo job is the
+//! engine's own (run natively on the same job), and applying one changes the proposed design,
+//! never the baseline.
+
+use phasewise::engine::demo::scrap_baler;
+use phasewise::engine::settings;
+use phasewise_harness::browser::{AppSession, Viewport};
+use serde_json::Value;
+
+const STORED_JOB: &str = "const k = Object.keys(localStorage).find(k => k.startsWith('phasewise.job.')); return k ? JSON.parse(localStorage.getItem(k)).job : null;";
+
+#[tokio::test]
+async fn the_demo_advice_shows_and_one_applies_to_the_proposed_design() {
+    let app = AppSession::start_at("settings_advice", Viewport::PHONE, "#/settings").await;
+    let b = &app.browser;
+    let job = scrap_baler();
+    let expected: Vec<String> = settings::advise(&job, 0)
+        .iter()
+        .map(|a| a.describe(&job).title)
+        .collect();
+    assert!(!expected.is_empty());
+    b.wait_for(".advice-list").await;
+    let shown = b
+        .eval("return [...document.querySelectorAll('.advice-list h3')].map(h => h.textContent);")
+        .await;
+    assert_eq!(
+        shown,
+        serde_json::to_value(&expected).unwrap(),
+        "the engine's advice, in order"
+    );
+    assert_eq!(
+        b.sideways_overflow().await,
+        0,
+        "the phase table scrolls in its own frame"
+    );
+    // The cautions are beside the settings.
+    assert!(b.text(".inline-caution").await.contains("locked out"));
+    b.screenshot("advice").await;
+    b.screenshot_of("table.needs", "phase-table").await;
+
+    // Apply the advice about the dwell (a remote stage at the lowest limit that serves it).
+    let index = expected
+        .iter()
+        .position(|t| t.contains("Dwell"))
+        .expect("dwell advice");
+    b.click(&format!(
+        ".advice-list > li:nth-child({}) [data-action='apply-advice']",
+        index + 1
+    ))
+    .await;
+    b.wait_for_text("[data-applied]", |t| t.contains("Applied to “Proposed”"))
+        .await;
+    // Applying changed the job, so it is saved: read the stored copy.
+    let mut stored = Value::Null;
+    for _ in 0..100 {
+        stored = b.eval(STORED_JOB).await;
+        if !stored.is_null() {
+            break;
+        }
+        tokio::time::sleep(std::time::Duration::from_millis(50)).await;
+    }
+    let before = serde_json::to_value(&job.designs[0]).unwrap();
+    let as_found: phasewise::engine::power_unit::Design =
+        serde_json::from_value(stored["designs"][0].clone()).unwrap();
+    assert_eq!(
+        as_found,
+        serde_json::from_value(before).unwrap(),
+        "the baseline is unchanged"
+    );
+    let proposed: phasewise::engine::power_unit::Design =
+        serde_json::from_value(stored["designs"][1].clone()).unwrap();
+    let (want, _) =
+        settings::apply_to_proposed(&job, 0, &settings::advise(&job, 0)[index].action.unwrap());
+    assert_eq!(proposed, want.designs[1]);
+    // The area now shows the proposed design's advice.
+    assert!(b
+        .text(".design-tabs [aria-pressed='true']")
+        .await
+        .contains("Proposed"));
+    app.finish().await;
+}
