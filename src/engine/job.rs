@@ -33,6 +33,9 @@ pub struct Job {
     /// The margins the settings advice uses (absent in older files: the defaults).
     #[serde(default)]
     pub advice: super::settings::AdvicePolicy,
+    /// What the pump-staging search may choose from (absent in older files: the defaults).
+    #[serde(default)]
+    pub staging: super::staging::StagingOptions,
 }
 
 /// Where the machine is and what running it costs.

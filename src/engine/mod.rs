@@ -13,6 +13,7 @@ pub mod power_unit;
 pub mod pump;
 pub mod settings;
 pub mod solve;
+pub mod staging;
 pub mod units;
 pub mod validate;
 pub mod valve;

@@ -259,6 +259,12 @@ pub fn phase_needs(job: &Job, design: &Design) -> Vec<PhaseNeed> {
         .collect()
 }
 
+/// The lowest limit that serves the cycle's most demanding phase (Pa): what the main relief
+/// must give. `None` when no phase needs pressure.
+pub fn cycle_lowest_limit(needs: &[PhaseNeed]) -> Option<f64> {
+    needs.iter().filter_map(|n| n.lowest_pa).reduce(f64::max)
+}
+
 /// The lowest pressure rating on the system line: the base pump sees system pressure.
 fn system_rating(design: &Design) -> f64 {
     design.base_pump.rated_pressure.value
@@ -489,7 +495,7 @@ pub fn advise(job: &Job, index: usize) -> Vec<Advice> {
     }
 
     // The main relief serves the most demanding phase (remote stages only go lower).
-    if let Some(highest) = needs.iter().filter_map(|n| n.lowest_pa).reduce(f64::max) {
+    if let Some(highest) = cycle_lowest_limit(&needs) {
         if highest <= rating {
             let target = round_up_setting(highest, us).min(rating);
             if main < highest * (1.0 - 1e-9) {
@@ -569,11 +575,95 @@ pub fn advise(job: &Job, index: usize) -> Vec<Advice> {
     advice
 }
 
-/// Each unloading valve's window: above the highest need of the phases that need its pump's
-/// flow (plus the margin), below the lowest need of the phases that should run without it
-/// (less the margin). A move at all pump flow needs pump `k`'s flow when the motor can carry
-/// it with pumps `k` onward feeding (stages unload in shaft order, pump 1 first); any other
-/// phase that needs pressure should run without it unless its metered flow needs it.
+/// Where pump `k`'s unloading valve may be set (numbered from 0 among the unloading stages):
+/// above the highest need of the phases that need its flow (plus the margin), below the lowest
+/// need of the phases that should run without it (less the margin). A move at all pump flow
+/// needs pump `k`'s flow when the motor can carry it with pumps `k` onward feeding (stages
+/// unload in shaft order, pump 1 first); a metered move or a direct demand needs it when the
+/// pumps after it cannot give the flow; holds never do.
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub enum UnloadingWindow {
+    /// Any setting from `low` to `high` (Pa; `high` infinite when no phase should run
+    /// without the pump).
+    Open { low: f64, high: f64 },
+    /// The two phases that no setting can both serve, and their needs.
+    Impossible {
+        with_phase: usize,
+        with_pa: f64,
+        without_phase: usize,
+        without_pa: f64,
+    },
+}
+
+pub fn unloading_window(
+    job: &Job,
+    design: &Design,
+    needs: &[PhaseNeed],
+    k: usize,
+) -> UnloadingWindow {
+    let policy = &job.advice;
+    let rps = design.motor.revolutions_per_second();
+    let pumps: Vec<PumpAtSpeed> = design.pumps().map(|p| PumpAtSpeed::new(p, rps)).collect();
+    let motor_limit = design.motor.rated_power.value * design.motor.service_factor;
+    let later_flow = |p: f64| pumps[k + 1..].iter().map(|q| q.delivered(p)).sum::<f64>();
+    let mut with: Option<(usize, f64)> = None;
+    let mut without: Option<(usize, f64)> = None;
+    for (i, phase) in job.cycle.iter().enumerate() {
+        let Some(need) = needs.get(i).and_then(|n| n.need_pa) else {
+            continue;
+        };
+        let needs_flow = match &phase.kind {
+            PhaseKind::Move(m) => match m.speed {
+                SpeedRule::AllPumpFlow => {
+                    let shaft: f64 = pumps[k..]
+                        .iter()
+                        .map(|q| q.shaft_power(need, q.delivered(need)))
+                        .sum();
+                    shaft <= motor_limit
+                }
+                SpeedRule::MeteredSpeed { speed } => {
+                    speed.value * m.cylinder.working_area_m2(m.direction) > later_flow(need)
+                }
+                SpeedRule::MeteredFlow { flow } => flow.value > later_flow(need),
+            },
+            PhaseKind::Direct(d) => d.flow.value > later_flow(need),
+            PhaseKind::Hold(_) | PhaseKind::Idle(_) => false,
+        };
+        let slot = if needs_flow { &mut with } else { &mut without };
+        let better = |old: f64| if needs_flow { need > old } else { need < old };
+        if slot.is_none_or(|(_, old)| better(old)) {
+            *slot = Some((i, need));
+        }
+    }
+    let margin = |p: f64| (p * policy.margin_fraction).max(policy.margin_min.value);
+    let low = with.map_or(0.0, |(_, p)| p + margin(p));
+    let high = without.map_or(f64::INFINITY, |(_, p)| p - margin(p));
+    if low > high {
+        let ((with_phase, with_pa), (without_phase, without_pa)) =
+            (with.unwrap_or_default(), without.unwrap_or_default());
+        UnloadingWindow::Impossible {
+            with_phase,
+            with_pa,
+            without_phase,
+            without_pa,
+        }
+    } else {
+        UnloadingWindow::Open { low, high }
+    }
+}
+
+/// The setting the advice proposes inside an open window: its low end (the pump unloads as
+/// early as the phases allow), rounded up to a gauge step when that stays inside, and never
+/// below the vent pressure.
+pub fn proposed_unloading(low: f64, high: f64, design: &Design, us: bool) -> f64 {
+    let target = round_up_setting(low.max(design.vent_pressure.value), us);
+    if target > high {
+        low
+    } else {
+        target
+    }
+}
+
 fn unloading_advice(
     job: &Job,
     design: &Design,
@@ -581,85 +671,54 @@ fn unloading_advice(
     us: bool,
     push: &mut impl FnMut(Severity, Rule, Option<Action>, Option<usize>),
 ) {
-    let policy = &job.advice;
-    let rps = design.motor.revolutions_per_second();
-    let pumps: Vec<PumpAtSpeed> = design.pumps().map(|p| PumpAtSpeed::new(p, rps)).collect();
-    let motor_limit = design.motor.rated_power.value * design.motor.service_factor;
     for (k, stage) in design.unloading_stages.iter().enumerate() {
-        let later_flow = |p: f64| pumps[k + 1..].iter().map(|q| q.delivered(p)).sum::<f64>();
-        let mut with: Option<(usize, f64)> = None;
-        let mut without: Option<(usize, f64)> = None;
-        for (i, phase) in job.cycle.iter().enumerate() {
-            let Some(need) = needs[i].need_pa else {
-                continue;
-            };
-            let needs_flow = match &phase.kind {
-                PhaseKind::Move(m) => match m.speed {
-                    SpeedRule::AllPumpFlow => {
-                        let shaft: f64 = pumps[k..]
-                            .iter()
-                            .map(|q| q.shaft_power(need, q.delivered(need)))
-                            .sum();
-                        shaft <= motor_limit
-                    }
-                    SpeedRule::MeteredSpeed { speed } => {
-                        speed.value * m.cylinder.working_area_m2(m.direction) > later_flow(need)
-                    }
-                    SpeedRule::MeteredFlow { flow } => flow.value > later_flow(need),
-                },
-                PhaseKind::Direct(d) => d.flow.value > later_flow(need),
-                PhaseKind::Hold(_) | PhaseKind::Idle(_) => false,
-            };
-            let slot = if needs_flow { &mut with } else { &mut without };
-            let better = |old: f64| if needs_flow { need > old } else { need < old };
-            if slot.is_none_or(|(_, old)| better(old)) {
-                *slot = Some((i, need));
-            }
-        }
-        let margin = |p: f64| (p * policy.margin_fraction).max(policy.margin_min.value);
-        let low = with.map_or(0.0, |(_, p)| p + margin(p));
-        let high = without.map_or(f64::INFINITY, |(_, p)| p - margin(p));
         let setting = stage.unloading.setting.value;
         let pump = k + 1;
-        if low > high {
-            let ((wi, wp), (oi, op)) = (with.unwrap_or_default(), without.unwrap_or_default());
-            push(
+        match unloading_window(job, design, needs, k) {
+            UnloadingWindow::Impossible {
+                with_phase,
+                with_pa,
+                without_phase,
+                without_pa,
+            } => push(
                 Severity::Caution,
                 Rule::UnloadingImpossible {
                     pump,
-                    with_phase: wi,
-                    with_pa: wp,
-                    without_phase: oi,
-                    without_pa: op,
+                    with_phase,
+                    with_pa,
+                    without_phase,
+                    without_pa,
                 },
                 None,
                 None,
-            );
-        } else if setting < low || setting > high {
-            let target = round_up_setting(low.max(design.vent_pressure.value), us);
-            let target = if target > high { low } else { target };
-            let action = (target + stage.check.cracking.value <= stage.pump.rated_pressure.value)
-                .then_some(Action::SetUnloading {
-                    pump,
-                    pressure: pascals(target),
-                });
-            // Too low, the pump unloads where its flow is needed (a slow move); too high, it
-            // keeps feeding at pressure (power and heat).
-            let severity = if setting < low {
-                Severity::Caution
-            } else {
-                Severity::Saving
-            };
-            push(
-                severity,
-                Rule::UnloadingOutside {
-                    pump,
-                    setting_pa: setting,
-                    window: (low, high),
-                },
-                action,
-                None,
-            );
+            ),
+            UnloadingWindow::Open { low, high } if setting < low || setting > high => {
+                let target = proposed_unloading(low, high, design, us);
+                let action = (target + stage.check.cracking.value
+                    <= stage.pump.rated_pressure.value)
+                    .then_some(Action::SetUnloading {
+                        pump,
+                        pressure: pascals(target),
+                    });
+                // Too low, the pump unloads where its flow is needed (a slow move); too high,
+                // it keeps feeding at pressure (power and heat).
+                let severity = if setting < low {
+                    Severity::Caution
+                } else {
+                    Severity::Saving
+                };
+                push(
+                    severity,
+                    Rule::UnloadingOutside {
+                        pump,
+                        setting_pa: setting,
+                        window: (low, high),
+                    },
+                    action,
+                    None,
+                );
+            }
+            UnloadingWindow::Open { .. } => {}
         }
     }
 }

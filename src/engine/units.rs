@@ -192,6 +192,45 @@ pub fn parse_number(text: &str) -> Option<f64> {
 }
 
 /// Seconds, shown to a tenth: durations in a machine cycle.
+/// A list of numbers typed in a measure's shown unit ("8, 16; 25" or "8 16 25"; a decimal
+/// comma is read when the items are separated by semicolons or spaces), as SI values; or what
+/// is wrong with it.
+pub fn parse_list(text: &str, measure: Measure, system: UnitSystem) -> Result<Vec<f64>, String> {
+    let items: Vec<&str> = if text.contains(';') {
+        text.split(';').collect()
+    } else if text.contains(", ") || !text.contains(' ') {
+        text.split(',').collect()
+    } else {
+        text.split_whitespace().collect()
+    };
+    let mut values = Vec::new();
+    for item in items.iter().map(|i| i.trim()).filter(|i| !i.is_empty()) {
+        match parse_number(item) {
+            Some(v) if v > 0.0 => values.push(measure.from_shown(system, v)),
+            Some(_) => return Err(format!("{item} is not more than zero")),
+            None => return Err(format!("“{item}” is not a number")),
+        }
+    }
+    if values.is_empty() {
+        return Err("type at least one value".into());
+    }
+    Ok(values)
+}
+
+/// SI values as a list in a measure's shown unit, for [`parse_list`] to read back.
+pub fn format_list(values: &[f64], measure: Measure, system: UnitSystem) -> String {
+    values
+        .iter()
+        .map(|v| {
+            let shown = measure.shown(system, *v);
+            // Enough digits that the list reads back to the same sizes.
+            let text = format!("{shown:.3}");
+            text.trim_end_matches('0').trim_end_matches('.').to_string()
+        })
+        .collect::<Vec<_>>()
+        .join(", ")
+}
+
 pub fn seconds(s: f64) -> String {
     format!("{s:.1} s")
 }
@@ -199,6 +238,29 @@ pub fn seconds(s: f64) -> String {
 #[cfg(test)]
 mod tests {
     use super::*;
+
+    #[test]
+    fn lists_of_sizes_read_in_either_decimal_mark() {
+        let cc = |v: &[f64]| v.iter().map(|x| x * 1e-6).collect::<Vec<_>>();
+        let read = |t| parse_list(t, Measure::Displacement, UnitSystem::Si);
+        for text in ["8, 16, 25", "8,16,25", "8 16 25", "8; 16; 25"] {
+            let got = read(text).unwrap();
+            for (a, b) in got.iter().zip(cc(&[8.0, 16.0, 25.0])) {
+                assert!((a - b).abs() < 1e-18, "{text}");
+            }
+        }
+        let got = read("6,3; 12,5").unwrap();
+        assert!((got[0] - 6.3e-6).abs() < 1e-18 && (got[1] - 12.5e-6).abs() < 1e-18);
+        assert!(read("8, x").unwrap_err().contains("“x”"));
+        assert!(read("8, -1").unwrap_err().contains("not more than zero"));
+        assert!(read(" ").is_err());
+        let back = format_list(
+            &cc(&[2.5, 6.3, 160.0]),
+            Measure::Displacement,
+            UnitSystem::Si,
+        );
+        assert_eq!(back, "2.5, 6.3, 160");
+    }
 
     fn close(a: f64, b: f64, rel: f64) -> bool {
         (a - b).abs() <= rel * b.abs()

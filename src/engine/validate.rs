@@ -218,6 +218,37 @@ pub fn validate(job: &Job) -> Result<(), Vec<InputError>> {
         true,
     );
     c.power("advice.least_saving_w", a.least_saving_w, true);
+    let st = &job.staging;
+    for (i, v) in st.displacements.iter().enumerate() {
+        c.plain(
+            &format!("staging.displacements_m3_per_rev[{i}]"),
+            v.value,
+            false,
+            1e-2,
+            "m3/rev",
+        );
+    }
+    for (i, v) in st.speeds.iter().enumerate() {
+        c.plain(
+            &format!("staging.speeds_rad_per_s[{i}]"),
+            v.value,
+            false,
+            1e3,
+            "rad/s",
+        );
+    }
+    if !(1..=3).contains(&st.max_pumps) {
+        c.fail("staging.max_pumps", "choose one to three pumps");
+    }
+    c.plain("staging.service_factor", st.service_factor, false, 2.0, "");
+    c.plain("staging.peak_allowance", st.peak_allowance, false, 5.0, "");
+    c.plain("staging.slower_allowed", st.slower_allowed, true, 10.0, "");
+    if st.service_factor.is_finite() && st.service_factor < 1.0 {
+        c.fail("staging.service_factor", "a service factor is 1 or more");
+    }
+    if st.peak_allowance.is_finite() && st.peak_allowance < 1.0 {
+        c.fail("staging.peak_allowance", "the peak allowance is 1 or more");
+    }
     if c.errors.is_empty() {
         Ok(())
     } else {

@@ -13,6 +13,7 @@ mod results;
 mod safety;
 mod settings_area;
 mod share;
+mod staging_panel;
 pub mod state;
 mod unit_editor;
 

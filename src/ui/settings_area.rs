@@ -69,6 +69,7 @@ pub fn SettingsArea() -> impl IntoView {
                 }
             }}
             <Margins />
+            <super::staging_panel::StagingPanel />
         </section>
     }
 }

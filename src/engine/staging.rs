@@ -1,0 +1,512 @@
+//! The pump-staging search: which fixed pumps (one to three, from a list of standard
+//! displacements), at which motor speed, with which unloading settings, or a single
+//! pressure-compensated pump, serve the cycle with the smallest standard motor and then the
+//! least energy, no slower than the user allows.
+//!
+//! Each candidate is a real design, solved over the whole cycle: its pumps take the baseline's
+//! efficiencies (drag scaled with displacement), its unloading settings and main relief come
+//! from the settings rules ([`super::settings`]), idles and check-held holds are vented where
+//! the relief allows. Nothing is estimated from rules of thumb.
+
+use super::cycle::PhaseKind;
+use super::job::Job;
+use super::power_unit::{Design, UnloadingStage};
+use super::pump::{Pump, PumpControl};
+use super::settings::{self, UnloadingWindow};
+use super::solve_design;
+use super::valve::{ActiveLimit, CheckValve, IdlePath, UnloadingValve};
+use super::Finding;
+use serde::{Deserialize, Serialize};
+use uom::si::f64::{AngularVelocity, Power, Pressure, Volume};
+
+/// Standard motor ratings to size on.
+#[derive(Clone, Copy, Debug, PartialEq, Eq, Serialize, Deserialize, Default)]
+#[serde(rename_all = "snake_case")]
+pub enum MotorSteps {
+    /// IEC 60072-1 rated outputs in kW (the series from memory).
+    #[default]
+    IecKw,
+    /// NEMA MG 1 horsepower ratings (the series from memory).
+    NemaHp,
+}
+
+/// IEC rated outputs, kW (IEC 60072-1 series, from memory).
+pub const IEC_KW: [f64; 24] = [
+    0.37, 0.55, 0.75, 1.1, 1.5, 2.2, 3.0, 4.0, 5.5, 7.5, 11.0, 15.0, 18.5, 22.0, 30.0, 37.0, 45.0,
+    55.0, 75.0, 90.0, 110.0, 132.0, 160.0, 200.0,
+];
+/// NEMA ratings, hp (NEMA MG 1 series, from memory).
+pub const NEMA_HP: [f64; 22] = [
+    0.5, 0.75, 1.0, 1.5, 2.0, 3.0, 5.0, 7.5, 10.0, 15.0, 20.0, 25.0, 30.0, 40.0, 50.0, 60.0, 75.0,
+    100.0, 125.0, 150.0, 200.0, 250.0,
+];
+
+impl MotorSteps {
+    /// The ratings in W, smallest first.
+    pub fn ratings_w(self) -> Vec<f64> {
+        match self {
+            MotorSteps::IecKw => IEC_KW.iter().map(|kw| kw * 1e3).collect(),
+            MotorSteps::NemaHp => NEMA_HP
+                .iter()
+                .map(|hp| hp * super::units::HORSEPOWER)
+                .collect(),
+        }
+    }
+}
+
+/// What the search may choose from, and what it must meet. Stored with the job.
+#[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
+pub struct StagingOptions {
+    /// Pump displacements to choose from. Default: the R10 preferred numbers (ISO 3) from 2.5
+    /// to 160 cm^3/rev, as gear and vane pumps are commonly sized (sizes from memory).
+    #[serde(rename = "displacements_m3_per_rev")]
+    pub displacements: Vec<Volume>,
+    /// Motor full-load speeds to choose from. Default: 4- and 6-pole motors at 50 and 60 Hz,
+    /// 1450, 1750, 960 and 1160 rpm (common full-load speeds, from memory).
+    #[serde(rename = "speeds_rad_per_s")]
+    pub speeds: Vec<AngularVelocity>,
+    /// At most this many fixed pumps on the shaft (1 to 3).
+    pub max_pumps: usize,
+    /// Also try a single pressure-compensated pump of each size.
+    pub compensated: bool,
+    pub motor_steps: MotorSteps,
+    /// The motor's permissible continuous load over its rating: it must cover the RMS power.
+    pub service_factor: f64,
+    /// How far over its rating the motor may be loaded at the cycle's peak (common practice:
+    /// about 1.25 for short peaks; the motor's breakdown torque decides).
+    pub peak_allowance: f64,
+    /// How much slower than as found each move phase and the cycle may be, as a share
+    /// (0: no slower).
+    pub slower_allowed: f64,
+}
+
+impl Default for StagingOptions {
+    fn default() -> Self {
+        const R10: [f64; 18] = [
+            2.5, 4.0, 5.0, 6.3, 8.0, 10.0, 12.5, 16.0, 20.0, 25.0, 32.0, 40.0, 50.0, 63.0, 80.0,
+            100.0, 125.0, 160.0,
+        ];
+        StagingOptions {
+            displacements: R10
+                .iter()
+                .map(|cc| Volume::new::<uom::si::volume::cubic_centimeter>(*cc))
+                .collect(),
+            speeds: [1450.0, 1750.0, 960.0, 1160.0]
+                .iter()
+                .map(|rpm| {
+                    AngularVelocity::new::<uom::si::angular_velocity::revolution_per_minute>(*rpm)
+                })
+                .collect(),
+            max_pumps: 3,
+            compensated: true,
+            motor_steps: MotorSteps::IecKw,
+            service_factor: 1.0,
+            peak_allowance: 1.25,
+            slower_allowed: 0.0,
+        }
+    }
+}
+
+/// What to build: pump displacements in shaft order (the unloading stages, largest first, then
+/// the base pump), the speed, and whether the single pump is compensated.
+#[derive(Clone, Debug, PartialEq, Serialize)]
+pub struct Spec {
+    #[serde(rename = "displacements_m3_per_rev")]
+    pub displacements: Vec<f64>,
+    #[serde(rename = "speed_rad_per_s")]
+    pub speed: f64,
+    pub compensated: bool,
+}
+
+/// A candidate that meets every constraint, with what ranks it.
+#[derive(Clone, Debug, PartialEq, Serialize)]
+pub struct Candidate {
+    pub spec: Spec,
+    /// The smallest standard motor that covers the RMS and the peak (W).
+    pub motor_w: f64,
+    pub cycle_time_s: f64,
+    pub energy_per_cycle_j: f64,
+    pub rms_shaft_w: f64,
+    pub peak_shaft_w: f64,
+    /// The design, ready to become the proposed one.
+    pub design: Design,
+}
+
+impl Candidate {
+    /// The ranking: smaller motor first, then less energy, then the shorter cycle.
+    fn key(&self) -> (f64, f64, f64) {
+        (self.motor_w, self.energy_per_cycle_j, self.cycle_time_s)
+    }
+
+    pub fn ranks_before(&self, other: &Candidate) -> bool {
+        let (a, b) = (self.key(), other.key());
+        a.0.total_cmp(&b.0)
+            .then(a.1.total_cmp(&b.1))
+            .then(a.2.total_cmp(&b.2))
+            .is_lt()
+    }
+}
+
+/// What the search found.
+#[derive(Clone, Debug, PartialEq, Serialize)]
+pub struct SearchResult {
+    /// Candidates built and solved.
+    pub evaluated: usize,
+    /// Of those, how many met every constraint.
+    pub feasible: usize,
+    /// The best few, best first.
+    pub best: Vec<Candidate>,
+    /// The trade-off: for each motor size that some candidate fits, the shortest cycle time
+    /// reached with it (W, s), smallest motor first.
+    pub frontier: Vec<(f64, f64)>,
+}
+
+/// How many of the best candidates are kept.
+pub const KEPT: usize = 5;
+
+/// Every spec the options allow, in a fixed order: for each speed, one to `max_pumps` fixed
+/// pumps (sizes with repetition, largest on the unloading stages), then the compensated ones.
+pub fn specs(options: &StagingOptions) -> Vec<Spec> {
+    let mut sizes: Vec<f64> = options
+        .displacements
+        .iter()
+        .map(|v| v.value)
+        .filter(|v| v.is_finite() && *v > 0.0)
+        .collect();
+    sizes.sort_by(|a, b| b.total_cmp(a));
+    sizes.dedup();
+    let mut out = Vec::new();
+    for speed in options.speeds.iter().map(|s| s.value).filter(|s| *s > 0.0) {
+        // Non-increasing sequences of sizes: each multiset once.
+        fn extend(
+            sizes: &[f64],
+            from: usize,
+            left: usize,
+            current: &mut Vec<f64>,
+            speed: f64,
+            out: &mut Vec<Spec>,
+        ) {
+            if !current.is_empty() {
+                out.push(Spec {
+                    displacements: current.clone(),
+                    speed,
+                    compensated: false,
+                });
+            }
+            if left == 0 {
+                return;
+            }
+            for i in from..sizes.len() {
+                current.push(sizes[i]);
+                extend(sizes, i, left - 1, current, speed, out);
+                current.pop();
+            }
+        }
+        extend(
+            &sizes,
+            0,
+            options.max_pumps.clamp(1, 3),
+            &mut Vec::new(),
+            speed,
+            &mut out,
+        );
+        if options.compensated {
+            for &size in &sizes {
+                out.push(Spec {
+                    displacements: vec![size],
+                    speed,
+                    compensated: true,
+                });
+            }
+        }
+    }
+    out
+}
+
+/// A pump like `template`, of another displacement (its drag in proportion).
+fn pump_like(template: &Pump, displacement: f64) -> Pump {
+    let scale = displacement / template.displacement.value;
+    Pump {
+        displacement: Volume::new::<uom::si::volume::cubic_meter>(displacement),
+        drag_power: template.drag_power * scale,
+        control: PumpControl::Fixed,
+        ..*template
+    }
+}
+
+fn pascals(pa: f64) -> Pressure {
+    Pressure::new::<uom::si::pressure::pascal>(pa)
+}
+
+/// The design for `spec`, from the baseline's components; `None` when no unloading setting
+/// or relief setting can serve the cycle within the ratings.
+pub fn build(job: &Job, baseline: &Design, spec: &Spec) -> Option<Design> {
+    let us = job.units == super::units::UnitSystem::UsCustomary;
+    let (&base_size, stage_sizes) = spec.displacements.split_last()?;
+    let stage_template = baseline
+        .unloading_stages
+        .first()
+        .copied()
+        .unwrap_or(UnloadingStage {
+            pump: baseline.base_pump,
+            unloading: UnloadingValve {
+                setting: baseline.relief.setting,
+                unloaded_drop: pascals(3e5),
+            },
+            check: CheckValve {
+                cracking: pascals(0.5e5),
+            },
+        });
+    let mut design = baseline.clone();
+    design.motor.full_load_speed =
+        AngularVelocity::new::<uom::si::angular_velocity::radian_per_second>(spec.speed);
+    design.base_pump = pump_like(&baseline.base_pump, base_size);
+    design.unloading_stages = stage_sizes
+        .iter()
+        .map(|&size| UnloadingStage {
+            pump: pump_like(&stage_template.pump, size),
+            ..stage_template
+        })
+        .collect();
+    let vent_port = design.relief.kind.has_vent_port();
+    for (setting, phase) in design.phase_settings.iter_mut().zip(&job.cycle) {
+        let needs_none = settings::needed_pressure(&phase.kind, &job.advice).is_none();
+        if needs_none && vent_port {
+            if matches!(phase.kind, PhaseKind::Idle(_)) {
+                if setting.idle_path == IdlePath::OverLimit {
+                    setting.idle_path = IdlePath::Vented;
+                }
+            } else {
+                setting.limit = ActiveLimit::Vented;
+            }
+        }
+    }
+    let needs = settings::phase_needs(job, &design);
+    let rating = design.base_pump.rated_pressure.value;
+    let highest = settings::cycle_lowest_limit(&needs).unwrap_or(design.vent_pressure.value);
+    let main = settings::round_up_setting(highest, us);
+    if spec.compensated {
+        // The compensator governs at the highest need with its margin; the relief, now a
+        // safety valve, sits one margin above it.
+        let margin = (main * job.advice.margin_fraction).max(job.advice.margin_min.value);
+        design.base_pump.control = PumpControl::Compensated {
+            setting: pascals(main),
+        };
+        design.relief.setting = pascals(settings::round_up_setting(main + margin, us));
+    } else {
+        design.relief.setting = pascals(main);
+    }
+    if design.relief.setting.value > rating {
+        return None;
+    }
+    for k in 0..design.unloading_stages.len() {
+        match settings::unloading_window(job, &design, &needs, k) {
+            UnloadingWindow::Open { low, high } => {
+                let setting = settings::proposed_unloading(low, high, &design, us);
+                if setting >= design.relief.setting.value {
+                    // The pump would never unload: a smaller set serves the cycle the same.
+                    return None;
+                }
+                design.unloading_stages[k].unloading.setting = pascals(setting);
+            }
+            UnloadingWindow::Impossible { .. } => return None,
+        }
+    }
+    Some(design)
+}
+
+/// The limits a candidate must meet, from the baseline's own results.
+#[derive(Clone, Debug, PartialEq)]
+pub struct Targets {
+    /// The longest each phase may take (s); `None` for phases whose time is set, not driven.
+    pub phase_times: Vec<Option<f64>>,
+    pub cycle_time: f64,
+}
+
+/// The targets from the baseline ("as found") and the allowance.
+pub fn targets(job: &Job, options: &StagingOptions) -> Option<Targets> {
+    let baseline = job.designs.first()?;
+    let report = solve_design(job, baseline);
+    let allow = 1.0 + options.slower_allowed.max(0.0);
+    Some(Targets {
+        phase_times: job
+            .cycle
+            .iter()
+            .zip(&report.phases)
+            .map(|(phase, r)| {
+                matches!(phase.kind, PhaseKind::Move(_)).then(|| r.point.duration.value * allow)
+            })
+            .collect(),
+        cycle_time: report.totals.cycle_time.value * allow,
+    })
+}
+
+/// Builds, solves and sizes one spec; `None` when it misses a constraint.
+pub fn evaluate(
+    job: &Job,
+    options: &StagingOptions,
+    targets: &Targets,
+    spec: &Spec,
+) -> Option<Candidate> {
+    let baseline = job.designs.first()?;
+    let design = build(job, baseline, spec)?;
+    let report = solve_design(job, &design);
+    const SLACK: f64 = 1.0 + 1e-9;
+    for (phase, limit) in report.phases.iter().zip(&targets.phase_times) {
+        let troubled = phase.findings.iter().any(|f| {
+            matches!(
+                f,
+                Finding::Stall { .. }
+                    | Finding::Hunting { .. }
+                    | Finding::HoldBelowRequired { .. }
+                    | Finding::DemandUnmet { .. }
+            )
+        });
+        if troubled || limit.is_some_and(|t| phase.point.duration.value > t * SLACK) {
+            return None;
+        }
+    }
+    let totals = &report.totals;
+    if totals.cycle_time.value > targets.cycle_time * SLACK {
+        return None;
+    }
+    let rms = totals.rms_shaft.value;
+    let peak = totals.peak_shaft.value;
+    let motor_w = options.motor_steps.ratings_w().into_iter().find(|&rated| {
+        rated * options.service_factor >= rms && rated * options.peak_allowance >= peak
+    })?;
+    // The energy with the motor of that size: its loss depends on its rating.
+    let mut motor = design.motor;
+    motor.rated_power = Power::new::<uom::si::power::watt>(motor_w);
+    let energy = report
+        .phases
+        .iter()
+        .map(|p| {
+            let shaft = p.ledger.shaft_power().value;
+            let input = if p.point.motor_running {
+                shaft + motor.loss(shaft)
+            } else {
+                0.0
+            };
+            input * p.point.duration.value
+        })
+        .sum();
+    let mut design = design;
+    design.motor = motor;
+    Some(Candidate {
+        spec: spec.clone(),
+        motor_w,
+        cycle_time_s: totals.cycle_time.value,
+        energy_per_cycle_j: energy,
+        rms_shaft_w: rms,
+        peak_shaft_w: peak,
+        design,
+    })
+}
+
+/// Searches every spec the options allow.
+pub fn search(job: &Job, options: &StagingOptions) -> SearchResult {
+    let mut progress = Search::new(job.clone(), options.clone());
+    progress.run(usize::MAX);
+    progress.result()
+}
+
+/// A search that can run in slices (so a page stays responsive): `run(n)` evaluates up to `n`
+/// more specs.
+pub struct Search {
+    job: Job,
+    options: StagingOptions,
+    targets: Option<Targets>,
+    specs: Vec<Spec>,
+    next: usize,
+    feasible: usize,
+    best: Vec<Candidate>,
+    frontier: Vec<(f64, f64)>,
+}
+
+impl Search {
+    /// A search over every spec `options` allows, for `job` (valid: one `solve` accepts).
+    pub fn new(job: Job, options: StagingOptions) -> Search {
+        Search {
+            targets: targets(&job, &options),
+            specs: specs(&options),
+            job,
+            options,
+            next: 0,
+            feasible: 0,
+            best: Vec::new(),
+            frontier: Vec::new(),
+        }
+    }
+
+    pub fn total(&self) -> usize {
+        self.specs.len()
+    }
+
+    pub fn done(&self) -> usize {
+        self.next
+    }
+
+    pub fn run(&mut self, count: usize) {
+        let Some(targets) = self.targets.clone() else {
+            self.next = self.specs.len();
+            return;
+        };
+        let end = self.next.saturating_add(count).min(self.specs.len());
+        for i in self.next..end {
+            if let Some(c) = evaluate(&self.job, &self.options, &targets, &self.specs[i]) {
+                self.feasible += 1;
+                match self.frontier.iter_mut().find(|(m, _)| *m == c.motor_w) {
+                    Some((_, t)) => *t = t.min(c.cycle_time_s),
+                    None => self.frontier.push((c.motor_w, c.cycle_time_s)),
+                }
+                let at = self
+                    .best
+                    .iter()
+                    .position(|b| c.ranks_before(b))
+                    .unwrap_or(self.best.len());
+                if at < KEPT {
+                    self.best.insert(at, c);
+                    self.best.truncate(KEPT);
+                }
+            }
+        }
+        self.next = end;
+    }
+
+    pub fn result(&self) -> SearchResult {
+        let mut frontier = self.frontier.clone();
+        frontier.sort_by(|a, b| a.0.total_cmp(&b.0));
+        SearchResult {
+            evaluated: self.next,
+            feasible: self.feasible,
+            best: self.best.clone(),
+            frontier,
+        }
+    }
+}
+
+/// `job` with `candidate`'s design as the proposed one (see
+/// [`settings::apply_to_proposed`] for which design that is); the baseline never changes.
+pub fn apply_candidate(job: &Job, shown: usize, candidate: &Candidate) -> (Job, usize) {
+    let mut job = job.clone();
+    let target = if shown > 0 && shown < job.designs.len() {
+        shown
+    } else if job.designs.len() > 1 {
+        1
+    } else {
+        job.designs.push(job.designs[0].clone());
+        1
+    };
+    let name =
+        if target == 1 && job.designs.len() == 2 && job.designs[1].name == job.designs[0].name {
+            "Proposed".to_string()
+        } else {
+            job.designs[target].name.clone()
+        };
+    job.designs[target] = Design {
+        name,
+        ..candidate.design.clone()
+    };
+    (job, target)
+}

@@ -1,0 +1,278 @@
+//! The pump-staging search in the settings area: its options (kept in the job), a run in
+//! slices with a progress bar so the page stays responsive, the best candidates, the trade-off
+//! between motor size and cycle time, and one action that makes a candidate the proposed
+//! design. The search itself is `engine::staging`.
+
+use super::field::NumberField;
+use super::state::use_job;
+use crate::engine::staging::{self, Candidate, MotorSteps, Search, SearchResult};
+use crate::engine::units::{format_list, parse_list, Measure, UnitSystem};
+use crate::engine::Job;
+use leptos::prelude::*;
+use std::cell::RefCell;
+use std::rc::Rc;
+
+/// How many candidates one slice evaluates before the page gets the thread back.
+const SLICE: usize = 200;
+
+#[derive(Clone, Debug, PartialEq)]
+enum Run {
+    Idle,
+    Running { done: usize, total: usize },
+    Finished { result: SearchResult, ms: f64 },
+}
+
+#[component]
+pub fn StagingPanel() -> impl IntoView {
+    let state = use_job();
+    let run = RwSignal::new(Run::Idle);
+    let note = RwSignal::new(None::<String>);
+    let start = move |_: leptos::ev::MouseEvent| {
+        if state.result.with_untracked(|r| r.is_err()) {
+            return;
+        }
+        let job = state.job.get_untracked();
+        let options = job.staging.clone();
+        let search = Rc::new(RefCell::new(Search::new(job, options)));
+        let total = search.borrow().total();
+        run.set(Run::Running { done: 0, total });
+        note.set(None);
+        step(search, run, js_sys::Date::now());
+    };
+    let apply = move |candidate: Candidate| {
+        let shown = state.design_index();
+        let (job, target) = state
+            .job
+            .with_untracked(|j| staging::apply_candidate(j, shown, &candidate));
+        let name = job.designs[target].name.clone();
+        state.job.set(job);
+        state.design.set(target);
+        note.set(Some(format!("“{name}” now has this candidate's pumps, motor and settings. The baseline is unchanged.")));
+    };
+    view! {
+        <section class="card staging" aria-labelledby="staging-title">
+            <h2 id="staging-title">"Try other pumps"</h2>
+            <p class="hint">"Every combination of one to three fixed pumps from the sizes below, at each motor speed, with unloading and relief settings from the rules above, and a single pressure-compensated pump: each solved over the whole cycle. Ranked by the smallest standard motor that carries it, then by energy."</p>
+            <StagingOptionsEditor />
+            <button type="button" class="button primary" data-action="search" on:click=start
+                disabled=move || matches!(run.get(), Run::Running { .. })>
+                "Search"
+            </button>
+            {move || match run.get() {
+                Run::Idle => ().into_any(),
+                Run::Running { done, total } => view! {
+                    <div class="search-progress" role="status">
+                        <progress max=total value=done></progress>
+                        <span>{format!("{done} of {total} candidates")}</span>
+                    </div>
+                }.into_any(),
+                Run::Finished { result, ms } => view! { <Found result=result ms=ms apply=apply /> }.into_any(),
+            }}
+            {move || note.get().map(|t| view! { <p class="save-note" role="status" data-staging-applied="true">{t}</p> })}
+        </section>
+    }
+}
+
+/// Evaluates one slice, shows the progress, and hands the thread back before the next.
+fn step(search: Rc<RefCell<Search>>, run: RwSignal<Run>, started_ms: f64) {
+    let (done, total) = {
+        let mut s = search.borrow_mut();
+        s.run(SLICE);
+        (s.done(), s.total())
+    };
+    if done < total {
+        run.set(Run::Running { done, total });
+        set_timeout(
+            move || step(search, run, started_ms),
+            std::time::Duration::ZERO,
+        );
+    } else {
+        let result = search.borrow().result();
+        run.set(Run::Finished {
+            result,
+            ms: js_sys::Date::now() - started_ms,
+        });
+    }
+}
+
+#[component]
+fn Found(
+    result: SearchResult,
+    ms: f64,
+    apply: impl Fn(Candidate) + Copy + Send + Sync + 'static,
+) -> impl IntoView {
+    let state = use_job();
+    let u = state.job.with_untracked(|j| j.units);
+    let summary = format!(
+        "{} candidates searched, {} serve the cycle, in {:.0} ms.",
+        result.evaluated, result.feasible, ms
+    );
+    let empty = result.best.is_empty();
+    view! {
+        <p class="search-summary" data-search-evaluated=result.evaluated data-search-ms=format!("{ms:.1}")>{summary}</p>
+        {empty.then(|| view! { <p class="empty-note">"No candidate meets the phase times with a standard motor. Allow a slower cycle, or add sizes or speeds."</p> })}
+        <ol class="candidates">
+            {result.best.into_iter().enumerate().map(|(i, c)| {
+                let pumps = c.spec.displacements.iter().map(|d| Measure::Displacement.with_unit(u, *d)).collect::<Vec<_>>().join(" + ");
+                let kind = if c.spec.compensated { " (pressure-compensated)" } else { "" };
+                let speed = Measure::ShaftSpeed.with_unit(u, c.spec.speed);
+                let line = format!(
+                    "{pumps}{kind} at {speed}; motor {}; cycle {}; {} per cycle",
+                    motor_label(c.motor_w, u),
+                    Measure::Duration.with_unit(u, c.cycle_time_s),
+                    Measure::Energy.with_unit(u, c.energy_per_cycle_j),
+                );
+                let candidate = c.clone();
+                view! {
+                    <li class="candidate" data-rank=i + 1>
+                        <p>{line}</p>
+                        <button type="button" class="button" data-action="use-candidate" on:click=move |_| apply(candidate.clone())>
+                            "Make this the proposed design"
+                        </button>
+                    </li>
+                }
+            }).collect_view()}
+        </ol>
+        <TradeOff frontier=result.frontier units=u />
+    }
+}
+
+fn motor_label(w: f64, u: UnitSystem) -> String {
+    match u {
+        UnitSystem::Si => format!("{} kW", trim(w / 1e3)),
+        UnitSystem::UsCustomary => format!("{} hp", trim(w / crate::engine::units::HORSEPOWER)),
+    }
+}
+
+fn trim(v: f64) -> String {
+    let t = format!("{v:.2}");
+    t.trim_end_matches('0').trim_end_matches('.').to_string()
+}
+
+/// The shortest cycle each motor size reaches: a step line, smallest motor on the left.
+#[component]
+fn TradeOff(frontier: Vec<(f64, f64)>, units: UnitSystem) -> impl IntoView {
+    if frontier.len() < 2 {
+        return ().into_any();
+    }
+    let (w, h, pad) = (320.0, 180.0, 36.0);
+    let t_max = frontier.iter().map(|f| f.1).fold(0.0, f64::max) * 1.1;
+    let n = frontier.len() as f64;
+    let x = move |i: usize| pad + (w - 2.0 * pad) * (i as f64 + 0.5) / n;
+    let y = move |t: f64| h - pad - (h - 2.0 * pad) * (t / t_max);
+    view! {
+        <figure class="trade-off">
+            <svg viewBox=format!("0 0 {w} {h}") role="img" aria-label="Shortest cycle time against motor size">
+                <line x1=pad y1=h - pad x2=w - pad y2=h - pad class="axis" />
+                <line x1=pad y1=pad x2=pad y2=h - pad class="axis" />
+                {frontier.iter().enumerate().map(|(i, (m, t))| view! {
+                    <g>
+                        <rect x=x(i) - 8.0 y=y(*t) width=16 height={(h - pad) - y(*t)} class="bar" />
+                        <text x=x(i) y=h - pad + 14.0 class="tick" text-anchor="middle">{motor_label(*m, units)}</text>
+                        <text x=x(i) y=y(*t) - 4.0 class="tick" text-anchor="middle">{format!("{:.1}", t)}</text>
+                    </g>
+                }).collect_view()}
+            </svg>
+            <figcaption>"Shortest cycle (s) each motor size reaches."</figcaption>
+        </figure>
+    }
+    .into_any()
+}
+
+fn sizes(j: &Job) -> Vec<f64> {
+    j.staging.displacements.iter().map(|v| v.value).collect()
+}
+
+fn set_sizes(j: &mut Job, values: Vec<f64>) {
+    j.staging.displacements = values
+        .into_iter()
+        .map(uom::si::f64::Volume::new::<uom::si::volume::cubic_meter>)
+        .collect();
+}
+
+fn speeds(j: &Job) -> Vec<f64> {
+    j.staging.speeds.iter().map(|v| v.value).collect()
+}
+
+fn set_speeds(j: &mut Job, values: Vec<f64>) {
+    j.staging.speeds = values
+        .into_iter()
+        .map(uom::si::f64::AngularVelocity::new::<uom::si::angular_velocity::radian_per_second>)
+        .collect();
+}
+
+/// The search's options, kept in the job.
+#[component]
+fn StagingOptionsEditor() -> impl IntoView {
+    view! {
+        <details class="staging-options">
+            <summary>"What to choose from"</summary>
+            <ListField label="Pump sizes" path="staging.displacements_m3_per_rev" measure=Measure::Displacement
+                get=sizes set=set_sizes />
+            <p class="hint">"Default: the R10 preferred numbers from 2.5 to 160 cm³/rev, as pumps are commonly sized (from memory)."</p>
+            <ListField label="Motor speeds" path="staging.speeds_rad_per_s" measure=Measure::ShaftSpeed
+                get=speeds set=set_speeds />
+            <p class="hint">"Default: 4- and 6-pole motors at 50 and 60 Hz, common full-load speeds (from memory)."</p>
+            <super::field::ChoiceField label="Most pumps on the shaft" path="staging.max_pumps"
+                options=vec![("1", "One".to_string()), ("2", "Two".to_string()), ("3", "Three".to_string())]
+                get=|j: &Job| match j.staging.max_pumps { 1 => "1", 2 => "2", _ => "3" }
+                set=|j: &mut Job, v: &str| j.staging.max_pumps = v.parse().unwrap_or(3) />
+            <super::field::ChoiceField label="Also try a pressure-compensated pump" path="staging.compensated"
+                options=vec![("yes", "Yes".to_string()), ("no", "No".to_string())]
+                get=|j: &Job| if j.staging.compensated { "yes" } else { "no" }
+                set=|j: &mut Job, v: &str| j.staging.compensated = v == "yes" />
+            <super::field::ChoiceField label="Motor sizes" path="staging.motor_steps"
+                options=vec![("iec", "IEC, kW".to_string()), ("nema", "NEMA, hp".to_string())]
+                get=|j: &Job| match j.staging.motor_steps { MotorSteps::IecKw => "iec", MotorSteps::NemaHp => "nema" }
+                set=|j: &mut Job, v: &str| j.staging.motor_steps = if v == "nema" { MotorSteps::NemaHp } else { MotorSteps::IecKw } />
+            <NumberField label="Service factor" path="staging.service_factor" measure=Measure::Factor
+                get=|j: &Job| j.staging.service_factor set=|j: &mut Job, v| j.staging.service_factor = v />
+            <NumberField label="Peak over rating allowed" path="staging.peak_allowance" measure=Measure::Factor
+                get=|j: &Job| j.staging.peak_allowance set=|j: &mut Job, v| j.staging.peak_allowance = v />
+            <NumberField label="Slower than as found allowed" path="staging.slower_allowed" measure=Measure::Percent
+                get=|j: &Job| j.staging.slower_allowed set=|j: &mut Job, v| j.staging.slower_allowed = v />
+        </details>
+    }
+}
+
+/// A list of numbers in the job's units; what does not read is said at the field and the job
+/// keeps its last good list.
+#[component]
+fn ListField(
+    #[prop(into)] label: String,
+    #[prop(into)] path: String,
+    measure: Measure,
+    get: impl Fn(&Job) -> Vec<f64> + Send + Sync + 'static,
+    set: impl Fn(&mut Job, Vec<f64>) + Send + Sync + 'static,
+) -> impl IntoView {
+    let state = use_job();
+    let units = state.job.with_untracked(|j| j.units);
+    let text = RwSignal::new(
+        state
+            .job
+            .with_untracked(|j| format_list(&get(j), measure, units)),
+    );
+    let problem = RwSignal::new(None::<String>);
+    let id = path.replace(['.', '[', ']'], "-");
+    let error_id = format!("{id}-error");
+    let on_change = move |ev: leptos::ev::Event| {
+        let typed = event_target_value(&ev);
+        text.set(typed.clone());
+        match parse_list(&typed, measure, state.job.with_untracked(|j| j.units)) {
+            Ok(values) => {
+                problem.set(None);
+                state.job.update(|j| set(j, values));
+            }
+            Err(why) => problem.set(Some(why)),
+        }
+    };
+    view! {
+        <div class="field" class:invalid=move || problem.with(Option::is_some)>
+            <label for=id.clone()>{format!("{label} ({})", measure.label(units))}</label>
+            <input id=id.clone() type="text" inputmode="decimal" data-path=path
+                prop:value=move || text.get() on:change=on_change
+                aria-describedby=error_id.clone() />
+            <p class="field-error" id=error_id role="alert">{move || problem.get().unwrap_or_default()}</p>
+        </div>
+    }
+}
