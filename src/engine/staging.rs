@@ -303,8 +303,12 @@ pub fn build(job: &Job, baseline: &Design, spec: &Spec) -> Option<Design> {
         match settings::unloading_window(job, &design, &needs, k) {
             UnloadingWindow::Open { low, high } => {
                 let setting = settings::proposed_unloading(low, high, &design, us);
-                if setting >= design.relief.setting.value {
-                    // The pump would never unload: a smaller set serves the cycle the same.
+                let stage = &design.unloading_stages[k];
+                if setting >= design.relief.setting.value
+                    || setting + stage.check.cracking.value > stage.pump.rated_pressure.value
+                {
+                    // The pump would never unload (a smaller set serves the cycle the same),
+                    // or it would see more than its rating.
                     return None;
                 }
                 design.unloading_stages[k].unloading.setting = pascals(setting);

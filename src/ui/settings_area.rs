@@ -144,6 +144,9 @@ fn AdviceCard(
                 <button type="button" class="button" data-action="apply-advice" on:click=move |_| apply(a)>
                     {format!("{what}, in the proposed design")}
                 </button>
+                <p class="setting-caution">
+                    "Before setting it on the machine: lock out, release the pressure (accumulators too), check it against every component's rating on that line."
+                </p>
             })}
         </li>
     }

@@ -12,8 +12,12 @@ use leptos::prelude::*;
 use std::cell::RefCell;
 use std::rc::Rc;
 
-/// How many candidates one slice evaluates before the page gets the thread back.
-const SLICE: usize = 200;
+/// Candidates evaluated between two looks at the clock.
+const BATCH: usize = 50;
+/// How long one slice may keep the thread before the page gets it back (ms): about a frame,
+/// so taps and the progress bar stay live; longer slices waste less on the hand-overs (each
+/// costs a timer's few milliseconds).
+const SLICE_MS: f64 = 16.0;
 
 #[derive(Clone, Debug, PartialEq)]
 enum Run {
@@ -77,7 +81,13 @@ pub fn StagingPanel() -> impl IntoView {
 fn step(search: Rc<RefCell<Search>>, run: RwSignal<Run>, started_ms: f64) {
     let (done, total) = {
         let mut s = search.borrow_mut();
-        s.run(SLICE);
+        let slice_started = js_sys::Date::now();
+        loop {
+            s.run(BATCH);
+            if s.done() >= s.total() || js_sys::Date::now() - slice_started >= SLICE_MS {
+                break;
+            }
+        }
         (s.done(), s.total())
     };
     if done < total {

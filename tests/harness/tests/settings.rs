@@ -128,3 +128,41 @@ async fn the_staging_search_runs_and_its_best_candidate_becomes_the_proposed_des
     assert_eq!(as_found, job.designs[0]);
     app.finish().await;
 }
+
+#[tokio::test]
+async fn the_staging_search_time_on_a_ten_phase_cycle_is_printed() {
+    // The demo's five phases, each twice: a ten-phase cycle (an invented machine).
+    let mut job = scrap_baler();
+    for i in (0..job.cycle.len()).rev() {
+        job.duplicate_phase(i);
+    }
+    job.name = "Ten-phase baler".into();
+    assert_eq!(job.cycle.len(), 10);
+    let native = phasewise::engine::staging::search(&job, &job.staging);
+    let app = AppSession::start_at("staging_ten_phases", Viewport::LAPTOP, "#/settings").await;
+    let b = &app.browser;
+    let entry = phasewise::library::write_entry(&job, 1.0);
+    b.eval(&format!(
+        "localStorage.setItem('phasewise.job.zz-ten', {}); localStorage.setItem('phasewise.last-open', 'zz-ten');",
+        serde_json::to_string(&entry).unwrap()
+    ))
+    .await;
+    b.client().refresh().await.unwrap();
+    b.wait_for(phasewise_harness::browser::APP_READY).await;
+    b.click("[data-action='search']").await;
+    let summary = b
+        .wait_for_text(".search-summary", |t| t.contains("candidates searched"))
+        .await;
+    let ms = b
+        .eval("return document.querySelector('.search-summary').dataset.searchMs;")
+        .await;
+    println!("staging search in Chromium, 10 phases: {summary} ({ms} ms)");
+    assert!(
+        summary.starts_with(&format!(
+            "{} candidates searched, {} serve the cycle",
+            native.evaluated, native.feasible
+        )),
+        "{summary}"
+    );
+    app.finish().await;
+}
