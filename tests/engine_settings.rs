@@ -85,8 +85,8 @@ fn high_low(unload_bar: f64, main_bar: f64) -> Job {
 
 #[test]
 fn the_high_low_unloading_window_and_main_setting_follow_from_the_loads() {
-    // As found: pump 1 unloads at 140 bar, above the press, so it feeds the press (and would
-    // overload the motor); main at 210 bar.
+    // As found: pump 1 unloads at 140 bar, above the press, so it feeds the press, which
+    // would overload the motor (a caution); main at 210 bar.
     let job = high_low(140.0, 210.0);
     let needs = settings::phase_needs(&job, &job.designs[0]);
     assert_close(
@@ -130,7 +130,7 @@ fn the_high_low_unloading_window_and_main_setting_follow_from_the_loads() {
     assert_close(setting_pa / BAR, 140.0, 1e-12, "setting now");
     assert_close(window.0 / BAR, 18.564858, 1e-6, "window low");
     assert_close(window.1 / BAR, 118.191559, 1e-6, "window high");
-    assert_eq!(unloading.severity, Severity::Saving);
+    assert_eq!(unloading.severity, Severity::Caution);
     assert_eq!(
         unloading.action,
         Some(Action::SetUnloading {
@@ -168,7 +168,8 @@ fn the_high_low_unloading_window_and_main_setting_follow_from_the_loads() {
 
 #[test]
 fn an_unloading_setting_below_the_window_is_a_caution() {
-    // At 15 bar pump 1 unloads during the return (11.6 bar + the margin): a slow return.
+    // At 15 bar pump 1's unloading sits inside the return's margin (11.6 bar + 7): a pressure
+    // peak in the return unloads it and slows it.
     let advice = settings::advise(&high_low(15.0, 145.0), 0);
     let a = find(&advice, |r| matches!(r, Rule::UnloadingOutside { .. })).expect("advice");
     assert_eq!(a.severity, Severity::Caution);
@@ -176,9 +177,9 @@ fn an_unloading_setting_below_the_window_is_a_caution() {
 
 #[test]
 fn no_unloading_setting_can_serve_a_fast_move_and_a_hold_just_above_it() {
-    // A 15 kW motor carries both pumps at 100 bar, so a move needing 100 bar wants pump 1's
-    // flow; a hold at 105 bar should run without it. Window: above 100 + 10 = 110 bar, below
-    // 105 - 10.5 = 94.5 bar: empty.
+    // A direct demand of 72 L/min at 100 bar needs pump 1's flow (the base pump alone gives
+    // 12 L/min), and takes all the pumps give, so it runs at 100 bar; a hold at 105 bar should
+    // run without it. Window: above 100 + 10 = 110 bar, below 105 - 10.5 = 94.5 bar: empty.
     let cycle = vec![
         direct("fast feed", 72.0, 100.0, 5.0),
         hold("hold", 105.0, 5.0, HoldMode::HeldByPump),

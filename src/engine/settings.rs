@@ -123,7 +123,11 @@ pub enum Rule {
         lowest_pa: f64,
     },
     /// The phase needs no pressure but the pump pushes its flow over a limit.
-    NeedsNoPressure { phase: usize, limit_pa: f64 },
+    NeedsNoPressure {
+        phase: usize,
+        limit_pa: f64,
+        vent_pa: f64,
+    },
     /// As `NeedsNoPressure`, but the relief has no vent port to use.
     NoVentPort { phase: usize },
     /// The lowest limit that serves the phase is above a component's rating.
@@ -482,6 +486,7 @@ pub fn advise(job: &Job, index: usize) -> Vec<Advice> {
                             Rule::NeedsNoPressure {
                                 phase: i,
                                 limit_pa: limit,
+                                vent_pa: design.vent_pressure.value,
                             },
                             Some(action),
                             Some(i),
@@ -585,7 +590,12 @@ pub fn advise(job: &Job, index: usize) -> Vec<Advice> {
 pub enum UnloadingWindow {
     /// Any setting from `low` to `high` (Pa; `high` infinite when no phase should run
     /// without the pump).
-    Open { low: f64, high: f64 },
+    Open {
+        low: f64,
+        high: f64,
+        /// The phase that sets `high`, if any.
+        without_phase: Option<usize>,
+    },
     /// The two phases that no setting can both serve, and their needs.
     Impossible {
         with_phase: usize,
@@ -612,6 +622,22 @@ pub fn unloading_window(
         let Some(need) = needs.get(i).and_then(|n| n.need_pa) else {
             continue;
         };
+        // A metered move or a direct demand that takes less than the feeding pumps give
+        // leaves the rest to cross the relief: the system then runs at the phase's limit,
+        // not at its need.
+        let demand = match &phase.kind {
+            PhaseKind::Move(m) => match m.speed {
+                SpeedRule::AllPumpFlow => None,
+                SpeedRule::MeteredSpeed { speed } => {
+                    Some(speed.value * m.cylinder.working_area_m2(m.direction))
+                }
+                SpeedRule::MeteredFlow { flow } => Some(flow.value),
+            },
+            PhaseKind::Direct(d) => Some(d.flow.value),
+            PhaseKind::Hold(_) | PhaseKind::Idle(_) => None,
+        };
+        let supply: f64 = pumps[k..].iter().map(|q| q.delivered(need)).sum();
+        let runs_at_limit = demand.is_some_and(|q| q < supply * (1.0 - 1e-9));
         let needs_flow = match &phase.kind {
             PhaseKind::Move(m) => match m.speed {
                 SpeedRule::AllPumpFlow => {
@@ -629,16 +655,30 @@ pub fn unloading_window(
             PhaseKind::Direct(d) => d.flow.value > later_flow(need),
             PhaseKind::Hold(_) | PhaseKind::Idle(_) => false,
         };
+        let pressure = if needs_flow && runs_at_limit {
+            need.max(needs[i].limit_pa)
+        } else {
+            need
+        };
         let slot = if needs_flow { &mut with } else { &mut without };
-        let better = |old: f64| if needs_flow { need > old } else { need < old };
+        let better = |old: f64| {
+            if needs_flow {
+                pressure > old
+            } else {
+                pressure < old
+            }
+        };
         if slot.is_none_or(|(_, old)| better(old)) {
-            *slot = Some((i, need));
+            *slot = Some((i, pressure));
         }
     }
     let margin = |p: f64| (p * policy.margin_fraction).max(policy.margin_min.value);
-    let low = with.map_or(0.0, |(_, p)| p + margin(p));
-    let high = without.map_or(f64::INFINITY, |(_, p)| p - margin(p));
-    if low > high {
+    let vent = design.vent_pressure.value;
+    // With no phase needing the pump's flow, it may unload from the start.
+    let low = with.map_or(vent, |(_, p)| p + margin(p));
+    let high = without.map_or(f64::INFINITY, |(_, p)| (p - margin(p)).max(vent));
+    let without_phase = without.map(|(i, _)| i);
+    if with.is_some() && without.is_some() && low > high {
         let ((with_phase, with_pa), (without_phase, without_pa)) =
             (with.unwrap_or_default(), without.unwrap_or_default());
         UnloadingWindow::Impossible {
@@ -648,7 +688,11 @@ pub fn unloading_window(
             without_pa,
         }
     } else {
-        UnloadingWindow::Open { low, high }
+        UnloadingWindow::Open {
+            low,
+            high: high.max(low),
+            without_phase,
+        }
     }
 }
 
@@ -692,7 +736,11 @@ fn unloading_advice(
                 None,
                 None,
             ),
-            UnloadingWindow::Open { low, high } if setting < low || setting > high => {
+            UnloadingWindow::Open {
+                low,
+                high,
+                without_phase,
+            } if setting < low || setting > high => {
                 let target = proposed_unloading(low, high, design, us);
                 let action = (target + stage.check.cracking.value
                     <= stage.pump.rated_pressure.value)
@@ -701,8 +749,12 @@ fn unloading_advice(
                         pressure: pascals(target),
                     });
                 // Too low, the pump unloads where its flow is needed (a slow move); too high,
-                // it keeps feeding at pressure (power and heat).
-                let severity = if setting < low {
+                // it keeps feeding at pressure: power and heat, and where that phase is a move
+                // at all pump flow, more than the motor can carry.
+                let overloads = without_phase.and_then(|i| job.cycle.get(i)).is_some_and(|ph| {
+                    matches!(&ph.kind, PhaseKind::Move(m) if m.speed == SpeedRule::AllPumpFlow)
+                });
+                let severity = if setting < low || overloads {
                     Severity::Caution
                 } else {
                     Severity::Saving
@@ -774,12 +826,12 @@ impl Advice {
                     p(need_pa), p(limit_pa), p(lowest_pa)
                 ),
             ),
-            Rule::NeedsNoPressure { phase: i, limit_pa } => (
+            Rule::NeedsNoPressure { phase: i, limit_pa, vent_pa } => (
                 format!("{}: needs no pressure, vent it", phase(i)),
                 format!(
                     "No work is done, yet the pump's flow crosses a limit of {}. Venting the relief sends it to tank at the vent pressure ({}).",
                     p(limit_pa),
-                    p(job.designs.first().map_or(0.0, |d| d.vent_pressure.value))
+                    p(vent_pa)
                 ),
             ),
             Rule::NoVentPort { phase: i } => (

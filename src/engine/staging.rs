@@ -289,10 +289,14 @@ pub fn build(job: &Job, baseline: &Design, spec: &Spec) -> Option<Design> {
         // The compensator governs at the highest need with its margin; the relief, now a
         // safety valve, sits one margin above it.
         let margin = (main * job.advice.margin_fraction).max(job.advice.margin_min.value);
+        // The relief stays shut up to the compensator's dead-head pressure (the top of its
+        // band), whatever its cracking.
+        let dead_head = main * (1.0 + super::pump::COMPENSATOR_BAND);
+        let relief = (main + margin).max(dead_head / design.relief.cracking_fraction.max(1e-3));
         design.base_pump.control = PumpControl::Compensated {
             setting: pascals(main),
         };
-        design.relief.setting = pascals(settings::round_up_setting(main + margin, us));
+        design.relief.setting = pascals(settings::round_up_setting(relief, us));
     } else {
         design.relief.setting = pascals(main);
     }
@@ -301,7 +305,7 @@ pub fn build(job: &Job, baseline: &Design, spec: &Spec) -> Option<Design> {
     }
     for k in 0..design.unloading_stages.len() {
         match settings::unloading_window(job, &design, &needs, k) {
-            UnloadingWindow::Open { low, high } => {
+            UnloadingWindow::Open { low, high, .. } => {
                 let setting = settings::proposed_unloading(low, high, &design, us);
                 let stage = &design.unloading_stages[k];
                 if setting >= design.relief.setting.value
@@ -382,6 +386,7 @@ pub fn evaluate(
     // The energy with the motor of that size: its loss depends on its rating.
     let mut motor = design.motor;
     motor.rated_power = Power::new::<uom::si::power::watt>(motor_w);
+    motor.service_factor = options.service_factor;
     let energy = report
         .phases
         .iter()

@@ -192,19 +192,22 @@ pub fn parse_number(text: &str) -> Option<f64> {
 }
 
 /// Seconds, shown to a tenth: durations in a machine cycle.
-/// A list of numbers typed in a measure's shown unit ("8, 16; 25" or "8 16 25"; a decimal
-/// comma is read when the items are separated by semicolons or spaces), as SI values; or what
-/// is wrong with it.
+/// A list of numbers typed in a measure's shown unit ("8, 16, 25", "8 16 25" or "8; 16; 25";
+/// "6,3" is a decimal comma), as SI values; or what is wrong with it.
 pub fn parse_list(text: &str, measure: Measure, system: UnitSystem) -> Result<Vec<f64>, String> {
-    let items: Vec<&str> = if text.contains(';') {
-        text.split(';').collect()
-    } else if text.contains(", ") || !text.contains(' ') {
-        text.split(',').collect()
+    // Semicolons, spaces or a comma with a space after it separate; a comma between digits
+    // is a decimal comma ("6,3" is one size).
+    let items: Vec<String> = if text.contains(';') {
+        text.split(';').map(str::to_string).collect()
     } else {
-        text.split_whitespace().collect()
+        text.replace(", ", " ")
+            .split_whitespace()
+            .map(str::to_string)
+            .collect()
     };
     let mut values = Vec::new();
     for item in items.iter().map(|i| i.trim()).filter(|i| !i.is_empty()) {
+        let item = item.trim_end_matches(',');
         match parse_number(item) {
             Some(v) if v > 0.0 => values.push(measure.from_shown(system, v)),
             Some(_) => return Err(format!("{item} is not more than zero")),
@@ -243,7 +246,7 @@ mod tests {
     fn lists_of_sizes_read_in_either_decimal_mark() {
         let cc = |v: &[f64]| v.iter().map(|x| x * 1e-6).collect::<Vec<_>>();
         let read = |t| parse_list(t, Measure::Displacement, UnitSystem::Si);
-        for text in ["8, 16, 25", "8,16,25", "8 16 25", "8; 16; 25"] {
+        for text in ["8, 16, 25", "8 16 25", "8; 16; 25", "8, 16, 25,"] {
             let got = read(text).unwrap();
             for (a, b) in got.iter().zip(cc(&[8.0, 16.0, 25.0])) {
                 assert!((a - b).abs() < 1e-18, "{text}");
@@ -251,6 +254,9 @@ mod tests {
         }
         let got = read("6,3; 12,5").unwrap();
         assert!((got[0] - 6.3e-6).abs() < 1e-18 && (got[1] - 12.5e-6).abs() < 1e-18);
+        let one = read("6,3").unwrap();
+        assert_eq!(one.len(), 1, "a decimal comma, not two sizes");
+        assert!(read("8,16,25").is_err(), "ambiguous: said, not guessed");
         assert!(read("8, x").unwrap_err().contains("“x”"));
         assert!(read("8, -1").unwrap_err().contains("not more than zero"));
         assert!(read(" ").is_err());

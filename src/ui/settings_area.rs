@@ -51,7 +51,10 @@ pub fn SettingsArea() -> impl IntoView {
             {move || match advice.get() {
                 None => view! { <p class="empty-note">"Advice appears once every figure of the job is valid."</p> }.into_any(),
                 Some((needs, list)) => {
-                    let job = state.job.get_untracked();
+                    let job = state.job.get();
+                    // Advice for the baseline is applied only where the baseline is all there
+                    // is (a proposed copy is made); with a proposed design, its own advice is.
+                    let can_apply = state.design_index() > 0 || job.designs.len() == 1;
                     view! {
                         <PhaseNeeds job=job.clone() needs=needs />
                         <h2>"Advice"</h2>
@@ -61,7 +64,7 @@ pub fn SettingsArea() -> impl IntoView {
                             let count = list.len();
                             view! {
                                 <ol class="advice-list" data-advice-count=count>
-                                    {list.into_iter().map(|a| view! { <AdviceCard advice=a job=job.clone() apply=apply /> }).collect_view()}
+                                    {list.into_iter().map(|a| view! { <AdviceCard advice=a job=job.clone() apply=apply can_apply=can_apply /> }).collect_view()}
                                 </ol>
                             }.into_any()
                         }}
@@ -106,6 +109,7 @@ fn AdviceCard(
     advice: settings::Advice,
     job: Job,
     apply: impl Fn(settings::Action) + Copy + Send + Sync + 'static,
+    can_apply: bool,
 ) -> impl IntoView {
     let text = advice.describe(&job);
     let u = job.units;
@@ -141,9 +145,15 @@ fn AdviceCard(
             <p>{text.explanation}</p>
             {saving.map(|s| view! { <p class="advice-saving">{s}</p> })}
             {action.zip(text.action).map(|(a, what)| view! {
-                <button type="button" class="button" data-action="apply-advice" on:click=move |_| apply(a)>
-                    {format!("{what}, in the proposed design")}
-                </button>
+                {if can_apply {
+                    view! {
+                        <button type="button" class="button" data-action="apply-advice" on:click=move |_| apply(a)>
+                            {format!("{what}, in the proposed design")}
+                        </button>
+                    }.into_any()
+                } else {
+                    view! { <p class="hint">{format!("To do: {what}. Show the proposed design to apply it there; the baseline stays as found.")}</p> }.into_any()
+                }}
                 <p class="setting-caution">
                     "Before setting it on the machine: lock out, release the pressure (accumulators too), check it against every component's rating on that line."
                 </p>

@@ -31,6 +31,19 @@ pub fn StagingPanel() -> impl IntoView {
     let state = use_job();
     let run = RwSignal::new(Run::Idle);
     let note = RwSignal::new(None::<String>);
+    // Each search has a number; a slice of an older one (the job changed, the area closed)
+    // stops instead of running on.
+    let generation = StoredValue::new(0u64);
+    // Any change to the job makes earlier results stale: they go (applying one changes the
+    // job too, and its note says what happened).
+    Effect::new(move |first: Option<()>| {
+        state.job.track();
+        if first.is_some() {
+            generation.update_value(|g| *g += 1);
+            run.set(Run::Idle);
+        }
+    });
+    on_cleanup(move || generation.update_value(|g| *g += 1));
     let start = move |_: leptos::ev::MouseEvent| {
         if state.result.with_untracked(|r| r.is_err()) {
             return;
@@ -39,9 +52,13 @@ pub fn StagingPanel() -> impl IntoView {
         let options = job.staging.clone();
         let search = Rc::new(RefCell::new(Search::new(job, options)));
         let total = search.borrow().total();
+        generation.update_value(|g| *g += 1);
+        let mine = generation.get_value();
         run.set(Run::Running { done: 0, total });
         note.set(None);
-        step(search, run, js_sys::Date::now());
+        step(search, run, js_sys::Date::now(), move || {
+            generation.try_get_value() == Some(mine)
+        });
     };
     let apply = move |candidate: Candidate| {
         let shown = state.design_index();
@@ -59,7 +76,7 @@ pub fn StagingPanel() -> impl IntoView {
             <p class="hint">"Every combination of one to three fixed pumps from the sizes below, at each motor speed, with unloading and relief settings from the rules above, and a single pressure-compensated pump: each solved over the whole cycle. Ranked by the smallest standard motor that carries it, then by energy."</p>
             <StagingOptionsEditor />
             <button type="button" class="button primary" data-action="search" on:click=start
-                disabled=move || matches!(run.get(), Run::Running { .. })>
+                disabled=move || matches!(run.get(), Run::Running { .. }) || state.result.with(|r| r.is_err())>
                 "Search"
             </button>
             {move || match run.get() {
@@ -78,7 +95,15 @@ pub fn StagingPanel() -> impl IntoView {
 }
 
 /// Evaluates one slice, shows the progress, and hands the thread back before the next.
-fn step(search: Rc<RefCell<Search>>, run: RwSignal<Run>, started_ms: f64) {
+fn step(
+    search: Rc<RefCell<Search>>,
+    run: RwSignal<Run>,
+    started_ms: f64,
+    current: impl Fn() -> bool + Clone + 'static,
+) {
+    if !current() {
+        return;
+    }
     let (done, total) = {
         let mut s = search.borrow_mut();
         let slice_started = js_sys::Date::now();
@@ -93,7 +118,7 @@ fn step(search: Rc<RefCell<Search>>, run: RwSignal<Run>, started_ms: f64) {
     if done < total {
         run.set(Run::Running { done, total });
         set_timeout(
-            move || step(search, run, started_ms),
+            move || step(search, run, started_ms, current),
             std::time::Duration::ZERO,
         );
     } else {

@@ -4,6 +4,7 @@
 
 use phasewise::engine::demo::scrap_baler;
 use phasewise::engine::settings;
+use phasewise::engine::Job;
 use phasewise_harness::browser::{AppSession, Viewport};
 use serde_json::Value;
 
@@ -38,8 +39,25 @@ async fn the_demo_advice_shows_and_one_applies_to_the_proposed_design() {
     b.screenshot("advice").await;
     b.screenshot_of("table.needs", "phase-table").await;
 
-    // Apply the advice about the dwell (a remote stage at the lowest limit that serves it).
-    let index = expected
+    // On the baseline, the advice is not applied (the baseline stays as found): it says so.
+    assert_eq!(b.count("[data-action='apply-advice']").await, 0);
+    assert!(b
+        .text(".advice-list")
+        .await
+        .contains("Show the proposed design to apply it there"));
+
+    // The proposed design's own advice: its dwell's remote stage sits inside the margin.
+    b.click(".design-tabs button:nth-child(2)").await;
+    let proposed_advice = settings::advise(&job, 1);
+    let titles: Vec<String> = proposed_advice
+        .iter()
+        .map(|a| a.describe(&job).title)
+        .collect();
+    b.wait_for_text(".advice-list", |t| {
+        titles.iter().all(|x| t.contains(x.as_str()))
+    })
+    .await;
+    let index = titles
         .iter()
         .position(|t| t.contains("Dwell"))
         .expect("dwell advice");
@@ -59,24 +77,26 @@ async fn the_demo_advice_shows_and_one_applies_to_the_proposed_design() {
         }
         tokio::time::sleep(std::time::Duration::from_millis(50)).await;
     }
-    let before = serde_json::to_value(&job.designs[0]).unwrap();
     let as_found: phasewise::engine::power_unit::Design =
         serde_json::from_value(stored["designs"][0].clone()).unwrap();
-    assert_eq!(
-        as_found,
-        serde_json::from_value(before).unwrap(),
-        "the baseline is unchanged"
-    );
+    assert_eq!(as_found, job.designs[0], "the baseline is unchanged");
     let proposed: phasewise::engine::power_unit::Design =
         serde_json::from_value(stored["designs"][1].clone()).unwrap();
-    let (want, _) =
-        settings::apply_to_proposed(&job, 0, &settings::advise(&job, 0)[index].action.unwrap());
+    let (want, _) = settings::apply_to_proposed(&job, 1, &proposed_advice[index].action.unwrap());
     assert_eq!(proposed, want.designs[1]);
-    // The area now shows the proposed design's advice.
-    assert!(b
-        .text(".design-tabs [aria-pressed='true']")
-        .await
-        .contains("Proposed"));
+    // The area now shows the changed design's advice: the old 175 bar stage is unused.
+    let changed = Job {
+        designs: vec![as_found, proposed],
+        ..job.clone()
+    };
+    let now: Vec<String> = settings::advise(&changed, 1)
+        .iter()
+        .map(|a| a.describe(&changed).title)
+        .collect();
+    b.wait_for_text(".advice-list", |t| {
+        now.iter().all(|x| t.contains(x.as_str()))
+    })
+    .await;
     app.finish().await;
 }
 
