@@ -231,19 +231,8 @@ pub fn round_up_setting(pa: f64, us_units: bool) -> f64 {
 
 /// The governing limit of phase `i` of `design`, as the solver uses it (Pa).
 fn governing(design: &Design, i: usize, idle: bool) -> f64 {
-    let main = design.relief.setting.value;
     let setting = design.phase_settings.get(i).copied().unwrap_or_default();
-    if idle && setting.idle_path == IdlePath::Vented {
-        return design.vent_pressure.value;
-    }
-    match setting.limit {
-        ActiveLimit::Main => main,
-        ActiveLimit::Remote { stage } => design
-            .remote_stages
-            .get(stage)
-            .map_or(main, |r| r.value.min(main)),
-        ActiveLimit::Vented => design.vent_pressure.value,
-    }
+    super::solve::governing_limit(design, &setting, idle).1
 }
 
 /// Each phase's need and limit for `design`.

@@ -257,14 +257,14 @@ struct Point {
     findings: Vec<Finding>,
 }
 
-/// The limit governing a phase, and a finding if a remote stage was chosen that cannot govern.
-fn limit_in_use(
+/// The limit that governs a phase with `setting` (an idle's vent path counts), and its
+/// pressure: the lower of main and a selected remote stage, or the vent pressure.
+pub(crate) fn governing_limit(
     design: &Design,
     setting: &PhaseSetting,
     idle: bool,
-) -> (LimitInUse, ReliefCharacteristic) {
-    let relief = &design.relief;
-    let main = relief.setting.value;
+) -> (ActiveLimit, f64) {
+    let main = design.relief.setting.value;
     let limit = if idle && setting.idle_path == IdlePath::Vented {
         ActiveLimit::Vented
     } else {
@@ -279,6 +279,17 @@ fn limit_in_use(
             .map_or(main, |r| r.value.min(main)),
         ActiveLimit::Vented => design.vent_pressure.value,
     };
+    (limit, governing)
+}
+
+/// The limit governing a phase, and a finding if a remote stage was chosen that cannot govern.
+fn limit_in_use(
+    design: &Design,
+    setting: &PhaseSetting,
+    idle: bool,
+) -> (LimitInUse, ReliefCharacteristic) {
+    let relief = &design.relief;
+    let (limit, governing) = governing_limit(design, setting, idle);
     let characteristic =
         ReliefCharacteristic::new(governing, relief.cracking_fraction, relief.rated_flow.value);
     let in_use = LimitInUse {

@@ -10,6 +10,18 @@ use serde_json::Value;
 
 const STORED_JOB: &str = "const k = Object.keys(localStorage).find(k => k.startsWith('phasewise.job.')); return k ? JSON.parse(localStorage.getItem(k)).job : null;";
 
+/// The open job as stored, once the autosave has written it.
+async fn stored_job(b: &phasewise_harness::browser::Browser) -> Value {
+    for _ in 0..100 {
+        let stored = b.eval(STORED_JOB).await;
+        if !stored.is_null() {
+            return stored;
+        }
+        tokio::time::sleep(std::time::Duration::from_millis(50)).await;
+    }
+    panic!("the job was never saved");
+}
+
 #[tokio::test]
 async fn the_demo_advice_shows_and_one_applies_to_the_proposed_design() {
     let app = AppSession::start_at("settings_advice", Viewport::PHONE, "#/settings").await;
@@ -69,14 +81,7 @@ async fn the_demo_advice_shows_and_one_applies_to_the_proposed_design() {
     b.wait_for_text("[data-applied]", |t| t.contains("Applied to “Proposed”"))
         .await;
     // Applying changed the job, so it is saved: read the stored copy.
-    let mut stored = Value::Null;
-    for _ in 0..100 {
-        stored = b.eval(STORED_JOB).await;
-        if !stored.is_null() {
-            break;
-        }
-        tokio::time::sleep(std::time::Duration::from_millis(50)).await;
-    }
+    let stored = stored_job(b).await;
     let as_found: phasewise::engine::power_unit::Design =
         serde_json::from_value(stored["designs"][0].clone()).unwrap();
     assert_eq!(as_found, job.designs[0], "the baseline is unchanged");
@@ -131,14 +136,7 @@ async fn the_staging_search_runs_and_its_best_candidate_becomes_the_proposed_des
         .await;
     b.wait_for_text("[data-staging-applied]", |t| t.contains("Proposed"))
         .await;
-    let mut stored = Value::Null;
-    for _ in 0..100 {
-        stored = b.eval(STORED_JOB).await;
-        if !stored.is_null() {
-            break;
-        }
-        tokio::time::sleep(std::time::Duration::from_millis(50)).await;
-    }
+    let stored = stored_job(b).await;
     let (want, _) = phasewise::engine::staging::apply_candidate(&job, 0, &native.best[0]);
     let proposed: phasewise::engine::power_unit::Design =
         serde_json::from_value(stored["designs"][1].clone()).unwrap();
