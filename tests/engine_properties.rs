@@ -109,6 +109,7 @@ fn phase() -> impl Strategy<Value = Phase> {
                 load,
                 line_loss: bar_(line),
                 speed,
+                target_time: None,
             })
         });
     let holding = (10.0..300.0f64, 0.1..60.0f64, any::<bool>()).prop_map(|(b, t, by_pump)| {
@@ -447,6 +448,7 @@ fn spoil(job: &mut Job, which: usize, bad: f64) {
         &mut d.motor.full_load_efficiency,
         &mut d.motor.fixed_loss_share,
         &mut d.motor.service_factor,
+        &mut d.motor.peak_allowance,
         &mut d.base_pump.displacement.value,
         &mut d.base_pump.volumetric_efficiency,
         &mut d.base_pump.efficiency_pressure.value,

@@ -28,6 +28,7 @@ fn pressure_load(name: &str, load_bar: f64) -> Phase {
             },
             line_loss: bar_(0.0),
             speed: SpeedRule::AllPumpFlow,
+            target_time: None,
         }),
     }
 }

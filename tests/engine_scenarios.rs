@@ -356,6 +356,7 @@ fn test_rig(loads_bar: &[f64]) -> (Vec<Phase>, phasewise::engine::power_unit::De
                 },
                 line_loss: bar_(0.0),
                 speed: SpeedRule::AllPumpFlow,
+                target_time: None,
             }),
         })
         .collect();

@@ -355,6 +355,52 @@ fn a_need_above_the_pumps_rating_is_a_caution_with_no_setting() {
 }
 
 #[test]
+fn settings_above_a_pumps_rating_are_cautions_with_a_setting_inside_it() {
+    // Main at 210 bar on a base pump rated 160 bar: a caution, and the cycle's 145 bar
+    // (worked in `high_low`) as the action; the "higher than needed" advice is not repeated.
+    let mut job = high_low(50.0, 210.0);
+    job.designs[0].base_pump.rated_pressure = bar_(160.0);
+    let advice = settings::advise(&job, 0);
+    let a = find(&advice, |r| matches!(r, Rule::MainAboveRating { .. })).expect("main");
+    assert_eq!(a.severity, Severity::Caution);
+    assert_eq!(
+        a.action,
+        Some(Action::SetMain {
+            pressure: bar_(145.0)
+        })
+    );
+    assert!(find(&advice, |r| matches!(r, Rule::MainAboveNeed { .. })).is_none());
+
+    // Pump 1 rated 100 bar, unloading at 140 bar behind a 0.5 bar check valve: it sees
+    // 140.5 bar before it unloads. The action is the window's 19 bar (19.5 bar seen).
+    let mut job = high_low(140.0, 145.0);
+    job.designs[0].unloading_stages[0].pump.rated_pressure = bar_(100.0);
+    let advice = settings::advise(&job, 0);
+    let a = find(&advice, |r| matches!(r, Rule::UnloadingAboveRating { .. })).expect("pump 1");
+    assert_eq!(a.severity, Severity::Caution);
+    assert_eq!(
+        a.action,
+        Some(Action::SetUnloading {
+            pump: 1,
+            pressure: bar_(19.0)
+        })
+    );
+    let text = a.describe(&job);
+    assert!(
+        text.explanation.contains("140.5 bar"),
+        "{}",
+        text.explanation
+    );
+
+    // Within the ratings: neither.
+    let advice = settings::advise(&high_low(50.0, 145.0), 0);
+    assert!(!rules(&advice).iter().any(|r| matches!(
+        r,
+        Rule::MainAboveRating { .. } | Rule::UnloadingAboveRating { .. }
+    )));
+}
+
+#[test]
 fn idles_and_check_held_holds_are_vented_where_the_valve_allows() {
     let locked = vec![
         hold("clamp held by check", 150.0, 30.0, HoldMode::LockedByCheck),

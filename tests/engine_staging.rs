@@ -1,13 +1,18 @@
 //! The pump-staging search (engine `staging`): it finds the same best candidate as a
 //! brute-force enumeration written out here; a larger list of sizes never makes the best worse;
-//! every candidate it keeps meets the phase times and sizes its motor on the RMS and the peak.
+//! every candidate it keeps meets each move's target time and the cycle's, and sizes its motor
+//! on the RMS and the peak as the engine's motor findings judge it; one candidate is worked by
+//! hand (pressures, pump states, powers, motor step, energy). The machines are invented.
 
 mod common;
 use common::*;
-use phasewise::engine::cycle::{Direction, SpeedRule};
+use phasewise::engine::cycle::{Direction, PhaseKind, SpeedRule};
 use phasewise::engine::demo::scrap_baler;
+use phasewise::engine::solve::PumpState;
 use phasewise::engine::staging::{self, Candidate, Spec, StagingOptions};
+use phasewise::engine::valve::IdlePath;
 use phasewise::engine::valve::ReliefKind;
+use phasewise::engine::Finding;
 use phasewise::engine::Job;
 use uom::si::angular_velocity::revolution_per_minute;
 use uom::si::f64::{AngularVelocity, Volume};
@@ -232,4 +237,270 @@ fn applying_a_candidate_changes_only_the_proposed_design() {
         found.best[0].spec.displacements.len()
     );
     assert!(phasewise::engine::solve(&after).is_ok());
+}
+
+fn set_target(job: &mut Job, phase: usize, seconds: Option<f64>) {
+    let PhaseKind::Move(m) = &mut job.cycle[phase].kind else {
+        panic!("phase {phase} is not a move")
+    };
+    m.target_time = seconds.map(s);
+}
+
+/// The invented high-low press of tests/engine_settings.rs with ideal pumps (no leakage, no
+/// friction, so every power is pressure x flow): pump 1 40 cm^3/rev, base pump 8 cm^3/rev, at
+/// 1500 rpm (1.0e-3 and 2.0e-4 m^3/s); check valve 0.5 bar, unloaded drop 3 bar; relief
+/// rated 80 L/min; the motor stopped in the idle. As found pump 1 unloads at 140 bar, above the press, so it feeds it.
+fn ideal_high_low() -> Job {
+    let cycle = vec![
+        move_phase(
+            "approach",
+            100.0,
+            56.0,
+            300.0,
+            Direction::Extend,
+            5.0,
+            4.0,
+            SpeedRule::AllPumpFlow,
+        ),
+        move_phase(
+            "press",
+            100.0,
+            56.0,
+            40.0,
+            Direction::Extend,
+            100.0,
+            4.0,
+            SpeedRule::AllPumpFlow,
+        ),
+        move_phase(
+            "return",
+            100.0,
+            56.0,
+            340.0,
+            Direction::Retract,
+            3.0,
+            6.0,
+            SpeedRule::AllPumpFlow,
+        ),
+        idle("unload parts", 20.0),
+    ];
+    let mut d = design(
+        "As found",
+        motor(7.5, 1500.0, 0.9),
+        vec![stage(ideal_pump(40.0), 140.0, 3.0, 0.5)],
+        ideal_pump(8.0),
+        relief(ReliefKind::PilotOperated, 210.0, 80.0, 0.97),
+        4,
+    );
+    d.phase_settings[3].idle_path = IdlePath::MotorStopped;
+    job(cycle, vec![d])
+}
+
+#[test]
+#[allow(clippy::approx_constant)] // 1.570796 s is a stroke time worked by hand, not pi / 2
+fn a_candidate_worked_by_hand() {
+    // Candidate: the as-found pumps, 40 + 8 cm^3/rev at 1500 rpm, with the press allowed 2.0 s.
+    //
+    // Targets (as found, both pumps, 1.2e-3 m^3/s): approach 0.3 m x 7.853982e-3 m^2 =
+    // 2.356194e-3 m^3 in 1.963495 s; return 0.34 m x 5.390973e-3 m^2 = 1.832931e-3 m^3 in
+    // 1.527443 s; press 2.0 s, set on the move.
+    // Does pump 1 feed? Without it the base pump's 2.0e-4 m^3/s would take 11.78 s to approach
+    // and 9.16 s to return (too slow: it feeds), and 0.04 x 7.853982e-3 / 2.0e-4 = 1.570796 s to
+    // press (within 2.0 s: it unloads).
+    // Needs: approach 5 kN / 7.853982e-3 + 4 bar = 10.366198 bar; press 100 kN / 7.853982e-3
+    // + 4 = 131.323954 bar; return 3 kN / 5.390973e-3 + 6 = 11.564858 bar.
+    // Unloading window: above 11.564858 + 7 = 18.564858 bar, below 131.323954 - 13.132395 =
+    // 118.19 bar: set at 19 bar (a whole bar up). Main: max(131.32 x 1.1, 131.32 + 7,
+    // 131.32 / 0.97) = 144.456 bar, set at 145 bar (its cracking, 140.65 bar, stays above the
+    // press).
+    // Shaft power (pump 1's outlet is the system pressure plus its 0.5 bar check valve, or its
+    // 3 bar unloaded drop):
+    //   approach 2.0e-4 x 10.366198e5 + 1.0e-3 x 10.866198e5 = 1293.944 W for 1.963495 s
+    //   press    2.0e-4 x 131.323954e5 + 1.0e-3 x 3e5        = 2926.479 W for 1.570796 s
+    //   return   2.0e-4 x 11.564858e5 + 1.0e-3 x 12.064858e5 = 1437.783 W for 1.527443 s
+    //   idle, motor stopped, 20 s. Cycle 25.061734 s.
+    // RMS = sqrt((1293.944^2 x 1.963495 + 2926.479^2 x 1.570796 + 1437.783^2 x 1.527443)
+    //       / 25.061734) = 891.04 W; peak 2926.48 W.
+    // Motor (IEC steps, service factor 1.0, peak allowance 1.25): 2.2 kW carries the RMS but
+    // not the peak (2.75 kW < 2.93 kW); 3.0 kW carries both (3.75 kW).
+    // Energy with the 3.0 kW motor (full-load efficiency 0.9: loss 333.33 W at rated load, 35 %
+    // of it fixed): sum of (P + 333.33 x (0.35 + 0.65 (P/3000)^2)) x t = 10403.24 J.
+    let mut job = ideal_high_low();
+    set_target(&mut job, 1, Some(2.0));
+    let opts = StagingOptions {
+        speeds: vec![AngularVelocity::new::<revolution_per_minute>(1500.0)],
+        ..StagingOptions::default()
+    };
+    let targets = staging::targets(&job, &opts).unwrap();
+    assert_close(
+        targets.phase_times[0].unwrap(),
+        1.963495,
+        1e-6,
+        "approach target",
+    );
+    assert_eq!(targets.phase_times[1], Some(2.0));
+    assert_close(
+        targets.phase_times[2].unwrap(),
+        1.527443,
+        1e-6,
+        "return target",
+    );
+    assert_eq!(targets.phase_times[3], None);
+    let spec = Spec {
+        displacements: vec![cc(40.0), cc(8.0)],
+        speed: opts.speeds[0].value,
+        compensated: false,
+    };
+    let c = staging::evaluate(&job, &opts, &targets, &spec).expect("it serves");
+    let d = &c.design;
+    assert_close(
+        in_bar(d.unloading_stages[0].unloading.setting),
+        19.0,
+        1e-12,
+        "unloading",
+    );
+    assert_close(in_bar(d.relief.setting), 145.0, 1e-12, "main");
+
+    let report = phasewise::engine::solve(&Job {
+        designs: vec![job.designs[0].clone(), d.clone()],
+        ..job.clone()
+    })
+    .unwrap();
+    let r = &report.designs[1];
+    let expect = [
+        (
+            "approach",
+            10.366198,
+            PumpState::Feeding,
+            1293.944,
+            1.963495,
+        ),
+        ("press", 131.323954, PumpState::Unloaded, 2926.479, 1.570796),
+        ("return", 11.564858, PumpState::Feeding, 1437.783, 1.527443),
+    ];
+    for (phase, (name, bar, state, watts, seconds)) in r.phases.iter().zip(expect) {
+        assert_close(in_bar(phase.point.system_pressure), bar, 1e-6, name);
+        assert_eq!(phase.point.pumps[0].state, state, "{name}");
+        assert_close(phase.ledger.shaft_power().value, watts, 1e-6, name);
+        assert_close(phase.point.duration.value, seconds, 1e-6, name);
+    }
+    assert_close(c.cycle_time_s, 25.061734, 1e-6, "cycle");
+    assert_close(c.rms_shaft_w, 891.04, 1e-5, "RMS");
+    assert_close(c.peak_shaft_w, 2926.479, 1e-6, "peak");
+    assert_eq!(c.motor_w, 3000.0);
+    assert_close(c.energy_per_cycle_j, 10403.24, 1e-6, "energy per cycle");
+    assert!(r.findings.is_empty(), "{:?}", r.findings);
+
+    // With the press held to its as-found 0.26 s, pump 1 must feed it too: its unloading would
+    // have to sit above the press's 144.46 bar, at or above the main relief, so no setting
+    // serves and the candidate is refused.
+    let as_found = ideal_high_low();
+    let targets = staging::targets(&as_found, &opts).unwrap();
+    assert_close(
+        targets.phase_times[1].unwrap(),
+        0.261799,
+        1e-5,
+        "press as found",
+    );
+    assert_eq!(staging::evaluate(&as_found, &opts, &targets, &spec), None);
+}
+
+#[test]
+fn each_move_keeps_to_its_own_target_time() {
+    let opts = options(&[8.0, 16.0, 25.0, 40.0, 63.0], 3);
+    let best_motor = |job: &Job| staging::search(job, &opts).best.first().map(|c| c.motor_w);
+    let as_found = slow_press();
+    let press_time = staging::targets(&as_found, &opts).unwrap().phase_times[1].unwrap();
+    let mut tighter = as_found.clone();
+    set_target(&mut tighter, 1, Some(press_time / 2.0));
+    let mut looser = as_found.clone();
+    set_target(&mut looser, 1, Some(press_time * 3.0));
+    for job in [&tighter, &looser] {
+        let targets = staging::targets(job, &opts).unwrap();
+        let found = staging::search(job, &opts);
+        assert!(!found.best.is_empty());
+        for c in &found.best {
+            let report = staging::evaluate(job, &opts, &targets, &c.spec).unwrap();
+            assert_eq!(&report, c);
+            let solved = phasewise::engine::solve(&Job {
+                designs: vec![job.designs[0].clone(), c.design.clone()],
+                ..job.clone()
+            })
+            .unwrap();
+            let press = &solved.designs[1].phases[1];
+            assert!(
+                press.point.duration.value <= targets.phase_times[1].unwrap() * (1.0 + 1e-9),
+                "{:?}: press {} s",
+                c.spec,
+                press.point.duration.value
+            );
+        }
+    }
+    // A tighter target never allows a smaller motor, a looser one never needs a larger one.
+    let (t, a, l) = (
+        best_motor(&tighter).unwrap(),
+        best_motor(&as_found).unwrap(),
+        best_motor(&looser).unwrap(),
+    );
+    assert!(t >= a && a >= l, "{t} {a} {l}");
+    assert!(
+        l < a,
+        "letting the press take three times as long allows a smaller motor"
+    );
+}
+
+#[test]
+fn a_cycle_time_target_is_kept() {
+    let job = slow_press();
+    let free = staging::search(&job, &options(&[8.0, 16.0, 25.0, 40.0], 2));
+    let fastest = free
+        .frontier
+        .iter()
+        .map(|f| f.1)
+        .fold(f64::INFINITY, f64::min);
+    let slowest_kept = free.best.iter().map(|c| c.cycle_time_s).fold(0.0, f64::max);
+    assert!(
+        fastest < slowest_kept,
+        "the case needs a spread of cycle times"
+    );
+    let limit = (fastest + slowest_kept) / 2.0;
+    let opts = StagingOptions {
+        cycle_time_target: Some(s(limit)),
+        ..options(&[8.0, 16.0, 25.0, 40.0], 2)
+    };
+    let held = staging::search(&job, &opts);
+    assert!(!held.best.is_empty() && held.feasible < free.feasible);
+    for c in &held.best {
+        assert!(c.cycle_time_s <= limit * (1.0 + 1e-9), "{}", c.cycle_time_s);
+    }
+}
+
+#[test]
+fn an_applied_candidate_passes_the_engines_motor_checks() {
+    // The search sizes the motor on rating x service factor >= RMS and rating x peak
+    // allowance >= peak; the candidate's motor carries those factors, so the engine's own
+    // findings on the proposed design agree with it.
+    for job in [slow_press(), scrap_baler()] {
+        let opts = StagingOptions {
+            service_factor: 1.15,
+            peak_allowance: 1.5,
+            ..options(&[8.0, 16.0, 25.0, 40.0, 63.0], 3)
+        };
+        let found = staging::search(&job, &opts);
+        for c in &found.best {
+            let (after, target) = staging::apply_candidate(&job, 0, c);
+            let report = phasewise::engine::solve(&after).unwrap();
+            let motor = &after.designs[target].motor;
+            assert_eq!((motor.service_factor, motor.peak_allowance), (1.15, 1.5));
+            assert!(
+                !report.designs[target].findings.iter().any(|f| matches!(
+                    f,
+                    Finding::MotorRmsOverload { .. } | Finding::MotorPeakOverload { .. }
+                )),
+                "{}: {:?}",
+                job.name,
+                report.designs[target].findings
+            );
+        }
+    }
 }

@@ -34,6 +34,14 @@ pub struct MovePhase {
     #[serde(rename = "line_loss_pa")]
     pub line_loss: Pressure,
     pub speed: SpeedRule,
+    /// The longest this move may take: the staging search keeps every candidate to it.
+    /// Absent: as long as it takes with the baseline design ("as found").
+    #[serde(
+        default,
+        rename = "target_time_s",
+        skip_serializing_if = "Option::is_none"
+    )]
+    pub target_time: Option<Time>,
 }
 
 impl MovePhase {

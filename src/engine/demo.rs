@@ -34,6 +34,7 @@ fn ram(name: &str, stroke_mm: f64, direction: Direction, force_kn: f64, line_bar
             },
             line_loss: Pressure::new::<bar>(line_bar),
             speed: SpeedRule::AllPumpFlow,
+            target_time: None,
         }),
     }
 }
@@ -79,6 +80,7 @@ pub fn scrap_baler() -> Job {
             full_load_efficiency: 0.91,
             fixed_loss_share: super::motor::TYPICAL_FIXED_LOSS_SHARE,
             service_factor: 1.0,
+            peak_allowance: super::motor::TYPICAL_PEAK_ALLOWANCE,
         },
         unloading_stages: vec![UnloadingStage {
             pump: pump(63.0),

@@ -63,9 +63,10 @@ pub enum Finding {
         rated_m3_per_s: f64,
         pumps_m3_per_s: f64,
     },
-    /// The motor's RMS load over the cycle is above its rating: it will overheat.
-    MotorRmsOverload { rms_w: f64, rated_w: f64 },
-    /// The cycle's peak is above what the motor can carry (rating x service factor).
+    /// The motor's RMS load over the cycle is above what it may carry continuously (rating x
+    /// service factor): it will overheat.
+    MotorRmsOverload { rms_w: f64, limit_w: f64 },
+    /// The cycle's peak is above what the motor may carry briefly (rating x peak allowance).
     MotorPeakOverload { peak_w: f64, limit_w: f64 },
 }
 
@@ -123,13 +124,13 @@ impl Finding {
                 u.flow(rated_m3_per_s),
                 u.flow(pumps_m3_per_s)
             ),
-            Finding::MotorRmsOverload { rms_w, rated_w } => format!(
-                "The motor's RMS load over the cycle is {}, above its rating of {}: it will run hot.",
+            Finding::MotorRmsOverload { rms_w, limit_w } => format!(
+                "The motor's RMS load over the cycle is {}, above the {} it may carry continuously (rating times service factor): it will run hot.",
                 u.power(rms_w),
-                u.power(rated_w)
+                u.power(limit_w)
             ),
             Finding::MotorPeakOverload { peak_w, limit_w } => format!(
-                "The cycle's peak of {} is above the {} the motor can carry (rating times service factor).",
+                "The cycle's peak of {} is above the {} the motor may carry briefly (rating times peak allowance): it may stall or trip.",
                 u.power(peak_w),
                 u.power(limit_w)
             ),

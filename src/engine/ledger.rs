@@ -137,17 +137,20 @@ pub fn cycle_totals(phases: &[(PowerLedger, f64)], site: &Site, oil: &Oil) -> Cy
     }
 }
 
-/// What the motor's sizing says about the cycle.
+/// What the motor's sizing says about the cycle: the RMS load against what it may carry
+/// continuously (rating x service factor), the peak against what it may carry briefly (rating x
+/// peak allowance). The staging search sizes motors on the same two criteria.
 pub fn motor_findings(motor: &Motor, totals: &CycleTotals) -> Vec<Finding> {
     let rated = motor.rated_power.value;
     let mut findings = Vec::new();
-    if totals.rms_shaft.value > rated * (1.0 + 1e-9) {
+    let continuous = rated * motor.service_factor;
+    if totals.rms_shaft.value > continuous * (1.0 + 1e-9) {
         findings.push(Finding::MotorRmsOverload {
             rms_w: totals.rms_shaft.value,
-            rated_w: rated,
+            limit_w: continuous,
         });
     }
-    let limit = rated * motor.service_factor;
+    let limit = rated * motor.peak_allowance;
     if totals.peak_shaft.value > limit * (1.0 + 1e-9) {
         findings.push(Finding::MotorPeakOverload {
             peak_w: totals.peak_shaft.value,
@@ -201,4 +204,66 @@ pub fn compare(
 
 pub(crate) fn watts(w: f64) -> Power {
     Power::new::<uom::si::power::watt>(w)
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use uom::si::f64::{AngularVelocity, Energy};
+
+    fn totals(rms_w: f64, peak_w: f64) -> CycleTotals {
+        let w = watts;
+        CycleTotals {
+            cycle_time: Time::new::<uom::si::time::second>(10.0),
+            energy_per_cycle: Energy::new::<uom::si::energy::joule>(0.0),
+            average_electrical: w(0.0),
+            peak_electrical: w(0.0),
+            rms_electrical: w(0.0),
+            average_shaft: w(0.0),
+            peak_shaft: w(peak_w),
+            rms_shaft: w(rms_w),
+            heat_load: w(0.0),
+            heat_load_btu_per_hour: 0.0,
+            oil_rise_k_per_minute: 0.0,
+            annual_energy_kwh: 0.0,
+            annual_cost: 0.0,
+        }
+    }
+
+    fn motor(service_factor: f64, peak_allowance: f64) -> Motor {
+        Motor {
+            rated_power: watts(10_000.0),
+            full_load_speed: AngularVelocity::new::<uom::si::angular_velocity::revolution_per_minute>(
+                1450.0,
+            ),
+            full_load_efficiency: 0.9,
+            fixed_loss_share: 0.35,
+            service_factor,
+            peak_allowance,
+        }
+    }
+
+    #[test]
+    fn the_rms_is_judged_on_the_service_factor_and_the_peak_on_the_peak_allowance() {
+        let rms = |f: &[Finding]| {
+            f.iter()
+                .any(|f| matches!(f, Finding::MotorRmsOverload { .. }))
+        };
+        let peak = |f: &[Finding]| {
+            f.iter()
+                .any(|f| matches!(f, Finding::MotorPeakOverload { .. }))
+        };
+        // 11 kW RMS on a 10 kW motor: over at service factor 1.0, within 1.15.
+        assert!(rms(&motor_findings(&motor(1.0, 1.25), &totals(11e3, 11e3))));
+        assert!(!rms(&motor_findings(
+            &motor(1.15, 1.25),
+            &totals(11e3, 11e3)
+        )));
+        // A 13 kW peak: over 1.25 x 10 kW = 12.5 kW, within 1.5 x 10 kW.
+        assert!(peak(&motor_findings(&motor(1.0, 1.25), &totals(9e3, 13e3))));
+        assert!(!peak(&motor_findings(&motor(1.0, 1.5), &totals(9e3, 13e3))));
+        // The peak allowance, not the service factor, judges the peak.
+        assert!(peak(&motor_findings(&motor(1.4, 1.25), &totals(9e3, 13e3))));
+        assert!(motor_findings(&motor(1.0, 1.25), &totals(10e3, 12.5e3)).is_empty());
+    }
 }

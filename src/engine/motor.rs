@@ -16,8 +16,23 @@ pub struct Motor {
     /// The share of the full-load loss that is fixed (iron, friction, windage): it is drawn
     /// even unloaded. The rest grows with the square of the load (copper losses).
     pub fixed_loss_share: f64,
-    /// Multiplier on rated power giving the permissible continuous load (NEMA MG 1, 1.42).
+    /// Multiplier on rated power giving the permissible continuous load (NEMA MG 1, 1.42):
+    /// the RMS load over the cycle may reach rating x service factor.
     pub service_factor: f64,
+    /// Multiplier on rated power the motor may carry for the short peak of a cycle (absent in
+    /// older files: [`TYPICAL_PEAK_ALLOWANCE`]). The motor's breakdown torque and the maker
+    /// decide; a peak above it stalls or trips the motor.
+    #[serde(default = "typical_peak_allowance")]
+    pub peak_allowance: f64,
+}
+
+/// How far over its rating a motor is commonly let run for a short peak (common practice:
+/// about 1.25; induction motors' breakdown torque is usually two to three times rated, so
+/// this leaves margin for low supply voltage and heating).
+pub const TYPICAL_PEAK_ALLOWANCE: f64 = 1.25;
+
+fn typical_peak_allowance() -> f64 {
+    TYPICAL_PEAK_ALLOWANCE
 }
 
 /// A typical fixed share of a motor's full-load loss (common practice, roughly a third).
@@ -51,6 +66,7 @@ mod tests {
             full_load_efficiency: 0.921,
             fixed_loss_share: share,
             service_factor: 1.0,
+            peak_allowance: TYPICAL_PEAK_ALLOWANCE,
         }
     }
 

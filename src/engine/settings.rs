@@ -10,7 +10,7 @@
 
 use super::cycle::{HoldMode, PhaseKind, SpeedRule};
 use super::job::Job;
-use super::power_unit::Design;
+use super::power_unit::{Design, UnloadingStage};
 use super::pump::PumpAtSpeed;
 use super::valve::{ActiveLimit, IdlePath};
 use super::{solve_design, DesignReport};
@@ -140,6 +140,16 @@ pub enum Rule {
     MainAboveNeed { main_pa: f64, lowest_pa: f64 },
     /// The main relief is below what the most demanding phase needs.
     MainBelowNeed { main_pa: f64, lowest_pa: f64 },
+    /// The main relief lets the system line rise above the rating of the pump on it.
+    MainAboveRating { main_pa: f64, rating_pa: f64 },
+    /// Before it unloads, a staged pump's outlet reaches its unloading setting plus its check
+    /// valve's cracking pressure: above the pump's rating.
+    UnloadingAboveRating {
+        pump: usize,
+        setting_pa: f64,
+        cracking_pa: f64,
+        rating_pa: f64,
+    },
     /// An unloading setting outside the window its phases allow; `window` is (lowest,
     /// highest) setting that keeps the pump feeding where its flow is needed and unloads it
     /// where it is not.
@@ -488,8 +498,23 @@ pub fn advise(job: &Job, index: usize) -> Vec<Advice> {
         }
     }
 
-    // The main relief serves the most demanding phase (remote stages only go lower).
-    if let Some(highest) = cycle_lowest_limit(&needs) {
+    // The main relief serves the most demanding phase (remote stages only go lower), and
+    // never lets the system line past the pump's rating.
+    let highest = cycle_lowest_limit(&needs);
+    if main > rating * (1.0 + 1e-9) {
+        let action = highest.filter(|h| *h <= rating).map(|h| Action::SetMain {
+            pressure: pascals(round_up_setting(h, us).min(rating)),
+        });
+        push(
+            Severity::Caution,
+            Rule::MainAboveRating {
+                main_pa: main,
+                rating_pa: rating,
+            },
+            action,
+            None,
+        );
+    } else if let Some(highest) = highest {
         if highest <= rating {
             let target = round_up_setting(highest, us).min(rating);
             if main < highest * (1.0 - 1e-9) {
@@ -582,6 +607,8 @@ pub enum UnloadingWindow {
     Open {
         low: f64,
         high: f64,
+        /// The phase that sets `low`, if any: none when no phase needs the pump's flow.
+        with_phase: Option<usize>,
         /// The phase that sets `high`, if any.
         without_phase: Option<usize>,
     },
@@ -594,19 +621,46 @@ pub enum UnloadingWindow {
     },
 }
 
+/// How to judge whether a move at all pump flow needs an unloading pump's flow.
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub enum FlowNeed<'a> {
+    /// While the motor (rating x service factor) can carry the move with that pump and the
+    /// ones after it feeding: the advice on a unit as it stands, whose motor is given.
+    MotorCarries,
+    /// While the pumps after it alone would make the move slower than its longest time (s, one
+    /// per phase; `None`: keep the flow): the staging search, where the motor is still to be
+    /// chosen and the move times are the constraint.
+    MoveTimes(&'a [Option<f64>]),
+}
+
+/// The window for pump `k` as the advice judges it ([`FlowNeed::MotorCarries`]).
 pub fn unloading_window(
     job: &Job,
     design: &Design,
     needs: &[PhaseNeed],
     k: usize,
 ) -> UnloadingWindow {
+    unloading_window_by(job, design, needs, k, FlowNeed::MotorCarries)
+}
+
+/// The window for pump `k`, judging which moves need its flow by `rule`. Under
+/// [`FlowNeed::MoveTimes`] a phase that could run without the pump but sits below the pressure
+/// the others need it to, within the margin, keeps it (it runs faster than it must): the window
+/// is then never empty for want of a choice the search could make.
+pub fn unloading_window_by(
+    job: &Job,
+    design: &Design,
+    needs: &[PhaseNeed],
+    k: usize,
+    rule: FlowNeed,
+) -> UnloadingWindow {
     let policy = &job.advice;
     let rps = design.motor.revolutions_per_second();
     let pumps: Vec<PumpAtSpeed> = design.pumps().map(|p| PumpAtSpeed::new(p, rps)).collect();
     let motor_limit = design.motor.rated_power.value * design.motor.service_factor;
     let later_flow = |p: f64| pumps[k + 1..].iter().map(|q| q.delivered(p)).sum::<f64>();
-    let mut with: Option<(usize, f64)> = None;
-    let mut without: Option<(usize, f64)> = None;
+    // (phase, needs the flow, its pressure without the pump, its pressure with it)
+    let mut judged: Vec<(usize, bool, f64, f64)> = Vec::new();
     for (i, phase) in job.cycle.iter().enumerate() {
         let Some(need) = needs.get(i).and_then(|n| n.need_pa) else {
             continue;
@@ -629,13 +683,23 @@ pub fn unloading_window(
         let runs_at_limit = demand.is_some_and(|q| q < supply * (1.0 - 1e-9));
         let needs_flow = match &phase.kind {
             PhaseKind::Move(m) => match m.speed {
-                SpeedRule::AllPumpFlow => {
-                    let shaft: f64 = pumps[k..]
-                        .iter()
-                        .map(|q| q.shaft_power(need, q.delivered(need)))
-                        .sum();
-                    shaft <= motor_limit
-                }
+                SpeedRule::AllPumpFlow => match rule {
+                    FlowNeed::MotorCarries => {
+                        let shaft: f64 = pumps[k..]
+                            .iter()
+                            .map(|q| q.shaft_power(need, q.delivered(need)))
+                            .sum();
+                        shaft <= motor_limit
+                    }
+                    FlowNeed::MoveTimes(times) => {
+                        let volume =
+                            m.cylinder.working_area_m2(m.direction) * m.cylinder.stroke.value;
+                        match times.get(i).copied().flatten() {
+                            Some(longest) => volume > later_flow(need) * longest,
+                            None => true,
+                        }
+                    }
+                },
                 SpeedRule::MeteredSpeed { speed } => {
                     speed.value * m.cylinder.working_area_m2(m.direction) > later_flow(need)
                 }
@@ -644,44 +708,63 @@ pub fn unloading_window(
             PhaseKind::Direct(d) => d.flow.value > later_flow(need),
             PhaseKind::Hold(_) | PhaseKind::Idle(_) => false,
         };
-        let pressure = if needs_flow && runs_at_limit {
+        let with_pressure = if runs_at_limit {
             need.max(needs[i].limit_pa)
         } else {
             need
         };
-        let slot = if needs_flow { &mut with } else { &mut without };
-        let better = |old: f64| {
-            if needs_flow {
-                pressure > old
-            } else {
-                pressure < old
-            }
-        };
-        if slot.is_none_or(|(_, old)| better(old)) {
-            *slot = Some((i, pressure));
-        }
+        judged.push((i, needs_flow, need, with_pressure));
     }
     let margin = |p: f64| (p * policy.margin_fraction).max(policy.margin_min.value);
+    let low_of = |judged: &[(usize, bool, f64, f64)]| {
+        judged
+            .iter()
+            .filter(|j| j.1)
+            .map(|j| (j.0, j.3))
+            .reduce(|a, b| if b.1 > a.1 { b } else { a })
+    };
+    if matches!(rule, FlowNeed::MoveTimes(_)) {
+        // Keep the pump in every phase the setting could not sit below with its margin.
+        while let Some((_, top)) = low_of(&judged) {
+            let low = top + margin(top);
+            let mut changed = false;
+            for j in judged.iter_mut().filter(|j| !j.1) {
+                if j.2 - margin(j.2) < low {
+                    j.1 = true;
+                    changed = true;
+                }
+            }
+            if !changed {
+                break;
+            }
+        }
+    }
+    let with = low_of(&judged);
+    let without = judged
+        .iter()
+        .filter(|j| !j.1)
+        .map(|j| (j.0, j.2))
+        .reduce(|a, b| if b.1 < a.1 { b } else { a });
     let vent = design.vent_pressure.value;
     // With no phase needing the pump's flow, it may unload from the start.
     let low = with.map_or(vent, |(_, p)| p + margin(p));
     let high = without.map_or(f64::INFINITY, |(_, p)| (p - margin(p)).max(vent));
     let without_phase = without.map(|(i, _)| i);
-    if with.is_some() && without.is_some() && low > high {
-        let ((with_phase, with_pa), (without_phase, without_pa)) =
-            (with.unwrap_or_default(), without.unwrap_or_default());
-        UnloadingWindow::Impossible {
-            with_phase,
-            with_pa,
-            without_phase,
-            without_pa,
+    match (with, without) {
+        (Some((with_phase, with_pa)), Some((without_phase, without_pa))) if low > high => {
+            UnloadingWindow::Impossible {
+                with_phase,
+                with_pa,
+                without_phase,
+                without_pa,
+            }
         }
-    } else {
-        UnloadingWindow::Open {
+        _ => UnloadingWindow::Open {
             low,
             high: high.max(low),
+            with_phase: with.map(|(i, _)| i),
             without_phase,
-        }
+        },
     }
 }
 
@@ -697,6 +780,13 @@ pub fn proposed_unloading(low: f64, high: f64, design: &Design, us: bool) -> f64
     }
 }
 
+/// Whether a stage's unloading valve can be set at `setting` (Pa): above the pressure it drops
+/// to unloaded, and with its check valve's cracking pressure within the pump's rating.
+pub(crate) fn unloading_fits(stage: &UnloadingStage, setting: f64) -> bool {
+    setting > stage.unloading.unloaded_drop.value
+        && setting + stage.check.cracking.value <= stage.pump.rated_pressure.value
+}
+
 fn unloading_advice(
     job: &Job,
     design: &Design,
@@ -707,7 +797,34 @@ fn unloading_advice(
     for (k, stage) in design.unloading_stages.iter().enumerate() {
         let setting = stage.unloading.setting.value;
         let pump = k + 1;
-        match unloading_window(job, design, needs, k) {
+        let cracking = stage.check.cracking.value;
+        let rating = stage.pump.rated_pressure.value;
+        let window = unloading_window(job, design, needs, k);
+        if setting + cracking > rating * (1.0 + 1e-9) {
+            let action = match window {
+                UnloadingWindow::Open { low, high, .. } => {
+                    let target = proposed_unloading(low, high, design, us);
+                    unloading_fits(stage, target).then_some(Action::SetUnloading {
+                        pump,
+                        pressure: pascals(target),
+                    })
+                }
+                UnloadingWindow::Impossible { .. } => None,
+            };
+            push(
+                Severity::Caution,
+                Rule::UnloadingAboveRating {
+                    pump,
+                    setting_pa: setting,
+                    cracking_pa: cracking,
+                    rating_pa: rating,
+                },
+                action,
+                None,
+            );
+            continue;
+        }
+        match window {
             UnloadingWindow::Impossible {
                 with_phase,
                 with_pa,
@@ -729,14 +846,13 @@ fn unloading_advice(
                 low,
                 high,
                 without_phase,
+                ..
             } if setting < low || setting > high => {
                 let target = proposed_unloading(low, high, design, us);
-                let action = (target + stage.check.cracking.value
-                    <= stage.pump.rated_pressure.value)
-                    .then_some(Action::SetUnloading {
-                        pump,
-                        pressure: pascals(target),
-                    });
+                let action = unloading_fits(stage, target).then_some(Action::SetUnloading {
+                    pump,
+                    pressure: pascals(target),
+                });
                 // Too low, the pump unloads where its flow is needed (a slow move); too high,
                 // it keeps feeding at pressure: power and heat, and where that phase is a move
                 // at all pump flow, more than the motor can carry.
@@ -846,6 +962,20 @@ impl Advice {
                 format!(
                     "Set at {}; the most demanding phase needs a limit of {}: it leaks over the relief or stalls.",
                     p(main_pa), p(lowest_pa)
+                ),
+            ),
+            Rule::MainAboveRating { main_pa, rating_pa } => (
+                "Main relief: above the pump's rating".to_string(),
+                format!(
+                    "Set at {}, above the {} rating of the pump on the system line: a stalled load or a closed valve takes the pump past what its maker allows. Set the main relief at or below the rating.",
+                    p(main_pa), p(rating_pa)
+                ),
+            ),
+            Rule::UnloadingAboveRating { pump, setting_pa, cracking_pa, rating_pa } => (
+                format!("Pump {pump}: sees more than its rating before it unloads"),
+                format!(
+                    "Its unloading valve is set at {} and its check valve cracks at {}: its outlet reaches {} before it unloads, above its rating of {}.",
+                    p(setting_pa), p(cracking_pa), p(setting_pa + cracking_pa), p(rating_pa)
                 ),
             ),
             Rule::UnloadingOutside { pump, setting_pa, window: (low, high) } => (

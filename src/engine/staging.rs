@@ -12,12 +12,12 @@ use super::cycle::PhaseKind;
 use super::job::Job;
 use super::power_unit::{Design, UnloadingStage};
 use super::pump::{Pump, PumpControl};
-use super::settings::{self, UnloadingWindow};
+use super::settings::{self, FlowNeed, UnloadingWindow};
 use super::solve_design;
 use super::valve::{ActiveLimit, CheckValve, IdlePath, UnloadingValve};
 use super::Finding;
 use serde::{Deserialize, Serialize};
-use uom::si::f64::{AngularVelocity, Power, Pressure, Volume};
+use uom::si::f64::{AngularVelocity, Power, Pressure, Time, Volume};
 
 /// Standard motor ratings to size on.
 #[derive(Clone, Copy, Debug, PartialEq, Eq, Serialize, Deserialize, Default)]
@@ -75,9 +75,14 @@ pub struct StagingOptions {
     /// How far over its rating the motor may be loaded at the cycle's peak (common practice:
     /// about 1.25 for short peaks; the motor's breakdown torque decides).
     pub peak_allowance: f64,
-    /// How much slower than as found each move phase and the cycle may be, as a share
-    /// (0: no slower).
-    pub slower_allowed: f64,
+    /// The longest the whole cycle may take. Absent: no limit beyond the moves' own (each
+    /// move's target time, as found unless set on the move; the other phases' times are set).
+    #[serde(
+        default,
+        rename = "cycle_time_target_s",
+        skip_serializing_if = "Option::is_none"
+    )]
+    pub cycle_time_target: Option<Time>,
 }
 
 impl Default for StagingOptions {
@@ -102,7 +107,7 @@ impl Default for StagingOptions {
             motor_steps: MotorSteps::IecKw,
             service_factor: 1.0,
             peak_allowance: 1.25,
-            slower_allowed: 0.0,
+            cycle_time_target: None,
         }
     }
 }
@@ -239,8 +244,10 @@ fn pascals(pa: f64) -> Pressure {
 }
 
 /// The design for `spec`, from the baseline's components; `None` when no unloading setting
-/// or relief setting can serve the cycle within the ratings.
-pub fn build(job: &Job, baseline: &Design, spec: &Spec) -> Option<Design> {
+/// or relief setting can serve the cycle within the ratings. A staged pump feeds the moves
+/// that would be slower than `targets` without it, and unloads in the rest where the
+/// pressures allow.
+pub fn build(job: &Job, baseline: &Design, spec: &Spec, targets: &Targets) -> Option<Design> {
     let us = job.units == super::units::UnitSystem::UsCustomary;
     let (&base_size, stage_sizes) = spec.displacements.split_last()?;
     let stage_template = baseline
@@ -304,15 +311,22 @@ pub fn build(job: &Job, baseline: &Design, spec: &Spec) -> Option<Design> {
         return None;
     }
     for k in 0..design.unloading_stages.len() {
-        match settings::unloading_window(job, &design, &needs, k) {
-            UnloadingWindow::Open { low, high, .. } => {
+        let rule = FlowNeed::MoveTimes(&targets.phase_times);
+        match settings::unloading_window_by(job, &design, &needs, k, rule) {
+            UnloadingWindow::Open {
+                low,
+                high,
+                with_phase,
+                ..
+            } => {
                 let setting = settings::proposed_unloading(low, high, &design, us);
-                let stage = &design.unloading_stages[k];
-                if setting >= design.relief.setting.value
-                    || setting + stage.check.cracking.value > stage.pump.rated_pressure.value
+                if with_phase.is_none()
+                    || setting >= design.relief.setting.value
+                    || !settings::unloading_fits(&design.unloading_stages[k], setting)
                 {
-                    // The pump would never unload (a smaller set serves the cycle the same),
-                    // or it would see more than its rating.
+                    // The pump would never feed, or never unload (the spec without it, or
+                    // with a smaller pump, serves the cycle the same), or it would see more
+                    // than its rating.
                     return None;
                 }
                 design.unloading_stages[k].unloading.setting = pascals(setting);
@@ -323,29 +337,33 @@ pub fn build(job: &Job, baseline: &Design, spec: &Spec) -> Option<Design> {
     Some(design)
 }
 
-/// The limits a candidate must meet, from the baseline's own results.
+/// The limits a candidate must meet.
 #[derive(Clone, Debug, PartialEq)]
 pub struct Targets {
     /// The longest each phase may take (s); `None` for phases whose time is set, not driven.
     pub phase_times: Vec<Option<f64>>,
-    pub cycle_time: f64,
+    /// The longest the cycle may take (s); `None`: no limit beyond the phases'.
+    pub cycle_time: Option<f64>,
 }
 
-/// The targets from the baseline ("as found") and the allowance.
+/// The targets: each move's own target time, or its time with the baseline ("as found");
+/// the options' cycle time, if any. `None` for a job with no design.
 pub fn targets(job: &Job, options: &StagingOptions) -> Option<Targets> {
     let baseline = job.designs.first()?;
     let report = solve_design(job, baseline);
-    let allow = 1.0 + options.slower_allowed.max(0.0);
     Some(Targets {
         phase_times: job
             .cycle
             .iter()
             .zip(&report.phases)
-            .map(|(phase, r)| {
-                matches!(phase.kind, PhaseKind::Move(_)).then(|| r.point.duration.value * allow)
+            .map(|(phase, r)| match &phase.kind {
+                PhaseKind::Move(m) => {
+                    Some(m.target_time.map_or(r.point.duration.value, |t| t.value))
+                }
+                _ => None,
             })
             .collect(),
-        cycle_time: report.totals.cycle_time.value * allow,
+        cycle_time: options.cycle_time_target.map(|t| t.value),
     })
 }
 
@@ -357,7 +375,7 @@ pub fn evaluate(
     spec: &Spec,
 ) -> Option<Candidate> {
     let baseline = job.designs.first()?;
-    let design = build(job, baseline, spec)?;
+    let design = build(job, baseline, spec, targets)?;
     let report = solve_design(job, &design);
     const SLACK: f64 = 1.0 + 1e-9;
     for (phase, limit) in report.phases.iter().zip(&targets.phase_times) {
@@ -375,7 +393,10 @@ pub fn evaluate(
         }
     }
     let totals = &report.totals;
-    if totals.cycle_time.value > targets.cycle_time * SLACK {
+    if targets
+        .cycle_time
+        .is_some_and(|t| totals.cycle_time.value > t * SLACK)
+    {
         return None;
     }
     let rms = totals.rms_shaft.value;
@@ -383,10 +404,12 @@ pub fn evaluate(
     let motor_w = options.motor_steps.ratings_w().into_iter().find(|&rated| {
         rated * options.service_factor >= rms && rated * options.peak_allowance >= peak
     })?;
-    // The energy with the motor of that size: its loss depends on its rating.
+    // The energy with the motor of that size: its loss depends on its rating. It carries the
+    // sizing's factors, so the engine's motor findings judge it as the search did.
     let mut motor = design.motor;
     motor.rated_power = Power::new::<uom::si::power::watt>(motor_w);
     motor.service_factor = options.service_factor;
+    motor.peak_allowance = options.peak_allowance;
     let energy = report
         .phases
         .iter()

@@ -242,7 +242,15 @@ pub fn validate(job: &Job) -> Result<(), Vec<InputError>> {
     }
     c.plain("staging.service_factor", st.service_factor, false, 2.0, "");
     c.plain("staging.peak_allowance", st.peak_allowance, false, 5.0, "");
-    c.plain("staging.slower_allowed", st.slower_allowed, true, 10.0, "");
+    if let Some(t) = st.cycle_time_target {
+        c.plain(
+            "staging.cycle_time_target_s",
+            t.value,
+            false,
+            MAX_DURATION,
+            "s",
+        );
+    }
     if st.service_factor.is_finite() && st.service_factor < 1.0 {
         c.fail("staging.service_factor", "a service factor is 1 or more");
     }
@@ -296,6 +304,9 @@ fn check_phase(c: &mut Checker, kind: &PhaseKind) {
                     c.flow("speed.flow_m3_per_s", flow.value, false);
                 }
             }
+            if let Some(t) = m.target_time {
+                c.plain("target_time_s", t.value, false, MAX_DURATION, "s");
+            }
         }
         PhaseKind::Hold(h) => {
             c.pressure("pressure_pa", h.pressure.value, false);
@@ -331,6 +342,12 @@ fn check_design(c: &mut Checker, d: &Design, job: &Job) {
         c.fail(
             "motor.service_factor",
             "must be between 1.0 and 2.0 (1.0 if the nameplate shows none)",
+        );
+    }
+    if !(m.peak_allowance.is_finite() && (1.0..=3.0).contains(&m.peak_allowance)) {
+        c.fail(
+            "motor.peak_allowance",
+            "must be between 1.0 and 3.0 (1.25 is usual; the motor's breakdown torque decides)",
         );
     }
     if d.pump_count() > MAX_PUMPS {

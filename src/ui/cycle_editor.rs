@@ -27,6 +27,7 @@ pub fn new_phase(kind: &str, name: &str) -> Phase {
             },
             line_loss: Pressure::new::<bar>(3.0),
             speed: SpeedRule::AllPumpFlow,
+            target_time: None,
         }),
         "hold" => PhaseKind::Hold(HoldPhase {
             pressure: Pressure::new::<bar>(100.0),

@@ -45,9 +45,51 @@ pub fn NumberField(
     get: impl Fn(&Job) -> f64 + Send + Sync + 'static,
     set: impl Fn(&mut Job, f64) + Send + Sync + 'static,
 ) -> impl IntoView {
+    // Empty text is a missing number: the job holds NaN and validation says so.
+    number_input(
+        label,
+        path,
+        measure,
+        None,
+        Arc::new(get),
+        Arc::new(move |j: &mut Job, v: Option<f64>| set(j, v.unwrap_or(f64::NAN))),
+    )
+}
+
+/// A number the job may leave out: empty text leaves it out, and the placeholder says what
+/// applies then ("as found: 2.4").
+#[component]
+pub fn OptionalNumberField(
+    #[prop(into)] label: String,
+    #[prop(into)] path: String,
+    measure: Measure,
+    #[prop(into)] placeholder: Signal<String>,
+    get: impl Fn(&Job) -> Option<f64> + Send + Sync + 'static,
+    set: impl Fn(&mut Job, Option<f64>) + Send + Sync + 'static,
+) -> impl IntoView {
+    number_input(
+        label,
+        path,
+        measure,
+        Some(placeholder),
+        Arc::new(move |j: &Job| get(j).unwrap_or(f64::NAN)),
+        Arc::new(set),
+    )
+}
+
+type Getter = Arc<dyn Fn(&Job) -> f64 + Send + Sync>;
+/// Receives `None` for empty text, `Some(NaN)` for text that is not a number.
+type Setter = Arc<dyn Fn(&mut Job, Option<f64>) + Send + Sync>;
+
+fn number_input(
+    label: String,
+    path: String,
+    measure: Measure,
+    placeholder: Option<Signal<String>>,
+    get: Getter,
+    set: Setter,
+) -> impl IntoView {
     let state = use_job();
-    let get = Arc::new(get);
-    let set = Arc::new(set);
     let model = {
         let get = get.clone();
         move || state.job.with(|j| get(j))
@@ -78,11 +120,12 @@ pub fn NumberField(
     let on_input = move |ev: leptos::ev::Event| {
         let raw = event_target_value(&ev);
         let system = units();
-        let si = parse_number(&raw).map_or(f64::NAN, |n| measure.from_shown(system, n));
+        let typed = (!raw.trim().is_empty())
+            .then(|| parse_number(&raw).map_or(f64::NAN, |n| measure.from_shown(system, n)));
         text.set(raw);
-        shown.set_value((si, system));
+        shown.set_value((typed.unwrap_or(f64::NAN), system));
         let set = set.clone();
-        state.job.update(|j| set(j, si));
+        state.job.update(|j| set(j, typed));
     };
     let id = field_id(&path);
     let error_id = format!("{id}-error");
@@ -102,6 +145,7 @@ pub fn NumberField(
                     spellcheck="false"
                     data-path=path
                     prop:value=move || text.get()
+                    placeholder=move || placeholder.map(|p| p.get())
                     aria-invalid=move || error.get().is_some().then_some("true")
                     aria-describedby=error_id.clone()
                     on:input=on_input

@@ -3,14 +3,16 @@
 //! between motor size and cycle time, and one action that makes a candidate the proposed
 //! design. The search itself is `engine::staging`.
 
-use super::field::NumberField;
+use super::field::{NumberField, OptionalNumberField};
 use super::state::use_job;
+use crate::engine::cycle::PhaseKind;
 use crate::engine::staging::{self, Candidate, MotorSteps, Search, SearchResult};
 use crate::engine::units::{format_list, parse_list, Measure, UnitSystem};
 use crate::engine::Job;
 use leptos::prelude::*;
 use std::cell::RefCell;
 use std::rc::Rc;
+use uom::si::f64::Time;
 
 /// Candidates evaluated between two looks at the clock.
 const BATCH: usize = 50;
@@ -264,9 +266,82 @@ fn StagingOptionsEditor() -> impl IntoView {
                 get=|j: &Job| j.staging.service_factor set=|j: &mut Job, v| j.staging.service_factor = v />
             <NumberField label="Peak over rating allowed" path="staging.peak_allowance" measure=Measure::Factor
                 get=|j: &Job| j.staging.peak_allowance set=|j: &mut Job, v| j.staging.peak_allowance = v />
-            <NumberField label="Slower than as found allowed" path="staging.slower_allowed" measure=Measure::Percent
-                get=|j: &Job| j.staging.slower_allowed set=|j: &mut Job, v| j.staging.slower_allowed = v />
         </details>
+        <LongestTimes />
+    }
+}
+
+/// The longest each move and the cycle may take, for the search: empty keeps a move as fast
+/// as it is with the baseline design, and leaves the cycle free within its moves' times.
+#[component]
+fn LongestTimes() -> impl IntoView {
+    let state = use_job();
+    // Only the list of moves redraws the fields, so typing in one keeps its focus.
+    let moves = Memo::new(move |_| {
+        state.job.with(|j| {
+            j.cycle
+                .iter()
+                .enumerate()
+                .filter(|(_, p)| matches!(p.kind, PhaseKind::Move(_)))
+                .map(|(i, p)| (i, p.name.clone()))
+                .collect::<Vec<_>>()
+        })
+    });
+    let as_found = move |i: Option<usize>| {
+        let u = state.units();
+        state.last_good.with(|r| {
+            r.as_ref()
+                .and_then(|r| r.designs.first())
+                .and_then(|d| match i {
+                    Some(i) => d.phases.get(i).map(|p| p.point.duration.value),
+                    None => Some(d.totals.cycle_time.value),
+                })
+                .map_or(String::new(), |t| {
+                    format!("as found: {}", Measure::Duration.format(u, t))
+                })
+        })
+    };
+    view! {
+        <details class="staging-options" open>
+            <summary>"How fast it must stay"</summary>
+            <p class="hint">"A candidate must make each move in no more than its time here, and the whole cycle in no more than the cycle time. Leave a move empty to keep it as fast as it is now."</p>
+            <div class="field-grid">
+                {move || moves.get().into_iter().map(|(i, name)| view! {
+                    <OptionalNumberField label=format!("{}. {name}", i + 1) path=format!("cycle[{i}].target_time_s")
+                        measure=Measure::Duration placeholder=Signal::derive(move || as_found(Some(i)))
+                        get=move |j: &Job| move_target(j, i)
+                        set=move |j: &mut Job, v| set_move_target(j, i, v) />
+                }).collect_view()}
+                <OptionalNumberField label="Whole cycle" path="staging.cycle_time_target_s" measure=Measure::Duration
+                    placeholder=Signal::derive(move || as_found(None).replace("as found", "free; as found"))
+                    get=cycle_target set=set_cycle_target />
+            </div>
+        </details>
+    }
+}
+
+fn seconds(s: f64) -> Time {
+    Time::new::<uom::si::time::second>(s)
+}
+
+fn cycle_target(j: &Job) -> Option<f64> {
+    j.staging.cycle_time_target.map(|t| t.value)
+}
+
+fn set_cycle_target(j: &mut Job, v: Option<f64>) {
+    j.staging.cycle_time_target = v.map(seconds);
+}
+
+fn move_target(j: &Job, i: usize) -> Option<f64> {
+    match j.cycle.get(i).map(|p| &p.kind) {
+        Some(PhaseKind::Move(m)) => m.target_time.map(|t| t.value),
+        _ => None,
+    }
+}
+
+fn set_move_target(j: &mut Job, i: usize, v: Option<f64>) {
+    if let Some(PhaseKind::Move(m)) = j.cycle.get_mut(i).map(|p| &mut p.kind) {
+        m.target_time = v.map(seconds);
     }
 }
 

@@ -196,6 +196,9 @@ fn DesignEditor(d: usize) -> impl IntoView {
             <NumberField label="Service factor" path=format!("designs[{d}].motor.service_factor") measure=Measure::Factor
                 get=move |j: &Job| design(j, d).map_or(f64::NAN, |x| x.motor.service_factor)
                 set=move |j: &mut Job, v| if let Some(x) = design_mut(j, d) { x.motor.service_factor = v } />
+            <NumberField label="Short peak allowed over rating" path=format!("designs[{d}].motor.peak_allowance") measure=Measure::Factor
+                get=move |j: &Job| design(j, d).map_or(f64::NAN, |x| x.motor.peak_allowance)
+                set=move |j: &mut Job, v| if let Some(x) = design_mut(j, d) { x.motor.peak_allowance = v } />
         </div>
 
         <h2>"Pumps, in shaft order"</h2>

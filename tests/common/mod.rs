@@ -88,6 +88,7 @@ pub fn motor(kw_rated: f64, rpm: f64, efficiency: f64) -> Motor {
         full_load_efficiency: efficiency,
         fixed_loss_share: 0.35,
         service_factor: 1.0,
+        peak_allowance: phasewise::engine::motor::TYPICAL_PEAK_ALLOWANCE,
     }
 }
 
@@ -159,6 +160,7 @@ pub fn move_phase(
             },
             line_loss: bar_(line_bar),
             speed,
+            target_time: None,
         }),
     }
 }

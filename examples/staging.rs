@@ -1,0 +1,57 @@
+//! `cargo run --release --example staging -- [job.json]`: the pump-staging search with the
+//! job's options (the demo job when no file is given): counts, the best candidates and the
+//! motor-size trade-off.
+
+fn main() {
+    let job = match std::env::args().nth(1) {
+        Some(path) => {
+            let text = std::fs::read_to_string(&path).expect("readable file");
+            phasewise::engine::Job::from_json(&text).expect("a job file")
+        }
+        None => phasewise::engine::demo::scrap_baler(),
+    };
+    if let Err(errors) = phasewise::engine::solve(&job) {
+        for e in errors {
+            println!("{}: {}", e.field, e.message);
+        }
+        std::process::exit(1);
+    }
+    let started = std::time::Instant::now();
+    let found = phasewise::engine::staging::search(&job, &job.staging);
+    println!(
+        "{} candidates, {} serve the cycle, {:.1} ms",
+        found.evaluated,
+        found.feasible,
+        started.elapsed().as_secs_f64() * 1e3
+    );
+    for c in &found.best {
+        let cc: Vec<String> = c
+            .spec
+            .displacements
+            .iter()
+            .map(|d| format!("{:.1}", d * 1e6))
+            .collect();
+        let settings: Vec<String> = c
+            .design
+            .unloading_stages
+            .iter()
+            .map(|s| format!("{:.0}", s.unloading.setting.value / 1e5))
+            .collect();
+        println!(
+            "{} cm3/rev{} at {:.0} rpm: motor {:.1} kW, cycle {:.2} s, {:.1} kJ/cycle, RMS {:.2} kW, peak {:.2} kW, main {:.0} bar, unloading [{}] bar",
+            cc.join(" + "),
+            if c.spec.compensated { " compensated" } else { "" },
+            c.spec.speed * 60.0 / std::f64::consts::TAU,
+            c.motor_w / 1e3,
+            c.cycle_time_s,
+            c.energy_per_cycle_j / 1e3,
+            c.rms_shaft_w / 1e3,
+            c.peak_shaft_w / 1e3,
+            c.design.relief.setting.value / 1e5,
+            settings.join(", ")
+        );
+    }
+    for (motor, time) in &found.frontier {
+        println!("motor {:.1} kW: shortest cycle {:.2} s", motor / 1e3, time);
+    }
+}
