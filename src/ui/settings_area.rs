@@ -77,18 +77,20 @@ pub fn SettingsArea() -> impl IntoView {
     }
 }
 
-/// Each phase: what it needs, its limit now, the lowest limit that serves it.
+/// Each phase: what it needs, its limit now, the lowest limit that serves it. The unit sits
+/// in the headings so the four columns fit a phone held upright.
 #[component]
 fn PhaseNeeds(job: Job, needs: Vec<settings::PhaseNeed>) -> impl IntoView {
     let u = job.units;
-    let p = move |pa: Option<f64>| {
-        pa.map_or("none".to_string(), |pa| Measure::Pressure.with_unit(u, pa))
-    };
+    let p =
+        move |pa: Option<f64>| pa.map_or("none".to_string(), |pa| Measure::Pressure.format(u, pa));
+    let unit = Measure::Pressure.label(u);
+    let head = move |text: &'static str| view! { <th scope="col">{text}<span class="unit-head">{unit}</span></th> };
     view! {
         <h2>"Phase by phase"</h2>
         <div class="table-wrap">
             <table class="needs">
-                <thead><tr><th scope="col">"Phase"</th><th scope="col">"Needs"</th><th scope="col">"Limit now"</th><th scope="col">"Lowest that serves"</th></tr></thead>
+                <thead><tr><th scope="col">"Phase"</th>{head("Needs")}{head("Limit now")}{head("Lowest that serves")}</tr></thead>
                 <tbody>
                     {needs.iter().zip(&job.cycle).map(|(n, phase)| view! {
                         <tr>

@@ -12,14 +12,22 @@ const STORED_JOB: &str = "const k = Object.keys(localStorage).find(k => k.starts
 
 /// The open job as stored, once the autosave has written it.
 async fn stored_job(b: &phasewise_harness::browser::Browser) -> Value {
+    stored_job_when(b, |_| true).await
+}
+
+/// The open job as stored, once the autosave has written a copy that satisfies `ok`.
+async fn stored_job_when(
+    b: &phasewise_harness::browser::Browser,
+    ok: impl Fn(&Value) -> bool,
+) -> Value {
     for _ in 0..100 {
         let stored = b.eval(STORED_JOB).await;
-        if !stored.is_null() {
+        if !stored.is_null() && ok(&stored) {
             return stored;
         }
         tokio::time::sleep(std::time::Duration::from_millis(50)).await;
     }
-    panic!("the job was never saved");
+    panic!("the job was never saved as expected");
 }
 
 /// Runs the search in the page and checks its counts against the engine's native `native`
@@ -68,8 +76,12 @@ async fn the_demo_advice_shows_and_one_applies_to_the_proposed_design() {
     assert_eq!(
         b.sideways_overflow().await,
         0,
-        "the phase table scrolls in its own frame"
+        "nothing pushes the page sideways"
     );
+    let cut = b
+        .eval("const w = document.querySelector('.table-wrap'); return w.scrollWidth - w.clientWidth;")
+        .await;
+    assert_eq!(cut, 0, "the phase table fits a phone without scrolling");
     // The cautions are beside the settings.
     assert!(b.text(".inline-caution").await.contains("locked out"));
     b.screenshot("advice").await;
@@ -133,7 +145,33 @@ async fn the_demo_advice_shows_and_one_applies_to_the_proposed_design() {
 async fn the_staging_search_runs_and_its_best_candidate_becomes_the_proposed_design() {
     let app = AppSession::start_at("staging_search", Viewport::PHONE, "#/settings").await;
     let b = &app.browser;
-    let job = scrap_baler();
+    let mut job = scrap_baler();
+    // The compress move's field says what applies while it is empty: its time as found.
+    let as_found = phasewise::engine::solve(&job).unwrap().designs[0].phases[1]
+        .point
+        .duration
+        .value;
+    let field = "[data-path='cycle[1].target_time_s']";
+    b.wait_for(field).await;
+    let placeholder = b
+        .eval(&format!(
+            "return document.querySelector(\"{field}\").placeholder;"
+        ))
+        .await;
+    assert_eq!(placeholder, format!("as found: {as_found:.2}"));
+    // Letting it take twice as long is kept in the job and searched with.
+    let typed = format!("{:.2}", as_found * 2.0);
+    b.fill(field, &typed).await;
+    let stored = stored_job_when(b, |j| !j["cycle"][1]["target_time_s"].is_null()).await;
+    assert_eq!(
+        stored["cycle"][1]["target_time_s"].as_f64(),
+        typed.parse::<f64>().ok()
+    );
+    if let phasewise::engine::cycle::PhaseKind::Move(m) = &mut job.cycle[1].kind {
+        m.target_time = Some(uom::si::f64::Time::new::<uom::si::time::second>(
+            typed.parse().unwrap(),
+        ));
+    }
     // The engine's own search on the same job, natively.
     let native = phasewise::engine::staging::search(&job, &job.staging);
     assert!(native.evaluated >= 5000 && !native.best.is_empty());
@@ -145,8 +183,13 @@ async fn the_staging_search_runs_and_its_best_candidate_becomes_the_proposed_des
         .await;
     b.wait_for_text("[data-staging-applied]", |t| t.contains("Proposed"))
         .await;
-    let stored = stored_job(b).await;
     let (want, _) = phasewise::engine::staging::apply_candidate(&job, 0, &native.best[0]);
+    // Wait for the save of the applied design (the typed target time was saved before).
+    let motor = want.designs[1].motor.rated_power.value;
+    let stored = stored_job_when(b, |j| {
+        j["designs"][1]["motor"]["rated_power_w"].as_f64() == Some(motor)
+    })
+    .await;
     let proposed: phasewise::engine::power_unit::Design =
         serde_json::from_value(stored["designs"][1].clone()).unwrap();
     assert_eq!(proposed, want.designs[1]);
