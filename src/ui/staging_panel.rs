@@ -147,7 +147,7 @@ fn Found(
     let empty = result.best.is_empty();
     view! {
         <p class="search-summary" data-search-evaluated=result.evaluated data-search-ms=format!("{ms:.1}")>{summary}</p>
-        {empty.then(|| view! { <p class="empty-note">"No candidate meets the phase times with a standard motor. Allow a slower cycle, or add sizes or speeds."</p> })}
+        {empty.then(|| view! { <p class="empty-note">"No candidate meets the move times with a standard motor. Give a move more time under “How fast it must stay”, or add sizes or speeds."</p> })}
         <ol class="candidates">
             {result.best.into_iter().enumerate().map(|(i, c)| {
                 let pumps = c.spec.displacements.iter().map(|d| Measure::Displacement.with_unit(u, *d)).collect::<Vec<_>>().join(" + ");
