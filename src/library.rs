@@ -73,6 +73,17 @@ pub fn write_entry(job: &Job, changed_ms: f64) -> String {
     serde_json::to_string(&saved).expect("a saved job always serialises")
 }
 
+/// The text to store for `job`, or why it cannot be stored yet. A number field left empty or
+/// holding text is NaN in the job, which JSON cannot hold (it would be written as `null` and
+/// never read back): such an entry must not replace the good copy saved before.
+pub fn entry_to_store(job: &Job, changed_ms: f64) -> Result<String, String> {
+    let text = write_entry(job, changed_ms);
+    match read_entry("check", &text) {
+        Entry::Good { saved, .. } if saved.job == *job => Ok(text),
+        _ => Err("a field holds no number yet (it is marked); the copy saved before is kept until every field has one".into()),
+    }
+}
+
 /// Brings a stored entry of format `from` up to [`STORE_VERSION`], one format at a time.
 /// A new format adds its step here and a fixture `tests/fixtures/saved-job-v<N>.json` of the
 /// format before it (the test `every_store_format_has_a_fixture_that_reads` asks for it).
@@ -266,6 +277,23 @@ mod tests {
             }
             other => panic!("{other:?}"),
         }
+    }
+
+    #[test]
+    fn a_half_typed_job_is_not_stored_over_a_good_copy() {
+        let job = scrap_baler();
+        assert!(entry_to_store(&job, 1.0).is_ok());
+        let mut half = job.clone();
+        if let crate::engine::cycle::PhaseKind::Move(m) = &mut half.cycle[0].kind {
+            m.cylinder.bore.value = f64::NAN;
+        }
+        // Written plainly it would not read back: JSON has no NaN.
+        assert!(!matches!(
+            read_entry("a1", &write_entry(&half, 1.0)),
+            Entry::Good { .. }
+        ));
+        let why = entry_to_store(&half, 1.0).unwrap_err();
+        assert!(why.contains("copy saved before is kept"), "{why}");
     }
 
     #[test]

@@ -119,7 +119,13 @@ pub fn save_now(state: &JobState) {
         library::new_id(now_ms(), &strs(&taken))
     });
     let at = now_ms();
-    let text = state.job.with_untracked(|j| library::write_entry(j, at));
+    let text = match state.job.with_untracked(|j| library::entry_to_store(j, at)) {
+        Ok(text) => text,
+        Err(why) => {
+            state.save_note.set(SaveNote::Failed(why));
+            return;
+        }
+    };
     match write(&library::key_of(&id), &text) {
         Ok(()) => {
             let _ = write(library::LAST_OPEN_KEY, &id);

@@ -1,6 +1,6 @@
 //! Jobs kept on the device, in headless Chromium: a change is saved and survives a reload; a
 //! damaged entry is kept, reported and offered as a file while the rest opens; a full storage
-//! says so and keeps the last good copy.
+//! says so and keeps the last good copy; so does a field left holding no number.
 
 use phasewise_harness::browser::{AppSession, Browser, Viewport, APP_READY};
 
@@ -71,6 +71,38 @@ async fn a_damaged_entry_is_kept_and_reported_while_the_rest_opens() {
     assert_eq!(kept, "{\"format\":\"phasewise-saved-job\", oops");
     b.click("li[data-damaged='zz-broken'] .button").await;
     b.screenshot("damaged").await;
+    app.finish().await;
+}
+
+#[tokio::test]
+async fn a_field_holding_no_number_keeps_the_last_good_copy() {
+    let app = AppSession::start("half_typed", Viewport::PHONE).await;
+    let b = &app.browser;
+    rename_open_job(b, "Saved before the slip").await;
+    let stored = "const k = Object.keys(localStorage).find(k => k.startsWith('phasewise.job.')); return localStorage.getItem(k);";
+    let before = b.eval(stored).await;
+    b.click("nav.areas a[href='#/settings']").await;
+    let field = "input[data-path='staging.cycle_time_target_s']";
+    b.fill(field, "a minute").await;
+    b.wait_for_text("#f-staging-cycle_time_target_s-error", |t| !t.is_empty())
+        .await;
+    b.click("nav.areas a[href='#/jobs']").await;
+    b.wait_for_text("[data-save-note]", |t| {
+        t.contains("a field holds no number yet")
+    })
+    .await;
+    assert_eq!(b.eval(stored).await, before, "the stored copy is untouched");
+    reload(b).await;
+    b.click("nav.areas a[href='#/jobs']").await;
+    assert_eq!(
+        b.value("input[data-path='name']").await,
+        "Saved before the slip"
+    );
+    assert_eq!(
+        b.count("li.job-row.damaged").await,
+        0,
+        "nothing reads as damaged"
+    );
     app.finish().await;
 }
 
