@@ -120,6 +120,8 @@ pub fn scrap_baler() -> Job {
         oil: Oil::mineral(Volume::new::<liter>(400.0)),
         advice: Default::default(),
         staging: Default::default(),
+        pump_tests: Vec::new(),
+        wear: Default::default(),
     }
 }
 

@@ -36,6 +36,12 @@ pub struct Job {
     /// What the pump-staging search may choose from (absent in older files: the defaults).
     #[serde(default)]
     pub staging: super::staging::StagingOptions,
+    /// Field tests of the machine's pumps (absent in older files: none).
+    #[serde(default, skip_serializing_if = "Vec::is_empty")]
+    pub pump_tests: Vec<super::efficiency::PumpTest>,
+    /// Where the pump-wear verdict draws its lines (absent: the defaults).
+    #[serde(default)]
+    pub wear: super::efficiency::WearPolicy,
 }
 
 /// Where the machine is and what running it costs.

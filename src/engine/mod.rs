@@ -5,6 +5,7 @@
 
 pub mod cycle;
 pub mod demo;
+pub mod efficiency;
 pub mod finding;
 pub mod job;
 pub mod ledger;

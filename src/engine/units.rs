@@ -94,6 +94,12 @@ pub enum Measure {
     Energy,
     /// A plain multiplier (a service factor).
     Factor,
+    /// Shaft torque, kept in N.m.
+    Torque,
+    /// Line voltage, kept in V.
+    Voltage,
+    /// Line current, kept in A.
+    Current,
 }
 
 impl Measure {
@@ -128,6 +134,10 @@ impl Measure {
             (Measure::RiseRate, Us) => ("°F/min", 1.0 / 1.8, 2),
             (Measure::Energy, _) => ("kWh", KILOWATT_HOUR, 3),
             (Measure::Factor, _) => ("×", 1.0, 2),
+            (Measure::Torque, Si) => ("N·m", 1.0, 1),
+            (Measure::Torque, Us) => ("lbf·ft", POUND_FORCE * 12.0 * INCH, 1),
+            (Measure::Voltage, _) => ("V", 1.0, 0),
+            (Measure::Current, _) => ("A", 1.0, 1),
         }
     }
 
@@ -351,6 +361,9 @@ mod tests {
             RiseRate,
             Energy,
             Factor,
+            Torque,
+            Voltage,
+            Current,
         ];
         for m in all {
             for system in [UnitSystem::Si, UnitSystem::UsCustomary] {

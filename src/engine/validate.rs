@@ -251,6 +251,14 @@ pub fn validate(job: &Job) -> Result<(), Vec<InputError>> {
             "s",
         );
     }
+    c.fraction("wear.good_from", job.wear.good_from, false);
+    c.fraction("wear.worn_below", job.wear.worn_below, false);
+    if job.wear.worn_below > job.wear.good_from {
+        c.fail(
+            "wear.worn_below",
+            "the worn line sits at or below the good line",
+        );
+    }
     if st.service_factor.is_finite() && st.service_factor < 1.0 {
         c.fail("staging.service_factor", "a service factor is 1 or more");
     }
@@ -470,4 +478,80 @@ fn check_pump(c: &mut Checker, p: &Pump) {
     if let PumpControl::Compensated { setting } = p.control {
         c.pressure("control.setting_pa", setting.value, false);
     }
+}
+
+/// Every problem with field test `index` of a job, named by its path in the job file
+/// (`pump_tests[0].readings[1].flow_m3_per_s`). Kept apart from [`validate`]: a test being
+/// typed in never stops the job's results.
+pub fn validate_pump_test(
+    test: &super::efficiency::PumpTest,
+    index: usize,
+    units: UnitSystem,
+) -> Vec<InputError> {
+    use super::efficiency::{ElectricalInput, MotorEfficiency};
+    let mut c = Checker {
+        units,
+        errors: Vec::new(),
+        at: String::new(),
+    };
+    c.within(format_args!("pump_tests[{index}]"), |c| {
+        if test.pump.trim().is_empty() {
+            c.fail("pump", "say which pump was tested (tests of one pump are compared by it)");
+        }
+        if !test.date.trim().is_empty() && super::efficiency::day_number(&test.date).is_none() {
+            c.fail("date", "write the date as year-month-day, e.g. 2026-11-30");
+        }
+        c.plain(
+            "displacement_m3_per_rev",
+            test.displacement.value,
+            false,
+            MAX_DISPLACEMENT,
+            "m3/rev",
+        );
+        c.amount(
+            "speed_rad_per_s",
+            test.speed.value,
+            false,
+            MAX_SPEED_RAD_S,
+            |_, v| format!("{:.0} rpm", v * 60.0 / std::f64::consts::TAU),
+        );
+        c.pressure("rated_pressure_pa", test.rated_pressure.value, false);
+        c.power("motor_rated_power_w", test.motor_rated_power.value, false);
+        if let MotorEfficiency::Entered { efficiency } = test.motor_efficiency {
+            c.fraction("motor_efficiency.efficiency", efficiency, false);
+        }
+        if test.readings.is_empty() {
+            c.fail("readings", "add a reading: a flow at a test pressure");
+        }
+        for (k, r) in test.readings.iter().enumerate() {
+            c.within(format_args!("readings[{k}]"), |c| {
+                c.pressure("pressure_pa", r.pressure.value, true);
+                c.flow("flow_m3_per_s", r.flow.value, true);
+                match r.electrical {
+                    None => {}
+                    Some(ElectricalInput::Power { input }) => {
+                        c.power("electrical.input_w", input.value, false);
+                    }
+                    Some(ElectricalInput::ThreePhase {
+                        voltage,
+                        current,
+                        power_factor,
+                    }) => {
+                        c.plain("electrical.line_voltage_v", voltage.value, false, 50e3, "V");
+                        c.plain("electrical.line_current_a", current.value, false, 50e3, "A");
+                        if !(power_factor.is_finite() && power_factor > 0.0 && power_factor <= 1.0) {
+                            c.fail(
+                                "electrical.power_factor",
+                                "a power factor is more than 0 and at most 1 (0.8 is typical at full load): check the meter",
+                            );
+                        }
+                    }
+                }
+                if let Some(t) = r.torque {
+                    c.plain("torque_n_m", t.value, false, 1e6, "N.m");
+                }
+            });
+        }
+    });
+    c.errors
 }

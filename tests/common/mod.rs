@@ -221,5 +221,7 @@ pub fn job(cycle: Vec<Phase>, designs: Vec<Design>) -> Job {
         oil: Oil::mineral(Volume::new::<liter>(200.0)),
         advice: Default::default(),
         staging: Default::default(),
+        pump_tests: Vec::new(),
+        wear: Default::default(),
     }
 }
