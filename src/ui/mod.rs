@@ -9,6 +9,7 @@ pub mod field;
 mod icons;
 pub mod jobs;
 mod offline;
+mod pump_check;
 mod results;
 mod safety;
 mod settings_area;
@@ -105,31 +106,6 @@ fn page(area: Area) -> AnyView {
         Area::Results => view! { <results::ResultsArea /> }.into_any(),
         Area::Jobs => view! { <jobs::JobsArea /> }.into_any(),
         Area::Settings => view! { <settings_area::SettingsArea /> }.into_any(),
-        other => view! { <AreaIntro area=other /> }.into_any(),
-    }
-}
-
-/// An area's heading and what it is for. Later work fills each area below its intro.
-#[component]
-fn AreaIntro(area: Area) -> impl IntoView {
-    let settings_caution = (area == Area::Settings).then(|| {
-        view! {
-            <p class="inline-caution">
-                <CautionIcon />
-                <span>
-                    "Settings are changed only with the machine locked out and pressure released, "
-                    "and never above any component's rating. "
-                    <a href=Area::Safety.href()>"Read the safety notes"</a>
-                </span>
-            </p>
-        }
-    });
-    view! {
-        <section class="area-intro" aria-labelledby="area-title">
-            <h1 id="area-title">{area.title()}</h1>
-            <p class="purpose">{area.purpose()}</p>
-            {settings_caution}
-            <p class="empty-note">"Nothing to fill in here yet in this build."</p>
-        </section>
+        Area::PumpTest => view! { <pump_check::PumpCheckArea /> }.into_any(),
     }
 }

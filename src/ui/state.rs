@@ -103,8 +103,29 @@ impl JobState {
         self.job.with(|j| j.units)
     }
 
-    /// The engine's message for a field (by its path in the job file), if it has one.
+    /// The engine's message for a field (by its path in the job file), if it has one. A pump
+    /// test's fields are judged by the test's own checks (they never stop the job's results),
+    /// then by what its readings say (a flow above what the pump sweeps, ...).
     pub fn error_for(&self, field: &str) -> Option<String> {
+        if let Some(rest) = field.strip_prefix("pump_tests[") {
+            let (index, inner) = rest.split_once("].")?;
+            let index: usize = index.parse().ok()?;
+            return self.job.with(|j| {
+                let test = j.pump_tests.get(index)?;
+                let errors = crate::engine::validate::validate_pump_test(test, index, j.units);
+                if let Some(e) = errors.iter().find(|e| e.field == field) {
+                    return Some(e.message.clone());
+                }
+                if !errors.is_empty() {
+                    return None;
+                }
+                crate::engine::efficiency::assess(test, &j.wear, j.units)
+                    .problems
+                    .into_iter()
+                    .find(|p| p.field == inner)
+                    .map(|p| p.message)
+            });
+        }
         self.result.with(|r| match r {
             Ok(_) => None,
             Err(errors) => errors
