@@ -217,7 +217,7 @@ fn us_customary_and_si_readings_give_the_same_physics() {
     // 103.42 bar.
     si.displacement = Volume::new::<cubic_centimeter>(2.44 * 16.387064);
     si.readings[0].flow = lpm(17.5 * 3.785411784);
-    si.readings[0].pressure = bar_(1500.0 * 0.06894757293168361);
+    si.readings[0].pressure = bar_(1500.0 * 0.068_947_572_931_683_6);
     let (a, b) = (
         efficiency::assess(&us, &WearPolicy::default(), UnitSystem::UsCustomary),
         assess(&si),

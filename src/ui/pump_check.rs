@@ -444,6 +444,7 @@ fn TestFindings(t: usize, test: PumpTest, report: TestReport) -> impl IntoView {
                     <th scope="col">"Pressure"<span class="unit-head">{Measure::Pressure.label(u)}</span></th>
                     <th scope="col">"Flow"<span class="unit-head">{Measure::Flow.label(u)}</span></th>
                     <th scope="col">"Volu­metric"</th>
+                    <th scope="col">"Out"<span class="unit-head">{Measure::Power.label(u)}</span></th>
                     <th scope="col">"Shaft"<span class="unit-head">{Measure::Power.label(u)}</span></th>
                     <th scope="col">"Overall"</th>
                     <th scope="col">"Mech­anical"</th>
