@@ -7,7 +7,7 @@
 
 mod common;
 use common::*;
-use phasewise::engine::cycle::{Direction, HoldMode, SpeedRule};
+use phasewise::engine::cycle::{Direction, HoldMode};
 use phasewise::engine::settings::{self, Action, Advice, Rule, Severity};
 use phasewise::engine::valve::{ActiveLimit, ReliefKind};
 use phasewise::engine::{solve, Job};
@@ -39,39 +39,7 @@ fn find(advice: &[Advice], pick: impl Fn(&Rule) -> bool) -> Option<&Advice> {
 /// max(131.324 x 1.1, 131.324 + 7, 131.324 / 0.97) = max(144.46, 138.32, 135.39) = 144.46 bar,
 /// rounded up to 145 bar.
 fn high_low(unload_bar: f64, main_bar: f64) -> Job {
-    let cycle = vec![
-        move_phase(
-            "approach",
-            100.0,
-            56.0,
-            300.0,
-            Direction::Extend,
-            5.0,
-            4.0,
-            SpeedRule::AllPumpFlow,
-        ),
-        move_phase(
-            "press",
-            100.0,
-            56.0,
-            40.0,
-            Direction::Extend,
-            100.0,
-            4.0,
-            SpeedRule::AllPumpFlow,
-        ),
-        move_phase(
-            "return",
-            100.0,
-            56.0,
-            340.0,
-            Direction::Retract,
-            3.0,
-            6.0,
-            SpeedRule::AllPumpFlow,
-        ),
-        idle("unload parts", 20.0),
-    ];
+    let cycle = high_low_cycle();
     let d = design(
         "As found",
         motor(7.5, 1500.0, 0.9),

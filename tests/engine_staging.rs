@@ -6,7 +6,7 @@
 
 mod common;
 use common::*;
-use phasewise::engine::cycle::{Direction, PhaseKind, SpeedRule};
+use phasewise::engine::cycle::PhaseKind;
 use phasewise::engine::demo::scrap_baler;
 use phasewise::engine::solve::PumpState;
 use phasewise::engine::staging::{self, Candidate, Spec, StagingOptions};
@@ -42,39 +42,7 @@ fn key(c: &Candidate) -> (f64, f64, f64) {
 /// An invented high-low press, slow as found: a single 25 cm^3/rev pump on a 15 kW motor at
 /// 1450 rpm, main 210 bar, an idle over the relief.
 fn slow_press() -> Job {
-    let cycle = vec![
-        move_phase(
-            "approach",
-            100.0,
-            56.0,
-            300.0,
-            Direction::Extend,
-            5.0,
-            4.0,
-            SpeedRule::AllPumpFlow,
-        ),
-        move_phase(
-            "press",
-            100.0,
-            56.0,
-            40.0,
-            Direction::Extend,
-            100.0,
-            4.0,
-            SpeedRule::AllPumpFlow,
-        ),
-        move_phase(
-            "return",
-            100.0,
-            56.0,
-            340.0,
-            Direction::Retract,
-            3.0,
-            6.0,
-            SpeedRule::AllPumpFlow,
-        ),
-        idle("unload parts", 20.0),
-    ];
+    let cycle = high_low_cycle();
     let d = design(
         "As found",
         motor(15.0, 1450.0, 0.9),
@@ -251,39 +219,7 @@ fn set_target(job: &mut Job, phase: usize, seconds: Option<f64>) {
 /// 1500 rpm (1.0e-3 and 2.0e-4 m^3/s); check valve 0.5 bar, unloaded drop 3 bar; relief
 /// rated 80 L/min; the motor stopped in the idle. As found pump 1 unloads at 140 bar, above the press, so it feeds it.
 fn ideal_high_low() -> Job {
-    let cycle = vec![
-        move_phase(
-            "approach",
-            100.0,
-            56.0,
-            300.0,
-            Direction::Extend,
-            5.0,
-            4.0,
-            SpeedRule::AllPumpFlow,
-        ),
-        move_phase(
-            "press",
-            100.0,
-            56.0,
-            40.0,
-            Direction::Extend,
-            100.0,
-            4.0,
-            SpeedRule::AllPumpFlow,
-        ),
-        move_phase(
-            "return",
-            100.0,
-            56.0,
-            340.0,
-            Direction::Retract,
-            3.0,
-            6.0,
-            SpeedRule::AllPumpFlow,
-        ),
-        idle("unload parts", 20.0),
-    ];
+    let cycle = high_low_cycle();
     let mut d = design(
         "As found",
         motor(7.5, 1500.0, 0.9),

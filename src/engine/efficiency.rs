@@ -194,6 +194,24 @@ pub enum Verdict {
     NotJudged,
 }
 
+impl Verdict {
+    /// The predicted volumetric efficiency at rated pressure the verdict was drawn on.
+    pub fn volumetric_at_rated(&self) -> Option<f64> {
+        match *self {
+            Verdict::Good {
+                volumetric_at_rated,
+            }
+            | Verdict::Watch {
+                volumetric_at_rated,
+            }
+            | Verdict::Worn {
+                volumetric_at_rated,
+            } => Some(volumetric_at_rated),
+            Verdict::NotJudged => None,
+        }
+    }
+}
+
 /// Everything a test says.
 #[derive(Clone, Debug, PartialEq, Serialize)]
 pub struct TestReport {
@@ -406,17 +424,10 @@ pub fn trend(tests: &[PumpTest], index: usize, policy: &WearPolicy) -> Option<Tr
         })
         .max_by(|a, b| a.1.date.trim().cmp(b.1.date.trim()))?
         .0;
-    let at_rated = |t: &PumpTest| match assess(t, policy, UnitSystem::Si).verdict {
-        Verdict::Good {
-            volumetric_at_rated,
-        }
-        | Verdict::Watch {
-            volumetric_at_rated,
-        }
-        | Verdict::Worn {
-            volumetric_at_rated,
-        } => Some(volumetric_at_rated),
-        Verdict::NotJudged => None,
+    let at_rated = |t: &PumpTest| {
+        assess(t, policy, UnitSystem::Si)
+            .verdict
+            .volumetric_at_rated()
     };
     let days = match (day_number(&this.date), day_number(&tests[earlier].date)) {
         (Some(a), Some(b)) => Some(a - b),

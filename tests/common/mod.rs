@@ -225,3 +225,42 @@ pub fn job(cycle: Vec<Phase>, designs: Vec<Design>) -> Job {
         wear: Default::default(),
     }
 }
+
+/// An invented high-low press's cycle (shared by the settings and staging tests): bore 100 mm,
+/// rod 56 mm; approach 300 mm against 5 kN with 4 bar line loss, press 40 mm against 100 kN
+/// with 4 bar, return 340 mm against 3 kN with 6 bar, all at all pump flow; a 20 s idle.
+pub fn high_low_cycle() -> Vec<Phase> {
+    vec![
+        move_phase(
+            "approach",
+            100.0,
+            56.0,
+            300.0,
+            Direction::Extend,
+            5.0,
+            4.0,
+            SpeedRule::AllPumpFlow,
+        ),
+        move_phase(
+            "press",
+            100.0,
+            56.0,
+            40.0,
+            Direction::Extend,
+            100.0,
+            4.0,
+            SpeedRule::AllPumpFlow,
+        ),
+        move_phase(
+            "return",
+            100.0,
+            56.0,
+            340.0,
+            Direction::Retract,
+            3.0,
+            6.0,
+            SpeedRule::AllPumpFlow,
+        ),
+        idle("unload parts", 20.0),
+    ]
+}

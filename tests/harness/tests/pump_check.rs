@@ -75,18 +75,7 @@ async fn readings_typed_on_a_phone_give_the_engines_verdict_and_go_into_a_design
         .eval("return document.querySelector('[data-verdict]').dataset.verdict;")
         .await;
     assert_eq!(shown, kind);
-    let at_rated = match report.verdict {
-        Verdict::Good {
-            volumetric_at_rated,
-        }
-        | Verdict::Watch {
-            volumetric_at_rated,
-        }
-        | Verdict::Worn {
-            volumetric_at_rated,
-        } => volumetric_at_rated,
-        Verdict::NotJudged => panic!("judged"),
-    };
+    let at_rated = report.verdict.volumetric_at_rated().expect("judged");
     assert!(b
         .text("[data-verdict]")
         .await
