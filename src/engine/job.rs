@@ -58,6 +58,14 @@ pub struct Site {
     pub currency: String,
     /// What the retrofit from the baseline design to the others costs, in `currency`.
     pub retrofit_price: f64,
+    /// The grid's emission factor, kg CO2 per kWh, for the yearly CO2 of each design (absent:
+    /// not shown). The user enters the figure their utility or national inventory publishes.
+    #[serde(
+        default,
+        rename = "grid_kg_co2_per_kwh",
+        skip_serializing_if = "Option::is_none"
+    )]
+    pub grid_factor: Option<f64>,
 }
 
 /// The oil, for the temperature rise with no cooler.

@@ -12,6 +12,7 @@ pub mod ledger;
 pub mod motor;
 pub mod power_unit;
 pub mod pump;
+pub mod quote;
 pub mod settings;
 pub mod solve;
 pub mod staging;

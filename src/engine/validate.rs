@@ -194,6 +194,9 @@ pub fn validate(job: &Job) -> Result<(), Vec<InputError>> {
         1e12,
         "",
     );
+    if let Some(f) = job.site.grid_factor {
+        c.plain("site.grid_kg_co2_per_kwh", f, true, 5.0, "kg/kWh");
+    }
     c.plain("oil.volume_m3", job.oil.volume.value, false, 1000.0, "m3");
     c.plain(
         "oil.density_kg_per_m3",

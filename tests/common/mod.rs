@@ -217,6 +217,7 @@ pub fn job(cycle: Vec<Phase>, designs: Vec<Design>) -> Job {
             tariff_per_kwh: 0.20,
             currency: "EUR".into(),
             retrofit_price: 3000.0,
+            grid_factor: None,
         },
         oil: Oil::mineral(Volume::new::<liter>(200.0)),
         advice: Default::default(),
