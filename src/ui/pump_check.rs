@@ -340,12 +340,10 @@ fn percent(v: Option<f64>) -> String {
 fn TestResults(t: usize) -> impl IntoView {
     let state = use_job();
     let outcome = Memo::new(move |_| {
-        state.job.with(|j| {
-            let x = test(j, t)?;
-            crate::engine::validate::validate_pump_test(x, t, j.units)
-                .is_empty()
-                .then(|| (x.clone(), efficiency::assess(x, &j.wear, j.units)))
-        })
+        let report = state
+            .pump_tests
+            .with(|r| r.get(t)?.as_ref().ok().cloned())?;
+        state.job.with(|j| Some((test(j, t)?.clone(), report)))
     });
     move || {
         match outcome.get() {
@@ -534,7 +532,15 @@ fn CopyToDesign(t: usize) -> impl IntoView {
         let Some(x) = job.pump_tests.get(t) else {
             return;
         };
-        let report = efficiency::assess(x, &job.wear, job.units);
+        let Some(report) = state
+            .pump_tests
+            .with_untracked(|r| r.get(t).and_then(|r| r.as_ref().ok().cloned()))
+        else {
+            note.set(Some(
+                "Nothing to copy: the test has figures still to correct.".into(),
+            ));
+            return;
+        };
         let Some(measured) = efficiency::measured_pump(x, &report) else {
             note.set(Some(
                 "Nothing to copy: the test has no believable reading yet.".into(),

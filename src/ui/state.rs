@@ -12,6 +12,10 @@ use std::sync::Arc;
 /// all read the same one.
 pub type Outcome = Result<Arc<JobReport>, Arc<Vec<InputError>>>;
 
+/// What the engine says about each pump test of the job: its report, or its input errors.
+pub type PumpTestOutcomes =
+    Arc<Vec<Result<crate::engine::efficiency::TestReport, Vec<InputError>>>>;
+
 /// How the app is shown; not part of the job.
 #[derive(Clone, Copy, Debug, PartialEq, Eq, Default)]
 pub struct Display {
@@ -26,6 +30,9 @@ pub struct JobState {
     pub job: RwSignal<Job>,
     /// The engine's answer for the current job.
     pub result: Memo<Outcome>,
+    /// Each pump test checked and assessed once per change of the job (computed only when
+    /// read: the pump-check area and its fields share it).
+    pub pump_tests: Memo<PumpTestOutcomes>,
     /// The last report of a job without errors: shown, marked stale, while the job has errors.
     pub last_good: RwSignal<Option<Arc<JobReport>>>,
     /// The design the power-unit and results areas show.
@@ -69,6 +76,28 @@ impl JobState {
             move |_| job.with(|j| solve(j).map(Arc::new).map_err(Arc::new)),
             |_, _| true,
         );
+        let pump_tests = Memo::new_with_compare(
+            move |_| {
+                job.with(|j| {
+                    Arc::new(
+                        j.pump_tests
+                            .iter()
+                            .enumerate()
+                            .map(|(i, t)| {
+                                let errors =
+                                    crate::engine::validate::validate_pump_test(t, i, j.units);
+                                if errors.is_empty() {
+                                    Ok(crate::engine::efficiency::assess(t, &j.wear, j.units))
+                                } else {
+                                    Err(errors)
+                                }
+                            })
+                            .collect(),
+                    )
+                })
+            },
+            |_, _| true,
+        );
         // Kept by an effect, not a memo: a memo is only computed when read, and the results
         // may not be on screen while the job is still good.
         let last_good = RwSignal::new(None);
@@ -80,6 +109,7 @@ impl JobState {
         JobState {
             job,
             result,
+            pump_tests,
             last_good,
             design: RwSignal::new(0),
             open_phase: RwSignal::new(None),
@@ -110,20 +140,16 @@ impl JobState {
         if let Some(rest) = field.strip_prefix("pump_tests[") {
             let (index, inner) = rest.split_once("].")?;
             let index: usize = index.parse().ok()?;
-            return self.job.with(|j| {
-                let test = j.pump_tests.get(index)?;
-                let errors = crate::engine::validate::validate_pump_test(test, index, j.units);
-                if let Some(e) = errors.iter().find(|e| e.field == field) {
-                    return Some(e.message.clone());
-                }
-                if !errors.is_empty() {
-                    return None;
-                }
-                crate::engine::efficiency::assess(test, &j.wear, j.units)
+            return self.pump_tests.with(|tests| match tests.get(index)? {
+                Err(errors) => errors
+                    .iter()
+                    .find(|e| e.field == field)
+                    .map(|e| e.message.clone()),
+                Ok(report) => report
                     .problems
-                    .into_iter()
+                    .iter()
                     .find(|p| p.field == inner)
-                    .map(|p| p.message)
+                    .map(|p| p.message.clone()),
             });
         }
         self.result.with(|r| match r {
