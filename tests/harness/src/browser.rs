@@ -325,6 +325,20 @@ impl Browser {
             .unwrap_or_else(|e| panic!("script failed: {e}\n{script}"))
     }
 
+    /// The open job as stored by the autosave (the first job entry in local storage), once a
+    /// stored copy satisfies `ok`; fails after 5 s.
+    pub async fn stored_job_when(&self, ok: impl Fn(&Value) -> bool) -> Value {
+        const STORED_JOB: &str = "const k = Object.keys(localStorage).find(k => k.startsWith('phasewise.job.')); return k ? JSON.parse(localStorage.getItem(k)).job : null;";
+        for _ in 0..100 {
+            let stored = self.eval(STORED_JOB).await;
+            if !stored.is_null() && ok(&stored) {
+                return stored;
+            }
+            tokio::time::sleep(Duration::from_millis(50)).await;
+        }
+        panic!("the job was never saved as expected");
+    }
+
     /// How far the page reaches past the right edge of the viewport, in CSS pixels (0 when
     /// nothing overflows sideways).
     pub async fn sideways_overflow(&self) -> i64 {

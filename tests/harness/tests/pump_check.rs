@@ -12,18 +12,9 @@ fn field(path: &str) -> String {
     format!("input[data-path='{path}']")
 }
 
-const STORED_JOB: &str = "const k = Object.keys(localStorage).find(k => k.startsWith('phasewise.job.')); return k ? JSON.parse(localStorage.getItem(k)).job : null;";
-
 /// The stored job once the autosave has written a copy that satisfies `ok`.
 async fn stored_when(b: &Browser, ok: impl Fn(&Value) -> bool) -> Job {
-    for _ in 0..100 {
-        let stored = b.eval(STORED_JOB).await;
-        if !stored.is_null() && ok(&stored) {
-            return serde_json::from_value(stored).unwrap();
-        }
-        tokio::time::sleep(std::time::Duration::from_millis(50)).await;
-    }
-    panic!("the job was never saved as expected");
+    serde_json::from_value(b.stored_job_when(ok).await).unwrap()
 }
 
 #[tokio::test]

@@ -8,26 +8,9 @@ use phasewise::engine::Job;
 use phasewise_harness::browser::{AppSession, Viewport};
 use serde_json::Value;
 
-const STORED_JOB: &str = "const k = Object.keys(localStorage).find(k => k.startsWith('phasewise.job.')); return k ? JSON.parse(localStorage.getItem(k)).job : null;";
-
 /// The open job as stored, once the autosave has written it.
 async fn stored_job(b: &phasewise_harness::browser::Browser) -> Value {
-    stored_job_when(b, |_| true).await
-}
-
-/// The open job as stored, once the autosave has written a copy that satisfies `ok`.
-async fn stored_job_when(
-    b: &phasewise_harness::browser::Browser,
-    ok: impl Fn(&Value) -> bool,
-) -> Value {
-    for _ in 0..100 {
-        let stored = b.eval(STORED_JOB).await;
-        if !stored.is_null() && ok(&stored) {
-            return stored;
-        }
-        tokio::time::sleep(std::time::Duration::from_millis(50)).await;
-    }
-    panic!("the job was never saved as expected");
+    b.stored_job_when(|_| true).await
 }
 
 /// Runs the search in the page and checks its counts against the engine's native `native`
@@ -162,7 +145,9 @@ async fn the_staging_search_runs_and_its_best_candidate_becomes_the_proposed_des
     // Letting it take twice as long is kept in the job and searched with.
     let typed = format!("{:.2}", as_found * 2.0);
     b.fill(field, &typed).await;
-    let stored = stored_job_when(b, |j| !j["cycle"][1]["target_time_s"].is_null()).await;
+    let stored = b
+        .stored_job_when(|j| !j["cycle"][1]["target_time_s"].is_null())
+        .await;
     assert_eq!(
         stored["cycle"][1]["target_time_s"].as_f64(),
         typed.parse::<f64>().ok()
@@ -186,10 +171,9 @@ async fn the_staging_search_runs_and_its_best_candidate_becomes_the_proposed_des
     let (want, _) = phasewise::engine::staging::apply_candidate(&job, 0, &native.best[0]);
     // Wait for the save of the applied design (the typed target time was saved before).
     let motor = want.designs[1].motor.rated_power.value;
-    let stored = stored_job_when(b, |j| {
-        j["designs"][1]["motor"]["rated_power_w"].as_f64() == Some(motor)
-    })
-    .await;
+    let stored = b
+        .stored_job_when(|j| j["designs"][1]["motor"]["rated_power_w"].as_f64() == Some(motor))
+        .await;
     let proposed: phasewise::engine::power_unit::Design =
         serde_json::from_value(stored["designs"][1].clone()).unwrap();
     assert_eq!(proposed, want.designs[1]);
