@@ -8,6 +8,7 @@
 pub mod engine;
 pub mod ledger_csv;
 pub mod library;
+pub mod quote_text;
 pub mod share;
 pub mod ui;
 

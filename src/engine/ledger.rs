@@ -36,7 +36,58 @@ pub struct PowerLedger {
     pub useful_power: Power,
 }
 
+/// One item of the ledger: where a share of the electrical input ends up.
+#[derive(Clone, Copy, Debug, PartialEq, Eq, Serialize)]
+pub enum LedgerItem {
+    UsefulWork,
+    Relief,
+    FlowControl,
+    Unloading,
+    LinesAndValves,
+    InsidePumps,
+    Motor,
+}
+
+impl LedgerItem {
+    /// Every item, useful work first and the motor's loss last: the order charts stack them.
+    pub const ALL: [LedgerItem; 7] = [
+        LedgerItem::UsefulWork,
+        LedgerItem::Relief,
+        LedgerItem::FlowControl,
+        LedgerItem::Unloading,
+        LedgerItem::LinesAndValves,
+        LedgerItem::InsidePumps,
+        LedgerItem::Motor,
+    ];
+
+    /// The item in the trade's words.
+    pub fn name(self) -> &'static str {
+        match self {
+            LedgerItem::UsefulWork => "Useful work",
+            LedgerItem::Relief => "Relief valve",
+            LedgerItem::FlowControl => "Flow control",
+            LedgerItem::Unloading => "Unloading valves",
+            LedgerItem::LinesAndValves => "Lines and valves",
+            LedgerItem::InsidePumps => "Inside the pumps",
+            LedgerItem::Motor => "Motor",
+        }
+    }
+}
+
 impl PowerLedger {
+    /// The power going to one item.
+    pub fn part(&self, item: LedgerItem) -> Power {
+        match item {
+            LedgerItem::UsefulWork => self.useful_power,
+            LedgerItem::Relief => self.relief_loss,
+            LedgerItem::FlowControl => self.metering_loss,
+            LedgerItem::Unloading => self.unloading_loss,
+            LedgerItem::LinesAndValves => self.line_valve_loss,
+            LedgerItem::InsidePumps => self.pump_internal_loss,
+            LedgerItem::Motor => self.motor_loss,
+        }
+    }
+
     /// The motor's shaft output: the pumps' input.
     pub fn shaft_power(&self) -> Power {
         self.electrical_input - self.motor_loss

@@ -4,9 +4,13 @@
 //! factor), and the rounding that keeps false precision out of a quote while the exact values
 //! stay in the report.
 
-use super::job::Job;
-use super::JobReport;
+use super::job::{Job, Oil};
+use super::ledger::LedgerItem;
+use super::motor::{TYPICAL_FIXED_LOSS_SHARE, TYPICAL_PEAK_ALLOWANCE};
+use super::units::{Measure, KILOWATT_HOUR};
+use super::{DesignReport, JobReport};
 use serde::Serialize;
+use uom::si::f64::Volume;
 
 /// One design's column of the comparison. Exact values; round with [`for_customer`] to show.
 #[derive(Clone, Debug, PartialEq, Serialize)]
@@ -22,7 +26,14 @@ pub struct QuoteColumn {
     pub annual_energy_kwh: f64,
     /// Average heat into the oil (W): what a cooler must take away at steady temperature.
     pub heat_load_w: f64,
+    pub heat_load_btu_per_hour: f64,
+    /// How fast the oil would warm with no cooler, per hour of running (what the tank and
+    /// pipes shed is left out, so the real rise is slower).
+    pub oil_rise_k_per_hour: f64,
     pub annual_cost: f64,
+    /// The year's energy by where it ends up, in [`LedgerItem::ALL`]'s order (kWh). The items
+    /// add up to `annual_energy_kwh`.
+    pub annual_energy_by_item_kwh: [f64; 7],
     /// Annual kWh x the site's grid factor; none when the site gives none.
     pub co2_kg_per_year: Option<f64>,
     /// Against the baseline (none for the baseline itself): energy and cost saved per year
@@ -34,6 +45,8 @@ pub struct QuoteColumn {
 #[derive(Clone, Copy, Debug, PartialEq, Serialize)]
 pub struct Saving {
     pub energy_kwh_per_year: f64,
+    /// Less heat for the cooler to take away (W).
+    pub heat_load_w: f64,
     pub cost_per_year: f64,
     pub co2_kg_per_year: Option<f64>,
     pub payback_years: Option<f64>,
@@ -54,6 +67,7 @@ pub fn columns(job: &Job, report: &JobReport) -> Vec<QuoteColumn> {
                 let cost = b.annual_cost - t.annual_cost;
                 Saving {
                     energy_kwh_per_year: energy,
+                    heat_load_w: b.heat_load.value - t.heat_load.value,
                     cost_per_year: cost,
                     co2_kg_per_year: grid.map(|g| energy * g),
                     payback_years: (cost > 0.0).then(|| job.site.retrofit_price / cost),
@@ -70,12 +84,36 @@ pub fn columns(job: &Job, report: &JobReport) -> Vec<QuoteColumn> {
                 energy_per_cycle_j: t.energy_per_cycle.value,
                 annual_energy_kwh: t.annual_energy_kwh,
                 heat_load_w: t.heat_load.value,
+                heat_load_btu_per_hour: t.heat_load_btu_per_hour,
+                oil_rise_k_per_hour: t.oil_rise_k_per_minute * 60.0,
                 annual_cost: t.annual_cost,
+                annual_energy_by_item_kwh: annual_energy_by_item(
+                    r,
+                    job.site.operating_hours_per_year,
+                ),
                 co2_kg_per_year: grid.map(|g| t.annual_energy_kwh * g),
                 against_baseline,
             }
         })
         .collect()
+}
+
+/// A design's yearly energy split by ledger item: each item's energy over one cycle, as a
+/// share of the cycle, times the hours the machine runs.
+pub fn annual_energy_by_item(design: &DesignReport, hours_per_year: f64) -> [f64; 7] {
+    let cycle = design.totals.cycle_time.value;
+    LedgerItem::ALL.map(|item| {
+        let per_cycle: f64 = design
+            .phases
+            .iter()
+            .map(|p| p.ledger.part(item).value * p.point.duration.value)
+            .sum();
+        if cycle > 0.0 {
+            per_cycle / cycle * hours_per_year * 3600.0 / KILOWATT_HOUR
+        } else {
+            0.0
+        }
+    })
 }
 
 /// `value` to `significant` figures (at least 1): what a customer's quote shows. 12,345 kWh
@@ -103,3 +141,233 @@ pub fn payback_for_customer(years: f64) -> f64 {
         years.round()
     }
 }
+
+/// What a figure of the report rests on.
+#[derive(Clone, Debug, PartialEq, Serialize)]
+pub enum Basis {
+    /// The user's own figure for this job.
+    Entered,
+    /// A value Phasewise fills in, and where it comes from.
+    Default { source: &'static str },
+    /// A simplification every result rests on, and where it comes from.
+    Model { source: &'static str },
+}
+
+/// A value an assumption holds, shown in the job's units by the front end.
+#[derive(Clone, Debug, PartialEq, Serialize)]
+pub enum Assumed {
+    Quantity(Measure, f64),
+    /// A plain number with its unit in words ("h a year").
+    Plain(f64, String),
+    Text(String),
+}
+
+/// One line of the report's assumptions.
+#[derive(Clone, Debug, PartialEq, Serialize)]
+pub struct Assumption {
+    pub what: String,
+    pub value: Assumed,
+    pub basis: Basis,
+}
+
+const ESPOSITO_OIL: &str =
+    "Esposito, Fluid Power with Applications: working values for mineral oil";
+const COMMON: &str = "common practice";
+
+/// Every value the job's results rest on that the user may not have chosen: the site's
+/// figures, the oil, each design's motor allowances, the advice margins, and the
+/// simplifications of the model, each with its source.
+pub fn assumptions(job: &Job) -> Vec<Assumption> {
+    let mut out = Vec::new();
+    let mut push =
+        |what: String, value: Assumed, basis: Basis| out.push(Assumption { what, value, basis });
+    let site = &job.site;
+    let currency = site.currency.trim();
+    push(
+        "Running hours a year".into(),
+        Assumed::Plain(site.operating_hours_per_year, "h".into()),
+        Basis::Entered,
+    );
+    push(
+        "Electricity price".into(),
+        Assumed::Plain(site.tariff_per_kwh, format!("{currency} per kWh")),
+        Basis::Entered,
+    );
+    push(
+        "Retrofit price".into(),
+        Assumed::Plain(site.retrofit_price, currency.to_string()),
+        Basis::Entered,
+    );
+    push(
+        "Grid emission factor".into(),
+        match site.grid_factor {
+            Some(f) => Assumed::Plain(f, "kg CO2 per kWh".into()),
+            None => Assumed::Text("not given: no CO2 figures".into()),
+        },
+        Basis::Entered,
+    );
+    let mineral = Oil::mineral(Volume::default());
+    push(
+        "Oil in circulation".into(),
+        Assumed::Quantity(Measure::OilVolume, job.oil.volume.value),
+        Basis::Entered,
+    );
+    let oil_basis = |same: bool| {
+        if same {
+            Basis::Default {
+                source: ESPOSITO_OIL,
+            }
+        } else {
+            Basis::Entered
+        }
+    };
+    push(
+        "Oil density".into(),
+        Assumed::Quantity(Measure::Density, job.oil.density.value),
+        oil_basis(job.oil.density == mineral.density),
+    );
+    push(
+        "Oil specific heat".into(),
+        Assumed::Quantity(Measure::SpecificHeat, job.oil.specific_heat.value),
+        oil_basis(job.oil.specific_heat == mineral.specific_heat),
+    );
+    let default_or_entered = |same: bool| {
+        if same {
+            Basis::Default { source: COMMON }
+        } else {
+            Basis::Entered
+        }
+    };
+    for design in &job.designs {
+        let m = &design.motor;
+        let name = &design.name;
+        push(
+            format!("“{name}”: motor efficiency at full load"),
+            Assumed::Quantity(Measure::Percent, m.full_load_efficiency),
+            Basis::Entered,
+        );
+        push(
+            format!("“{name}”: share of the motor's loss that is fixed"),
+            Assumed::Quantity(Measure::Percent, m.fixed_loss_share),
+            default_or_entered(m.fixed_loss_share == TYPICAL_FIXED_LOSS_SHARE),
+        );
+        push(
+            format!("“{name}”: service factor (continuous load over rating)"),
+            Assumed::Quantity(Measure::Factor, m.service_factor),
+            Basis::Entered,
+        );
+        push(
+            format!("“{name}”: short peak allowed over rating"),
+            Assumed::Quantity(Measure::Factor, m.peak_allowance),
+            default_or_entered(m.peak_allowance == TYPICAL_PEAK_ALLOWANCE),
+        );
+        let typical = design.relief.kind.typical_cracking_fraction();
+        push(
+            format!("“{name}”: relief valve cracks at (share of setting)"),
+            Assumed::Quantity(Measure::Percent, design.relief.cracking_fraction),
+            default_or_entered(design.relief.cracking_fraction == typical),
+        );
+    }
+    let a = &job.advice;
+    let policy = super::settings::AdvicePolicy::default();
+    push(
+        "Settings advice: margin above the pressure a phase needs".into(),
+        Assumed::Quantity(Measure::Percent, a.margin_fraction),
+        default_or_entered(a.margin_fraction == policy.margin_fraction),
+    );
+    push(
+        "Settings advice: least margin".into(),
+        Assumed::Quantity(Measure::Pressure, a.margin_min.value),
+        default_or_entered(a.margin_min == policy.margin_min),
+    );
+    push(
+        "Settings advice: drop a flow control needs".into(),
+        Assumed::Quantity(Measure::Pressure, a.flow_control_drop.value),
+        default_or_entered(a.flow_control_drop == policy.flow_control_drop),
+    );
+    for (what, source) in MODEL {
+        push(
+            what.to_string(),
+            Assumed::Text(String::new()),
+            Basis::Model { source },
+        );
+    }
+    out
+}
+
+/// The simplifications every result rests on.
+const MODEL: [(&str, &str); 6] = [
+    (
+        "One part per cycle; the machine cycles through all its running hours",
+        "our model of the job",
+    ),
+    (
+        "The motor turns at its full-load speed in every phase (slip neglected)",
+        COMMON,
+    ),
+    (
+        "The motor's loss is a fixed part plus a part growing with the square of the load",
+        COMMON,
+    ),
+    (
+        "Every hydraulic loss ends up as heat in the oil; the tank and pipes shed none of it",
+        "common practice: a cautious upper bound for the cooler",
+    ),
+    (
+        "The motor is sized on the RMS load over the cycle, the peak checked against its allowance",
+        "Machine Design and Power & Motion articles on motor sizing (RMS over a duty cycle)",
+    ),
+    (
+        "Simple payback: no interest, no change in the electricity price, no maintenance costs",
+        "Çengel and Boles, Thermodynamics: An Engineering Approach, simple payback period",
+    ),
+];
+
+/// The formulas behind the report's figures, with their published sources.
+pub const FORMULAS: [(&str, &str, &str); 9] = [
+    (
+        "Hydraulic power",
+        "pressure × flow; kW = L/min × bar / 600, hp = gpm × psi / 1714",
+        "Esposito, Fluid Power with Applications; unit definitions of NIST SP 811, Appendix B",
+    ),
+    (
+        "Heat over a relief or unloading valve",
+        "pressure drop × flow through the valve",
+        "Esposito, Fluid Power with Applications, Examples 8-2 and 8-3",
+    ),
+    (
+        "Pump efficiencies",
+        "volumetric = measured flow / (displacement × speed); overall = hydraulic power out / shaft power in = volumetric × hydromechanical",
+        "ISO 4391 (symbols), ISO 4409 (test method); Esposito, Example 5-9",
+    ),
+    (
+        "Three-phase electrical input",
+        "√3 × line voltage × current × power factor",
+        "Hydraulics & Pneumatics, “Rightsize your electric motors”",
+    ),
+    (
+        "RMS motor load",
+        "√(Σ P² × t / Σ t) over the phases of one cycle",
+        "Machine Design and Power & Motion articles on motor sizing",
+    ),
+    (
+        "Service factor",
+        "permissible continuous load = rated power × service factor",
+        "NEMA MG 1, 1.42",
+    ),
+    (
+        "Oil warming with no cooler",
+        "heat load / (oil volume × density × specific heat)",
+        "Esposito, Fluid Power with Applications (oil's working values)",
+    ),
+    (
+        "Energy and cost a year",
+        "average electrical input × running hours; × electricity price",
+        "Çengel and Boles, Thermodynamics: An Engineering Approach, cost savings of high-efficiency motors",
+    ),
+    (
+        "Simple payback",
+        "retrofit price / cost saved a year",
+        "Çengel and Boles, Thermodynamics: An Engineering Approach, simple payback period",
+    ),
+];

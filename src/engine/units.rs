@@ -67,7 +67,7 @@ impl UnitSystem {
 
 /// What a number on screen measures: it decides the unit shown beside it in each system, the
 /// decimals, and the conversion to and from the SI value the engine keeps.
-#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+#[derive(Clone, Copy, Debug, PartialEq, Eq, Serialize)]
 pub enum Measure {
     Pressure,
     Flow,
