@@ -61,7 +61,7 @@ impl LedgerItem {
     ];
 
     /// The item in the trade's words.
-    pub fn name(self) -> &'static str {
+    pub const fn name(self) -> &'static str {
         match self {
             LedgerItem::UsefulWork => "Useful work",
             LedgerItem::Relief => "Relief valve",

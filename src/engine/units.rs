@@ -100,6 +100,14 @@ pub enum Measure {
     Voltage,
     /// Line current, kept in A.
     Current,
+    /// Running hours in a year.
+    HoursPerYear,
+    /// Electricity price per kWh, in the job's currency.
+    Tariff,
+    /// A sum in the job's currency (the unit is the job's own label, not shown here).
+    Money,
+    /// Grid emission factor, kg CO2 per kWh.
+    GridFactor,
 }
 
 impl Measure {
@@ -138,6 +146,10 @@ impl Measure {
             (Measure::Torque, Us) => ("lbf·ft", POUND_FORCE * 12.0 * INCH, 1),
             (Measure::Voltage, _) => ("V", 1.0, 0),
             (Measure::Current, _) => ("A", 1.0, 1),
+            (Measure::HoursPerYear, _) => ("h/year", 1.0, 0),
+            (Measure::Tariff, _) => ("per kWh", 1.0, 3),
+            (Measure::Money, _) => ("", 1.0, 0),
+            (Measure::GridFactor, _) => ("kg/kWh", 1.0, 3),
         }
     }
 

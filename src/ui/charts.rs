@@ -2,6 +2,8 @@
 //! bar, and the cycle's pressure, flow and power against time. Text stays at a readable size
 //! (the drawing is 400 units wide, so on a 360 px phone a unit is about a pixel).
 
+use crate::engine::ledger::LedgerItem;
+use crate::engine::quote::QuoteColumn;
 use crate::engine::units::{Measure, UnitSystem};
 use crate::engine::{DesignReport, PowerLedger};
 use leptos::prelude::*;
@@ -10,27 +12,133 @@ const WIDTH: f64 = 400.0;
 const LEFT: f64 = 104.0;
 const RIGHT: f64 = 12.0;
 
-/// The ledger's items in the order they are stacked, with their legend text and CSS class.
+/// The ledger's items in the order they are stacked ([`LedgerItem::ALL`]), with their legend
+/// text and CSS class.
 pub const LEDGER_ITEMS: [(&str, &str); 7] = [
-    ("Useful work", "seg-useful"),
-    ("Relief valve", "seg-relief"),
-    ("Flow control", "seg-metering"),
-    ("Unloading valves", "seg-unloading"),
-    ("Lines and valves", "seg-line"),
-    ("Inside the pumps", "seg-pump"),
-    ("Motor", "seg-motor"),
+    (LedgerItem::ALL[0].name(), "seg-useful"),
+    (LedgerItem::ALL[1].name(), "seg-relief"),
+    (LedgerItem::ALL[2].name(), "seg-metering"),
+    (LedgerItem::ALL[3].name(), "seg-unloading"),
+    (LedgerItem::ALL[4].name(), "seg-line"),
+    (LedgerItem::ALL[5].name(), "seg-pump"),
+    (LedgerItem::ALL[6].name(), "seg-motor"),
 ];
 
 fn ledger_values(l: &PowerLedger) -> [f64; 7] {
-    [
-        l.useful_power.value,
-        l.relief_loss.value,
-        l.metering_loss.value,
-        l.unloading_loss.value,
-        l.line_valve_loss.value,
-        l.pump_internal_loss.value,
-        l.motor_loss.value,
-    ]
+    LedgerItem::ALL.map(|item| l.part(item).value)
+}
+
+/// A name cut to fit the charts' label column.
+fn short(name: &str) -> String {
+    if name.chars().count() > 12 {
+        name.chars().take(11).chain(std::iter::once('…')).collect()
+    } else {
+        name.to_string()
+    }
+}
+
+/// One bar per row, split into the ledger's items, on an axis from zero to about `max`.
+fn stacked_bars(
+    rows: Vec<(String, [f64; 7])>,
+    max: f64,
+    axis_label: String,
+    aria: &'static str,
+    tip: impl Fn(f64) -> String,
+) -> impl IntoView {
+    let row = 30.0;
+    let top = 8.0;
+    let axis = 44.0;
+    let height = top + row * rows.len() as f64 + axis;
+    let plot = WIDTH - LEFT - RIGHT;
+    let axis_ticks = ticks(max);
+    let axis_max = *axis_ticks.last().unwrap_or(&1.0);
+    let x = move |v: f64| LEFT + plot * v / axis_max;
+    let bars = rows
+        .into_iter()
+        .enumerate()
+        .map(|(i, (name, values))| {
+            let y = top + row * i as f64;
+            let mut start = 0.0;
+            let segments = values
+                .into_iter()
+                .zip(LEDGER_ITEMS)
+                .filter(|(v, _)| *v > 0.0)
+                .map(|(v, (item, class))| {
+                    let (x0, x1) = (x(start), x(start + v));
+                    start += v;
+                    view! {
+                        <rect class=class x=x0 y=y + 4.0 width=(x1 - x0).max(0.0) height=row - 8.0>
+                            <title>{format!("{name}: {item} {}", tip(v))}</title>
+                        </rect>
+                    }
+                })
+                .collect_view();
+            view! {
+                <text class="chart-label" x=LEFT - 6.0 y=y + row / 2.0 + 5.0 text-anchor="end">{short(&name)}</text>
+                {segments}
+            }
+        })
+        .collect_view();
+    let grid = axis_ticks
+        .iter()
+        .map(|t| {
+            let gx = LEFT + plot * t / axis_max;
+            view! {
+                <line class="chart-grid" x1=gx x2=gx y1=top y2=height - axis + 4.0 />
+                <text class="chart-tick" x=gx y=height - axis + 19.0 text-anchor="middle">{format_tick(*t)}</text>
+            }
+        })
+        .collect_view();
+    view! {
+        <figure class="chart">
+            <svg viewBox=format!("0 0 {WIDTH} {height}") role="img" aria-label=aria>
+                {grid}
+                {bars}
+                <text class="chart-axis" x=LEFT + plot / 2.0 y=height - 4.0 text-anchor="middle">{axis_label}</text>
+            </svg>
+            <ul class="legend">
+                {LEDGER_ITEMS.iter().map(|(name, class)| view! {
+                    <li><span class=format!("swatch {class}") aria-hidden="true"></span>{*name}</li>
+                }).collect_view()}
+            </ul>
+        </figure>
+    }
+}
+
+/// Each design's year of electrical energy split into where it goes, on one scale.
+#[component]
+pub fn EnergyChart(columns: Vec<QuoteColumn>) -> impl IntoView {
+    let max = columns
+        .iter()
+        .map(|c| c.annual_energy_by_item_kwh.iter().sum::<f64>())
+        .fold(0.0, f64::max);
+    // Large yearly figures read better in MWh on the axis.
+    let (scale, unit) = if max >= 10_000.0 {
+        (1e-3, "MWh")
+    } else {
+        (1.0, "kWh")
+    };
+    let rows = columns
+        .iter()
+        .map(|c| {
+            (
+                c.name.clone(),
+                c.annual_energy_by_item_kwh.map(|e| e * scale),
+            )
+        })
+        .collect();
+    stacked_bars(
+        rows,
+        max * scale,
+        format!("Electrical energy a year, {unit}"),
+        "Where the energy goes in each design over a year",
+        move |v| {
+            format!(
+                "{} {unit}",
+                crate::quote_text::grouped(v, if scale < 1.0 { 2 } else { 0 })
+            )
+        },
+    )
 }
 
 /// A round step for an axis reaching `max`: 1, 2 or 5 times a power of ten, about four ticks.
@@ -61,72 +169,24 @@ pub fn LedgerChart(
     units: UnitSystem,
     #[prop(into)] scale_w: f64,
 ) -> impl IntoView {
-    let row = 30.0;
-    let top = 8.0;
-    let axis = 44.0;
-    let height = top + row * design.phases.len() as f64 + axis;
-    let plot = WIDTH - LEFT - RIGHT;
-    let shown_max = Measure::Power.shown(units, scale_w);
-    let axis_ticks = ticks(shown_max);
-    let axis_max = *axis_ticks.last().unwrap_or(&1.0);
-    let x = move |w: f64| LEFT + plot * Measure::Power.shown(units, w) / axis_max;
-    let label = Measure::Power.label(units);
     let rows = design
         .phases
         .iter()
-        .enumerate()
-        .map(|(i, phase)| {
-            let y = top + row * i as f64;
-            let mut start = 0.0;
-            let segments = ledger_values(&phase.ledger)
-                .into_iter()
-                .zip(LEDGER_ITEMS)
-                .filter(|(w, _)| *w > 0.0)
-                .map(|(w, (name, class))| {
-                    let (x0, x1) = (x(start), x(start + w));
-                    start += w;
-                    view! {
-                        <rect class=class x=x0 y=y + 4.0 width=(x1 - x0).max(0.0) height=row - 8.0>
-                            <title>{format!("{}: {name} {}", phase.name, Measure::Power.with_unit(units, w))}</title>
-                        </rect>
-                    }
-                })
-                .collect_view();
-            let name: String = if phase.name.chars().count() > 12 {
-                phase.name.chars().take(11).chain(std::iter::once('…')).collect()
-            } else {
-                phase.name.clone()
-            };
-            view! {
-                <text class="chart-label" x=LEFT - 6.0 y=y + row / 2.0 + 5.0 text-anchor="end">{name}</text>
-                {segments}
-            }
+        .map(|phase| {
+            (
+                phase.name.clone(),
+                ledger_values(&phase.ledger).map(|w| Measure::Power.shown(units, w)),
+            )
         })
-        .collect_view();
-    let grid = axis_ticks
-        .iter()
-        .map(|t| {
-            let gx = LEFT + plot * t / axis_max;
-            view! {
-                <line class="chart-grid" x1=gx x2=gx y1=top y2=height - axis + 4.0 />
-                <text class="chart-tick" x=gx y=height - axis + 19.0 text-anchor="middle">{format_tick(*t)}</text>
-            }
-        })
-        .collect_view();
-    view! {
-        <figure class="chart">
-            <svg viewBox=format!("0 0 {WIDTH} {height}") role="img" aria-label="Where the power goes in each phase">
-                {grid}
-                {rows}
-                <text class="chart-axis" x=LEFT + plot / 2.0 y=height - 4.0 text-anchor="middle">{format!("Electrical input, {label}")}</text>
-            </svg>
-            <ul class="legend">
-                {LEDGER_ITEMS.iter().map(|(name, class)| view! {
-                    <li><span class=format!("swatch {class}") aria-hidden="true"></span>{*name}</li>
-                }).collect_view()}
-            </ul>
-        </figure>
-    }
+        .collect();
+    let label = Measure::Power.label(units);
+    stacked_bars(
+        rows,
+        Measure::Power.shown(units, scale_w),
+        format!("Electrical input, {label}"),
+        "Where the power goes in each phase",
+        move |v| format!("{v:.2} {label}"),
+    )
 }
 
 fn format_tick(t: f64) -> String {

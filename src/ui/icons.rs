@@ -37,6 +37,8 @@ pub fn area_icon(area: Area) -> impl IntoView {
         Area::Settings => "M4.5 17a7.5 7.5 0 1 1 15 0 M12 17l3.5-4.5 M4 20h16",
         // A meter trace: readings taken from a running pump.
         Area::PumpTest => "M3 13h4l2.5-6 4 11 2.5-5H21",
+        // A sheet with a total line under two figures: the quote.
+        Area::Quote | Area::Report => "M6 3h9l3 3v15H6Z M9 10h6 M9 13.5h6 M9 17.5h6",
         // A folder: jobs kept on the device.
         Area::Jobs => "M3 6.5h6l2 2h10V19H3Z",
         Area::Safety => CAUTION,

@@ -10,6 +10,8 @@ mod icons;
 pub mod jobs;
 mod offline;
 mod pump_check;
+mod quote_area;
+mod report;
 mod results;
 mod safety;
 mod settings_area;
@@ -107,5 +109,7 @@ fn page(area: Area) -> AnyView {
         Area::Jobs => view! { <jobs::JobsArea /> }.into_any(),
         Area::Settings => view! { <settings_area::SettingsArea /> }.into_any(),
         Area::PumpTest => view! { <pump_check::PumpCheckArea /> }.into_any(),
+        Area::Quote => view! { <quote_area::QuoteArea /> }.into_any(),
+        Area::Report => view! { <report::ReportArea /> }.into_any(),
     }
 }

@@ -139,7 +139,7 @@ pub fn ResultsArea() -> impl IntoView {
 
 /// Says the results are not for the job as it now stands, and why.
 #[component]
-fn StaleNotice() -> impl IntoView {
+pub fn StaleNotice() -> impl IntoView {
     let state = use_job();
     move || {
         state.result.with(|r| r.as_ref().err().cloned()).map(|errors| {

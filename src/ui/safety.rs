@@ -33,6 +33,12 @@ pub const CAUTIONS: [(&str, &str); 5] = [
     ),
 ];
 
+/// What the figures are, and what comes before them.
+pub const ESTIMATE_NOTE: &str =
+    "Phasewise's figures are engineering estimates worked from what you enter. \
+     The makers' data for each component, local codes and licensed practice come first: where \
+     they differ from this app, follow them.";
+
 /// The cautions page, reachable from the top bar of every area.
 #[component]
 pub fn SafetyPage() -> impl IntoView {
@@ -57,11 +63,7 @@ pub fn SafetyPage() -> impl IntoView {
                     })
                     .collect_view()}
             </ol>
-            <p class="estimate-note">
-                "Phasewise's figures are engineering estimates worked from what you enter. "
-                "The makers' data for each component, local codes and licensed practice come "
-                "first: where they differ from this app, follow them."
-            </p>
+            <p class="estimate-note">{ESTIMATE_NOTE}</p>
         </section>
     }
 }

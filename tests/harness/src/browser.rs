@@ -296,6 +296,11 @@ impl Browser {
         }
     }
 
+    /// Where this test's screenshots (and any other file kept for a look) go.
+    pub fn shots_dir(&self) -> &Path {
+        &self.shots
+    }
+
     /// Saves a PNG of one element (scrolled to the middle of the screen) as `target/screenshots/<test>/<name>.png`.
     pub async fn screenshot_of(&self, css: &str, name: &str) -> PathBuf {
         let path = self.shots.join(format!("{name}.png"));

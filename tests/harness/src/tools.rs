@@ -62,16 +62,27 @@ pub fn prepare_build(root: &Path) -> Result<BuildTools, String> {
     Ok(tools)
 }
 
-/// Makes sure Debian's chromium and chromium-driver are installed.
+/// Poppler's `pdftotext`: the print test reads the report's PDF back with it (and renders its
+/// pages with `pdftoppm`, same package).
+pub const PDFTOTEXT: &str = "/usr/bin/pdftotext";
+
+/// Makes sure Debian's chromium and chromium-driver are installed, and poppler-utils for the
+/// report's PDF.
 pub fn prepare_browser() -> Result<(), String> {
     if Path::new(CHROMIUM).is_file() && Path::new(CHROMEDRIVER).is_file() {
         say(&format!(
             "chromium and chromedriver: found in {}",
             Path::new(CHROMIUM).parent().unwrap().display()
         ));
-        return Ok(());
+    } else {
+        apt_install(&["chromium", "chromium-driver"])?;
     }
-    apt_install(&["chromium", "chromium-driver"])
+    if Path::new(PDFTOTEXT).is_file() {
+        say("pdftotext and pdftoppm (poppler-utils): found");
+        Ok(())
+    } else {
+        apt_install(&["poppler-utils"])
+    }
 }
 
 impl BuildTools {

@@ -73,6 +73,13 @@ async fn after_one_visit_the_app_and_its_jobs_start_with_no_server() {
     b.click("nav.areas a[href='#/results']").await;
     b.wait_for("[data-total]").await;
     b.screenshot("results-offline").await;
+    // The quote report too, as the sales engineer opens it at the machine.
+    b.click("nav.areas a[href='#/quote']").await;
+    b.click("[data-action='open-report']").await;
+    b.wait_for_text("[data-report-job]", |t| t == "Basement press")
+        .await;
+    b.wait_for("[data-quote-table='customer']").await;
+    b.screenshot("report-offline").await;
     app.finish().await;
 }
 

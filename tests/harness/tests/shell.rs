@@ -120,6 +120,14 @@ async fn the_layout_holds_from_a_small_phone_to_a_projector() {
                    m = document.querySelector('main').getBoundingClientRect(); return n.right <= m.left;")
             .await;
         assert_eq!(nav_beside_page, viewport.width >= 768, "{name}");
+        // Seven areas across the narrowest phone: every label whole, none cut short.
+        let cut = b
+            .eval(
+                "return [...document.querySelectorAll('.area-label')] \
+                   .filter(l => l.scrollWidth > l.clientWidth).map(l => l.textContent);",
+            )
+            .await;
+        assert_eq!(cut, serde_json::json!([]), "{name}: navigation labels cut");
         b.screenshot(name).await;
         app.finish().await;
     }

@@ -1,0 +1,222 @@
+//! The quote area: every design of the job side by side as a customer reads a retrofit quote
+//! (engine `quote`, worded by `quote_text`), the site's costs that drive it, where each
+//! design's energy goes, what its heat means for cooling, and the way to the printable report.
+
+use super::charts::EnergyChart;
+use super::field::{NumberField, OptionalNumberField, TextField, UnitSwitch};
+use super::state::use_job;
+use crate::engine::quote::{self, QuoteColumn};
+use crate::engine::units::{Measure, UnitSystem};
+use crate::engine::Job;
+use crate::quote_text::{self, Precision, Row};
+use leptos::prelude::*;
+
+/// The comparison as the job now stands, or none while any figure is invalid: a quote is
+/// never made from stale figures.
+pub fn use_columns() -> Memo<Option<Vec<QuoteColumn>>> {
+    let state = use_job();
+    Memo::new(move |_| {
+        state.result.with(|r| {
+            r.as_ref()
+                .ok()
+                .map(|report| state.job.with(|job| quote::columns(job, report)))
+        })
+    })
+}
+
+#[component]
+pub fn QuoteArea() -> impl IntoView {
+    let state = use_job();
+    let columns = use_columns();
+    let precision = RwSignal::new(Precision::ForCustomer);
+    let designs = move || state.job.with(|j| j.designs.len());
+    view! {
+        <section class="area quote" aria-labelledby="area-title">
+            <div class="area-head">
+                <h1 id="area-title">"Retrofit quote"</h1>
+                <UnitSwitch />
+            </div>
+            <super::cycle_editor::ExampleBanner />
+            <super::results::StaleNotice />
+            {move || (designs() < 2).then(|| view! {
+                <p class="empty-note" data-quote-single="true">
+                    "Only one power unit so far. Add a proposed one in the "
+                    <a href="#/unit">"Unit"</a>
+                    " area (or apply a staging candidate or a setting's advice) to compare it with this one."
+                </p>
+            })}
+            {move || columns.get().map(|columns| {
+                let units = state.units();
+                let currency = state.job.with(|j| j.site.currency.clone());
+                view! {
+                    <div class="card">
+                        <div class="card-head">
+                            <h2>"Side by side"</h2>
+                            <PrecisionSwitch precision=precision />
+                        </div>
+                        {move || view! { <ComparisonTable columns=columns.clone() units=units currency=currency.clone() precision=precision.get() /> }}
+                        <p class="hint">"Simple payback: the retrofit price over the cost saved a year, with no interest and today's electricity price. Each cell's exact figure shows on the “Exact” switch and in the report."</p>
+                    </div>
+                }
+            })}
+            {move || columns.get().map(|columns| {
+                let units = state.units();
+                view! {
+                    <h2>"Where the energy goes"</h2>
+                    <EnergyChart columns=columns.clone() />
+                    <h2>"What the heat means for cooling"</h2>
+                    <CoolingList columns=columns units=units precision=precision.get() />
+                }
+            })}
+            <SiteCosts />
+            <OilFields />
+            <a class="button wide" href=super::area::Area::Report.href() data-action="open-report">
+                "Open the report to print or save as PDF"
+            </a>
+        </section>
+    }
+}
+
+/// Rounded for a customer, or exact.
+#[component]
+fn PrecisionSwitch(precision: RwSignal<Precision>) -> impl IntoView {
+    let option = move |this: Precision, label: &'static str| {
+        view! {
+            <button
+                type="button"
+                class="toggle"
+                data-precision=match this { Precision::ForCustomer => "customer", Precision::Exact => "exact" }
+                aria-pressed=move || if precision.get() == this { "true" } else { "false" }
+                on:click=move |_| precision.set(this)
+            >
+                {label}
+            </button>
+        }
+    };
+    view! {
+        <div class="segmented" role="group" aria-label="Figures">
+            {option(Precision::ForCustomer, "Rounded")}
+            {option(Precision::Exact, "Exact")}
+        </div>
+    }
+}
+
+/// The comparison: a column per design, a row per figure, then the savings against the
+/// baseline (the first design).
+#[component]
+pub fn ComparisonTable(
+    columns: Vec<QuoteColumn>,
+    units: UnitSystem,
+    currency: String,
+    precision: Precision,
+) -> impl IntoView {
+    let head = columns
+        .iter()
+        .enumerate()
+        .map(|(i, c)| view! { <th scope="col" data-design=i>{c.name.clone()}</th> })
+        .collect_view();
+    let body = |rows: &[Row]| {
+        rows.iter()
+            .filter(|row| row.shown_for(&columns))
+            .map(|&row| {
+                let cells = columns
+                    .iter()
+                    .enumerate()
+                    .map(|(i, c)| {
+                        let text = quote_text::cell(row, c, units, &currency, precision);
+                        view! { <td data-design=i>{text.unwrap_or_else(|| "–".into())}</td> }
+                    })
+                    .collect_view();
+                view! {
+                    <tr data-quote-row=row.key()>
+                        <th scope="row">{row.label()}</th>
+                        {cells}
+                    </tr>
+                }
+            })
+            .collect_view()
+    };
+    let baseline = columns.first().map(|c| c.name.clone()).unwrap_or_default();
+    let savings = (columns.len() > 1).then(|| {
+        view! {
+            <tbody class="savings">
+                <tr class="group">
+                    <th scope="rowgroup" colspan=columns.len() + 1>{format!("Against “{baseline}”")}</th>
+                </tr>
+                {body(&Row::SAVING)}
+            </tbody>
+        }
+    });
+    view! {
+        <div class="table-wrap">
+            <table class="needs quote-table" data-quote-table=match precision { Precision::ForCustomer => "customer", Precision::Exact => "exact" }>
+                <thead>
+                    <tr><th scope="col">"Figure"</th>{head}</tr>
+                </thead>
+                <tbody>{body(&Row::DESIGN)}</tbody>
+                {savings}
+            </table>
+        </div>
+    }
+}
+
+/// What each design's heat load asks of a cooler.
+#[component]
+pub fn CoolingList(
+    columns: Vec<QuoteColumn>,
+    units: UnitSystem,
+    precision: Precision,
+) -> impl IntoView {
+    view! {
+        <ul class="cooling">
+            {columns.iter().enumerate().map(|(i, c)| view! {
+                <li data-cooling=i>
+                    <strong>{format!("{}: ", c.name)}</strong>
+                    {quote_text::cooling(c, units, precision)}
+                </li>
+            }).collect_view()}
+        </ul>
+    }
+}
+
+/// The site's figures a quote rests on: hours, price, currency, retrofit price, grid factor.
+#[component]
+fn SiteCosts() -> impl IntoView {
+    view! {
+        <div class="card">
+            <h2>"Site and costs"</h2>
+            <div class="field-grid">
+                <NumberField label="Running hours" path="site.operating_hours_per_year" measure=Measure::HoursPerYear
+                    get=|j: &Job| j.site.operating_hours_per_year set=|j: &mut Job, v| j.site.operating_hours_per_year = v />
+                <NumberField label="Electricity price" path="site.tariff_per_kwh" measure=Measure::Tariff
+                    get=|j: &Job| j.site.tariff_per_kwh set=|j: &mut Job, v| j.site.tariff_per_kwh = v />
+                <TextField label="Currency" path="site.currency"
+                    get=|j: &Job| j.site.currency.clone() set=|j: &mut Job, v| j.site.currency = v />
+                <NumberField label="Retrofit price, installed" path="site.retrofit_price" measure=Measure::Money
+                    get=|j: &Job| j.site.retrofit_price set=|j: &mut Job, v| j.site.retrofit_price = v />
+                <OptionalNumberField label="Grid CO₂ factor (your utility's)" path="site.grid_kg_co2_per_kwh"
+                    measure=Measure::GridFactor placeholder="none: no CO₂ figures".to_string()
+                    get=|j: &Job| j.site.grid_factor set=|j: &mut Job, v| j.site.grid_factor = v />
+            </div>
+        </div>
+    }
+}
+
+/// The oil in circulation, for how fast it warms with no cooler.
+#[component]
+fn OilFields() -> impl IntoView {
+    view! {
+        <div class="card">
+            <h2>"The oil"</h2>
+            <div class="field-grid">
+                <NumberField label="Oil in circulation" path="oil.volume_m3" measure=Measure::OilVolume
+                    get=|j: &Job| j.oil.volume.value set=|j: &mut Job, v| j.oil.volume.value = v />
+                <NumberField label="Density" path="oil.density_kg_per_m3" measure=Measure::Density
+                    get=|j: &Job| j.oil.density.value set=|j: &mut Job, v| j.oil.density.value = v />
+                <NumberField label="Specific heat" path="oil.specific_heat_j_per_kg_k" measure=Measure::SpecificHeat
+                    get=|j: &Job| j.oil.specific_heat.value set=|j: &mut Job, v| j.oil.specific_heat.value = v />
+            </div>
+            <p class="hint">"Mineral oil is about 895 kg/m³ and 1.8 kJ/(kg·K) (Esposito's working values)."</p>
+        </div>
+    }
+}
