@@ -82,6 +82,8 @@ async fn the_demo_comparison_on_a_phone_is_the_engines() {
         "the page stays within the phone"
     );
     b.screenshot("comparison-phone").await;
+    b.screenshot_of(".quote .card", "comparison-table").await;
+    b.screenshot_of(".quote .chart", "energy-chart").await;
 
     b.click("[data-precision='exact']").await;
     wait_for_table(b, "exact", &expected(&job, Precision::Exact)).await;
