@@ -205,6 +205,7 @@ fn ReportView(
                     <Figure label="Cost saved a year" value=format!("{:.0} {currency}", c.annual_cost_saved) key="saved-cost" />
                     <Figure label="Simple payback" value=c.payback_years.map_or("no saving".to_string(), |y| format!("{:.1} years", y)) key="payback" />
                 </dl>
+                <a href=super::area::Area::Quote.href()>"Every design side by side, and the printable report"</a>
             </div>
         })}
         <h2>"Where the power goes"</h2>
