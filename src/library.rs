@@ -84,6 +84,21 @@ pub fn entry_to_store(job: &Job, changed_ms: f64) -> Result<String, String> {
     }
 }
 
+/// The open job as a job file to export or share, or why not: while a number field is empty
+/// or holds text the job holds NaN, which JSON cannot carry (it would be written as `null`,
+/// and the file would then be refused on import).
+pub fn job_file(job: &Job) -> Result<String, String> {
+    let text = job.to_json();
+    match Job::from_json(&text) {
+        Ok(back) if back == *job => Ok(text),
+        _ => Err(HALF_TYPED.into()),
+    }
+}
+
+/// Why a job with an empty or non-number field is not exported or shared.
+pub const HALF_TYPED: &str =
+    "a field holds no number yet (it is marked in red): fill it in, then try again";
+
 /// Brings a stored entry of format `from` up to [`STORE_VERSION`], one format at a time.
 /// A new format adds its step here and a fixture `tests/fixtures/saved-job-v<N>.json` of the
 /// format before it (the test `every_store_format_has_a_fixture_that_reads` asks for it).
@@ -264,6 +279,14 @@ pub fn sorted(mut entries: Vec<Entry>) -> Vec<Entry> {
 mod tests {
     use super::*;
     use crate::engine::demo::scrap_baler;
+
+    #[test]
+    fn a_half_typed_job_is_no_job_file() {
+        let mut job = scrap_baler();
+        assert_eq!(Job::from_json(&job_file(&job).unwrap()).unwrap(), job);
+        job.site.tariff_per_kwh = f64::NAN;
+        assert_eq!(job_file(&job), Err(HALF_TYPED.to_string()));
+    }
 
     #[test]
     fn a_saved_job_reads_back_unchanged() {

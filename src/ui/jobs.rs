@@ -529,8 +529,13 @@ fn Transfer() -> impl IntoView {
     let state = use_job();
     let message = RwSignal::new(None::<(bool, String)>);
     let export_one = move |_: leptos::ev::MouseEvent| {
-        let (name, text) = state.job.with_untracked(|j| (j.name.clone(), j.to_json()));
-        download(&format!("{}.phasewise.json", file_stem(&name)), &text);
+        let (name, file) = state
+            .job
+            .with_untracked(|j| (j.name.clone(), library::job_file(j)));
+        match file {
+            Ok(text) => download(&format!("{}.phasewise.json", file_stem(&name)), &text),
+            Err(why) => message.set(Some((false, format!("Not exported: {why}.")))),
+        }
     };
     let export_all = move |_: leptos::ev::MouseEvent| {
         let text = state.library.with_untracked(|l| {

@@ -120,11 +120,16 @@ pub fn SharePanel() -> impl IntoView {
     let large = RwSignal::new(false);
     let copied = RwSignal::new(false);
     let address = StoredValue::new(app_address());
-    let link = Memo::new(move |_| {
-        shown
-            .get()
-            .then(|| state.job.with(|job| share::link(&address.get_value(), job)))
+    // No link for a job that would not read back (a field holds no number yet): say why.
+    let made = Memo::new(move |_| {
+        shown.get().then(|| {
+            state.job.with(|job| {
+                crate::library::job_file(job).map(|_| share::link(&address.get_value(), job))
+            })
+        })
     });
+    let link = Memo::new(move |_| made.get().and_then(Result::ok));
+    let blocked = move || made.get().and_then(Result::err);
     let drawing = Memo::new(move |_| link.get().map(|l| share::qr(&l)));
     let copy = move |_: leptos::ev::MouseEvent| {
         if let Some(l) = link.get_untracked() {
@@ -149,6 +154,9 @@ pub fn SharePanel() -> impl IntoView {
                     <button type="button" class="button" on:click=copy>{move || if copied.get() { "Copied" } else { "Copy the link" }}</button>
                     <button type="button" class="button" data-action="qr-large" on:click=move |_| large.set(true)>"Show the code large"</button>
                 </div>
+                {move || blocked().map(|why| view! {
+                    <p class="save-note failed" role="status" data-share-blocked="true">{format!("No link yet: {why}.")}</p>
+                })}
                 {move || match drawing.get() {
                     Some(Ok(qr)) => view! {
                         <button

@@ -1,6 +1,7 @@
 //! Files out of and into the app, in headless Chromium: the downloads themselves (a job, all
 //! jobs, a design's ledger as CSV) read back equal to what the engine holds; export all, clear
-//! storage, import gives the same jobs; a job is renamed from the list without opening it.
+//! storage, import gives the same jobs; a job with an empty number field is neither exported
+//! nor shared (it would not read back); a job is renamed from the list without opening it.
 
 use phasewise::engine::{demo::scrap_baler, solve, Job};
 use phasewise_harness::browser::{AppSession, Browser, Viewport, APP_READY};
@@ -142,5 +143,31 @@ async fn a_job_is_renamed_from_the_list_without_opening_it() {
         open_before,
         "the open job is untouched"
     );
+    app.finish().await;
+}
+
+#[tokio::test]
+async fn a_job_with_a_field_holding_no_number_is_neither_exported_nor_shared() {
+    let app = AppSession::start_at("half_typed_export", Viewport::PHONE, "#/quote").await;
+    let b = &app.browser;
+    let downloads = b.allow_downloads().await;
+    // The electricity price emptied: the job holds no number there yet.
+    b.fill("input[data-path='site.tariff_per_kwh']", "").await;
+    b.wait_for_text("#f-site-tariff_per_kwh-error", |t| !t.is_empty())
+        .await;
+    b.click("nav.areas a[href='#/jobs']").await;
+    b.click("button[data-export='one']").await;
+    b.wait_for_text("[data-import-note]", |t| {
+        t.starts_with("Not exported: a field holds no number yet")
+    })
+    .await;
+    b.click("[data-action='make-link']").await;
+    b.wait_for_text("[data-share-blocked]", |t| t.starts_with("No link yet"))
+        .await;
+    assert_eq!(b.count("svg.qr").await, 0, "no QR code of a half-typed job");
+    assert_eq!(b.value("#share-link").await, "");
+    tokio::time::sleep(std::time::Duration::from_millis(500)).await;
+    let files = std::fs::read_dir(&downloads).unwrap().count();
+    assert_eq!(files, 0, "nothing was downloaded");
     app.finish().await;
 }
