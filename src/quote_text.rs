@@ -136,32 +136,50 @@ pub fn grouped(value: f64, decimals: usize) -> String {
     out
 }
 
-/// `value` to three significant figures, with the decimals that leaves.
-fn three_figures(value: f64) -> String {
-    let rounded = for_customer(value, 3);
+/// `value` to `significant` figures, with the decimals that leaves.
+fn figures(value: f64, significant: u32) -> String {
+    // Below a millionth of a millionth of its unit a figure is nothing: shown as zero.
+    let rounded = if value.abs() < 1e-12 {
+        0.0
+    } else {
+        for_customer(value, significant)
+    };
     let magnitude = if rounded == 0.0 {
         0
     } else {
         rounded.abs().log10().floor() as i32
     };
-    grouped(rounded, (2 - magnitude).max(0) as usize)
+    grouped(
+        rounded,
+        (significant as i32 - 1 - magnitude).max(0) as usize,
+    )
 }
 
-/// A quantity in the job's units: three figures for a customer, the unit's own decimals exact.
+/// `value` to three significant figures: what a customer reads.
+fn three_figures(value: f64) -> String {
+    figures(value, 3)
+}
+
+/// The figures shown for a value: three for a customer, six for the exact column (more than
+/// any input is known to, so nothing the engine computed is hidden).
+fn number(value: f64, precision: Precision) -> String {
+    match precision {
+        Precision::ForCustomer => figures(value, 3),
+        Precision::Exact => figures(value, 6),
+    }
+}
+
+/// A quantity in the job's units.
 fn quantity(measure: Measure, units: UnitSystem, si: f64, precision: Precision) -> String {
-    let shown = measure.shown(units, si);
-    let number = match precision {
-        Precision::ForCustomer => three_figures(shown),
-        Precision::Exact => grouped(shown, measure.unit(units).2),
-    };
-    format!("{number} {}", measure.label(units))
+    format!(
+        "{} {}",
+        number(measure.shown(units, si), precision),
+        measure.label(units)
+    )
 }
 
-fn plain(value: f64, unit: &str, exact_decimals: usize, precision: Precision) -> String {
-    let number = match precision {
-        Precision::ForCustomer => three_figures(value),
-        Precision::Exact => grouped(value, exact_decimals),
-    };
+fn plain(value: f64, unit: &str, precision: Precision) -> String {
+    let number = number(value, precision);
     if unit.is_empty() {
         number
     } else {
@@ -169,23 +187,42 @@ fn plain(value: f64, unit: &str, exact_decimals: usize, precision: Precision) ->
     }
 }
 
-/// A payback period in years.
+/// A payback period in years. For a customer: to a tenth of a year under ten years, whole
+/// years above, and in words at the ends of the scale.
 pub fn payback_text(years: Option<f64>, precision: Precision) -> String {
-    match years {
-        None => "no saving".into(),
-        Some(y) => {
-            let y = match precision {
-                Precision::ForCustomer => payback_for_customer(y),
-                Precision::Exact => y,
-            };
-            let text = match precision {
-                Precision::ForCustomer if y >= 10.0 => grouped(y, 0),
-                Precision::ForCustomer => grouped(y, 1),
-                Precision::Exact => grouped(y, 3),
+    match (years, precision) {
+        (None, _) => "no saving".into(),
+        (Some(y), Precision::Exact) => format!("{} years", figures(y, 6)),
+        (Some(y), Precision::ForCustomer) if y <= 0.0 => {
+            "at once (no retrofit price entered)".into()
+        }
+        (Some(y), Precision::ForCustomer) if y < 1.0 / 12.0 => "under a month".into(),
+        (Some(y), Precision::ForCustomer) if y > 100.0 => "over 100 years".into(),
+        (Some(y), Precision::ForCustomer) => {
+            let y = payback_for_customer(y);
+            let text = if y >= 10.0 {
+                grouped(y, 0)
+            } else {
+                grouped(y, 1)
             };
             format!("{text} years")
         }
     }
+}
+
+/// Says when a design makes fewer parts an hour than the baseline: part of its energy saving
+/// is then output not made, which a quote must not hide.
+pub fn fewer_parts_note(c: &QuoteColumn, baseline: &QuoteColumn) -> Option<String> {
+    let (mine, theirs) = (c.parts_per_hour, baseline.parts_per_hour);
+    (mine < theirs * 0.995).then(|| {
+        format!(
+            "“{}” makes {} parts an hour against {} for “{}”: some of its saving comes from making fewer parts. Compare the energy per cycle (per part).",
+            c.name,
+            three_figures(mine),
+            three_figures(theirs),
+            baseline.name
+        )
+    })
 }
 
 /// The text of one cell; none where the row says nothing of this design (the baseline's
@@ -200,52 +237,50 @@ pub fn cell(
     let power = |w: f64| quantity(Measure::Power, units, w, precision);
     let saving = c.against_baseline.as_ref();
     Some(match row {
-        // A rating is a size off a list, not a measurement: shown as it is.
-        Row::MotorSize => Measure::Power.with_unit(units, c.motor_rated_w),
+        // A rating is a size off a list: exact, it is shown as rated.
+        Row::MotorSize => match precision {
+            Precision::ForCustomer => power(c.motor_rated_w),
+            Precision::Exact => Measure::Power.with_unit(units, c.motor_rated_w),
+        },
         Row::PeakLoad => power(c.peak_shaft_w),
         Row::RmsLoad => power(c.rms_shaft_w),
         Row::CycleTime => quantity(Measure::Duration, units, c.cycle_time_s, precision),
-        Row::PartsPerHour => plain(c.parts_per_hour, "", 1, precision),
+        Row::PartsPerHour => plain(c.parts_per_hour, "", precision),
         Row::EnergyPerCycle => quantity(Measure::Energy, units, c.energy_per_cycle_j, precision),
-        Row::AnnualEnergy => plain(c.annual_energy_kwh, "kWh", 1, precision),
-        Row::AnnualCost => plain(c.annual_cost, currency, 2, precision),
+        Row::AnnualEnergy => plain(c.annual_energy_kwh, "kWh", precision),
+        Row::AnnualCost => plain(c.annual_cost, currency, precision),
         Row::HeatLoad => quantity(Measure::Heat, units, c.heat_load_w, precision),
-        Row::Co2 => plain(c.co2_kg_per_year?, "kg", 1, precision),
-        Row::EnergySaved => plain(saving?.energy_kwh_per_year, "kWh", 1, precision),
-        Row::CostSaved => plain(saving?.cost_per_year, currency, 2, precision),
+        Row::Co2 => plain(c.co2_kg_per_year?, "kg", precision),
+        Row::EnergySaved => plain(saving?.energy_kwh_per_year, "kWh", precision),
+        Row::CostSaved => plain(saving?.cost_per_year, currency, precision),
         Row::HeatSaved => quantity(Measure::Heat, units, saving?.heat_load_w, precision),
-        Row::Co2Saved => plain(saving?.co2_kg_per_year?, "kg", 1, precision),
+        Row::Co2Saved => plain(saving?.co2_kg_per_year?, "kg", precision),
         Row::Payback => payback_text(saving?.payback_years, precision),
     })
 }
 
 /// What a design's heat load means for cooling, in one sentence.
 pub fn cooling(c: &QuoteColumn, units: UnitSystem, precision: Precision) -> String {
-    let heat = quantity(Measure::Heat, units, c.heat_load_w, precision);
-    let other = match units {
-        UnitSystem::Si => format!(
-            "{} Btu/h",
-            three_or_exact(c.heat_load_btu_per_hour, precision)
-        ),
-        UnitSystem::UsCustomary => format!("{} kW", three_or_exact(c.heat_load_w / 1e3, precision)),
-    };
-    let rise =
-        quantity(Measure::RiseRate, units, c.oil_rise_k_per_hour, precision).replace("/min", "");
     if c.heat_load_w <= 0.0 {
         return "No heat goes into the oil: no cooler is needed for this cycle.".into();
     }
+    let heat = quantity(Measure::Heat, units, c.heat_load_w, precision);
+    // Cooler ratings are given in both kW and Btu/h: the other one in brackets.
+    let other = match units {
+        UnitSystem::Si => format!("{} Btu/h", number(c.heat_load_btu_per_hour, precision)),
+        UnitSystem::UsCustomary => format!("{} kW", number(c.heat_load_w / 1e3, precision)),
+    };
+    let rise = quantity(
+        Measure::RisePerHour,
+        units,
+        c.oil_rise_k_per_hour,
+        precision,
+    );
     format!(
         "A cooler must take away {heat} ({other}) for as long as the machine runs, at the oil \
-         temperature you mean to hold. With none, the oil warms {rise} an hour of running, \
-         less what the tank and pipes shed."
+         temperature you mean to hold. With none, the oil warms {rise} while it runs, less what \
+         the tank and pipes shed."
     )
-}
-
-fn three_or_exact(value: f64, precision: Precision) -> String {
-    match precision {
-        Precision::ForCustomer => three_figures(value),
-        Precision::Exact => grouped(value, 2),
-    }
 }
 
 #[cfg(test)]
@@ -261,6 +296,13 @@ mod tests {
         assert_eq!(three_figures(16_012.3), "16\u{202F}000");
         assert_eq!(three_figures(0.012_34), "0.0123");
         assert_eq!(three_figures(7.456), "7.46");
+        // Rounding up into the next power of ten takes that power's decimals.
+        assert_eq!(three_figures(999.6), "1\u{202F}000");
+        assert_eq!(three_figures(-999.6), "-1\u{202F}000");
+        assert_eq!(three_figures(0.099_96), "0.100");
+        assert_eq!(figures(30_914.123_4, 6), "30\u{202F}914.1");
+        assert_eq!(figures(1e-310, 3), "0.00");
+        assert_eq!(three_figures(0.0), "0.00");
     }
 
     #[test]
@@ -269,7 +311,22 @@ mod tests {
             payback_text(Some(0.9375), Precision::ForCustomer),
             "0.9 years"
         );
-        assert_eq!(payback_text(Some(0.9375), Precision::Exact), "0.938 years");
+        assert_eq!(
+            payback_text(Some(0.9375), Precision::Exact),
+            "0.937500 years"
+        );
+        assert_eq!(
+            payback_text(Some(0.0), Precision::ForCustomer),
+            "at once (no retrofit price entered)"
+        );
+        assert_eq!(
+            payback_text(Some(0.02), Precision::ForCustomer),
+            "under a month"
+        );
+        assert_eq!(
+            payback_text(Some(3e15), Precision::ForCustomer),
+            "over 100 years"
+        );
         assert_eq!(payback_text(Some(12.4), Precision::ForCustomer), "12 years");
         assert_eq!(
             payback_text(Some(1.02), Precision::ForCustomer),

@@ -34,8 +34,9 @@ fn totals(cycle_s: f64, kwh: f64, cost: f64, heat_w: f64) -> CycleTotals {
 
 #[test]
 fn high_efficiency_motor_savings_of_cengel_and_boles() {
-    // Cengel and Boles, Thermodynamics: An Engineering Approach, example "Cost savings
-    // associated with high-efficiency motors": a 60 hp motor (60 hp of shaft power at full
+    // Cengel and Boles, Thermodynamics: An Engineering Approach, chapter 2 (energy conversion
+    // efficiencies), the example "Cost savings associated with high-efficiency motors" (with
+    // its Fig. 2-61; the example's number differs between editions): a 60 hp motor (60 hp of shaft power at full
     // load), 89.0 % efficient, replaced by a 93.2 % one; 3500 h a year at full load at
     // $0.08/kWh; motors priced $4520 and $5160. Worked from those data: 44.742 kW x (1/0.89 -
     // 1/0.932) = 2.2655 kW saved, 7929 kWh and $634 a year, payback 640 / 634 = 1.01 years (the
@@ -95,6 +96,32 @@ fn high_efficiency_motor_savings_of_cengel_and_boles() {
         "kWh a year",
     );
     assert_eq!(payback_for_customer(s.payback_years.unwrap()), 1.0);
+
+    // A design of its own price: its payback uses it (640 -> 1000 dollars: 1000 / 634.35).
+    job.designs[1].retrofit_price = Some(1000.0);
+    let report = solve(&job).unwrap();
+    let s = quote::columns(&job, &report)[1].against_baseline.unwrap();
+    assert_close(
+        s.payback_years.unwrap(),
+        1000.0 / 634.35,
+        0.005,
+        "own price",
+    );
+    assert_close(
+        report.comparisons[0].payback_years.unwrap(),
+        s.payback_years.unwrap(),
+        1e-12,
+        "the results' comparison uses the same price",
+    );
+
+    // The same motor twice: no saving at all, not a rounding-noise payback of ages.
+    job.designs[1].motor.full_load_efficiency = 0.89;
+    let report = solve(&job).unwrap();
+    let s = quote::columns(&job, &report)[1].against_baseline.unwrap();
+    assert_eq!(
+        (s.energy_kwh_per_year, s.cost_per_year, s.payback_years),
+        (0.0, 0.0, None)
+    );
 }
 
 #[test]
@@ -178,6 +205,21 @@ fn the_assumptions_say_which_values_are_defaults() {
         uom::si::f64::MassDensity::new::<uom::si::mass_density::kilogram_per_cubic_meter>(870.0);
     assert_eq!(basis(&job, "peak allowed"), Basis::Entered);
     assert_eq!(basis(&job, "Oil density"), Basis::Entered);
+    // Two designs: what they share is one line, what differs is a line each.
+    let mut other = job.designs[0].clone();
+    other.name = "Proposed".into();
+    other.motor.full_load_efficiency = 0.93;
+    job.designs.push(other);
+    let whats: Vec<String> = quote::assumptions(&job)
+        .into_iter()
+        .map(|a| a.what)
+        .collect();
+    assert!(
+        whats.contains(&"Every design: short peak allowed over rating".to_string()),
+        "{whats:?}"
+    );
+    assert!(whats.contains(&"“As found”: motor efficiency at full load".to_string()));
+    assert!(whats.contains(&"“Proposed”: motor efficiency at full load".to_string()));
     // Every formula names a source.
     assert!(quote::FORMULAS
         .iter()
@@ -271,6 +313,10 @@ fn a_quote_shows_no_false_precision() {
     assert_eq!(for_customer(0.1 + 0.2, 1), 0.3);
     assert_eq!(for_customer(99.96, 3), 100.0);
     assert_eq!(for_customer(0.0, 3), 0.0);
+    assert_eq!(for_customer(999.6, 3), 1000.0);
+    assert_eq!(for_customer(-0.099_96, 3), -0.1);
+    // Near the smallest f64 nothing is rounded (and nothing overflows).
+    assert_eq!(for_customer(1e-310, 3), 1e-310);
     assert!(for_customer(f64::NAN, 3).is_nan());
     assert_eq!(payback_for_customer(0.9375), 0.9);
     assert_eq!(payback_for_customer(12.6), 13.0);

@@ -102,6 +102,7 @@ pub fn scrap_baler() -> Job {
         remote_stages: vec![],
         vent_pressure: Pressure::new::<bar>(1.7),
         phase_settings: vec![PhaseSetting::default(); cycle.len()],
+        retrofit_price: None,
     };
     let mut proposed = as_found.clone();
     proposed.name = "Proposed".into();

@@ -233,10 +233,29 @@ pub struct Comparison {
     pub payback_years: Option<f64>,
 }
 
+/// A saving smaller than this share of the baseline's figure is rounding noise between two
+/// solves of the same machine, not a saving.
+pub const NOISE: f64 = 1e-9;
+
+/// `saved` with rounding noise against `baseline` taken as zero.
+pub fn denoised(saved: f64, baseline: f64) -> f64 {
+    if saved.abs() <= NOISE * baseline.abs() {
+        0.0
+    } else {
+        saved
+    }
+}
+
+/// The retrofit price over the cost saved a year; none when nothing is saved (or only noise
+/// against the baseline's cost).
+pub fn simple_payback(retrofit_price: f64, cost_saved: f64, baseline_cost: f64) -> Option<f64> {
+    (denoised(cost_saved, baseline_cost) > 0.0).then(|| retrofit_price / cost_saved)
+}
+
 pub fn compare(
     baseline: (&str, &CycleTotals),
     proposed: (&str, &CycleTotals),
-    site: &Site,
+    retrofit_price: f64,
 ) -> Comparison {
     let (b, p) = (baseline.1, proposed.1);
     let saved = b.annual_cost - p.annual_cost;
@@ -249,7 +268,7 @@ pub fn compare(
         cycle_time_change: p.cycle_time - b.cycle_time,
         annual_energy_saved_kwh: b.annual_energy_kwh - p.annual_energy_kwh,
         annual_cost_saved: saved,
-        payback_years: (saved > 0.0).then(|| site.retrofit_price / saved),
+        payback_years: simple_payback(retrofit_price, saved, b.annual_cost),
     }
 }
 

@@ -57,11 +57,12 @@ pub fn solve(job: &Job) -> Result<JobReport, Vec<InputError>> {
     let baseline = &designs[0];
     let comparisons = designs[1..]
         .iter()
-        .map(|d| {
+        .zip(&job.designs[1..])
+        .map(|(d, design)| {
             ledger::compare(
                 (&baseline.name, &baseline.totals),
                 (&d.name, &d.totals),
-                &job.site,
+                design.retrofit_price_or(&job.site),
             )
         })
         .collect();

@@ -28,6 +28,17 @@ pub struct Design {
     pub vent_pressure: Pressure,
     /// One per phase of the cycle, in the same order.
     pub phase_settings: Vec<PhaseSetting>,
+    /// What the retrofit to this design costs, in the site's currency, when it differs from
+    /// the site's one price (absent: the site's `retrofit_price`). Unused on the baseline.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub retrofit_price: Option<f64>,
+}
+
+impl Design {
+    /// What the retrofit to this design costs: its own price, else the site's.
+    pub fn retrofit_price_or(&self, site: &super::job::Site) -> f64 {
+        self.retrofit_price.unwrap_or(site.retrofit_price)
+    }
 }
 
 #[derive(Clone, Copy, Debug, PartialEq, Serialize, Deserialize)]

@@ -5,9 +5,10 @@
 //! stay in the report.
 
 use super::job::{Job, Oil};
-use super::ledger::LedgerItem;
+use super::ledger::{denoised, simple_payback, LedgerItem};
 use super::motor::{TYPICAL_FIXED_LOSS_SHARE, TYPICAL_PEAK_ALLOWANCE};
 use super::units::{Measure, KILOWATT_HOUR};
+use super::valve::{TYPICAL_CHECK_CRACKING_PA, TYPICAL_UNLOADED_DROP_PA};
 use super::{DesignReport, JobReport};
 use serde::Serialize;
 use uom::si::f64::Volume;
@@ -63,14 +64,22 @@ pub fn columns(job: &Job, report: &JobReport) -> Vec<QuoteColumn> {
         .map(|(i, (design, r))| {
             let t = &r.totals;
             let against_baseline = baseline.filter(|_| i > 0).map(|b| {
-                let energy = b.annual_energy_kwh - t.annual_energy_kwh;
-                let cost = b.annual_cost - t.annual_cost;
+                // Two solves of nearly the same unit differ in the last digits: that is no saving.
+                let energy = denoised(
+                    b.annual_energy_kwh - t.annual_energy_kwh,
+                    b.annual_energy_kwh,
+                );
+                let cost = denoised(b.annual_cost - t.annual_cost, b.annual_cost);
                 Saving {
                     energy_kwh_per_year: energy,
-                    heat_load_w: b.heat_load.value - t.heat_load.value,
+                    heat_load_w: denoised(b.heat_load.value - t.heat_load.value, b.heat_load.value),
                     cost_per_year: cost,
                     co2_kg_per_year: grid.map(|g| energy * g),
-                    payback_years: (cost > 0.0).then(|| job.site.retrofit_price / cost),
+                    payback_years: simple_payback(
+                        design.retrofit_price_or(&job.site),
+                        cost,
+                        b.annual_cost,
+                    ),
                 }
             });
             let cycle = t.cycle_time.value;
@@ -125,7 +134,12 @@ pub fn for_customer(value: f64, significant: u32) -> f64 {
     }
     let digits = significant.max(1) as i32;
     let magnitude = value.abs().log10().floor() as i32;
-    let scale = 10f64.powi(digits - 1 - magnitude);
+    let exponent = digits - 1 - magnitude;
+    // Near f64's smallest values the scale would overflow; nothing there is worth rounding.
+    if exponent > 300 {
+        return value;
+    }
+    let scale = 10f64.powi(exponent);
     let rounded = (value * scale).round() / scale;
     // Dividing again by the scale can leave a tail (0.1 + 0.2): print-clean it.
     let decimals = (digits - 1 - magnitude).max(0) as usize;
@@ -147,6 +161,9 @@ pub fn payback_for_customer(years: f64) -> f64 {
 pub enum Basis {
     /// The user's own figure for this job.
     Entered,
+    /// A site figure still equal to the example job's (a new job starts from the example):
+    /// to be checked against this site.
+    FromExample,
     /// A value Phasewise fills in, and where it comes from.
     Default { source: &'static str },
     /// A simplification every result rests on, and where it comes from.
@@ -157,6 +174,8 @@ pub enum Basis {
 #[derive(Clone, Debug, PartialEq, Serialize)]
 pub enum Assumed {
     Quantity(Measure, f64),
+    /// A quantity stated at another ("91 % at 150 bar").
+    QuantityAt(Measure, f64, Measure, f64),
     /// A plain number with its unit in words ("h a year").
     Plain(f64, String),
     Text(String),
@@ -182,22 +201,39 @@ pub fn assumptions(job: &Job) -> Vec<Assumption> {
     let mut push =
         |what: String, value: Assumed, basis: Basis| out.push(Assumption { what, value, basis });
     let site = &job.site;
+    let example = super::demo::scrap_baler().site;
+    let site_basis = |same: bool| {
+        if same {
+            Basis::FromExample
+        } else {
+            Basis::Entered
+        }
+    };
     let currency = site.currency.trim();
     push(
         "Running hours a year".into(),
         Assumed::Plain(site.operating_hours_per_year, "h".into()),
-        Basis::Entered,
+        site_basis(site.operating_hours_per_year == example.operating_hours_per_year),
     );
     push(
         "Electricity price".into(),
         Assumed::Plain(site.tariff_per_kwh, format!("{currency} per kWh")),
-        Basis::Entered,
+        site_basis(site.tariff_per_kwh == example.tariff_per_kwh),
     );
     push(
         "Retrofit price".into(),
         Assumed::Plain(site.retrofit_price, currency.to_string()),
-        Basis::Entered,
+        site_basis(site.retrofit_price == example.retrofit_price),
     );
+    for design in job.designs.iter().skip(1) {
+        if let Some(price) = design.retrofit_price {
+            push(
+                format!("“{}”: its own retrofit price", design.name),
+                Assumed::Plain(price, currency.to_string()),
+                Basis::Entered,
+            );
+        }
+    }
     push(
         "Grid emission factor".into(),
         match site.grid_factor {
@@ -238,35 +274,115 @@ pub fn assumptions(job: &Job) -> Vec<Assumption> {
             Basis::Entered
         }
     };
-    for design in &job.designs {
+    // Each design's own figures: one line for all designs where they agree.
+    let mut per_design: Vec<(usize, String, Assumed, Basis)> = Vec::new();
+    for (i, design) in job.designs.iter().enumerate() {
         let m = &design.motor;
-        let name = &design.name;
+        let mut push =
+            |what: String, value: Assumed, basis: Basis| per_design.push((i, what, value, basis));
         push(
-            format!("“{name}”: motor efficiency at full load"),
+            "Motor efficiency at full load".to_string(),
             Assumed::Quantity(Measure::Percent, m.full_load_efficiency),
             Basis::Entered,
         );
         push(
-            format!("“{name}”: share of the motor's loss that is fixed"),
+            "Share of the motor's loss that is fixed".to_string(),
             Assumed::Quantity(Measure::Percent, m.fixed_loss_share),
             default_or_entered(m.fixed_loss_share == TYPICAL_FIXED_LOSS_SHARE),
         );
         push(
-            format!("“{name}”: service factor (continuous load over rating)"),
+            "Service factor (continuous load over rating)".to_string(),
             Assumed::Quantity(Measure::Factor, m.service_factor),
             Basis::Entered,
         );
         push(
-            format!("“{name}”: short peak allowed over rating"),
+            "Short peak allowed over rating".to_string(),
             Assumed::Quantity(Measure::Factor, m.peak_allowance),
             default_or_entered(m.peak_allowance == TYPICAL_PEAK_ALLOWANCE),
         );
         let typical = design.relief.kind.typical_cracking_fraction();
         push(
-            format!("“{name}”: relief valve cracks at (share of setting)"),
+            "Relief valve cracks at (share of setting)".to_string(),
             Assumed::Quantity(Measure::Percent, design.relief.cracking_fraction),
             default_or_entered(design.relief.cracking_fraction == typical),
         );
+        push(
+            "Relief valve's rated flow (its override line ends there)".to_string(),
+            Assumed::Quantity(Measure::Flow, design.relief.rated_flow.value),
+            Basis::Entered,
+        );
+        push(
+            "Pressure with the relief vented".to_string(),
+            Assumed::Quantity(Measure::Pressure, design.vent_pressure.value),
+            Basis::Entered,
+        );
+        let pumps = design
+            .unloading_stages
+            .iter()
+            .map(|s| &s.pump)
+            .chain(std::iter::once(&design.base_pump));
+        for (n, pump) in pumps.enumerate() {
+            push(
+                format!("Pump {} volumetric efficiency", n + 1),
+                Assumed::QuantityAt(
+                    Measure::Percent,
+                    pump.volumetric_efficiency,
+                    Measure::Pressure,
+                    pump.efficiency_pressure.value,
+                ),
+                Basis::Entered,
+            );
+            push(
+                format!("Pump {} hydromechanical efficiency", n + 1),
+                Assumed::Quantity(Measure::Percent, pump.hydromechanical_efficiency),
+                Basis::Entered,
+            );
+            push(
+                format!("Pump {} drag with no pressure", n + 1),
+                Assumed::Quantity(Measure::Power, pump.drag_power.value),
+                Basis::Entered,
+            );
+        }
+        for (n, stage) in design.unloading_stages.iter().enumerate() {
+            push(
+                format!("Pump {} pressure when unloaded", n + 1),
+                Assumed::Quantity(Measure::Pressure, stage.unloading.unloaded_drop.value),
+                default_or_entered(stage.unloading.unloaded_drop.value == TYPICAL_UNLOADED_DROP_PA),
+            );
+            push(
+                format!("Pump {} check valve cracking", n + 1),
+                Assumed::Quantity(Measure::Pressure, stage.check.cracking.value),
+                default_or_entered(stage.check.cracking.value == TYPICAL_CHECK_CRACKING_PA),
+            );
+        }
+    }
+    let mut keys: Vec<&String> = Vec::new();
+    for (_, key, _, _) in &per_design {
+        if !keys.contains(&key) {
+            keys.push(key);
+        }
+    }
+    for key in keys {
+        let lines: Vec<_> = per_design.iter().filter(|(_, k, _, _)| k == key).collect();
+        let same = lines.len() == job.designs.len()
+            && lines
+                .iter()
+                .all(|(_, _, v, b)| (v, b) == (&lines[0].2, &lines[0].3));
+        if same && job.designs.len() > 1 {
+            push(
+                format!("Every design: {}", lowercase_first(key)),
+                lines[0].2.clone(),
+                lines[0].3.clone(),
+            );
+        } else {
+            for (i, _, value, basis) in lines {
+                push(
+                    format!("“{}”: {}", job.designs[*i].name, lowercase_first(key)),
+                    value.clone(),
+                    basis.clone(),
+                );
+            }
+        }
     }
     let a = &job.advice;
     let policy = super::settings::AdvicePolicy::default();
@@ -285,6 +401,26 @@ pub fn assumptions(job: &Job) -> Vec<Assumption> {
         Assumed::Quantity(Measure::Pressure, a.flow_control_drop.value),
         default_or_entered(a.flow_control_drop == policy.flow_control_drop),
     );
+    push(
+        "Settings advice: least saving worth advising, in its phase".into(),
+        Assumed::Quantity(Measure::Power, a.least_saving_w),
+        default_or_entered(a.least_saving_w == policy.least_saving_w),
+    );
+    let compensated = job.designs.iter().any(|d| {
+        d.unloading_stages
+            .iter()
+            .map(|s| &s.pump)
+            .chain(std::iter::once(&d.base_pump))
+            .any(|p| matches!(p.control, super::pump::PumpControl::Compensated { .. }))
+    });
+    if compensated {
+        push(
+            "A compensated pump goes from full flow to dead-head over this share of its setting"
+                .into(),
+            Assumed::Quantity(Measure::Percent, super::pump::COMPENSATOR_BAND),
+            Basis::Model { source: COMMON },
+        );
+    }
     for (what, source) in MODEL {
         push(
             what.to_string(),
@@ -295,8 +431,16 @@ pub fn assumptions(job: &Job) -> Vec<Assumption> {
     out
 }
 
+fn lowercase_first(text: &str) -> String {
+    let mut chars = text.chars();
+    match chars.next() {
+        Some(first) => first.to_lowercase().chain(chars).collect(),
+        None => String::new(),
+    }
+}
+
 /// The simplifications every result rests on.
-const MODEL: [(&str, &str); 6] = [
+const MODEL: [(&str, &str); 7] = [
     (
         "One part per cycle; the machine cycles through all its running hours",
         "our model of the job",
@@ -310,6 +454,10 @@ const MODEL: [(&str, &str); 6] = [
         COMMON,
     ),
     (
+        "A pump's leakage grows in proportion to pressure, from its stated volumetric efficiency",
+        COMMON,
+    ),
+    (
         "Every hydraulic loss ends up as heat in the oil; the tank and pipes shed none of it",
         "common practice: a cautious upper bound for the cooler",
     ),
@@ -319,7 +467,7 @@ const MODEL: [(&str, &str); 6] = [
     ),
     (
         "Simple payback: no interest, no change in the electricity price, no maintenance costs",
-        "Çengel and Boles, Thermodynamics: An Engineering Approach, simple payback period",
+        "Çengel and Boles, Thermodynamics: An Engineering Approach, chapter 2: simple payback period",
     ),
 ];
 
@@ -363,11 +511,11 @@ pub const FORMULAS: [(&str, &str, &str); 9] = [
     (
         "Energy and cost a year",
         "average electrical input × running hours; × electricity price",
-        "Çengel and Boles, Thermodynamics: An Engineering Approach, cost savings of high-efficiency motors",
+        "Çengel and Boles, Thermodynamics: An Engineering Approach, chapter 2: cost savings of high-efficiency motors",
     ),
     (
         "Simple payback",
         "retrofit price / cost saved a year",
-        "Çengel and Boles, Thermodynamics: An Engineering Approach, simple payback period",
+        "Çengel and Boles, Thermodynamics: An Engineering Approach, chapter 2: simple payback period",
     ),
 ];

@@ -258,10 +258,10 @@ pub fn build(job: &Job, baseline: &Design, spec: &Spec, targets: &Targets) -> Op
             pump: baseline.base_pump,
             unloading: UnloadingValve {
                 setting: baseline.relief.setting,
-                unloaded_drop: pascals(3e5),
+                unloaded_drop: pascals(super::valve::TYPICAL_UNLOADED_DROP_PA),
             },
             check: CheckValve {
-                cracking: pascals(0.5e5),
+                cracking: pascals(super::valve::TYPICAL_CHECK_CRACKING_PA),
             },
         });
     let mut design = baseline.clone();
@@ -536,8 +536,10 @@ pub fn apply_candidate(job: &Job, shown: usize, candidate: &Candidate) -> (Job, 
         } else {
             job.designs[target].name.clone()
         };
+    // The candidate keeps the price quoted for the design it replaces.
     job.designs[target] = Design {
         name,
+        retrofit_price: job.designs[target].retrofit_price,
         ..candidate.design.clone()
     };
     (job, target)

@@ -108,6 +108,8 @@ pub enum Measure {
     Money,
     /// Grid emission factor, kg CO2 per kWh.
     GridFactor,
+    /// Oil temperature rise per hour of running, kept in K/h.
+    RisePerHour,
 }
 
 impl Measure {
@@ -150,6 +152,8 @@ impl Measure {
             (Measure::Tariff, _) => ("per kWh", 1.0, 3),
             (Measure::Money, _) => ("", 1.0, 0),
             (Measure::GridFactor, _) => ("kg/kWh", 1.0, 3),
+            (Measure::RisePerHour, Si) => ("K/h", 1.0, 1),
+            (Measure::RisePerHour, Us) => ("°F/h", 1.0 / 1.8, 1),
         }
     }
 

@@ -338,6 +338,9 @@ fn check_design(c: &mut Checker, d: &Design, job: &Job) {
     if d.name.trim().is_empty() {
         c.fail("name", "give the power unit a name");
     }
+    if let Some(price) = d.retrofit_price {
+        c.plain("retrofit_price", price, true, 1e12, "");
+    }
     let m = &d.motor;
     c.power("motor.rated_power_w", m.rated_power.value, false);
     c.amount(

@@ -42,6 +42,14 @@ impl ReliefKind {
     }
 }
 
+/// A typical unloading valve's drop at a pump's full flow, when unloaded (common practice:
+/// 2 to 5 bar, 30 to 70 psi; the maker's curve decides).
+pub const TYPICAL_UNLOADED_DROP_PA: f64 = 3e5;
+
+/// A typical cracking pressure of the check valve after an unloaded pump (common practice:
+/// about 0.5 bar, 5 to 10 psi).
+pub const TYPICAL_CHECK_CRACKING_PA: f64 = 0.5e5;
+
 /// The valve that sends a pump's flow to tank once system pressure reaches its setting.
 #[derive(Clone, Copy, Debug, PartialEq, Serialize, Deserialize)]
 pub struct UnloadingValve {

@@ -30,6 +30,20 @@ pub fn QuoteArea() -> impl IntoView {
     let columns = use_columns();
     let precision = RwSignal::new(Precision::ForCustomer);
     let designs = move || state.job.with(|j| j.designs.len());
+    // While a figure is being retyped the last comparison stays, dimmed and marked, so the
+    // page does not jump under the user's finger; the stale notice says what to fix.
+    let last = RwSignal::new(None::<Vec<QuoteColumn>>);
+    Effect::new(move |_| {
+        if let Some(c) = columns.get() {
+            last.set(Some(c));
+        }
+    });
+    let shown = Memo::new(move |_| {
+        columns
+            .get()
+            .map(|c| (false, c))
+            .or_else(|| last.get().map(|c| (true, c)))
+    });
     view! {
         <section class="area quote" aria-labelledby="area-title">
             <div class="area-head">
@@ -45,27 +59,31 @@ pub fn QuoteArea() -> impl IntoView {
                     " area (or apply a staging candidate or a setting's advice) to compare it with this one."
                 </p>
             })}
-            {move || columns.get().map(|columns| {
+            {move || shown.get().map(|(stale, columns)| {
                 let units = state.units();
                 let currency = state.job.with(|j| j.site.currency.clone());
+                let notes = fewer_parts_notes(&columns);
                 view! {
-                    <div class="card">
+                    <div class="card" class:stale=stale data-quote-stale=if stale { "true" } else { "false" }>
                         <div class="card-head">
-                            <h2>"Side by side"</h2>
+                            <h2>{if stale { "Side by side (not up to date)" } else { "Side by side" }}</h2>
                             <PrecisionSwitch precision=precision />
                         </div>
                         {move || view! { <ComparisonTable columns=columns.clone() units=units currency=currency.clone() precision=precision.get() /> }}
+                        {notes}
                         <p class="hint">"Simple payback: the retrofit price over the cost saved a year, with no interest and today's electricity price. Each cell's exact figure shows on the “Exact” switch and in the report."</p>
                     </div>
                 }
             })}
-            {move || columns.get().map(|columns| {
+            {move || shown.get().map(|(stale, columns)| {
                 let units = state.units();
                 view! {
-                    <h2>"Where the energy goes"</h2>
-                    <EnergyChart columns=columns.clone() />
-                    <h2>"What the heat means for cooling"</h2>
-                    <CoolingList columns=columns units=units precision=precision.get() />
+                    <div class:stale=stale>
+                        <h2>"Where the energy goes"</h2>
+                        <EnergyChart columns=columns.clone() />
+                        <h2>"What the heat means for cooling"</h2>
+                        <CoolingList columns=columns units=units precision=precision.get() />
+                    </div>
                 }
             })}
             <SiteCosts />
@@ -75,6 +93,25 @@ pub fn QuoteArea() -> impl IntoView {
             </a>
         </section>
     }
+}
+
+/// A caution under the comparison for each design that makes fewer parts than the baseline.
+pub fn fewer_parts_notes(columns: &[QuoteColumn]) -> impl IntoView {
+    let notes: Vec<String> = columns
+        .split_first()
+        .map(|(baseline, rest)| {
+            rest.iter()
+                .filter_map(|c| quote_text::fewer_parts_note(c, baseline))
+                .collect()
+        })
+        .unwrap_or_default();
+    (!notes.is_empty()).then(|| {
+        view! {
+            <ul class="fewer-parts" data-fewer-parts="true">
+                {notes.into_iter().map(|n| view! { <li>{n}</li> }).collect_view()}
+            </ul>
+        }
+    })
 }
 
 /// Rounded for a customer, or exact.
@@ -179,9 +216,49 @@ pub fn CoolingList(
     }
 }
 
-/// The site's figures a quote rests on: hours, price, currency, retrofit price, grid factor.
+/// The site's figures a quote rests on: hours, price, currency, retrofit price, grid factor;
+/// and a price of its own for any proposed design whose retrofit costs differently.
 #[component]
 fn SiteCosts() -> impl IntoView {
+    let state = use_job();
+    // Rebuilt only when a design is added, removed or renamed, never while a price is typed.
+    let proposed = Memo::new(move |_| {
+        state.job.with(|j| {
+            j.designs
+                .iter()
+                .skip(1)
+                .map(|d| d.name.clone())
+                .collect::<Vec<_>>()
+        })
+    });
+    let site_price = Signal::derive(move || {
+        state.job.with(|j| {
+            format!(
+                "the site's: {}",
+                quote_text::grouped(j.site.retrofit_price, 0)
+            )
+        })
+    });
+    let own_prices = move || {
+        proposed
+            .get()
+            .into_iter()
+            .enumerate()
+            .map(|(n, name)| {
+                let d = n + 1;
+                view! {
+                    <OptionalNumberField
+                        label=format!("Retrofit price for “{name}”, if its own")
+                        path=format!("designs[{d}].retrofit_price")
+                        measure=Measure::Money
+                        placeholder=site_price
+                        get=move |j: &Job| j.designs.get(d).and_then(|x| x.retrofit_price)
+                        set=move |j: &mut Job, v| if let Some(x) = j.designs.get_mut(d) { x.retrofit_price = v }
+                    />
+                }
+            })
+            .collect_view()
+    };
     view! {
         <div class="card">
             <h2>"Site and costs"</h2>
@@ -197,6 +274,7 @@ fn SiteCosts() -> impl IntoView {
                 <OptionalNumberField label="Grid CO₂ factor (your utility's)" path="site.grid_kg_co2_per_kwh"
                     measure=Measure::GridFactor placeholder="none: no CO₂ figures".to_string()
                     get=|j: &Job| j.site.grid_factor set=|j: &mut Job, v| j.site.grid_factor = v />
+                {own_prices}
             </div>
         </div>
     }
@@ -205,6 +283,16 @@ fn SiteCosts() -> impl IntoView {
 /// The oil in circulation, for how fast it warms with no cooler.
 #[component]
 fn OilFields() -> impl IntoView {
+    let state = use_job();
+    let mineral_hint = move || {
+        let oil = crate::engine::job::Oil::mineral(Default::default());
+        let u = state.units();
+        format!(
+            "Mineral oil is about {} and {} (Esposito's working values).",
+            Measure::Density.with_unit(u, oil.density.value),
+            Measure::SpecificHeat.with_unit(u, oil.specific_heat.value)
+        )
+    };
     view! {
         <div class="card">
             <h2>"The oil"</h2>
@@ -216,7 +304,7 @@ fn OilFields() -> impl IntoView {
                 <NumberField label="Specific heat" path="oil.specific_heat_j_per_kg_k" measure=Measure::SpecificHeat
                     get=|j: &Job| j.oil.specific_heat.value set=|j: &mut Job, v| j.oil.specific_heat.value = v />
             </div>
-            <p class="hint">"Mineral oil is about 895 kg/m³ and 1.8 kJ/(kg·K) (Esposito's working values)."</p>
+            <p class="hint">{mineral_hint}</p>
         </div>
     }
 }

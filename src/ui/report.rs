@@ -87,7 +87,8 @@ fn Document(job: Job, report: Arc<JobReport>, columns: Vec<QuoteColumn>) -> impl
         .collect();
     let summary = columns
         .iter()
-        .filter_map(|c| {
+        .zip(&job.designs)
+        .filter_map(|(c, design)| {
             let s = c.against_baseline?;
             let cell = |row| quote_text::cell(row, c, units, &currency, Precision::ForCustomer);
             Some(view! {
@@ -98,7 +99,7 @@ fn Document(job: Job, report: Arc<JobReport>, columns: Vec<QuoteColumn>) -> impl
                             c.name,
                             cell(quote_text::Row::EnergySaved).unwrap_or_default(),
                             cell(quote_text::Row::CostSaved).unwrap_or_default(),
-                            quote_text::grouped(job.site.retrofit_price, 0) + " " + currency.trim(),
+                            quote_text::grouped(design.retrofit_price_or(&job.site), 0) + " " + currency.trim(),
                             cell(quote_text::Row::Payback).unwrap_or_default(),
                         ),
                         None => format!(
@@ -139,6 +140,7 @@ fn Document(job: Job, report: Arc<JobReport>, columns: Vec<QuoteColumn>) -> impl
                 <h2>"Summary"</h2>
                 <ComparisonTable columns=columns.clone() units=units currency=currency.clone() precision=Precision::ForCustomer />
                 <ul class="report-summary">{summary}</ul>
+                {super::quote_area::fewer_parts_notes(&columns)}
             </section>
             <section class="report-block keep">
                 <h2>"Where the energy goes in a year"</h2>
@@ -248,7 +250,7 @@ fn DesignSection(
                     <td>{Measure::Flow.format(units, p.point.actuator_flow.value)}</td>
                     <td>{Measure::Duration.format(units, p.point.duration.value)}</td>
                     <td>{Measure::Power.format(units, p.ledger.electrical_input.value)}</td>
-                    <td>{Measure::Power.format(units, p.ledger.heat_into_oil().value)}</td>
+                    <td>{Measure::Heat.format(units, p.ledger.heat_into_oil().value)}</td>
                     <td>{if !p.point.motor_running { "motor off".to_string() } else if unloaded == 0 { "all feed".to_string() } else { format!("{unloaded} unloaded") }}</td>
                 </tr>
             }
@@ -278,7 +280,6 @@ fn DesignSection(
                         {row("Average electrical input", Measure::Power.with_unit(units, t.average_electrical.value))}
                         {row("Motor load, RMS / peak", format!("{} / {}", Measure::Power.with_unit(units, t.rms_shaft.value), Measure::Power.with_unit(units, t.peak_shaft.value)))}
                         {row("Heat into the oil", Measure::Heat.with_unit(units, t.heat_load.value))}
-                        {row("Oil warms, no cooler", Measure::RiseRate.with_unit(units, t.oil_rise_k_per_minute))}
                     </tbody>
                 </table>
             </div>
@@ -288,7 +289,7 @@ fn DesignSection(
                 <table class="needs report-phases">
                     <thead><tr>
                         {head("Phase", None)}{head("Pressure", Some(Measure::Pressure))}{head("Flow", Some(Measure::Flow))}
-                        {head("Time", Some(Measure::Duration))}{head("Input", Some(Measure::Power))}{head("Heat", Some(Measure::Power))}{head("Pumps", None)}
+                        {head("Time", Some(Measure::Duration))}{head("Input", Some(Measure::Power))}{head("Heat", Some(Measure::Heat))}{head("Pumps", None)}
                     </tr></thead>
                     <tbody>{phases}</tbody>
                 </table>
@@ -332,6 +333,11 @@ fn DesignSection(
 fn assumed_text(value: &Assumed, units: UnitSystem) -> String {
     match value {
         Assumed::Quantity(measure, si) => measure.with_unit(units, *si),
+        Assumed::QuantityAt(measure, si, at, at_si) => format!(
+            "{} at {}",
+            measure.with_unit(units, *si),
+            at.with_unit(units, *at_si)
+        ),
         Assumed::Plain(v, unit) => {
             format!("{} {unit}", quote_text::grouped(*v, plain_decimals(*v)))
         }
@@ -357,6 +363,7 @@ fn Assumptions(job: Job) -> impl IntoView {
         .map(|a| {
             let basis = match a.basis {
                 Basis::Entered => "entered for this job".to_string(),
+                Basis::FromExample => "as in the example job: check it for this site".to_string(),
                 Basis::Default { source } => format!("default: {source}"),
                 Basis::Model { source } => format!("how Phasewise works: {source}"),
             };

@@ -203,7 +203,7 @@ fn ReportView(
                     <Figure label="Motor RMS load saved" value=Measure::Power.with_unit(units, c.rms_shaft_saved.value) key="saved-rms" />
                     <Figure label="Energy saved a year" value=format!("{:.0} kWh", c.annual_energy_saved_kwh) key="saved-energy" />
                     <Figure label="Cost saved a year" value=format!("{:.0} {currency}", c.annual_cost_saved) key="saved-cost" />
-                    <Figure label="Simple payback" value=c.payback_years.map_or("no saving".to_string(), |y| format!("{:.1} years", y)) key="payback" />
+                    <Figure label="Simple payback" value=crate::quote_text::payback_text(c.payback_years, crate::quote_text::Precision::ForCustomer) key="payback" />
                 </dl>
                 <a href=super::area::Area::Quote.href()>"Every design side by side, and the printable report"</a>
             </div>

@@ -155,10 +155,14 @@ fn DesignEditor(d: usize) -> impl IntoView {
                             pump,
                             unloading: UnloadingValve {
                                 setting: Pressure::new::<bar>(60.0),
-                                unloaded_drop: Pressure::new::<bar>(3.0),
+                                unloaded_drop: Pressure::new::<uom::si::pressure::pascal>(
+                                    crate::engine::valve::TYPICAL_UNLOADED_DROP_PA,
+                                ),
                             },
                             check: CheckValve {
-                                cracking: Pressure::new::<bar>(0.5),
+                                cracking: Pressure::new::<uom::si::pressure::pascal>(
+                                    crate::engine::valve::TYPICAL_CHECK_CRACKING_PA,
+                                ),
                             },
                         },
                     );

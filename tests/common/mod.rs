@@ -132,6 +132,7 @@ pub fn design(
         remote_stages: vec![],
         vent_pressure: bar_(1.5),
         phase_settings: vec![PhaseSetting::default(); phases],
+        retrofit_price: None,
     }
 }
 
