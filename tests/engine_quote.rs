@@ -114,6 +114,15 @@ fn high_efficiency_motor_savings_of_cengel_and_boles() {
         "the results' comparison uses the same price",
     );
 
+    // A negative price of its own is refused at its field.
+    let mut bad = job.clone();
+    bad.designs[1].retrofit_price = Some(-5.0);
+    let errors = solve(&bad).unwrap_err();
+    assert!(
+        errors.iter().any(|e| e.field == "designs[1].retrofit_price"),
+        "{errors:?}"
+    );
+
     // The same motor twice: no saving at all, not a rounding-noise payback of ages.
     job.designs[1].motor.full_load_efficiency = 0.89;
     let report = solve(&job).unwrap();
