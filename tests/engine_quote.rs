@@ -119,7 +119,9 @@ fn high_efficiency_motor_savings_of_cengel_and_boles() {
     bad.designs[1].retrofit_price = Some(-5.0);
     let errors = solve(&bad).unwrap_err();
     assert!(
-        errors.iter().any(|e| e.field == "designs[1].retrofit_price"),
+        errors
+            .iter()
+            .any(|e| e.field == "designs[1].retrofit_price"),
         "{errors:?}"
     );
 

@@ -316,12 +316,7 @@ pub fn assumptions(job: &Job) -> Vec<Assumption> {
             Assumed::Quantity(Measure::Pressure, design.vent_pressure.value),
             Basis::Entered,
         );
-        let pumps = design
-            .unloading_stages
-            .iter()
-            .map(|s| &s.pump)
-            .chain(std::iter::once(&design.base_pump));
-        for (n, pump) in pumps.enumerate() {
+        for (n, pump) in design.pumps().enumerate() {
             push(
                 format!("Pump {} volumetric efficiency", n + 1),
                 Assumed::QuantityAt(
@@ -407,10 +402,7 @@ pub fn assumptions(job: &Job) -> Vec<Assumption> {
         default_or_entered(a.least_saving_w == policy.least_saving_w),
     );
     let compensated = job.designs.iter().any(|d| {
-        d.unloading_stages
-            .iter()
-            .map(|s| &s.pump)
-            .chain(std::iter::once(&d.base_pump))
+        d.pumps()
             .any(|p| matches!(p.control, super::pump::PumpControl::Compensated { .. }))
     });
     if compensated {

@@ -162,6 +162,16 @@ fn ticks(max: f64) -> Vec<f64> {
     (0..=count).map(|i| i as f64 * step).collect()
 }
 
+/// The highest phase input of any design of the report: one power scale for every design's
+/// ledger chart, so their bars compare.
+pub fn ledger_scale_w(report: &crate::engine::JobReport) -> f64 {
+    report
+        .designs
+        .iter()
+        .flat_map(|d| d.phases.iter().map(|p| p.ledger.electrical_input.value))
+        .fold(0.0, f64::max)
+}
+
 /// Each phase's electrical input split into where it goes, on one power scale.
 #[component]
 pub fn LedgerChart(

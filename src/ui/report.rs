@@ -69,12 +69,7 @@ pub fn ReportArea() -> impl IntoView {
 fn Document(job: Job, report: Arc<JobReport>, columns: Vec<QuoteColumn>) -> impl IntoView {
     let units = job.units;
     let currency = job.site.currency.clone();
-    // One power scale for every design's ledger chart, so their bars compare.
-    let scale = report
-        .designs
-        .iter()
-        .flat_map(|d| d.phases.iter().map(|p| p.ledger.electrical_input.value))
-        .fold(0.0, f64::max);
+    let scale = super::charts::ledger_scale_w(&report);
     let site = if job.site.location.trim().is_empty() {
         "not given".to_string()
     } else {

@@ -170,12 +170,7 @@ fn ReportView(
 ) -> impl IntoView {
     let d = d.min(report.designs.len().saturating_sub(1));
     let design = report.designs[d].clone();
-    // One power scale for every design, so their bars compare.
-    let scale = report
-        .designs
-        .iter()
-        .flat_map(|x| x.phases.iter().map(|p| p.ledger.electrical_input.value))
-        .fold(0.0, f64::max);
+    let scale = super::charts::ledger_scale_w(&report);
     let comparison = (d > 0)
         .then(|| report.comparisons.get(d - 1).cloned())
         .flatten();
