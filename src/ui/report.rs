@@ -180,12 +180,11 @@ fn DesignSection(
     let t = report.totals;
     let m = &design.motor;
     let pumps = design
-        .unloading_stages
-        .iter()
-        .map(|s| (&s.pump, Some(s)))
-        .chain(std::iter::once((&design.base_pump, None)))
+        .pumps()
         .enumerate()
-        .map(|(n, (pump, stage))| {
+        .map(|(n, pump)| {
+            // Pumps in shaft order: the unloading stages first, so pump n has stage n if any.
+            let stage = design.unloading_stages.get(n);
             let control = match pump.control {
                 PumpControl::Fixed => "fixed".to_string(),
                 PumpControl::Compensated { setting } => {
