@@ -107,22 +107,6 @@ impl Browser {
         let shots = crate::target_dir().join("screenshots").join(test);
         std::fs::create_dir_all(&shots).expect("create the screenshot folder");
 
-        let port = free_port();
-        // Kept beside the screenshots, so a failed start can be read after the test.
-        let log =
-            std::fs::File::create(shots.join("chromedriver.log")).expect("create chromedriver log");
-        let mut command = Command::new(&chromedriver);
-        command
-            .arg(format!("--port={port}"))
-            .stdout(Stdio::from(log.try_clone().expect("log handle")))
-            .stderr(Stdio::from(log));
-        // Its own process group, so dropping the browser can end Chromium's helpers too.
-        std::os::unix::process::CommandExt::process_group(&mut command, 0);
-        let driver = command
-            .spawn()
-            .unwrap_or_else(|e| panic!("cannot start {chromedriver}: {e}"));
-        wait_for_port(port, Duration::from_secs(20));
-
         let mut metrics =
             json!({ "width": viewport.width, "height": viewport.height, "pixelRatio": 2.0 });
         if !viewport.mobile {
@@ -156,11 +140,31 @@ impl Browser {
         let Value::Object(capabilities) = capabilities else {
             unreachable!()
         };
-        let client = ClientBuilder::new(hyper_util::client::legacy::connect::HttpConnector::new())
-            .capabilities(capabilities)
-            .connect(&format!("http://127.0.0.1:{port}"))
-            .await
-            .unwrap_or_else(|e| panic!("chromedriver would not open Chromium: {e}"));
+        // A port picked free can be taken by another test's server before chromedriver binds
+        // it (chromedriver then listens on IPv6 alone and the session cannot connect): such a
+        // start is tried again on a new port, a few times, before the test fails.
+        let mut attempt = 0;
+        let (client, driver) = loop {
+            attempt += 1;
+            let (mut driver, port) = start_chromedriver(&chromedriver, &shots);
+            match ClientBuilder::new(hyper_util::client::legacy::connect::HttpConnector::new())
+                .capabilities(capabilities.clone())
+                .connect(&format!("http://127.0.0.1:{port}"))
+                .await
+            {
+                Ok(client) => break (client, driver),
+                Err(e) => {
+                    let _ = driver.kill();
+                    let _ = driver.wait();
+                    if attempt == 3 {
+                        panic!("chromedriver would not open Chromium ({attempt} tries): {e}");
+                    }
+                    eprintln!(
+                        "chromedriver on port {port} did not answer ({e}); trying a new port"
+                    );
+                }
+            }
+        };
         Browser {
             client: Some(client),
             driver,
@@ -647,6 +651,26 @@ pub fn free_port() -> u16 {
         .and_then(|l| l.local_addr())
         .map(|a| a.port())
         .expect("a free port")
+}
+
+/// Starts chromedriver on a free port, its log beside the screenshots (so a failed start can
+/// be read after the test), in its own process group (so dropping the browser can end
+/// Chromium's helpers too); returns once the port answers.
+fn start_chromedriver(chromedriver: &str, shots: &Path) -> (Child, u16) {
+    let port = free_port();
+    let log =
+        std::fs::File::create(shots.join("chromedriver.log")).expect("create chromedriver log");
+    let mut command = Command::new(chromedriver);
+    command
+        .arg(format!("--port={port}"))
+        .stdout(Stdio::from(log.try_clone().expect("log handle")))
+        .stderr(Stdio::from(log));
+    std::os::unix::process::CommandExt::process_group(&mut command, 0);
+    let driver = command
+        .spawn()
+        .unwrap_or_else(|e| panic!("cannot start {chromedriver}: {e}"));
+    wait_for_port(port, Duration::from_secs(20));
+    (driver, port)
 }
 
 fn wait_for_port(port: u16, timeout: Duration) {
