@@ -279,6 +279,7 @@ pub fn sorted(mut entries: Vec<Entry>) -> Vec<Entry> {
 mod tests {
     use super::*;
     use crate::engine::demo::scrap_baler;
+    use crate::engine::job::SCHEMA_VERSION;
 
     #[test]
     fn a_half_typed_job_is_no_job_file() {
@@ -330,7 +331,10 @@ mod tests {
                 "newer Phasewise",
             ),
             (
-                good.replace("\"schema_version\":1", "\"schema_version\":7"),
+                good.replace(
+                    &format!("\"schema_version\":{SCHEMA_VERSION}"),
+                    "\"schema_version\":7",
+                ),
                 "newer Phasewise (format 7)",
             ),
             (
@@ -418,7 +422,7 @@ mod tests {
             ("not json at all".to_string(), "not JSON"),
             ("{\"some\": \"other file\"}".to_string(), "not a Phasewise job file"),
             ("{\"format\": \"phasewise-jobs\", \"jobs\": []}".to_string(), "holds no jobs"),
-            (good.replace("\"schema_version\": 1", "\"schema_version\": 5"), "newer Phasewise"),
+            (good.replace(&format!("\"schema_version\": {SCHEMA_VERSION}"), "\"schema_version\": 5"), "newer Phasewise"),
             (export_all(&[&scrap_baler(), &invalid]), "job 2 (“Scrap baler (example)”) has 1 problem(s), the first at designs[0].motor.full_load_efficiency"),
             ("x".repeat(IMPORT_LIMIT_BYTES + 1), "at most 2048 KB"),
         ];

@@ -214,8 +214,60 @@ fn every_error_is_reported_at_once() {
 fn a_job_file_reads_back_unchanged() {
     let original = good_job();
     let text = original.to_json();
-    assert!(text.contains("\"schema_version\": 1"), "{text}");
+    assert!(
+        text.contains(&format!("\"schema_version\": {SCHEMA_VERSION}")),
+        "{text}"
+    );
     assert_eq!(Job::from_json(&text).unwrap(), original);
+}
+
+/// A format-1 file (a relief's setting read at its rated flow) reads into today's meaning (the
+/// pressure with the pumps' dead-head flow over it) with every solved figure as it was.
+#[test]
+fn a_format_1_file_reads_into_todays_relief_setting_with_the_same_answer() {
+    let dir = std::path::Path::new(env!("CARGO_MANIFEST_DIR")).join("tests/fixtures");
+    let text = std::fs::read_to_string(dir.join("trim-press.job.json")).unwrap();
+    assert!(text.contains("\"schema_version\": 1"), "the fixture is format 1");
+    let job = Job::from_json(&text).unwrap();
+    assert_eq!(job.schema_version, SCHEMA_VERSION);
+    // The same job read as if it were already format 2: the old numbers, the new meaning.
+    let as_if_new = Job::from_json(&text.replacen(
+        "\"schema_version\": 1",
+        &format!("\"schema_version\": {SCHEMA_VERSION}"),
+        1,
+    ))
+    .unwrap();
+    let (upgraded, unconverted) = (solve(&job).unwrap(), solve(&as_if_new).unwrap());
+    let before: serde_json::Value = serde_json::from_str(
+        &std::fs::read_to_string(dir.join("trim-press.format-1.report.json")).unwrap(),
+    )
+    .unwrap();
+    let old = &before["designs"];
+    let mut moved = false;
+    for (d, design) in upgraded.designs.iter().enumerate() {
+        // The setting now reads lower: at the pumps' flow, not the valve's larger rated flow.
+        assert!(
+            job.designs[d].relief.setting < as_if_new.designs[d].relief.setting,
+            "design {d}"
+        );
+        for (i, phase) in design.phases.iter().enumerate() {
+            let was = &old[d]["phases"][i]["point"];
+            let close = |now: f64, key: &str| {
+                let then = was[key].as_f64().unwrap();
+                assert_close(now, then, 1e-9, &format!("design {d} phase {i} {key}"));
+            };
+            close(phase.point.system_pressure.value, "system_pressure_pa");
+            close(phase.point.relief_flow.value, "relief_flow_m3_per_s");
+            close(phase.point.duration.value, "duration_s");
+            let input = old[d]["phases"][i]["ledger"]["electrical_input_w"]
+                .as_f64()
+                .unwrap();
+            assert_close(phase.ledger.electrical_input.value, input, 1e-9, "input");
+            let other = &unconverted.designs[d].phases[i].point;
+            moved |= (other.system_pressure - phase.point.system_pressure).value.abs() > 1.0;
+        }
+    }
+    assert!(moved, "reading the old numbers in the new meaning changes the answer");
 }
 
 #[test]
@@ -234,7 +286,7 @@ fn a_corrupt_or_newer_file_is_refused_with_a_reason() {
         Err(JobFileError::Unreadable(_))
     ));
     let newer = good_job().to_json().replace(
-        "\"schema_version\": 1",
+        &format!("\"schema_version\": {SCHEMA_VERSION}"),
         &format!("\"schema_version\": {}", SCHEMA_VERSION + 1),
     );
     let err = Job::from_json(&newer).unwrap_err();

@@ -19,8 +19,9 @@ const REL: f64 = 1e-9;
 /// so leakage 60 x 0.05 / 200 = 0.015 L/min per bar; 90 % hydromechanical; 0.2 kW drag;
 /// unloads at 50 bar with a 3 bar drop; check valve 0.5 bar.
 /// Pump 2 (base): 8 cm^3/rev, 12 L/min, leakage 0.003 L/min per bar, 90 %, 0.1 kW drag.
-/// Relief: pilot-operated, 160 bar at 60 L/min, cracking at 0.97 x 160 = 155.2 bar, so above
-/// cracking it passes 60 / 4.8 = 12.5 L/min per bar.
+/// Relief: pilot-operated, set at 160 bar (the gauge dead-headed: pump 1 is then unloaded, so
+/// pump 2's 12 - 0.003 x 160 = 11.52 L/min crosses it there), cracking at 0.97 x 160 = 155.2
+/// bar, so above cracking it passes 11.52 / 4.8 = 2.4 L/min per bar (rated 60 L/min).
 /// Cylinder: bore 100 mm (area 7.853982e-3 m^2), rod 56 mm (annulus 5.390973e-3 m^2).
 fn trim_press(vented_idle: bool) -> (Vec<Phase>, phasewise::engine::power_unit::Design) {
     let cycle = vec![
@@ -232,36 +233,38 @@ fn two_pump_press_dwell_and_idle_dump_the_small_pump_over_the_relief() {
     for index in [2, 4] {
         let phase = &report.designs[0].phases[index];
         // Pump 2 alone over the relief (pump 1 unloaded, the pressure being far above 50 bar):
-        // 12 - 0.003 p = 12.5 (p - 155.2), so p = (12 + 12.5 x 155.2) / 12.503 = 156.122531 bar,
-        // and 11.531632 L/min over it: 156.122531 bar x 11.531632 L/min = 3000.579 W of heat.
+        // dead-headed, as the relief was set: 160 bar, 11.52 L/min over it, 160 bar x 11.52
+        // L/min = 3072 W of heat.
         assert_close(
             in_bar(phase.point.system_pressure),
-            156.122_530_592_657_74,
+            160.0,
             REL,
             "pressure, bar",
         );
         assert_eq!(phase.point.pumps[0].state, PumpState::Unloaded);
         assert_close(
             in_lpm(phase.point.relief_flow),
-            11.531_632_408_222_027,
+            11.52,
             REL,
             "relief flow, L/min",
         );
         assert_close(
             phase.ledger.relief_loss.value,
-            3_000.579_389_059_878,
+            3_072.0,
             REL,
             "relief loss, W",
         );
-        // Shaft 533.333 + 12 x 156.122531 / 0.9 / 600 kW + 100 = 4102.723 W; input 4641.016 W.
+        // Shaft: pump 1 unloaded 60 x 3 / 0.9 / 600 kW + 200 = 533.333 W; pump 2 12 x 160 /
+        // 0.9 / 600 kW + 100 = 3655.556 W; 4188.889 W. Load 0.380808 of 11 kW: motor loss
+        // 1222.222 x (0.35 + 0.65 x 0.380808^2) = 542.984 W; input 4731.873 W.
         assert_close(
             phase.ledger.electrical_input.value,
-            4_641.016_012_030_798,
+            4_731.872_864_446_938,
             REL,
             "input, W",
         );
     }
-    // The dwell needs 120 bar and gets 156 bar: no finding.
+    // The dwell needs 120 bar and gets 160 bar: no finding.
     assert!(report.designs[0].phases[2].findings.is_empty());
 }
 
@@ -298,28 +301,29 @@ fn venting_the_idle_saves_its_relief_heat() {
     let (_, proposed) = trim_press(true);
     let report = solve(&job(cycle, vec![found, proposed])).unwrap();
     let idle = &report.designs[1].phases[4];
-    // Vented at 1.5 bar (cracking 1.455 bar, 60 L/min per 0.045 bar): both pumps feed, and
-    // 71.9925 - 0.018 p = 1333.33 (p - 1.455) gives p = 1.508974 bar, 71.965338 L/min to tank.
+    // Vented at 1.5 bar, read (like every limit) with the whole dead-head flow over the valve:
+    // both pumps feed below 50 bar, so the vent passes all their flow at 1.5 bar.
     assert_close(
         in_bar(idle.point.system_pressure),
-        1.508_974_003_850_948,
+        1.5,
         REL,
         "vented, bar",
     );
     assert_eq!(idle.point.pumps[0].state, PumpState::Feeding);
-    // Shaft (60 x 2.008974 + 12 x 1.508974) / 0.9 / 600 kW + 300 W = 556.752 W; input 986.565 W.
+    // Shaft (60 x 2.0 + 12 x 1.5) / 0.9 / 600 kW + 300 W = 555.556 W; motor loss 1222.222 x
+    // (0.35 + 0.65 x 0.050505^2) = 429.804 W; input 985.360 W.
     assert_close(
         idle.ledger.electrical_input.value,
-        986.565_042_714_318_8,
+        985.359_770_544_955_8,
         REL,
         "input, W",
     );
-    // Only the idle differs: the energy per cycle falls by (4641.016 - 986.565) W x 10 s.
+    // Only the idle differs: the energy per cycle falls by (4731.873 - 985.360) W x 10 s.
     let saved = report.designs[0].totals.energy_per_cycle.value
         - report.designs[1].totals.energy_per_cycle.value;
     assert_close(
         saved,
-        (4_641.016_012_030_798 - 986.565_042_714_318_8) * 10.0,
+        (4_731.872_864_446_938 - 985.359_770_544_955_8) * 10.0,
         1e-9,
         "energy saved per cycle, J",
     );
@@ -336,8 +340,8 @@ fn venting_the_idle_saves_its_relief_heat() {
 
 /// A three-pump test rig (invented): pumps of 30, 20 and 10 cm^3/rev at 1000 rpm (30, 20 and
 /// 10 L/min), leak-free, 90 % hydromechanical, no drag; pump 1 unloads at 40 bar and pump 2 at
-/// 80 bar, each with a 2 bar drop and no check-valve drop. Relief pilot-operated, 150 bar at
-/// 60 L/min. Moves are on a 100 mm bore, 100 mm stroke (0.785398 L) at a pressure read off a gauge.
+/// 80 bar, each with a 2 bar drop and no check-valve drop. Relief pilot-operated, set at 150
+/// bar (dead-headed there only pump 3's 10 L/min crosses it), rated 60 L/min. Moves are on a 100 mm bore, 100 mm stroke (0.785398 L) at a pressure read off a gauge.
 fn test_rig(loads_bar: &[f64]) -> (Vec<Phase>, phasewise::engine::power_unit::Design) {
     let ideal = |cc| fixed_pump(cc, 1.0, 100.0, 0.9, 0.0);
     let cycle: Vec<Phase> = loads_bar
@@ -469,11 +473,61 @@ fn three_pumps_unload_one_after_another_as_pressure_rises() {
 
 #[test]
 fn an_unloading_setting_inside_the_relief_override_hunts() {
-    // Idle over a 60 bar remote stage (cracking 58.2 bar, 60 L/min per 1.8 bar). With pump 2
-    // set to unload at 58.9 bar:
-    // - pumps 2 and 3 feeding (30 L/min): p = 58.2 + 30/60 x 1.8 = 59.1 bar >= 58.9: it should unload;
-    // - pump 2 unloaded too (10 L/min): p = 58.2 + 10/60 x 1.8 = 58.5 bar < 58.9: it should reload.
-    // No state agrees. The nearest is pump 2 feeding (0.2 bar off, against 0.4 bar).
+    // A direct demand of 5 L/min at 20 bar on a 60 bar remote stage, pump 2 set to unload at
+    // 59.5 bar. Dead-headed at 60 bar pumps 1 and 2 are unloaded, so the stage is read with pump
+    // 3's 10 L/min over it: cracking 0.97 x 60 = 58.2 bar, then 1.8 bar per 10 L/min.
+    // - pumps 2 and 3 feeding (30 L/min), 25 L/min over it: p = 58.2 + 2.5 x 1.8 = 62.7 bar
+    //   >= 59.5: pump 2 should unload;
+    // - pump 2 unloaded too (10 L/min), 5 L/min over it: p = 58.2 + 0.5 x 1.8 = 59.1 bar < 59.5:
+    //   it should feed again.
+    // No state agrees. The nearest is pump 2 unloaded (0.4 bar off, against 3.2 bar).
+    let (_, mut d) = test_rig(&[]);
+    d.unloading_stages[1].unloading.setting = bar_(59.5);
+    d.remote_stages = vec![bar_(60.0)];
+    d.phase_settings = vec![phasewise::engine::power_unit::PhaseSetting {
+        limit: ActiveLimit::Remote { stage: 0 },
+        idle_path: IdlePath::OverLimit,
+    }];
+    let report = solve(&job(vec![direct("test stand", 5.0, 20.0, 30.0)], vec![d])).unwrap();
+    let phase = &report.designs[0].phases[0];
+    assert_close(
+        in_bar(phase.point.system_pressure),
+        59.1,
+        REL,
+        "pressure, bar",
+    );
+    assert_eq!(phase.point.pumps[1].state, PumpState::Unloaded);
+    assert!(
+        phase.findings.iter().any(|f| matches!(
+            f,
+            Finding::Hunting {
+                pump: 2,
+                solved_unloaded: true,
+                ..
+            }
+        )),
+        "{:?}",
+        phase.findings
+    );
+    // Relief 59.1 bar x 5 L/min = 492.5 W; pumps 1 and 2 unloaded, 2 bar x 50 L/min = 166.667 W.
+    assert_close(
+        phase.ledger.relief_loss.value,
+        492.5,
+        REL,
+        "relief loss, W",
+    );
+    assert_close(
+        phase.ledger.unloading_loss.value,
+        500.0 / 3.0,
+        REL,
+        "unloading loss, W",
+    );
+}
+
+/// An idle can never hunt on its limit: the limit is read dead-headed, with the pumps that feed
+/// at that pressure, so that state always agrees with the unloading valves.
+#[test]
+fn an_idle_over_a_limit_settles_where_the_limit_was_read() {
     let (_, mut d) = test_rig(&[]);
     d.unloading_stages[1].unloading.setting = bar_(58.9);
     d.remote_stages = vec![bar_(60.0)];
@@ -483,51 +537,70 @@ fn an_unloading_setting_inside_the_relief_override_hunts() {
     }];
     let report = solve(&job(vec![idle("wait", 30.0)], vec![d])).unwrap();
     let phase = &report.designs[0].phases[0];
-    assert_close(
-        in_bar(phase.point.system_pressure),
-        59.1,
-        REL,
-        "pressure, bar",
+    assert_close(in_bar(phase.point.system_pressure), 60.0, REL, "bar");
+    assert_eq!(phase.point.pumps[1].state, PumpState::Unloaded);
+    assert!(phase.findings.is_empty(), "{:?}", phase.findings);
+}
+
+/// The setting is what the gauge reads on the machine: a direct-acting relief set at 150 bar,
+/// rated 100 L/min, on a 20 L/min pump holds 150 bar dead-headed, not the 120 + 0.2 x 30 = 126
+/// bar a setting read at the valve's rated flow would give (DOMAIN.md, "How a relief valve's
+/// setting is read in the field"). A 140 bar press on it keeps moving, with flow leaking over
+/// the valve from its 120 bar cracking: 20 / 30 L/min per bar x 20 bar = 13.333 L/min.
+#[test]
+fn a_relief_holds_the_pressure_it_was_set_to_with_the_pumps_flow_over_it() {
+    let d = design(
+        "small unit",
+        motor(7.5, 1500.0, 0.9),
+        vec![],
+        fixed_pump(40.0 / 3.0, 1.0, 100.0, 0.9, 0.0),
+        relief(ReliefKind::DirectActing, 150.0, 100.0, 0.8),
+        2,
     );
-    assert_eq!(phase.point.pumps[1].state, PumpState::Feeding);
-    assert!(
-        phase.findings.iter().any(|f| matches!(
-            f,
-            Finding::Hunting {
-                pump: 2,
-                solved_unloaded: false,
-                ..
-            }
-        )),
-        "{:?}",
-        phase.findings
-    );
-    // Relief 59.1 bar x 30 L/min = 2955 W; pump 1 unloaded, 2 bar x 30 L/min = 100 W.
-    assert_close(
-        phase.ledger.relief_loss.value,
-        2955.0,
-        REL,
-        "relief loss, W",
-    );
-    assert_close(
-        phase.ledger.unloading_loss.value,
-        100.0,
-        REL,
-        "unloading loss, W",
-    );
+    let cycle = vec![
+        hold("clamp", 145.0, 5.0, HoldMode::HeldByPump),
+        move_phase(
+            "press",
+            100.0,
+            50.0,
+            50.0,
+            Direction::Extend,
+            0.0,
+            0.0,
+            SpeedRule::AllPumpFlow,
+        ),
+    ];
+    let mut cycle = cycle;
+    if let PhaseKind::Move(m) = &mut cycle[1].kind {
+        m.load = Load::Pressure {
+            pressure: bar_(140.0),
+        };
+    }
+    let report = solve(&job(cycle, vec![d])).unwrap();
+    let clamp = &report.designs[0].phases[0];
+    assert_close(in_bar(clamp.point.system_pressure), 150.0, REL, "held, bar");
+    assert_close(in_lpm(clamp.point.relief_flow), 20.0, REL, "over it, L/min");
+    assert!(clamp.findings.is_empty(), "{:?}", clamp.findings);
+    let press = &report.designs[0].phases[1];
+    assert_close(in_bar(press.point.system_pressure), 140.0, REL, "press, bar");
+    assert_close(in_lpm(press.point.relief_flow), 40.0 / 3.0, REL, "leak, L/min");
+    assert!(press
+        .findings
+        .iter()
+        .any(|f| matches!(f, Finding::ReliefLeaks { .. })));
 }
 
 #[test]
 fn a_load_beyond_the_limit_stalls_and_says_so() {
     // 180 bar against a 150 bar relief: the cylinder cannot move. Solved as a dead-head: pump 3
-    // alone over the relief, 10 L/min at 145.5 + 10/60 x 4.5 = 146.25 bar, for the time the
-    // stroke would take at pump 3's 10 L/min: 0.785398 L / (1/6 L/s) = 4.712389 s.
+    // alone over the relief, 10 L/min at 150 bar (as it was set), for the time the stroke would
+    // take at pump 3's 10 L/min: 0.785398 L / (1/6 L/s) = 4.712389 s.
     let (cycle, d) = test_rig(&[180.0]);
     let report = solve(&job(cycle, vec![d])).unwrap();
     let phase = &report.designs[0].phases[0];
     assert_close(
         in_bar(phase.point.system_pressure),
-        146.25,
+        150.0,
         REL,
         "pressure, bar",
     );
@@ -544,7 +617,7 @@ fn a_load_beyond_the_limit_stalls_and_says_so() {
         .any(|f| matches!(f, Finding::Stall { .. })));
     assert_close(
         phase.ledger.relief_loss.value,
-        146.25e5 * 1e-3 / 6.0,
+        150e5 * 1e-3 / 6.0,
         REL,
         "relief loss, W",
     );
@@ -578,9 +651,9 @@ fn a_meter_in_surplus_over_the_relief_makes_a_high_low_unit_hunt() {
 #[test]
 fn a_metered_move_burns_the_difference_in_its_flow_control() {
     // One leak-free 30 L/min pump (30 cm^3/rev at 1000 rpm, 90 % hydromechanical), the relief
-    // at 150 bar for 60 L/min (cracking 145.5 bar, 13.333 L/min per bar above it). A 20 bar
-    // move metered to 0.05 m/s takes 23.561945 L/min; the other 6.438055 L/min goes over the
-    // relief at 145.5 + 6.438055 / 13.333 = 145.982854 bar.
+    // set at 150 bar (its 30 L/min over it; cracking 145.5 bar, so 6.6667 L/min per bar above
+    // it). A 20 bar move metered to 0.05 m/s takes 23.561945 L/min; the other 6.438055 L/min
+    // goes over the relief at 145.5 + 6.438055 / 6.6667 = 146.465708 bar.
     let d = design(
         "one pump",
         motor(15.0, 1000.0, 0.9),
@@ -597,7 +670,7 @@ fn a_metered_move_burns_the_difference_in_its_flow_control() {
     let phase = &report.designs[0].phases[0];
     assert_close(
         in_bar(phase.point.system_pressure),
-        145.982_854_132_355_75,
+        146.465_708_264_711_48,
         REL,
         "pressure, bar",
     );
@@ -613,8 +686,8 @@ fn a_metered_move_burns_the_difference_in_its_flow_control() {
         REL,
         "100 mm at 0.05 m/s, s",
     );
-    // Useful 20 bar x 23.561945 L/min = 785.398 W; the flow control burns (145.982854 - 20) bar
-    // x 23.561945 L/min = 4947.335 W; the relief 145.982854 bar x 6.438055 L/min = 1566.409 W.
+    // Useful 20 bar x 23.561945 L/min = 785.398 W; the flow control burns (146.465708 - 20) bar
+    // x 23.561945 L/min = 4966.297 W; the relief 146.465708 bar x 6.438055 L/min = 1571.590 W.
     assert_close(
         phase.ledger.useful_power.value,
         785.398_163_397_448_5,
@@ -623,18 +696,19 @@ fn a_metered_move_burns_the_difference_in_its_flow_control() {
     );
     assert_close(
         phase.ledger.metering_loss.value,
-        4_947.335_112_756_044,
+        4_966.296_750_193_095,
         REL,
         "metering loss, W",
     );
     assert_close(
         phase.ledger.relief_loss.value,
-        1_566.409_430_464_296,
+        1_571.590_499_645_03,
         REL,
         "relief loss, W",
     );
-    // A 40 bar remote stage for the phase (cracking 38.8 bar, 50 L/min per bar): p = 38.8 +
-    // 6.438055 / 50 = 38.928761 bar; metering falls to 743.331 W, the relief to 417.709 W.
+    // A 40 bar remote stage for the phase (cracking 38.8 bar, 30 L/min over 1.2 bar: 25 L/min
+    // per bar): p = 38.8 + 6.438055 / 25 = 39.057522 bar; metering falls to 748.387 W, the
+    // relief to 419.091 W.
     let mut lower = d;
     lower.remote_stages = vec![bar_(40.0)];
     lower.phase_settings[0].limit = ActiveLimit::Remote { stage: 0 };
@@ -642,19 +716,19 @@ fn a_metered_move_burns_the_difference_in_its_flow_control() {
     let phase = &report.designs[0].phases[0];
     assert_close(
         in_bar(phase.point.system_pressure),
-        38.928_761_101_961_53,
+        39.057_522_203_923_06,
         REL,
         "pressure, bar",
     );
     assert_close(
         phase.ledger.metering_loss.value,
-        743.330_710_243_482_3,
+        748.387_146_893_363_1,
         REL,
         "metering loss, W",
     );
     assert_close(
         phase.ledger.relief_loss.value,
-        417.709_181_457_145_6,
+        419.090_799_905_341_27,
         REL,
         "relief loss, W",
     );

@@ -225,9 +225,10 @@ fn a_metered_phase_on_a_high_limit_is_offered_the_lowest_that_serves_it() {
     );
 
     // Applied to a proposed design (made, since the job has only the baseline): the surplus
-    // 12 - 4.712 = 7.288 L/min crosses the relief at 40.74 + 1.26 x 7.288 / 60 = 40.893 bar
-    // instead of 155.2 + 4.8 x 7.288 / 60 = 155.783 bar, so the pump's shaft power falls from
-    // 155.783e5 x 2e-4 = 3115.7 W to 40.893e5 x 2e-4 = 817.9 W.
+    // 12 - 4.712 = 7.288 L/min crosses the relief (each limit read with the pump's 12 L/min over
+    // it) at 40.74 + 1.26 x 7.288 / 12 = 41.505 bar instead of 155.2 + 4.8 x 7.288 / 12 =
+    // 158.115 bar, so the pump's shaft power falls from 158.115e5 x 2e-4 = 3162.3 W to
+    // 41.505e5 x 2e-4 = 830.1 W.
     let (proposed, target) = settings::apply_to_proposed(&job, 0, &a.action.unwrap());
     assert_eq!(target, 1);
     assert_eq!(
@@ -242,7 +243,8 @@ fn a_metered_phase_on_a_high_limit_is_offered_the_lowest_that_serves_it() {
     );
     let report = solve(&proposed).unwrap();
     let shaft = |d: usize| report.designs[d].phases[0].ledger.shaft_power().value;
-    let surplus = (12.0 - 0.01 * 7.853982e-3 * 60000.0) / 60.0;
+    // The surplus as a share of the pump's 12 L/min.
+    let surplus = (12.0 - 0.01 * 7.853982e-3 * 60000.0) / 12.0;
     assert_close(
         shaft(0),
         (155.2 + 4.8 * surplus) * BAR * 2e-4,

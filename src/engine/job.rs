@@ -11,7 +11,10 @@ use uom::si::specific_heat_capacity::joule_per_kilogram_kelvin;
 
 /// The job file format's version. Raise it on any change a previous version could not read,
 /// and add the migration (see DEVELOPERS.md, "Job file format").
-pub const SCHEMA_VERSION: u32 = 1;
+///
+/// - 2: a relief's `setting_pa` is the pressure with the pumps' whole dead-head flow over the
+///   valve (as set on the machine), no longer the pressure at its rated flow.
+pub const SCHEMA_VERSION: u32 = 2;
 
 #[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
 pub struct Job {
@@ -209,13 +212,38 @@ impl Job {
                 version: version.schema_version,
             });
         }
-        serde_json::from_str(text).map_err(|e| JobFileError::Unreadable(e.to_string()))
+        let mut job: Job =
+            serde_json::from_str(text).map_err(|e| JobFileError::Unreadable(e.to_string()))?;
+        // Format 0 never existed: left as found for validation to refuse.
+        if job.schema_version == 1 {
+            for design in &mut job.designs {
+                upgrade_relief_from_format_1(design);
+            }
+            job.schema_version = SCHEMA_VERSION;
+        }
+        Ok(job)
     }
 
     /// The job as a job file (pretty JSON).
     pub fn to_json(&self) -> String {
         serde_json::to_string_pretty(self).expect("a job always serialises")
     }
+}
+
+/// Format 1 stored a relief's setting at its rated flow; read it into today's meaning with the
+/// same solved behaviour on the main limit and dead-headed on every limit (see
+/// `solve::format_1_relief`). Figures that cannot be converted
+/// stay as found, for validation to point at.
+fn upgrade_relief_from_format_1(design: &mut Design) {
+    let Some(new) = super::solve::format_1_relief(design) else {
+        return;
+    };
+    design.relief.setting.value = new.main;
+    design.relief.cracking_fraction = new.cracking_fraction;
+    for (remote, value) in design.remote_stages.iter_mut().zip(new.remote_stages) {
+        remote.value = value;
+    }
+    design.vent_pressure.value = new.vent;
 }
 
 #[cfg(test)]

@@ -117,6 +117,30 @@ impl<'a> PreparedUnit<'a> {
         PreparedUnit { design, pumps }
     }
 
+    /// The flow the pumps send over the relief with the system dead-headed at `p` (m^3/s), as
+    /// when a relief is set: every pump not unloaded at that pressure, at full stroke (a
+    /// compensator is turned up out of the way while the relief is set, common practice),
+    /// less its leakage there.
+    pub(crate) fn dead_head_flow(&self, p: f64) -> f64 {
+        self.pumps
+            .iter()
+            .filter(|s| s.unloading.is_none_or(|(setting, _)| p < setting))
+            .map(|s| (s.pump.swept - s.pump.leakage * (p + s.check)).max(0.0))
+            .sum()
+    }
+
+    /// The relief's characteristic with `governing` the governing setting: that setting is
+    /// read with the dead-head flow at it over the valve (see
+    /// [`ReliefValve`](super::valve::ReliefValve)). A unit whose pumps give nothing there is
+    /// refused by validation; the floor keeps the line finite for any other caller.
+    pub(crate) fn relief(&self, governing: f64) -> ReliefCharacteristic {
+        ReliefCharacteristic::new(
+            governing,
+            self.design.relief.cracking_fraction,
+            self.dead_head_flow(governing).max(NO_FLOW),
+        )
+    }
+
     fn stages(&self) -> usize {
         self.pumps.len() - 1
     }
@@ -181,6 +205,73 @@ impl<'a> PreparedUnit<'a> {
             a
         }
     }
+}
+
+/// A format-1 relief (its settings read at the valve's rated flow) in today's meaning (each
+/// governing pressure read with that limit's dead-head flow over the valve): the main setting,
+/// each remote stage and the vent pressure as the old model's gauge would read them dead-headed
+/// on that limit, and the cracking fraction that keeps the main limit's cracking pressure.
+/// `None` when the design's figures cannot be converted (left as found, for validation).
+///
+/// On the main limit the new line is the old one exactly (same cracking pressure, and the old
+/// line's pressure at the dead-head flow); so every phase on it solves as before. On a remote
+/// stage or the vent the answer dead-headed is the same, and between cracking and full flow it
+/// differs by less than the valve's override band.
+pub(crate) fn format_1_relief(design: &Design) -> Option<Format1Relief> {
+    let relief = &design.relief;
+    let (rated, cracking) = (relief.rated_flow.value, relief.cracking_fraction);
+    let sane = |x: f64| x.is_finite() && x > 0.0;
+    if !(sane(rated) && sane(cracking) && cracking < 1.0) {
+        return None;
+    }
+    let unit = PreparedUnit::new(design);
+    // The old line from cracking `c G` to the rated flow `Qr` at `G` meets the dead-head flow
+    // `Q(p)` at `p = c G + Q(p) G (1 - c) / Qr`. `Q` falls as `p` rises (leakage, stages
+    // unloading), so the difference of the two sides rises: bisect it.
+    let reading = |governing: f64| -> Option<f64> {
+        if !sane(governing) {
+            return None;
+        }
+        let span = governing * (1.0 - cracking) / rated;
+        let excess = |p: f64| p - cracking * governing - unit.dead_head_flow(p) * span;
+        let mut low = cracking * governing;
+        let mut high = low + unit.dead_head_flow(low) * span;
+        if !high.is_finite() || high <= low {
+            return None;
+        }
+        for _ in 0..200 {
+            let mid = 0.5 * (low + high);
+            if mid <= low || mid >= high {
+                break;
+            }
+            if excess(mid) < 0.0 {
+                low = mid;
+            } else {
+                high = mid;
+            }
+        }
+        Some(high)
+    };
+    let main = reading(relief.setting.value)?;
+    let remote_stages = design
+        .remote_stages
+        .iter()
+        .map(|r| reading(r.value))
+        .collect::<Option<Vec<f64>>>()?;
+    Some(Format1Relief {
+        main,
+        cracking_fraction: cracking * relief.setting.value / main,
+        remote_stages,
+        vent: reading(design.vent_pressure.value)?,
+    })
+}
+
+/// A format-1 relief's settings in today's meaning (Pa).
+pub(crate) struct Format1Relief {
+    pub main: f64,
+    pub cracking_fraction: f64,
+    pub remote_stages: Vec<f64>,
+    pub vent: f64,
 }
 
 /// What a phase asks of the power unit, in SI numbers.
@@ -284,14 +375,12 @@ pub(crate) fn governing_limit(
 
 /// The limit governing a phase, and a finding if a remote stage was chosen that cannot govern.
 fn limit_in_use(
-    design: &Design,
+    unit: &PreparedUnit,
     setting: &PhaseSetting,
     idle: bool,
 ) -> (LimitInUse, ReliefCharacteristic) {
-    let relief = &design.relief;
-    let (limit, governing) = governing_limit(design, setting, idle);
-    let characteristic =
-        ReliefCharacteristic::new(governing, relief.cracking_fraction, relief.rated_flow.value);
+    let (limit, governing) = governing_limit(unit.design, setting, idle);
+    let characteristic = unit.relief(governing);
     let in_use = LimitInUse {
         limit,
         setting: pascals(governing),
@@ -308,7 +397,7 @@ pub(crate) fn solve_phase(
 ) -> PhaseReport {
     let demand = demand(phase);
     let idle = matches!(demand, Demand::Idle { .. });
-    let (limit, relief) = limit_in_use(unit.design, setting, idle);
+    let (limit, relief) = limit_in_use(unit, setting, idle);
 
     if let (Demand::Idle { duration }, IdlePath::MotorStopped) = (demand, setting.idle_path) {
         return report(

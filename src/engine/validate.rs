@@ -335,6 +335,22 @@ fn check_phase(c: &mut Checker, kind: &PhaseKind) {
 }
 
 fn check_design(c: &mut Checker, d: &Design, job: &Job) {
+    let before = c.errors.len();
+    check_design_fields(c, d, job);
+    // A relief is read with the pumps' dead-head flow over it: with none (every pump losing
+    // its whole flow to leakage at that pressure) the setting means nothing.
+    if c.errors.len() == before {
+        let unit = super::solve::PreparedUnit::new(d);
+        if unit.dead_head_flow(d.relief.setting.value) <= 0.0 {
+            c.fail(
+                "relief.setting_pa",
+                "at this setting the pumps would lose all their flow to leakage: check the setting and the pumps' volumetric efficiency",
+            );
+        }
+    }
+}
+
+fn check_design_fields(c: &mut Checker, d: &Design, job: &Job) {
     if d.name.trim().is_empty() {
         c.fail("name", "give the power unit a name");
     }

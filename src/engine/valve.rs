@@ -5,16 +5,32 @@ use serde::{Deserialize, Serialize};
 use uom::si::f64::{Pressure, VolumeRate};
 
 /// The main relief valve.
+///
+/// Its setting is what a technician sets and reads on the machine: the gauge's pressure with
+/// the pump dead-headed, the whole flow the pumps then give crossing the valve (DOMAIN.md, "How
+/// a relief valve's setting is read in the field"). The valve starts to pass flow below it
+/// (cracking, by valve type) and the pressure rises above it with more flow (override): a
+/// straight line through cracking and the setting at that flow. Remote pilot stages and the
+/// vent are read the same way, at the same flow.
 #[derive(Clone, Copy, Debug, PartialEq, Serialize, Deserialize)]
 pub struct ReliefValve {
     pub kind: ReliefKind,
-    /// The pressure at which the valve passes its rated flow.
+    /// The pressure with the design's full pump flow over the valve (job file format 2 on;
+    /// format 1 stored the pressure at `rated_flow`, converted on reading).
     #[serde(rename = "setting_pa")]
     pub setting: Pressure,
+    /// The maker's rated flow: the valve should pass the pumps' whole flow.
     #[serde(rename = "rated_flow_m3_per_s")]
     pub rated_flow: VolumeRate,
     /// The pressure at which it starts to pass flow, as a share of the setting.
     pub cracking_fraction: f64,
+}
+
+impl ReliefValve {
+    /// Where the valve starts to pass flow on its main setting.
+    pub fn cracking_pressure(&self) -> Pressure {
+        self.setting * self.cracking_fraction
+    }
 }
 
 #[derive(Clone, Copy, Debug, PartialEq, Eq, Serialize, Deserialize)]
@@ -97,20 +113,21 @@ pub enum IdlePath {
 }
 
 /// How much flow a relief passes at a pressure: nothing below cracking, then rising in a
-/// straight line to the rated flow at the governing setting, and on above it (override).
+/// straight line to the setting flow (the pumps' dead-head flow) at the governing setting, and
+/// on above it (override).
 #[derive(Clone, Copy, Debug, PartialEq)]
 pub(crate) struct ReliefCharacteristic {
     pub cracking: f64,
     pub full: f64,
-    pub rated_flow: f64,
+    pub setting_flow: f64,
 }
 
 impl ReliefCharacteristic {
-    pub fn new(governing: f64, cracking_fraction: f64, rated_flow: f64) -> Self {
+    pub fn new(governing: f64, cracking_fraction: f64, setting_flow: f64) -> Self {
         ReliefCharacteristic {
             cracking: governing * cracking_fraction,
             full: governing,
-            rated_flow,
+            setting_flow,
         }
     }
 
@@ -118,7 +135,12 @@ impl ReliefCharacteristic {
         if pressure <= self.cracking {
             0.0
         } else {
-            self.rated_flow * (pressure - self.cracking) / (self.full - self.cracking)
+            self.setting_flow * (pressure - self.cracking) / (self.full - self.cracking)
         }
+    }
+
+    /// The pressure at which the valve passes `flow` (the inverse of [`Self::flow`]).
+    pub fn pressure_at(&self, flow: f64) -> f64 {
+        self.cracking + (self.full - self.cracking) * flow.max(0.0) / self.setting_flow
     }
 }

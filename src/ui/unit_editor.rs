@@ -225,7 +225,7 @@ fn DesignEditor(d: usize) -> impl IntoView {
                         x.relief.cracking_fraction = kind.typical_cracking_fraction();
                     }
                 } />
-            <NumberField label="Setting (at rated flow)" path=format!("designs[{d}].relief.setting_pa") measure=Measure::Pressure
+            <NumberField label="Setting (gauge, pump dead-headed)" path=format!("designs[{d}].relief.setting_pa") measure=Measure::Pressure
                 get=move |j: &Job| design(j, d).map_or(f64::NAN, |x| x.relief.setting.value)
                 set=move |j: &mut Job, v| if let Some(x) = design_mut(j, d) { x.relief.setting.value = v } />
             <NumberField label="Rated flow" path=format!("designs[{d}].relief.rated_flow_m3_per_s") measure=Measure::Flow
@@ -238,6 +238,16 @@ fn DesignEditor(d: usize) -> impl IntoView {
                 get=move |j: &Job| design(j, d).map_or(f64::NAN, |x| x.vent_pressure.value)
                 set=move |j: &mut Job, v| if let Some(x) = design_mut(j, d) { x.vent_pressure.value = v } />
         </div>
+        <p class="hint" data-hint="relief-setting">{move || state.job.with(|j| {
+            let u = j.units;
+            design(j, d).map(|x| {
+                let cracking = x.relief.cracking_pressure().value;
+                format!(
+                    "The setting is what the gauge reads with the pump dead-headed, its whole flow crossing the valve; remote stages and the vent are read the same way. The valve starts to open below it, at about {} (cracking), and the pressure rises above it as more flow crosses (override).",
+                    if cracking.is_finite() { Measure::Pressure.with_unit(u, cracking) } else { "the cracking share of the setting".into() }
+                )
+            })
+        })}</p>
         <h3>"Remote pilot stages"</h3>
         {move || (0..remotes()).map(|r| view! {
             <div class="stage-row">
