@@ -227,7 +227,10 @@ fn a_job_file_reads_back_unchanged() {
 fn a_format_1_file_reads_into_todays_relief_setting_with_the_same_answer() {
     let dir = std::path::Path::new(env!("CARGO_MANIFEST_DIR")).join("tests/fixtures");
     let text = std::fs::read_to_string(dir.join("trim-press.job.json")).unwrap();
-    assert!(text.contains("\"schema_version\": 1"), "the fixture is format 1");
+    assert!(
+        text.contains("\"schema_version\": 1"),
+        "the fixture is format 1"
+    );
     let job = Job::from_json(&text).unwrap();
     assert_eq!(job.schema_version, SCHEMA_VERSION);
     // The same job read as if it were already format 2: the old numbers, the new meaning.
@@ -264,10 +267,16 @@ fn a_format_1_file_reads_into_todays_relief_setting_with_the_same_answer() {
                 .unwrap();
             assert_close(phase.ledger.electrical_input.value, input, 1e-9, "input");
             let other = &unconverted.designs[d].phases[i].point;
-            moved |= (other.system_pressure - phase.point.system_pressure).value.abs() > 1.0;
+            moved |= (other.system_pressure - phase.point.system_pressure)
+                .value
+                .abs()
+                > 1.0;
         }
     }
-    assert!(moved, "reading the old numbers in the new meaning changes the answer");
+    assert!(
+        moved,
+        "reading the old numbers in the new meaning changes the answer"
+    );
 }
 
 #[test]

@@ -303,12 +303,7 @@ fn venting_the_idle_saves_its_relief_heat() {
     let idle = &report.designs[1].phases[4];
     // Vented at 1.5 bar, read (like every limit) with the whole dead-head flow over the valve:
     // both pumps feed below 50 bar, so the vent passes all their flow at 1.5 bar.
-    assert_close(
-        in_bar(idle.point.system_pressure),
-        1.5,
-        REL,
-        "vented, bar",
-    );
+    assert_close(in_bar(idle.point.system_pressure), 1.5, REL, "vented, bar");
     assert_eq!(idle.point.pumps[0].state, PumpState::Feeding);
     // Shaft (60 x 2.0 + 12 x 1.5) / 0.9 / 600 kW + 300 W = 555.556 W; motor loss 1222.222 x
     // (0.35 + 0.65 x 0.050505^2) = 429.804 W; input 985.360 W.
@@ -510,12 +505,7 @@ fn an_unloading_setting_inside_the_relief_override_hunts() {
         phase.findings
     );
     // Relief 59.1 bar x 5 L/min = 492.5 W; pumps 1 and 2 unloaded, 2 bar x 50 L/min = 166.667 W.
-    assert_close(
-        phase.ledger.relief_loss.value,
-        492.5,
-        REL,
-        "relief loss, W",
-    );
+    assert_close(phase.ledger.relief_loss.value, 492.5, REL, "relief loss, W");
     assert_close(
         phase.ledger.unloading_loss.value,
         500.0 / 3.0,
@@ -582,8 +572,18 @@ fn a_relief_holds_the_pressure_it_was_set_to_with_the_pumps_flow_over_it() {
     assert_close(in_lpm(clamp.point.relief_flow), 20.0, REL, "over it, L/min");
     assert!(clamp.findings.is_empty(), "{:?}", clamp.findings);
     let press = &report.designs[0].phases[1];
-    assert_close(in_bar(press.point.system_pressure), 140.0, REL, "press, bar");
-    assert_close(in_lpm(press.point.relief_flow), 40.0 / 3.0, REL, "leak, L/min");
+    assert_close(
+        in_bar(press.point.system_pressure),
+        140.0,
+        REL,
+        "press, bar",
+    );
+    assert_close(
+        in_lpm(press.point.relief_flow),
+        40.0 / 3.0,
+        REL,
+        "leak, L/min",
+    );
     assert!(press
         .findings
         .iter()

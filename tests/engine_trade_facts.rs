@@ -160,3 +160,48 @@ fn extending_uses_the_bore_and_retracting_the_annulus() {
         "retract / extend speed",
     );
 }
+
+/// Slip hardly depends on speed (DOMAIN.md, "Leakage, speed and viscosity"): a pump stated at
+/// 92 % volumetric at 1500 rpm and 200 bar loses the same 8 % of its 1500 rpm swept flow at
+/// 750 rpm, so there it delivers 50 - 8 = 42 % of its 1500 rpm flow: 84 % volumetric.
+#[test]
+fn a_pump_slower_than_its_efficiency_was_stated_at_leaks_the_same_flow() {
+    let mut pump = fixed_pump(40.0, 0.92, 200.0, 0.9, 0.0);
+    pump.efficiency_speed = Some(uom::si::f64::AngularVelocity::new::<
+        uom::si::angular_velocity::revolution_per_minute,
+    >(1500.0));
+    let mut d = design(
+        "half speed",
+        motor(11.0, 750.0, 0.9),
+        vec![],
+        pump,
+        relief(ReliefKind::PilotOperated, 250.0, 100.0, 0.97),
+        1,
+    );
+    d.phase_settings[0] = Default::default();
+    let mut cycle = vec![move_phase(
+        "press",
+        100.0,
+        50.0,
+        100.0,
+        Direction::Extend,
+        0.0,
+        0.0,
+        SpeedRule::AllPumpFlow,
+    )];
+    if let phasewise::engine::cycle::PhaseKind::Move(m) = &mut cycle[0].kind {
+        m.load = phasewise::engine::cycle::Load::Pressure {
+            pressure: bar_(200.0),
+        };
+    }
+    let report = solve(&job(cycle, vec![d])).unwrap();
+    let delivered = report.designs[0].phases[0].point.pumps[0].flow;
+    // 40 cm^3/rev at 750 rpm = 30 L/min swept; leakage 0.08 x 60 L/min = 4.8 L/min.
+    assert_close(in_lpm(delivered), 30.0 - 4.8, 1e-12, "delivered, L/min");
+    assert_close(
+        in_lpm(delivered) / 30.0,
+        0.84,
+        1e-12,
+        "volumetric at 750 rpm",
+    );
+}

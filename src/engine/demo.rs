@@ -44,6 +44,7 @@ fn pump(cc: f64) -> Pump {
         displacement: Volume::new::<cubic_centimeter>(cc),
         volumetric_efficiency: 0.92,
         efficiency_pressure: Pressure::new::<bar>(210.0),
+        efficiency_speed: None,
         hydromechanical_efficiency: 0.90,
         drag_power: Power::new::<kilowatt>(0.15 + cc * 0.004),
         rated_pressure: Pressure::new::<bar>(250.0),

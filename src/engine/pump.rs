@@ -1,7 +1,7 @@
 //! Pumps on the motor's shaft.
 
 use serde::{Deserialize, Serialize};
-use uom::si::f64::{Power, Pressure, Volume};
+use uom::si::f64::{AngularVelocity, Power, Pressure, Volume};
 
 /// A positive-displacement pump, fixed or pressure-compensated.
 #[derive(Clone, Copy, Debug, PartialEq, Serialize, Deserialize)]
@@ -9,11 +9,22 @@ pub struct Pump {
     /// Volume per shaft revolution (the maximum, for a compensated pump).
     #[serde(rename = "displacement_m3_per_rev")]
     pub displacement: Volume,
-    /// Actual over theoretical flow, as measured at `efficiency_pressure`. Internal leakage
-    /// grows in proportion to pressure, so this one point fixes the leakage at every pressure.
+    /// Actual over theoretical flow, as measured at `efficiency_pressure` and
+    /// `efficiency_speed`. Internal leakage (slip) grows in proportion to pressure and hardly
+    /// depends on shaft speed (DOMAIN.md, "Leakage, speed and viscosity"), so this one point
+    /// fixes a leakage flow per unit of pressure: at a lower speed the same leakage is a larger
+    /// share of a smaller swept flow.
     pub volumetric_efficiency: f64,
     #[serde(rename = "efficiency_pressure_pa")]
     pub efficiency_pressure: Pressure,
+    /// The shaft speed the volumetric efficiency was stated at (absent: the speed of the motor
+    /// that drives it in its design).
+    #[serde(
+        default,
+        rename = "efficiency_speed_rad_per_s",
+        skip_serializing_if = "Option::is_none"
+    )]
+    pub efficiency_speed: Option<AngularVelocity>,
     /// Theoretical over actual torque.
     pub hydromechanical_efficiency: f64,
     /// Shaft power the pump takes even with no pressure (churning, seals, bearings).
@@ -55,11 +66,18 @@ pub(crate) struct PumpAtSpeed {
 }
 
 impl PumpAtSpeed {
+    /// `pump` turning at `revolutions_per_second`. Its leakage per pascal is fixed by the
+    /// volumetric efficiency at the speed it was stated at (this speed, if none is given).
     pub fn new(pump: &Pump, revolutions_per_second: f64) -> PumpAtSpeed {
         let swept = pump.displacement.value * revolutions_per_second;
+        let stated_at = pump
+            .efficiency_speed
+            .map_or(revolutions_per_second, |w| w.value / std::f64::consts::TAU);
+        let swept_when_stated = pump.displacement.value * stated_at;
         PumpAtSpeed {
             swept,
-            leakage: swept * (1.0 - pump.volumetric_efficiency) / pump.efficiency_pressure.value,
+            leakage: swept_when_stated * (1.0 - pump.volumetric_efficiency)
+                / pump.efficiency_pressure.value,
             hydromechanical: pump.hydromechanical_efficiency,
             drag: pump.drag_power.value,
             compensator: match pump.control {

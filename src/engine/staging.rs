@@ -228,13 +228,20 @@ pub fn specs(options: &StagingOptions) -> Vec<Spec> {
     out
 }
 
-/// A pump like `template`, of another displacement (its drag in proportion).
-fn pump_like(template: &Pump, displacement: f64) -> Pump {
+/// A pump like `template`, of another displacement (its drag and its leakage in proportion),
+/// driven by `baseline`'s motor when its volumetric efficiency was stated: at another speed the
+/// same leakage is another share of the swept flow.
+fn pump_like(template: &Pump, displacement: f64, baseline: &Design) -> Pump {
     let scale = displacement / template.displacement.value;
     Pump {
         displacement: Volume::new::<uom::si::volume::cubic_meter>(displacement),
         drag_power: template.drag_power * scale,
         control: PumpControl::Fixed,
+        efficiency_speed: Some(
+            template
+                .efficiency_speed
+                .unwrap_or(baseline.motor.full_load_speed),
+        ),
         ..*template
     }
 }
@@ -267,11 +274,11 @@ pub fn build(job: &Job, baseline: &Design, spec: &Spec, targets: &Targets) -> Op
     let mut design = baseline.clone();
     design.motor.full_load_speed =
         AngularVelocity::new::<uom::si::angular_velocity::radian_per_second>(spec.speed);
-    design.base_pump = pump_like(&baseline.base_pump, base_size);
+    design.base_pump = pump_like(&baseline.base_pump, base_size, baseline);
     design.unloading_stages = stage_sizes
         .iter()
         .map(|&size| UnloadingStage {
-            pump: pump_like(&stage_template.pump, size),
+            pump: pump_like(&stage_template.pump, size, baseline),
             ..stage_template
         })
         .collect();

@@ -490,6 +490,15 @@ fn check_pump(c: &mut Checker, p: &Pump) {
     );
     c.fraction("volumetric_efficiency", p.volumetric_efficiency, false);
     c.pressure("efficiency_pressure_pa", p.efficiency_pressure.value, false);
+    if let Some(speed) = p.efficiency_speed {
+        c.amount(
+            "efficiency_speed_rad_per_s",
+            speed.value,
+            false,
+            MAX_SPEED_RAD_S,
+            |_, v| format!("{:.0} rpm", v * 60.0 / std::f64::consts::TAU),
+        );
+    }
     c.fraction(
         "hydromechanical_efficiency",
         p.hydromechanical_efficiency,

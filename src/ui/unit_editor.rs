@@ -1,7 +1,7 @@
 //! The power-unit area: each design's motor, pumps, valves, and the pressure limit it uses in
 //! each phase.
 
-use super::field::{ChoiceField, NumberField, TextField, UnitSwitch};
+use super::field::{ChoiceField, NumberField, OptionalNumberField, TextField, UnitSwitch};
 use super::icons::CautionIcon;
 use super::state::use_job;
 use crate::engine::cycle::PhaseKind;
@@ -339,6 +339,10 @@ fn PumpEditor(d: usize, p: usize) -> impl IntoView {
                 <NumberField label="Measured at" path=field("efficiency_pressure_pa") measure=Measure::Pressure
                     get=move |j: &Job| pump(j, d, p).map_or(f64::NAN, |x| x.efficiency_pressure.value)
                     set=move |j: &mut Job, v| if let Some(x) = pump_mut(j, d, p) { x.efficiency_pressure.value = v } />
+                <OptionalNumberField label="... and at shaft speed" path=field("efficiency_speed_rad_per_s") measure=Measure::ShaftSpeed
+                    placeholder=Signal::derive(move || state.job.with(|j| design(j, d).map_or(String::new(), |x| format!("the motor's: {}", Measure::ShaftSpeed.with_unit(j.units, x.motor.full_load_speed.value)))))
+                    get=move |j: &Job| pump(j, d, p).and_then(|x| x.efficiency_speed.map(|w| w.value))
+                    set=move |j: &mut Job, v| if let Some(x) = pump_mut(j, d, p) { x.efficiency_speed = v.map(uom::si::f64::AngularVelocity::new::<uom::si::angular_velocity::radian_per_second>) } />
                 <NumberField label="Hydromechanical efficiency" path=field("hydromechanical_efficiency") measure=Measure::Percent
                     get=move |j: &Job| pump(j, d, p).map_or(f64::NAN, |x| x.hydromechanical_efficiency)
                     set=move |j: &mut Job, v| if let Some(x) = pump_mut(j, d, p) { x.hydromechanical_efficiency = v } />

@@ -69,6 +69,7 @@ pub fn fixed_pump(
         displacement: Volume::new::<cubic_centimeter>(cc_per_rev),
         volumetric_efficiency: volumetric,
         efficiency_pressure: bar_(at_bar),
+        efficiency_speed: None,
         hydromechanical_efficiency: hydromechanical,
         drag_power: kw(drag_kw),
         rated_pressure: bar_(250.0),
