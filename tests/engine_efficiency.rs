@@ -1,14 +1,19 @@
 //! The pump field test (engine `efficiency`) and the motor efficiency classes (engine
 //! `motor`): published examples and tables, each with its source beside the check
 //! (../shared/REFERENCES.md); the same physics in US customary and SI; the leakage fit on exact
-//! synthetic readings; bad readings get their messages and no figure.
+//! synthetic readings; bad readings get their messages and no figure; the speed of each reading
+//! from the motor's slip and its shaft power from the motor's part-load model; what is copied
+//! into a design; how many readings a verdict needs; tests in date order.
 
 mod common;
 use common::*;
 use phasewise::engine::efficiency::{
-    self, ElectricalInput, MotorEfficiency, PumpTest, Reading, Verdict, WearPolicy,
+    self, ElectricalInput, MeasuredPump, MotorEfficiency, NotCopied, PumpTest, Reading, SpeedFrom,
+    Verdict, WearPolicy,
 };
-use phasewise::engine::motor::EfficiencyClass;
+use phasewise::engine::motor::{
+    EfficiencyClass, Motor, TYPICAL_FIXED_LOSS_SHARE, TYPICAL_PEAK_ALLOWANCE,
+};
 use phasewise::engine::units::{UnitSystem, GALLON_PER_MINUTE, HORSEPOWER, INCH, PSI};
 use phasewise::engine::validate::validate_pump_test;
 use uom::si::angular_velocity::revolution_per_minute;
@@ -29,6 +34,7 @@ fn reading(bar: f64, flow: VolumeRate) -> Reading {
     Reading {
         pressure: bar_(bar),
         flow,
+        speed: None,
         electrical: None,
         torque: None,
     }
@@ -41,6 +47,7 @@ fn test_of(cc: f64, rpm: f64, readings: Vec<Reading>) -> PumpTest {
         notes: String::new(),
         displacement: Volume::new::<cubic_centimeter>(cc),
         speed: AngularVelocity::new::<revolution_per_minute>(rpm),
+        synchronous_speed: None,
         rated_pressure: bar_(210.0),
         motor_rated_power: kw(22.0),
         motor_efficiency: MotorEfficiency::Entered { efficiency: 0.92 },
@@ -49,7 +56,11 @@ fn test_of(cc: f64, rpm: f64, readings: Vec<Reading>) -> PumpTest {
 }
 
 fn assess(t: &PumpTest) -> efficiency::TestReport {
-    efficiency::assess(t, &WearPolicy::default(), UnitSystem::Si)
+    efficiency::assess(t, &WearPolicy::default(), UnitSystem::Si).expect("a valid test")
+}
+
+fn rpm(v: f64) -> AngularVelocity {
+    AngularVelocity::new::<revolution_per_minute>(v)
 }
 
 #[test]
@@ -219,7 +230,7 @@ fn us_customary_and_si_readings_give_the_same_physics() {
     si.readings[0].flow = lpm(17.5 * 3.785411784);
     si.readings[0].pressure = bar_(1500.0 * 0.068_947_572_931_683_6);
     let (a, b) = (
-        efficiency::assess(&us, &WearPolicy::default(), UnitSystem::UsCustomary),
+        efficiency::assess(&us, &WearPolicy::default(), UnitSystem::UsCustomary).unwrap(),
         assess(&si),
     );
     assert_close(a.theoretical_flow, b.theoretical_flow, 1e-12, "theoretical");
@@ -271,7 +282,7 @@ fn the_leakage_fit_recovers_a_known_line() {
             volumetric_at_rated: line.volumetric_at_rated
         }
     );
-    // One reading: the line from the theoretical flow through it.
+    // One reading: the line from the theoretical flow through it (drawn, but no verdict).
     let one = assess(&test_of(40.0, 1500.0, vec![reading(100.0, lpm(54.0))]));
     let line = one.leakage.unwrap();
     assert_close(
@@ -280,16 +291,31 @@ fn the_leakage_fit_recovers_a_known_line() {
         1e-12,
         "through theoretical",
     );
-    // 6 L/min lost at 100 bar: 12.6 at 210 bar, 47.4 / 60 = 79 %: worn.
+    // 6 L/min lost at 100 bar: 12.6 at 210 bar, 47.4 / 60 = 79 %.
     assert_close(
         line.volumetric_at_rated,
         47.4 / 60.0,
         1e-9,
         "one reading at rated",
     );
-    assert!(matches!(one.verdict, Verdict::Worn { .. }));
-    // Between the lines: 8.4 L/min lost at 210 bar is 86 %.
-    let mid = assess(&test_of(40.0, 1500.0, vec![reading(100.0, lpm(56.0))]));
+    assert!(!line.fitted);
+    // The same line through two readings: worn.
+    let worn = assess(&test_of(
+        40.0,
+        1500.0,
+        vec![reading(50.0, lpm(57.0)), reading(100.0, lpm(54.0))],
+    ));
+    assert!(
+        matches!(worn.verdict, Verdict::Worn { .. }),
+        "{:?}",
+        worn.verdict
+    );
+    // Between the lines: 4 L/min lost per 100 bar, 8.4 L/min at 210 bar is 86 %.
+    let mid = assess(&test_of(
+        40.0,
+        1500.0,
+        vec![reading(50.0, lpm(58.0)), reading(100.0, lpm(56.0))],
+    ));
     assert!(
         matches!(mid.verdict, Verdict::Watch { .. }),
         "{:?}",
@@ -375,10 +401,23 @@ fn readings_that_cannot_be_right_get_a_message_and_no_figure() {
 
 #[test]
 fn a_later_test_of_the_same_pump_shows_the_trend() {
-    let first = test_of(40.0, 1500.0, vec![reading(100.0, lpm(57.0))]);
-    let mut later = test_of(40.0, 1500.0, vec![reading(100.0, lpm(55.0))]);
+    // Leakage 0.03 and 0.05 L/min per bar from the 60 L/min swept (invented).
+    let first = test_of(
+        40.0,
+        1500.0,
+        vec![reading(50.0, lpm(58.5)), reading(100.0, lpm(57.0))],
+    );
+    let mut later = test_of(
+        40.0,
+        1500.0,
+        vec![reading(50.0, lpm(57.5)), reading(100.0, lpm(55.0))],
+    );
     later.date = "2027-05-29".into();
-    let mut other = test_of(40.0, 1500.0, vec![reading(100.0, lpm(50.0))]);
+    let mut other = test_of(
+        40.0,
+        1500.0,
+        vec![reading(50.0, lpm(55.0)), reading(100.0, lpm(50.0))],
+    );
     other.pump = "pump 2".into();
     let tests = vec![later, other, first];
     let t = efficiency::trend(&tests, 0, &WearPolicy::default()).unwrap();
@@ -414,8 +453,342 @@ fn the_measured_efficiencies_go_into_a_design() {
         report.readings[1].hydromechanical
     );
     assert_eq!(d.unloading_stages, job.designs[0].unloading_stages);
-    assert!(efficiency::apply_to_design(&job.designs[0], 2, &measured).is_none());
+    assert_eq!(
+        efficiency::apply_to_design(&job.designs[0], 2, &measured),
+        Err(NotCopied::NoSuchPump { pump: 2, pumps: 2 })
+    );
     let mut changed = job.clone();
     changed.designs[0] = d;
     assert!(phasewise::engine::solve(&changed).is_ok());
+}
+
+/// A 22 kW four-pole motor on 50 Hz, 1465 rpm at full load, 93 % efficient there, driving a
+/// healthy 40 cm^3/rev pump; read at 20 bar, 59.7 L/min, 3.2 kW drawn: a light load (invented).
+fn light_load_test() -> PumpTest {
+    let mut r = reading(20.0, lpm(59.7));
+    r.electrical = Some(ElectricalInput::Power { input: kw(3.2) });
+    let mut t = test_of(40.0, 1465.0, vec![r]);
+    t.motor_efficiency = MotorEfficiency::Entered { efficiency: 0.93 };
+    t
+}
+
+/// The test's motor in the engine's part-load model (motor.rs), with the typical fixed share
+/// of the loss.
+fn the_motor(efficiency: f64) -> Motor {
+    Motor {
+        rated_power: kw(22.0),
+        full_load_speed: rpm(1465.0),
+        full_load_efficiency: efficiency,
+        fixed_loss_share: TYPICAL_FIXED_LOSS_SHARE,
+        service_factor: 1.0,
+        peak_allowance: TYPICAL_PEAK_ALLOWANCE,
+    }
+}
+
+/// The shaft power for an input, by bisection on input = shaft + loss(shaft): worked apart
+/// from the engine's closed form.
+fn shaft_by_bisection(m: &Motor, input: f64) -> f64 {
+    let (mut lo, mut hi) = (0.0, input);
+    for _ in 0..200 {
+        let mid = 0.5 * (lo + hi);
+        if mid + m.loss(mid) < input {
+            lo = mid;
+        } else {
+            hi = mid;
+        }
+    }
+    0.5 * (lo + hi)
+}
+
+#[test]
+fn a_light_load_reading_is_worked_at_the_slip_corrected_speed() {
+    // At the nameplate 1465 rpm the pump sweeps 58.6 L/min, less than the 59.7 L/min read: the
+    // nameplate speed would reject a healthy pump. Lightly loaded, the motor turns nearer its
+    // synchronous 1500 rpm (the nearest 120 f / poles above 1465 rpm: common practice), with
+    // the 35 rpm full-load slip in proportion to the load (common practice).
+    let t = light_load_test();
+    assert!(in_lpm(lpm(40.0 * 1465.0 / 1000.0)) < 59.7);
+    assert_close(
+        efficiency::synchronous_speed(&t).unwrap(),
+        rpm(1500.0).value,
+        1e-12,
+        "synchronous",
+    );
+    let report = assess(&t);
+    assert!(report.problems.is_empty(), "{:?}", report.problems);
+    let r = &report.readings[0];
+    assert_eq!(r.speed_from, SpeedFrom::Slip);
+    // The load from the shaft power the motor gives for 3.2 kW: 2,605 W, 11.8 % of rating;
+    // 1500 - 35 x 0.118 = 1495.9 rpm, sweeping 59.83 L/min: 99.8 % volumetric.
+    let shaft = shaft_by_bisection(&the_motor(0.93), 3200.0);
+    let load = shaft / 22_000.0;
+    assert_close(r.load_share.unwrap(), load, 1e-9, "load share");
+    let n = 1500.0 - 35.0 * load;
+    assert_close(r.speed_rad_per_s, rpm(n).value, 1e-9, "speed");
+    assert_close(n, 1495.86, 1e-5, "speed in rpm, by hand");
+    assert_close(
+        r.volumetric.unwrap(),
+        59.7 / (40.0 * n / 1000.0),
+        1e-9,
+        "volumetric",
+    );
+    assert!(matches!(
+        report.verdict,
+        Verdict::NotJudged // one reading: no verdict
+    ));
+
+    // A tachometer reading replaces the estimate.
+    let mut measured = t.clone();
+    measured.readings[0].speed = Some(rpm(1497.0));
+    let report = assess(&measured);
+    let r = &report.readings[0];
+    assert_eq!(r.speed_from, SpeedFrom::Measured);
+    assert_close(
+        r.volumetric.unwrap(),
+        59.7 / 59.88,
+        1e-9,
+        "at the measured speed",
+    );
+
+    // An entered synchronous speed is used as entered; with none known (a full-load speed of
+    // a round 1500 rpm is itself synchronous) the entered speed is taken throughout.
+    let mut entered = t.clone();
+    entered.synchronous_speed = Some(rpm(1500.0));
+    assert_eq!(assess(&entered).readings, assess(&t).readings);
+    let mut round = t.clone();
+    round.speed = rpm(1500.0);
+    assert_eq!(efficiency::synchronous_speed(&round), None);
+    assert_eq!(assess(&round).readings[0].speed_from, SpeedFrom::Nameplate);
+    // 1750 rpm is a four-pole motor on 60 Hz (1800 rpm).
+    let mut sixty = t.clone();
+    sixty.speed = rpm(1750.0);
+    assert_close(
+        efficiency::synchronous_speed(&sixty).unwrap(),
+        rpm(1800.0).value,
+        1e-12,
+        "60 Hz",
+    );
+
+    // Files written before readings had speeds read the same: the test's speed is the
+    // full-load speed, no synchronous speed, no speed per reading.
+    let old = r#"{"pump": "pump 1", "date": "2026-11-30", "displacement_m3_per_rev": 4e-5,
+        "speed_rad_per_s": 153.41444, "rated_pressure_pa": 2.1e7, "motor_rated_power_w": 22000,
+        "motor_efficiency": {"from": "entered", "efficiency": 0.93},
+        "readings": [{"pressure_pa": 2e6, "flow_m3_per_s": 0.000995,
+                      "electrical": {"as": "power", "input_w": 3200}}]}"#;
+    let old: PumpTest = serde_json::from_str(old).unwrap();
+    assert_eq!(old.synchronous_speed, None);
+    assert_eq!(old.readings[0].speed, None);
+    assert!(assess(&old).problems.is_empty());
+}
+
+#[test]
+fn shaft_power_from_the_input_follows_the_motors_part_load_efficiency() {
+    // The part-load model of motor.rs: a fixed share of the full-load loss plus the rest
+    // growing with the square of the load. At 3.2 kW drawn by a 22 kW motor (light load) its
+    // efficiency is well below the full-load 93 %, so the shaft gets less than 3.2 x 0.93.
+    let report = assess(&light_load_test());
+    let shaft = report.readings[0].shaft_w.unwrap();
+    assert!(shaft < 3200.0 * 0.93 - 100.0, "{shaft}");
+    let m = the_motor(0.93);
+    // input = shaft + loss(shaft), to rounding.
+    assert_close(shaft + m.loss(shaft), 3200.0, 1e-12, "power balance");
+    assert_close(shaft, shaft_by_bisection(&m, 3200.0), 1e-9, "bisection");
+    assert_close(shaft, 2605.34, 1e-5, "by hand");
+    assert_close(
+        report.readings[0].overall.unwrap(),
+        1990.0 / shaft,
+        1e-12,
+        "overall",
+    );
+    // At the rated load the full-load efficiency holds exactly (its definition).
+    assert_close(
+        efficiency::shaft_for_input(&m, 22_000.0 / 0.93),
+        22_000.0,
+        1e-12,
+        "full load",
+    );
+    // An input below what the motor draws running light is a misreading: no shaft figure.
+    let mut t = light_load_test();
+    t.readings[0].electrical = Some(ElectricalInput::Power { input: kw(0.4) });
+    let report = assess(&t);
+    assert_eq!(report.readings[0].shaft_w, None);
+    assert!(report
+        .problems
+        .iter()
+        .any(|p| p.field == "readings[0].electrical" && p.message.contains("no load")));
+}
+
+#[test]
+fn copying_a_measured_hydromechanical_efficiency_zeroes_the_drag() {
+    // Esposito's Example 5-9 reading (120 N.m at 70 bar, 100 cm^3/rev, 1000 rpm) and one at
+    // 20 bar: the measured hydromechanical efficiency holds the drag already.
+    let mut r = reading(70.0, m3s(0.0015));
+    r.torque = Some(newton_metres(120.0));
+    let t = test_of(100.0, 1000.0, vec![reading(20.0, m3s(0.00162)), r]);
+    let measured = efficiency::measured_pump(&t, &assess(&t)).unwrap();
+    let job = phasewise::engine::demo::scrap_baler();
+    assert!(job.designs[0].base_pump.drag_power.value > 0.0);
+    let d = efficiency::apply_to_design(&job.designs[0], 1, &measured).unwrap();
+    assert_eq!(d.base_pump.drag_power.value, 0.0);
+    // Only the volumetric efficiency measured: the drag stays.
+    let volumetric_only = MeasuredPump {
+        hydromechanical: None,
+        ..measured
+    };
+    let d = efficiency::apply_to_design(&job.designs[0], 0, &volumetric_only).unwrap();
+    assert_eq!(
+        d.unloading_stages[0].pump.drag_power,
+        job.designs[0].unloading_stages[0].pump.drag_power
+    );
+}
+
+#[test]
+fn an_efficiency_no_pump_has_is_never_copied() {
+    // A dead-headed reading (no flow at 200 bar) puts the line's volumetric efficiency at
+    // zero there: refused with a reason, never copied (a design cannot run such a pump).
+    let t = test_of(
+        40.0,
+        1500.0,
+        vec![reading(20.0, lpm(57.0)), reading(200.0, lpm(0.0))],
+    );
+    let why = efficiency::measured_pump(&t, &assess(&t)).unwrap_err();
+    assert!(
+        matches!(why, NotCopied::Volumetric { volumetric, .. } if volumetric <= 0.0),
+        "{why:?}"
+    );
+    assert!(why.message(UnitSystem::Si).contains("no working pump has"));
+    // Nor put into a design by hand.
+    let design = &phasewise::engine::demo::scrap_baler().designs[0];
+    for (volumetric, hydromechanical) in [
+        (0.0, None),
+        (-0.1, None),
+        (1.2, None),
+        (f64::NAN, None),
+        (0.9, Some(0.0)),
+        (0.9, Some(1.1)),
+    ] {
+        let m = MeasuredPump {
+            volumetric,
+            at_pressure_pa: 100e5,
+            hydromechanical,
+        };
+        assert!(
+            efficiency::apply_to_design(design, 1, &m).is_err(),
+            "{volumetric} {hydromechanical:?}"
+        );
+    }
+    // No believable reading: nothing to copy.
+    let t = test_of(40.0, 1500.0, vec![reading(100.0, lpm(70.0))]);
+    assert_eq!(
+        efficiency::measured_pump(&t, &assess(&t)),
+        Err(NotCopied::NoBelievableReading)
+    );
+}
+
+#[test]
+fn a_verdict_rests_on_two_or_more_believable_readings() {
+    // Three readings, two of them more than the pump sweeps (60 L/min): one believable point
+    // gives no verdict, and the report says on how many readings it rests.
+    let t = test_of(
+        40.0,
+        1500.0,
+        vec![
+            reading(100.0, lpm(57.0)),
+            reading(150.0, lpm(70.0)),
+            reading(200.0, lpm(80.0)),
+        ],
+    );
+    let report = assess(&t);
+    assert_eq!(report.verdict, Verdict::NotJudged);
+    assert_eq!((report.readings_used, report.readings_rejected), (1, 2));
+    // Two believable readings at one pressure: still one point.
+    let same = assess(&test_of(
+        40.0,
+        1500.0,
+        vec![reading(100.0, lpm(57.0)), reading(100.0, lpm(57.2))],
+    ));
+    assert_eq!(same.verdict, Verdict::NotJudged);
+    assert_eq!(same.readings_used, 2);
+    // Two at different pressures: judged, on two.
+    let two = assess(&test_of(
+        40.0,
+        1500.0,
+        vec![
+            reading(50.0, lpm(59.0)),
+            reading(150.0, lpm(57.0)),
+            reading(200.0, lpm(80.0)),
+        ],
+    ));
+    assert!(
+        matches!(two.verdict, Verdict::Good { .. }),
+        "{:?}",
+        two.verdict
+    );
+    assert_eq!((two.readings_used, two.readings_rejected), (2, 1));
+    assert_eq!(efficiency::READINGS_FOR_VERDICT, 2);
+}
+
+#[test]
+fn tests_are_ordered_by_date_not_by_text() {
+    // 2026-9-5 is before 2026-10-01, though "9" sorts after "1" as text.
+    let mut september = test_of(
+        40.0,
+        1500.0,
+        vec![reading(50.0, lpm(58.5)), reading(100.0, lpm(57.0))],
+    );
+    september.date = "2026-9-5".into();
+    let mut october = september.clone();
+    october.date = "2026-10-01".into();
+    let tests = vec![september, october];
+    let t = efficiency::trend(&tests, 1, &WearPolicy::default()).unwrap();
+    assert_eq!(t.earlier, 0);
+    // 25 days left of September, then 1 October.
+    assert_eq!(t.days, Some(26));
+    assert_eq!(efficiency::trend(&tests, 0, &WearPolicy::default()), None);
+    assert_eq!(
+        efficiency::day_number("2026-9-5"),
+        efficiency::day_number("2026-09-05")
+    );
+    // The civil calendar: no 30 February; 29 February only in a leap year.
+    assert_eq!(efficiency::day_number("2026-02-30"), None);
+    assert_eq!(efficiency::day_number("2026-2-29"), None);
+    assert!(efficiency::day_number("2024-2-29").is_some());
+    assert_eq!(efficiency::day_number("2026-04-31"), None);
+}
+
+#[test]
+fn an_invalid_test_is_refused_not_assessed() {
+    // assess checks the test itself and names each field within it, as validate_pump_test
+    // names it within the job.
+    let mut t = light_load_test();
+    t.displacement = Volume::new::<cubic_centimeter>(f64::NAN);
+    t.synchronous_speed = Some(rpm(1400.0));
+    t.readings[0].speed = Some(rpm(-5.0));
+    let errors = efficiency::assess(&t, &WearPolicy::default(), UnitSystem::Si).unwrap_err();
+    let fields: Vec<&str> = errors.iter().map(|e| e.field.as_str()).collect();
+    assert_eq!(
+        fields,
+        [
+            "displacement_m3_per_rev",
+            "synchronous_speed_rad_per_s",
+            "readings[0].speed_rad_per_s"
+        ]
+    );
+    let in_job = validate_pump_test(&t, 3, UnitSystem::Si);
+    assert_eq!(in_job.len(), 3);
+    assert_eq!(in_job[1].field, "pump_tests[3].synchronous_speed_rad_per_s");
+    assert!(in_job[1].message.contains("above the full-load speed"));
+    // A synchronous speed far above the full-load speed is a typing slip.
+    let mut far = light_load_test();
+    far.synchronous_speed = Some(rpm(3000.0));
+    assert!(validate_pump_test(&far, 0, UnitSystem::Si)
+        .iter()
+        .any(|e| e.field == "pump_tests[0].synchronous_speed_rad_per_s"));
+    // No readings, an empty motor rating: refused, never a panic.
+    let mut empty = light_load_test();
+    empty.readings.clear();
+    empty.motor_rated_power = kw(0.0);
+    assert!(efficiency::assess(&empty, &WearPolicy::default(), UnitSystem::Si).is_err());
+    assert!(validate_pump_test(&light_load_test(), 0, UnitSystem::Si).is_empty());
 }

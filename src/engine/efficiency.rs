@@ -5,11 +5,18 @@
 //!
 //! A reading that cannot be right (more flow than the pump sweeps, an efficiency above 100 %, a
 //! load the motor could not carry) gets a plain message and no figure, never a wrong number.
+//!
+//! An induction motor slows as it is loaded (slip), so the shaft speed of each reading is the
+//! one measured with it, else estimated from the motor's load; and the motor's efficiency
+//! falls at part load, so the shaft power drawn from an electrical reading comes from the
+//! part-load model of [`Motor::loss`], not from the full-load figure.
 
-use super::motor::EfficiencyClass;
+use super::motor::{EfficiencyClass, Motor, TYPICAL_FIXED_LOSS_SHARE, TYPICAL_PEAK_ALLOWANCE};
 use super::power_unit::Design;
-use super::units::UnitSystem;
+use super::units::{Measure, UnitSystem};
+use super::validate::InputError;
 use serde::{Deserialize, Serialize};
+use std::f64::consts::TAU;
 use uom::si::f64::{
     AngularVelocity, ElectricCurrent, ElectricPotential, Power, Pressure, Torque, Volume,
     VolumeRate,
@@ -29,9 +36,20 @@ pub struct PumpTest {
     /// The nameplate displacement.
     #[serde(rename = "displacement_m3_per_rev")]
     pub displacement: Volume,
-    /// Shaft speed: measured, or the motor's full-load speed.
+    /// The driving motor's nameplate full-load speed. At part load the shaft turns faster (the
+    /// slip falls with the load): a reading's measured speed is used when it has one, else the
+    /// speed is estimated from the load ([`synchronous_speed`]). Files written before readings
+    /// had speeds kept the test's one shaft speed here; they read the same way.
     #[serde(rename = "speed_rad_per_s")]
     pub speed: AngularVelocity,
+    /// The motor's synchronous speed (120 x supply frequency / poles), when entered. Absent:
+    /// inferred from the full-load speed ([`synchronous_speed`]).
+    #[serde(
+        default,
+        rename = "synchronous_speed_rad_per_s",
+        skip_serializing_if = "Option::is_none"
+    )]
+    pub synchronous_speed: Option<AngularVelocity>,
     /// The maker's rated pressure: the leakage line predicts the efficiency there.
     #[serde(rename = "rated_pressure_pa")]
     pub rated_pressure: Pressure,
@@ -52,14 +70,22 @@ pub enum MotorEfficiency {
     Class { class: EfficiencyClass },
 }
 
-/// One reading: the flow at a test pressure, and optionally what the motor drew and the shaft
-/// torque at the same time.
+/// One reading: the flow at a test pressure, and optionally the shaft speed, what the motor
+/// drew and the shaft torque at the same time.
 #[derive(Clone, Copy, Debug, PartialEq, Serialize, Deserialize)]
 pub struct Reading {
     #[serde(rename = "pressure_pa")]
     pub pressure: Pressure,
     #[serde(rename = "flow_m3_per_s")]
     pub flow: VolumeRate,
+    /// The shaft speed measured at this reading (a tachometer). Absent: estimated from the
+    /// motor's slip at the load drawn.
+    #[serde(
+        default,
+        rename = "speed_rad_per_s",
+        skip_serializing_if = "Option::is_none"
+    )]
+    pub speed: Option<AngularVelocity>,
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub electrical: Option<ElectricalInput>,
     #[serde(
@@ -128,6 +154,16 @@ impl Default for WearPolicy {
 /// (common practice: induction motors do not run long above about 1.5 x rated).
 pub const MOST_LOAD_BELIEVED: f64 = 1.5;
 
+/// The most full-load slip inferred for a motor whose synchronous speed is not entered, as a
+/// share of the synchronous speed (common practice, from memory: nameplate slip is about 1 to
+/// 5 %, up to about 8 % on small motors). A full-load speed further below every synchronous
+/// speed (a round 1500 or 1000 rpm, say) is taken as the speed at every reading.
+pub const MOST_NAMEPLATE_SLIP: f64 = 0.08;
+
+/// A verdict rests on at least this many believable readings, at different test pressures:
+/// one point cannot tell leakage from a misread meter.
+pub const READINGS_FOR_VERDICT: usize = 2;
+
 /// Something in the readings that cannot be right, with the field to look at (its path within
 /// the test, e.g. `readings[1].flow_m3_per_s`).
 #[derive(Clone, Debug, PartialEq, Serialize)]
@@ -136,16 +172,41 @@ pub struct Problem {
     pub message: String,
 }
 
+/// Where a reading's shaft speed comes from.
+#[derive(Clone, Copy, Debug, PartialEq, Eq, Serialize, Default)]
+#[serde(rename_all = "snake_case")]
+pub enum SpeedFrom {
+    /// Measured with the reading.
+    Measured,
+    /// Estimated from the synchronous speed and the slip at the load drawn.
+    Slip,
+    /// The nameplate full-load speed, taken as it is (no synchronous speed known).
+    #[default]
+    Nameplate,
+}
+
 /// What one reading says.
 #[derive(Clone, Copy, Debug, PartialEq, Serialize, Default)]
 pub struct ReadingReport {
-    /// Actual over theoretical flow; none when the flow is above theoretical.
+    /// The shaft speed the reading is worked at (rad/s).
+    pub speed_rad_per_s: f64,
+    pub speed_from: SpeedFrom,
+    /// The motor's load (shaft power over rating) the slip was estimated from: from the
+    /// torque, else from the electrical input, else the hydraulic power (the least the shaft
+    /// can be giving). None when the speed was not estimated.
+    pub load_share: Option<f64>,
+    /// The flow the pump would give at the same pressure at the motor's full-load speed (m^3/s):
+    /// the flow read, plus what the pump sweeps in the difference of speed (leakage hardly
+    /// depends on speed). The leakage line is fitted through these.
+    pub flow_at_full_load_speed: f64,
+    /// Actual over theoretical flow at the reading's speed; none when the flow is above it.
     pub volumetric: Option<f64>,
     /// Pressure x flow (W).
     pub hydraulic_w: f64,
     /// The electrical input (W), when read and believable.
     pub input_w: Option<f64>,
-    /// Shaft power (W): 2 pi n T from the torque, else input x motor efficiency.
+    /// Shaft power (W): 2 pi n T from the torque, else what the motor gives for the input at
+    /// that load (the part-load model).
     pub shaft_w: Option<f64>,
     /// Whether the shaft power came from a measured torque.
     pub shaft_from_torque: bool,
@@ -155,9 +216,10 @@ pub struct ReadingReport {
     pub motor_efficiency_measured: Option<f64>,
 }
 
-/// The least-squares line of flow against pressure through the believable readings:
-/// flow = `zero_pressure_flow` - `leakage_per_pa` x pressure. With one reading, the line from
-/// the theoretical flow at no pressure through it (leakage in proportion to pressure).
+/// The least-squares line of flow against pressure through the believable readings, at the
+/// motor's full-load speed: flow = `zero_pressure_flow` - `leakage_per_pa` x pressure. With one
+/// reading (or one test pressure), the line from the theoretical flow at no pressure through it
+/// (leakage in proportion to pressure).
 #[derive(Clone, Copy, Debug, PartialEq, Serialize)]
 pub struct LeakageLine {
     /// m^3/s.
@@ -166,6 +228,9 @@ pub struct LeakageLine {
     pub leakage_per_pa: f64,
     /// How many readings it was fitted through.
     pub readings: usize,
+    /// Whether it is a least-squares fit through readings at two or more pressures (false: the
+    /// line from the theoretical flow, which alone gives no verdict).
+    pub fitted: bool,
     /// The volumetric efficiency it predicts at the rated pressure.
     pub volumetric_at_rated: f64,
 }
@@ -190,7 +255,8 @@ pub enum Verdict {
     Worn {
         volumetric_at_rated: f64,
     },
-    /// No leakage line: no believable reading.
+    /// Too few believable readings ([`READINGS_FOR_VERDICT`], at different pressures), or
+    /// readings that give no leakage line.
     NotJudged,
 }
 
@@ -215,22 +281,87 @@ impl Verdict {
 /// Everything a test says.
 #[derive(Clone, Debug, PartialEq, Serialize)]
 pub struct TestReport {
-    /// Displacement x speed (m^3/s).
+    /// Displacement x the motor's full-load speed (m^3/s): the leakage line, the verdict and
+    /// the figures copied into a design are at this speed.
     pub theoretical_flow: f64,
-    /// The motor efficiency used for shaft power (a fraction); none when the class's table
-    /// does not cover the rating.
+    /// The motor's full-load efficiency (a fraction), entered or the class's; the part-load
+    /// model lowers it at each reading's load. None when the class's table does not cover the
+    /// rating.
     pub motor_efficiency: Option<f64>,
     pub readings: Vec<ReadingReport>,
     pub leakage: Option<LeakageLine>,
     pub verdict: Verdict,
+    /// How many readings were believed (their flow within what the pump sweeps): the leakage
+    /// line and the verdict rest on these.
+    pub readings_used: usize,
+    /// How many were left out (each has a problem saying why).
+    pub readings_rejected: usize,
     pub problems: Vec<Problem>,
 }
 
-/// The test read against `policy`, its messages in `units`. Call it on a test that passed
-/// validation (finite, positive figures); it never panics either way.
-pub fn assess(test: &PumpTest, policy: &WearPolicy, units: UnitSystem) -> TestReport {
+/// The synchronous speed the test's motor is taken to have (rad/s): the entered one, else
+/// (common practice) the lowest of 120 f / poles for a 50 or 60 Hz supply that is above the
+/// full-load speed, if the full-load speed is within [`MOST_NAMEPLATE_SLIP`] of it. None: no
+/// slip is estimated, and readings without a measured speed are worked at the full-load speed.
+pub fn synchronous_speed(test: &PumpTest) -> Option<f64> {
+    let full_load = test.speed.value;
+    if let Some(entered) = test.synchronous_speed {
+        return (entered.value > full_load).then_some(entered.value);
+    }
+    // 120 f / poles in rpm is f / pole pairs in revolutions per second.
+    [50.0, 60.0]
+        .into_iter()
+        .flat_map(|hz: f64| (1..=6).map(move |pairs| hz * TAU / f64::from(pairs)))
+        .filter(|s| *s > full_load * (1.0 + 1e-9))
+        .min_by(f64::total_cmp)
+        .filter(|s| (s - full_load) / s <= MOST_NAMEPLATE_SLIP)
+}
+
+/// The test's motor as the part-load model sees it: its rating and full-load efficiency, with
+/// the typical fixed share of the loss.
+fn part_load_motor(test: &PumpTest, full_load_efficiency: f64) -> Motor {
+    Motor {
+        rated_power: test.motor_rated_power,
+        full_load_speed: test.speed,
+        full_load_efficiency,
+        fixed_loss_share: TYPICAL_FIXED_LOSS_SHARE,
+        service_factor: 1.0,
+        peak_allowance: TYPICAL_PEAK_ALLOWANCE,
+    }
+}
+
+/// The shaft power (W) a motor gives for an electrical input (W): the root of
+/// input = shaft + loss(shaft). The loss is a fixed part plus a part growing with the square of
+/// the load, so this is a quadratic, solved in the form that does not cancel at light load.
+/// Negative when the input is below the motor's no-load loss.
+pub fn shaft_for_input(motor: &Motor, input: f64) -> f64 {
+    let rated = motor.rated_power.value;
+    let fixed = motor.loss(0.0);
+    let per_w2 = (motor.loss(rated) - fixed) / (rated * rated);
+    let net = input - fixed;
+    let root = 1.0 + 4.0 * per_w2 * net;
+    if net <= 0.0 || per_w2 <= 0.0 || !root.is_finite() {
+        return net;
+    }
+    2.0 * net / (1.0 + root.sqrt())
+}
+
+/// The test read against `policy`, its messages in `units`; the test's input errors (paths
+/// within the test, as a [`Problem`]'s) when a figure is missing or out of range.
+pub fn assess(
+    test: &PumpTest,
+    policy: &WearPolicy,
+    units: UnitSystem,
+) -> Result<TestReport, Vec<InputError>> {
+    let errors = super::validate::pump_test_errors(test, units);
+    if !errors.is_empty() {
+        return Err(errors);
+    }
     let mut problems = Vec::new();
-    let theoretical = test.displacement.value * test.speed.value / std::f64::consts::TAU;
+    let full_load_speed = test.speed.value;
+    let per_radian = test.displacement.value / TAU;
+    let theoretical = per_radian * full_load_speed;
+    let synchronous = synchronous_speed(test);
     let rated_motor = test.motor_rated_power.value;
     let motor_efficiency = match test.motor_efficiency {
         MotorEfficiency::Entered { efficiency } => Some(efficiency),
@@ -252,6 +383,7 @@ pub fn assess(test: &PumpTest, policy: &WearPolicy, units: UnitSystem) -> TestRe
             }
         }
     };
+    let motor = motor_efficiency.map(|e| part_load_motor(test, e));
     let mut reports = Vec::new();
     let mut fit_points = Vec::new();
     for (k, r) in test.readings.iter().enumerate() {
@@ -262,40 +394,84 @@ pub fn assess(test: &PumpTest, policy: &WearPolicy, units: UnitSystem) -> TestRe
             hydraulic_w: p * q,
             ..ReadingReport::default()
         };
-        if q > theoretical * (1.0 + 1e-9) {
-            problems.push(Problem {
-                field: at("flow_m3_per_s"),
-                message: format!(
-                    "{} is more than the pump sweeps at this speed ({}): check the meter range or the displacement and speed.",
-                    units.flow(q),
-                    units.flow(theoretical)
-                ),
-            });
-        } else if theoretical > 0.0 {
-            report.volumetric = Some(q / theoretical);
-            fit_points.push((p, q));
-        }
-        let input = r.electrical.and_then(|e| {
+        // What the motor drew, and the shaft power it gives for that at this load.
+        let mut input = None;
+        let mut shaft_from_input = None;
+        if let Some(e) = r.electrical {
             let w = e.watts();
-            let shaft_guess = motor_efficiency.map_or(w, |m| w * m);
-            if shaft_guess > rated_motor * MOST_LOAD_BELIEVED {
+            // Without the motor's efficiency, the input itself bounds the shaft power.
+            let shaft = motor.map_or(w, |m| shaft_for_input(&m, w));
+            if shaft > rated_motor * MOST_LOAD_BELIEVED {
                 problems.push(Problem {
                     field: at("electrical"),
                     message: format!(
                         "This input would load the {} motor to {:.0} % of its rating: check the clamp meter's range, that it is on one line conductor, and the voltage.",
                         units.power(rated_motor),
-                        shaft_guess / rated_motor * 100.0
+                        shaft / rated_motor * 100.0
                     ),
                 });
-                None
             } else {
-                Some(w)
+                input = Some(w);
+                match motor {
+                    Some(_) if shaft > 0.0 => shaft_from_input = Some(shaft),
+                    Some(m) => problems.push(Problem {
+                        field: at("electrical"),
+                        message: format!(
+                            "This input is no more than the {} motor draws running with no load (about {}): check the meter, the motor's rating and its efficiency.",
+                            units.power(rated_motor),
+                            units.power(m.loss(0.0))
+                        ),
+                    }),
+                    None => {}
+                }
             }
-        });
+        }
+        // The shaft speed: measured, else the synchronous speed less the slip, which grows in
+        // proportion to the load (common practice; the slip method of the US DOE's motor
+        // load fact sheet read backwards).
+        let (speed, from, load) = match (r.speed, synchronous) {
+            (Some(n), _) => (n.value, SpeedFrom::Measured, None),
+            (None, None) => (full_load_speed, SpeedFrom::Nameplate, None),
+            (None, Some(sync)) => {
+                let full_slip = sync - full_load_speed;
+                match r.torque {
+                    // Shaft power T n, so n = sync - full_slip x T n / rated, in closed form.
+                    Some(t) => {
+                        let n = sync / (1.0 + full_slip * t.value / rated_motor);
+                        (n, SpeedFrom::Slip, Some(t.value * n / rated_motor))
+                    }
+                    None => {
+                        // The hydraulic power is the least the shaft can be giving.
+                        let shaft = shaft_from_input.unwrap_or(report.hydraulic_w);
+                        let load = (shaft / rated_motor).clamp(0.0, MOST_LOAD_BELIEVED);
+                        (sync - full_slip * load, SpeedFrom::Slip, Some(load))
+                    }
+                }
+            }
+        };
+        report.speed_rad_per_s = speed;
+        report.speed_from = from;
+        report.load_share = load;
+        let swept = per_radian * speed;
+        report.flow_at_full_load_speed = q + per_radian * (full_load_speed - speed);
+        if q > swept * (1.0 + 1e-9) {
+            problems.push(Problem {
+                field: at("flow_m3_per_s"),
+                message: format!(
+                    "{} is more than the pump sweeps at {} ({}): check the meter range or the displacement and speed.",
+                    units.flow(q),
+                    Measure::ShaftSpeed.with_unit(units, speed),
+                    units.flow(swept)
+                ),
+            });
+        } else if swept > 0.0 {
+            report.volumetric = Some(q / swept);
+            fit_points.push((p, report.flow_at_full_load_speed));
+        }
         report.input_w = input;
-        let from_torque = r.torque.map(|t| t.value * test.speed.value);
+        let from_torque = r.torque.map(|t| t.value * speed);
         report.shaft_from_torque = from_torque.is_some();
-        report.shaft_w = from_torque.or_else(|| Some(input? * motor_efficiency?));
+        report.shaft_w = from_torque.or(shaft_from_input);
         if let (Some(shaft), Some(input)) = (from_torque, input) {
             if shaft > input * (1.0 + 1e-9) {
                 problems.push(Problem {
@@ -345,8 +521,7 @@ pub fn assess(test: &PumpTest, policy: &WearPolicy, units: UnitSystem) -> TestRe
     }
     let leakage = leakage.filter(|l| l.leakage_per_pa >= 0.0);
     let verdict = match leakage {
-        None => Verdict::NotJudged,
-        Some(l) => {
+        Some(l) if l.fitted => {
             let v = l.volumetric_at_rated;
             if v >= policy.good_from {
                 Verdict::Good {
@@ -362,15 +537,19 @@ pub fn assess(test: &PumpTest, policy: &WearPolicy, units: UnitSystem) -> TestRe
                 }
             }
         }
+        _ => Verdict::NotJudged,
     };
-    TestReport {
+    let readings_used = fit_points.len();
+    Ok(TestReport {
         theoretical_flow: theoretical,
         motor_efficiency,
         readings: reports,
         leakage,
         verdict,
+        readings_used,
+        readings_rejected: test.readings.len().saturating_sub(readings_used),
         problems,
-    }
+    })
 }
 
 /// Least squares of flow on pressure (two or more distinct pressures), else the line from the
@@ -383,7 +562,8 @@ fn leakage_line(points: &[(f64, f64)], theoretical: f64, rated: f64) -> Option<L
     let mean_p = points.iter().map(|p| p.0).sum::<f64>() / n;
     let mean_q = points.iter().map(|p| p.1).sum::<f64>() / n;
     let spread: f64 = points.iter().map(|p| (p.0 - mean_p).powi(2)).sum();
-    let (intercept, slope) = if points.len() >= 2 && spread > (mean_p * 1e-6).powi(2) * n {
+    let fitted = points.len() >= READINGS_FOR_VERDICT && spread > (mean_p * 1e-6).powi(2) * n;
+    let (intercept, slope) = if fitted {
         let slope = points
             .iter()
             .map(|p| (p.0 - mean_p) * (p.1 - mean_q))
@@ -399,13 +579,15 @@ fn leakage_line(points: &[(f64, f64)], theoretical: f64, rated: f64) -> Option<L
         zero_pressure_flow: intercept,
         leakage_per_pa: -slope,
         readings: points.len(),
+        fitted,
         volumetric_at_rated: ((intercept + slope * rated) / theoretical).max(0.0),
     })
 }
 
-/// The same pump's test before test `index` (same label, earlier date), if any, and what
-/// changed since: (earlier test's index, days between if both dates read, change in the
-/// predicted volumetric efficiency at rated pressure).
+/// The same pump's test before test `index` (same label, the latest earlier date), if any, and
+/// what changed since: (earlier test's index, days between, change in the predicted volumetric
+/// efficiency at rated pressure when both tests are judged). Dates compare as days, so
+/// 2026-9-5 comes before 2026-10-01; a test whose date does not read is compared with none.
 #[derive(Clone, Copy, Debug, PartialEq, Serialize)]
 pub struct Trend {
     pub earlier: usize,
@@ -415,38 +597,43 @@ pub struct Trend {
 
 pub fn trend(tests: &[PumpTest], index: usize, policy: &WearPolicy) -> Option<Trend> {
     let this = tests.get(index)?;
+    let this_day = day_number(&this.date)?;
     let label = this.pump.trim().to_lowercase();
-    let earlier = tests
+    let (earlier, before, before_day) = tests
         .iter()
         .enumerate()
-        .filter(|(i, t)| {
-            *i != index && t.pump.trim().to_lowercase() == label && t.date.trim() < this.date.trim()
-        })
-        .max_by(|a, b| a.1.date.trim().cmp(b.1.date.trim()))?
-        .0;
+        .filter(|(i, t)| *i != index && t.pump.trim().to_lowercase() == label)
+        .filter_map(|(i, t)| Some((i, t, day_number(&t.date)?)))
+        .filter(|(_, _, day)| *day < this_day)
+        .max_by_key(|(_, _, day)| *day)?;
     let at_rated = |t: &PumpTest| {
         assess(t, policy, UnitSystem::Si)
+            .ok()?
             .verdict
             .volumetric_at_rated()
     };
-    let days = match (day_number(&this.date), day_number(&tests[earlier].date)) {
-        (Some(a), Some(b)) => Some(a - b),
-        _ => None,
-    };
     Some(Trend {
         earlier,
-        days,
-        volumetric_change: Some(at_rated(this)? - at_rated(&tests[earlier])?),
+        days: Some(this_day - before_day),
+        volumetric_change: at_rated(this).zip(at_rated(before)).map(|(a, b)| a - b),
     })
 }
 
-/// Days since 1970-01-01 of a `yyyy-mm-dd` date (the civil calendar), if it reads.
+/// Days since 1970-01-01 of a `yyyy-mm-dd` date (the civil calendar; month and day with or
+/// without a leading zero), if it reads and the day is in its month.
 pub fn day_number(date: &str) -> Option<i64> {
     let mut parts = date.trim().splitn(3, '-');
     let y: i64 = parts.next()?.parse().ok()?;
     let m: i64 = parts.next()?.parse().ok()?;
     let d: i64 = parts.next()?.parse().ok()?;
-    if !(1..=12).contains(&m) || !(1..=31).contains(&d) {
+    let leap = (y % 4 == 0 && y % 100 != 0) || y % 400 == 0;
+    let month_days = match m {
+        2 if leap => 29,
+        2 => 28,
+        4 | 6 | 9 | 11 => 30,
+        _ => 31,
+    };
+    if !(1..=12).contains(&m) || !(1..=month_days).contains(&d) {
         return None;
     }
     // Days from civil (the proleptic Gregorian calendar), after H. Hinnant's algorithm.
@@ -469,10 +656,83 @@ pub struct MeasuredPump {
     pub hydromechanical: Option<f64>,
 }
 
-pub fn measured_pump(test: &PumpTest, report: &TestReport) -> Option<MeasuredPump> {
-    let line = report.leakage?;
-    if report.readings.len() != test.readings.len() || report.theoretical_flow <= 0.0 {
-        return None;
+/// Why the measured efficiencies are not copied.
+#[derive(Clone, Copy, Debug, PartialEq, Serialize)]
+#[serde(tag = "why", rename_all = "snake_case")]
+pub enum NotCopied {
+    /// No leakage line: no believable flow reading at a test pressure.
+    NoBelievableReading,
+    /// The line gives a volumetric efficiency no working pump has (at or below 0, above 1).
+    Volumetric {
+        volumetric: f64,
+        at_pressure_pa: f64,
+    },
+    /// A hydromechanical efficiency at or below 0 or above 1.
+    Hydromechanical { hydromechanical: f64 },
+    /// The design has no pump `pump` (from 0); it has `pumps`.
+    NoSuchPump { pump: usize, pumps: usize },
+}
+
+impl NotCopied {
+    /// What the technician reads.
+    pub fn message(&self, units: UnitSystem) -> String {
+        match *self {
+            NotCopied::NoBelievableReading => {
+                "Nothing to copy: the test has no believable flow reading at a test pressure yet."
+                    .into()
+            }
+            NotCopied::Volumetric {
+                volumetric,
+                at_pressure_pa,
+            } => format!(
+                "Not copied: the readings put the volumetric efficiency at {:.1} % at {}, which no working pump has. Check the flow readings at the highest pressures.",
+                volumetric * 100.0,
+                units.pressure(at_pressure_pa)
+            ),
+            NotCopied::Hydromechanical { hydromechanical } => format!(
+                "Not copied: the readings put the hydromechanical efficiency at {:.1} %, which no working pump has. Check the power or torque readings.",
+                hydromechanical * 100.0
+            ),
+            NotCopied::NoSuchPump { pump, pumps } => format!(
+                "Not copied: this design has no pump {} (it has {pumps}).",
+                pump + 1
+            ),
+        }
+    }
+}
+
+/// A share a hair above 1 from rounding is 1.
+fn rounded_to_one(v: f64) -> f64 {
+    if v > 1.0 && v <= 1.0 + 1e-9 {
+        1.0
+    } else {
+        v
+    }
+}
+
+/// Whether `m` can go into a design: every efficiency above 0 and at most 1, at a pressure.
+fn copyable(m: &MeasuredPump) -> Result<(), NotCopied> {
+    if !(m.at_pressure_pa.is_finite() && m.at_pressure_pa > 0.0) {
+        return Err(NotCopied::NoBelievableReading);
+    }
+    if !(m.volumetric > 0.0 && m.volumetric <= 1.0) {
+        return Err(NotCopied::Volumetric {
+            volumetric: m.volumetric,
+            at_pressure_pa: m.at_pressure_pa,
+        });
+    }
+    match m.hydromechanical {
+        Some(h) if !(h > 0.0 && h <= 1.0) => Err(NotCopied::Hydromechanical { hydromechanical: h }),
+        _ => Ok(()),
+    }
+}
+
+pub fn measured_pump(test: &PumpTest, report: &TestReport) -> Result<MeasuredPump, NotCopied> {
+    let line = report.leakage.ok_or(NotCopied::NoBelievableReading)?;
+    if report.readings.len() != test.readings.len()
+        || !(report.theoretical_flow.is_finite() && report.theoretical_flow > 0.0)
+    {
+        return Err(NotCopied::NoBelievableReading);
     }
     let p = test
         .readings
@@ -480,7 +740,8 @@ pub fn measured_pump(test: &PumpTest, report: &TestReport) -> Option<MeasuredPum
         .zip(&report.readings)
         .filter(|(_, r)| r.volumetric.is_some())
         .map(|(t, _)| t.pressure.value)
-        .reduce(f64::max)?;
+        .reduce(f64::max)
+        .ok_or(NotCopied::NoBelievableReading)?;
     let hydromechanical = test
         .readings
         .iter()
@@ -488,31 +749,105 @@ pub fn measured_pump(test: &PumpTest, report: &TestReport) -> Option<MeasuredPum
         .filter(|(_, r)| r.hydromechanical.is_some())
         .max_by(|a, b| a.0.pressure.value.total_cmp(&b.0.pressure.value))
         .and_then(|(_, r)| r.hydromechanical);
-    Some(MeasuredPump {
-        // A design's pump needs some flow: a line that gives none there is not copied.
-        volumetric: (line.flow_at(p) / report.theoretical_flow).min(1.0),
+    let measured = MeasuredPump {
+        volumetric: rounded_to_one(line.flow_at(p) / report.theoretical_flow),
         at_pressure_pa: p,
-        hydromechanical,
-    })
+        hydromechanical: hydromechanical.map(rounded_to_one),
+    };
+    copyable(&measured)?;
+    Ok(measured)
 }
 
 /// `design` with pump `pump` (in shaft order, from 0; the base pump last) given the measured
-/// efficiencies. `None` when there is no such pump.
-pub fn apply_to_design(design: &Design, pump: usize, measured: &MeasuredPump) -> Option<Design> {
+/// efficiencies, or why not.
+pub fn apply_to_design(
+    design: &Design,
+    pump: usize,
+    measured: &MeasuredPump,
+) -> Result<Design, NotCopied> {
+    copyable(measured)?;
     let mut d = design.clone();
-    let stages = d.unloading_stages.len();
-    let target = if pump < stages {
-        &mut d.unloading_stages[pump].pump
-    } else if pump == stages {
-        &mut d.base_pump
-    } else {
-        return None;
+    let pumps = d.pump_count();
+    let target = match d.unloading_stages.get_mut(pump) {
+        Some(stage) => &mut stage.pump,
+        None if pump == pumps - 1 => &mut d.base_pump,
+        None => return Err(NotCopied::NoSuchPump { pump, pumps }),
     };
     target.volumetric_efficiency = measured.volumetric;
     target.efficiency_pressure =
         Pressure::new::<uom::si::pressure::pascal>(measured.at_pressure_pa);
     if let Some(h) = measured.hydromechanical {
         target.hydromechanical_efficiency = h;
+        // The measured hydromechanical efficiency is the whole shaft power at the test
+        // pressure over the ideal: it already holds the pump's drag (churning, seals,
+        // bearings). The design adds its drag on top (shaft = swept x p / efficiency + drag),
+        // so the drag goes to zero and the design draws exactly the measured shaft power at
+        // the test pressure. Keeping the drag and raising the efficiency instead would need
+        // the drag to be less than all the loss measured, and a design's drag is an estimate
+        // that a small pump tested at a moderate pressure often exceeds; one test pressure
+        // cannot tell the two apart. The cost: an unloaded pump now takes only what its
+        // pressure drop asks of it.
+        target.drag_power = Power::new::<uom::si::power::watt>(0.0);
     }
-    Some(d)
+    Ok(d)
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::engine::pump::PumpAtSpeed;
+    use uom::si::angular_velocity::revolution_per_minute;
+    use uom::si::pressure::bar;
+    use uom::si::volume::cubic_centimeter;
+    use uom::si::volume_rate::cubic_meter_per_second;
+
+    fn reading(bar_: f64, m3_per_s: f64, torque_n_m: Option<f64>) -> Reading {
+        Reading {
+            pressure: Pressure::new::<bar>(bar_),
+            flow: VolumeRate::new::<cubic_meter_per_second>(m3_per_s),
+            speed: None,
+            electrical: None,
+            torque: torque_n_m.map(Torque::new::<uom::si::torque::newton_meter>),
+        }
+    }
+
+    #[test]
+    fn a_copied_pump_draws_the_measured_shaft_power_at_the_test_pressure() {
+        // Esposito, Fluid Power with Applications, Example 5-9: 100 cm^3/rev at 1000 rpm,
+        // 0.0015 m^3/s at 70 bar with 120 N.m; and a reading at 20 bar (invented).
+        let test = PumpTest {
+            pump: "pump".into(),
+            date: "2026-11-30".into(),
+            notes: String::new(),
+            displacement: Volume::new::<cubic_centimeter>(100.0),
+            speed: AngularVelocity::new::<revolution_per_minute>(1000.0),
+            synchronous_speed: None,
+            rated_pressure: Pressure::new::<bar>(210.0),
+            motor_rated_power: Power::new::<uom::si::power::kilowatt>(22.0),
+            motor_efficiency: MotorEfficiency::Entered { efficiency: 0.92 },
+            readings: vec![
+                reading(20.0, 0.00162, None),
+                reading(70.0, 0.0015, Some(120.0)),
+            ],
+        };
+        let report = assess(&test, &WearPolicy::default(), UnitSystem::Si).unwrap();
+        let measured = measured_pump(&test, &report).unwrap();
+        // 120 N.m at 1000 rpm.
+        let shaft = report.readings[1].shaft_w.unwrap();
+        assert!((shaft - 120.0 * 1000.0 * TAU / 60.0).abs() < 1e-9 * shaft);
+        // A design whose last pump is the tested one, on a motor at the test's speed; its
+        // pump has a drag to start with (the demo's: a fixture, not a reference).
+        let mut design = crate::engine::demo::scrap_baler().designs[0].clone();
+        design.base_pump.displacement = test.displacement;
+        design.motor.full_load_speed = test.speed;
+        assert!(design.base_pump.drag_power.value > 0.0);
+        let d = apply_to_design(&design, 1, &measured).unwrap();
+        let pump = PumpAtSpeed::new(&d.base_pump, d.motor.revolutions_per_second());
+        let at = 70e5;
+        let drawn = pump.shaft_power(at, pump.delivered(at));
+        assert!(
+            (drawn - shaft).abs() <= 1e-9 * shaft,
+            "the design draws {drawn} W, the test measured {shaft} W"
+        );
+    }
 }

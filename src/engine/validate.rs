@@ -511,6 +511,14 @@ fn check_pump(c: &mut Checker, p: &Pump) {
     }
 }
 
+/// Beyond this share of the synchronous speed, a full-load slip is a typing slip (induction
+/// motors slip a few percent).
+const MAX_SLIP: f64 = 0.2;
+
+fn rpm(_: UnitSystem, rad_per_s: f64) -> String {
+    format!("{:.0} rpm", rad_per_s * 60.0 / std::f64::consts::TAU)
+}
+
 /// Every problem with field test `index` of a job, named by its path in the job file
 /// (`pump_tests[0].readings[1].flow_m3_per_s`). Kept apart from [`validate`]: a test being
 /// typed in never stops the job's results.
@@ -519,15 +527,34 @@ pub fn validate_pump_test(
     index: usize,
     units: UnitSystem,
 ) -> Vec<InputError> {
+    check_pump_test(test, Some(index), units)
+}
+
+/// As [`validate_pump_test`], the paths within the test (`readings[1].flow_m3_per_s`).
+pub(crate) fn pump_test_errors(
+    test: &super::efficiency::PumpTest,
+    units: UnitSystem,
+) -> Vec<InputError> {
+    check_pump_test(test, None, units)
+}
+
+fn check_pump_test(
+    test: &super::efficiency::PumpTest,
+    index: Option<usize>,
+    units: UnitSystem,
+) -> Vec<InputError> {
     use super::efficiency::{ElectricalInput, MotorEfficiency};
     let mut c = Checker {
         units,
         errors: Vec::new(),
         at: String::new(),
     };
-    c.within(format_args!("pump_tests[{index}]"), |c| {
+    let checks = |c: &mut Checker| {
         if test.pump.trim().is_empty() {
-            c.fail("pump", "say which pump was tested (tests of one pump are compared by it)");
+            c.fail(
+                "pump",
+                "say which pump was tested (tests of one pump are compared by it)",
+            );
         }
         if !test.date.trim().is_empty() && super::efficiency::day_number(&test.date).is_none() {
             c.fail("date", "write the date as year-month-day, e.g. 2026-11-30");
@@ -539,13 +566,28 @@ pub fn validate_pump_test(
             MAX_DISPLACEMENT,
             "m3/rev",
         );
-        c.amount(
-            "speed_rad_per_s",
-            test.speed.value,
-            false,
-            MAX_SPEED_RAD_S,
-            |_, v| format!("{:.0} rpm", v * 60.0 / std::f64::consts::TAU),
-        );
+        let full_load = test.speed.value;
+        let full_load_ok = c.amount("speed_rad_per_s", full_load, false, MAX_SPEED_RAD_S, rpm);
+        if let Some(sync) = test.synchronous_speed.map(|s| s.value) {
+            let field = "synchronous_speed_rad_per_s";
+            if c.amount(field, sync, false, MAX_SPEED_RAD_S, rpm) && full_load_ok {
+                if sync <= full_load {
+                    c.fail(
+                        field,
+                        "must be above the full-load speed: a four-pole motor on 50 Hz is 1500 rpm and turns about 1460 rpm at full load",
+                    );
+                } else if full_load < sync * (1.0 - MAX_SLIP) {
+                    c.fail(
+                        field,
+                        format!(
+                            "{} is too far above the full-load speed of {} for an induction motor (they differ by a few percent): check both",
+                            rpm(units, sync),
+                            rpm(units, full_load)
+                        ),
+                    );
+                }
+            }
+        }
         c.pressure("rated_pressure_pa", test.rated_pressure.value, false);
         c.power("motor_rated_power_w", test.motor_rated_power.value, false);
         if let MotorEfficiency::Entered { efficiency } = test.motor_efficiency {
@@ -558,6 +600,9 @@ pub fn validate_pump_test(
             c.within(format_args!("readings[{k}]"), |c| {
                 c.pressure("pressure_pa", r.pressure.value, true);
                 c.flow("flow_m3_per_s", r.flow.value, true);
+                if let Some(n) = r.speed {
+                    c.amount("speed_rad_per_s", n.value, false, MAX_SPEED_RAD_S, rpm);
+                }
                 match r.electrical {
                     None => {}
                     Some(ElectricalInput::Power { input }) => {
@@ -583,6 +628,10 @@ pub fn validate_pump_test(
                 }
             });
         }
-    });
+    };
+    match index {
+        Some(i) => c.within(format_args!("pump_tests[{i}]"), checks),
+        None => checks(&mut c),
+    }
     c.errors
 }

@@ -7,13 +7,16 @@ use super::field::{ChoiceField, NumberField, OptionalNumberField, TextField};
 use super::icons::CautionIcon;
 use super::state::use_job;
 use crate::engine::efficiency::{
-    self, ElectricalInput, MotorEfficiency, PumpTest, Reading, TestReport, Verdict,
+    self, ElectricalInput, MotorEfficiency, PumpTest, Reading, SpeedFrom, TestReport, Verdict,
+    READINGS_FOR_VERDICT,
 };
 use crate::engine::motor::EfficiencyClass;
 use crate::engine::units::{Measure, UnitSystem};
 use crate::engine::Job;
 use leptos::prelude::*;
-use uom::si::f64::{ElectricCurrent, ElectricPotential, Power, Pressure, Torque, VolumeRate};
+use uom::si::f64::{
+    AngularVelocity, ElectricCurrent, ElectricPotential, Power, Pressure, Torque, VolumeRate,
+};
 
 fn test(j: &Job, t: usize) -> Option<&PumpTest> {
     j.pump_tests.get(t)
@@ -31,32 +34,35 @@ fn reading_mut(j: &mut Job, t: usize, k: usize) -> Option<&mut Reading> {
     test_mut(j, t)?.readings.get_mut(k)
 }
 
-/// A new test, from the shown design's base pump and motor (the user corrects what differs).
-fn new_test(j: &Job, d: usize) -> PumpTest {
-    let design = &j.designs[d.min(j.designs.len().saturating_sub(1))];
+/// A new test, from the shown design's base pump and motor (the user corrects what differs);
+/// none while the job has no power unit.
+fn new_test(j: &Job, d: usize) -> Option<PumpTest> {
+    let design = j.designs.get(d).or(j.designs.last())?;
     let today = js_sys::Date::new_0()
         .to_iso_string()
         .as_string()
         .unwrap_or_default();
-    PumpTest {
+    Some(PumpTest {
         pump: format!("Pump {}", design.pump_count()),
         date: today.get(..10).unwrap_or("").to_string(),
         notes: String::new(),
         displacement: design.base_pump.displacement,
         speed: design.motor.full_load_speed,
+        synchronous_speed: None,
         rated_pressure: design.base_pump.rated_pressure,
         motor_rated_power: design.motor.rated_power,
         motor_efficiency: MotorEfficiency::Entered {
             efficiency: design.motor.full_load_efficiency,
         },
         readings: Vec::new(),
-    }
+    })
 }
 
 fn blank_reading() -> Reading {
     Reading {
         pressure: Pressure::new::<uom::si::pressure::pascal>(f64::NAN),
         flow: VolumeRate::new::<uom::si::volume_rate::cubic_meter_per_second>(f64::NAN),
+        speed: None,
         electrical: None,
         torque: None,
     }
@@ -78,8 +84,9 @@ pub fn PumpCheckArea() -> impl IntoView {
     let start = move |_| {
         let d = state.design_index();
         state.job.update(|j| {
-            let t = new_test(j, d);
-            j.pump_tests.push(t);
+            if let Some(t) = new_test(j, d) {
+                j.pump_tests.push(t);
+            }
         });
         shown.set(count.get_untracked().saturating_sub(1));
     };
@@ -147,9 +154,13 @@ fn TestEditor(t: usize) -> impl IntoView {
             <NumberField label="Displacement (nameplate)" path=p("displacement_m3_per_rev") measure=Measure::Displacement
                 get=move |j: &Job| test(j, t).map_or(f64::NAN, |x| x.displacement.value)
                 set=move |j: &mut Job, v| if let Some(x) = test_mut(j, t) { x.displacement.value = v } />
-            <NumberField label="Shaft speed" path=p("speed_rad_per_s") measure=Measure::ShaftSpeed
+            <NumberField label="Motor full-load speed (nameplate)" path=p("speed_rad_per_s") measure=Measure::ShaftSpeed
                 get=move |j: &Job| test(j, t).map_or(f64::NAN, |x| x.speed.value)
                 set=move |j: &mut Job, v| if let Some(x) = test_mut(j, t) { x.speed.value = v } />
+            <OptionalNumberField label="Motor synchronous speed" path=p("synchronous_speed_rad_per_s") measure=Measure::ShaftSpeed
+                placeholder=Signal::derive(move || synchronous_hint(&state.job.read(), t))
+                get=move |j: &Job| test(j, t).and_then(|x| x.synchronous_speed).map(|s| s.value)
+                set=move |j: &mut Job, v| if let Some(x) = test_mut(j, t) { x.synchronous_speed = v.map(AngularVelocity::new::<uom::si::angular_velocity::radian_per_second>) } />
             <NumberField label="Rated pressure" path=p("rated_pressure_pa") measure=Measure::Pressure
                 get=move |j: &Job| test(j, t).map_or(f64::NAN, |x| x.rated_pressure.value)
                 set=move |j: &mut Job, v| if let Some(x) = test_mut(j, t) { x.rated_pressure.value = v } />
@@ -179,6 +190,17 @@ fn TestEditor(t: usize) -> impl IntoView {
         {move || (0..readings.get()).map(|k| view! { <ReadingEditor t=t k=k /> }).collect_view()}
         <button type="button" class="button wide" data-action="add-reading" on:click=add>"Add a reading"</button>
         <button type="button" class="button danger" data-action="delete-test" on:click=remove>"Delete this test"</button>
+    }
+}
+
+/// What applies while the synchronous speed is left empty: the engine's inferred one, or none.
+fn synchronous_hint(j: &Job, t: usize) -> String {
+    match test(j, t).and_then(efficiency::synchronous_speed) {
+        Some(s) => format!(
+            "taken as {} from the full-load speed",
+            Measure::ShaftSpeed.format(j.units, s)
+        ),
+        None => "not known: the full-load speed is used".to_string(),
     }
 }
 
@@ -264,6 +286,16 @@ fn set_electrical_figure(j: &mut Job, t: usize, k: usize, which: u8, v: f64) {
     }
 }
 
+fn speed_of(j: &Job, t: usize, k: usize) -> Option<f64> {
+    reading(j, t, k).and_then(|r| r.speed).map(|x| x.value)
+}
+
+fn set_speed(j: &mut Job, t: usize, k: usize, v: Option<f64>) {
+    if let Some(r) = reading_mut(j, t, k) {
+        r.speed = v.map(AngularVelocity::new::<uom::si::angular_velocity::radian_per_second>);
+    }
+}
+
 fn torque_of(j: &Job, t: usize, k: usize) -> Option<f64> {
     reading(j, t, k).and_then(|r| r.torque).map(|x| x.value)
 }
@@ -305,6 +337,10 @@ fn ReadingEditor(t: usize, k: usize) -> impl IntoView {
                 <NumberField label="Flow" path=p("flow_m3_per_s") measure=Measure::Flow
                     get=move |j: &Job| reading(j, t, k).map_or(f64::NAN, |r| r.flow.value)
                     set=move |j: &mut Job, v| if let Some(r) = reading_mut(j, t, k) { r.flow.value = v } />
+                <OptionalNumberField label="Shaft speed, if measured" path=p("speed_rad_per_s") measure=Measure::ShaftSpeed
+                    placeholder=Signal::derive(|| "estimated from the load".to_string())
+                    get=move |j: &Job| speed_of(j, t, k)
+                    set=move |j: &mut Job, v| set_speed(j, t, k, v) />
                 <ChoiceField label="Motor input" path=p("electrical")
                     options=vec![
                         ("none", "Not read".to_string()),
@@ -357,13 +393,19 @@ fn TestResults(t: usize) -> impl IntoView {
 fn TestFindings(t: usize, test: PumpTest, report: TestReport) -> impl IntoView {
     let state = use_job();
     let u = state.job.with_untracked(|j| j.units);
+    let (used, total) = (report.readings_used, test.readings.len());
+    let basis = match report.readings_rejected {
+        0 => format!("Judged on {used} readings."),
+        1 => format!("Judged on {used} readings; 1 left out (see the notes below)."),
+        n => format!("Judged on {used} readings; {n} left out (see the notes below)."),
+    };
     let (class, verdict_text, data) = match report.verdict {
         Verdict::Good {
             volumetric_at_rated,
         } => (
             "verdict good",
             format!(
-                "In good order: {} volumetric efficiency predicted at its rated pressure.",
+                "In good order: {} volumetric efficiency predicted at its rated pressure. {basis}",
                 percent(Some(volumetric_at_rated))
             ),
             "good",
@@ -373,7 +415,7 @@ fn TestFindings(t: usize, test: PumpTest, report: TestReport) -> impl IntoView {
         } => (
             "verdict watch",
             format!(
-                "Wearing: {} predicted at its rated pressure. Test it again sooner.",
+                "Wearing: {} predicted at its rated pressure. Test it again sooner. {basis}",
                 percent(Some(volumetric_at_rated))
             ),
             "watch",
@@ -383,28 +425,38 @@ fn TestFindings(t: usize, test: PumpTest, report: TestReport) -> impl IntoView {
         } => (
             "verdict worn",
             format!(
-                "Worn: {} predicted at its rated pressure. Plan a repair or a replacement.",
+                "Worn: {} predicted at its rated pressure. Plan a repair or a replacement. {basis}",
                 percent(Some(volumetric_at_rated))
             ),
             "worn",
         ),
         Verdict::NotJudged => (
             "verdict none",
-            "Not judged: no reading can be believed as it stands.".to_string(),
+            if used == 0 {
+                "Not judged: no reading can be believed as it stands.".to_string()
+            } else if report.problems.iter().any(|p| p.field == "readings") {
+                "Not judged: these readings give no leakage line (see the notes below).".to_string()
+            } else {
+                format!(
+                    "Not judged: a verdict needs at least {READINGS_FOR_VERDICT} believable readings at different test pressures, and {used} of the {total} readings can be believed."
+                )
+            },
             "none",
         ),
     };
-    let trend = state
-        .job
-        .with_untracked(|j| efficiency::trend(&j.pump_tests, t, &j.wear));
-    let trend_text = trend.map(|tr| {
-        let when = state.job.with_untracked(|j| j.pump_tests[tr.earlier].date.clone());
+    let trend_text = state.job.with_untracked(|j| {
+        let tr = efficiency::trend(&j.pump_tests, t, &j.wear)?;
+        let when = j.pump_tests.get(tr.earlier)?.date.clone();
         let days = tr.days.map_or(String::new(), |d| format!(", {d} days before"));
-        match tr.volumetric_change {
+        Some(match tr.volumetric_change {
             Some(c) => format!("Since the test of {when}{days}: {:+.1} points of volumetric efficiency at rated pressure.", c * 100.0),
-            None => format!("An earlier test of this pump ({when}{days}) has no judged result to compare."),
-        }
+            None => format!("An earlier test of this pump ({when}{days}): no change to show until both tests are judged."),
+        })
     });
+    let estimated = report
+        .readings
+        .iter()
+        .any(|x| x.speed_from == SpeedFrom::Slip);
     let rows = test
         .readings
         .iter()
@@ -416,7 +468,12 @@ fn TestFindings(t: usize, test: PumpTest, report: TestReport) -> impl IntoView {
                     <th scope="row">{k + 1}</th>
                     <td>{Measure::Pressure.format(u, r.pressure.value)}</td>
                     <td>{Measure::Flow.format(u, r.flow.value)}</td>
+                    <td>{match x.speed_from {
+                        SpeedFrom::Slip => format!("≈{}", Measure::ShaftSpeed.format(u, x.speed_rad_per_s)),
+                        _ => Measure::ShaftSpeed.format(u, x.speed_rad_per_s),
+                    }}</td>
                     <td>{percent(x.volumetric)}</td>
+                    <td>{Measure::Power.format(u, x.hydraulic_w)}</td>
                     <td>{x.shaft_w.map_or("–".into(), |w| Measure::Power.format(u, w))}</td>
                     <td>{percent(x.overall)}</td>
                     <td>{percent(x.hydromechanical)}</td>
@@ -427,9 +484,9 @@ fn TestFindings(t: usize, test: PumpTest, report: TestReport) -> impl IntoView {
     let problems = report.problems.clone();
     view! {
         <h2>"What the readings say"</h2>
-        <p class={class} data-verdict=data role="status">{verdict_text}</p>
+        <p class={class} data-verdict=data data-readings-used=used role="status">{verdict_text}</p>
         {trend_text.map(|t| view! { <p class="trend" data-trend="true">{t}</p> })}
-        <p>{format!("Theoretical flow at this speed: {}. Motor efficiency used: {}.", Measure::Flow.with_unit(u, report.theoretical_flow), percent(report.motor_efficiency))}</p>
+        <p>{format!("Theoretical flow at the motor's full-load speed of {}: {}. Motor efficiency at full load: {} (less at part load).", Measure::ShaftSpeed.with_unit(u, test.speed.value), Measure::Flow.with_unit(u, report.theoretical_flow), percent(report.motor_efficiency))}</p>
         {(!problems.is_empty()).then(|| view! {
             <ul class="test-problems" role="alert">
                 {problems.into_iter().map(|p| view! { <li data-problem=p.field.clone()>{p.message}</li> }).collect_view()}
@@ -441,6 +498,7 @@ fn TestFindings(t: usize, test: PumpTest, report: TestReport) -> impl IntoView {
                     <th scope="col">"#"</th>
                     <th scope="col">"Pressure"<span class="unit-head">{Measure::Pressure.label(u)}</span></th>
                     <th scope="col">"Flow"<span class="unit-head">{Measure::Flow.label(u)}</span></th>
+                    <th scope="col">"Speed"<span class="unit-head">{Measure::ShaftSpeed.label(u)}</span></th>
                     <th scope="col">"Volu­metric"</th>
                     <th scope="col">"Out"<span class="unit-head">{Measure::Power.label(u)}</span></th>
                     <th scope="col">"Shaft"<span class="unit-head">{Measure::Power.label(u)}</span></th>
@@ -450,13 +508,15 @@ fn TestFindings(t: usize, test: PumpTest, report: TestReport) -> impl IntoView {
                 <tbody>{rows}</tbody>
             </table>
         </div>
+        {estimated.then(|| view! { <p class="hint">"≈ speed estimated from the motor's slip at the load drawn: a tachometer reading replaces it."</p> })}
         <FlowChart test=test.clone() report=report.clone() units=u />
         <CopyToDesign t=t />
     }
 }
 
-/// Flow against pressure: the theoretical flow, the readings, and the leakage line out to the
-/// rated pressure. Plotting only: every figure is the engine's.
+/// Flow against pressure at the motor's full-load speed: the theoretical flow, the readings
+/// (brought to that speed by the engine), and the leakage line out to the rated pressure.
+/// Plotting only: every figure is the engine's.
 #[component]
 fn FlowChart(test: PumpTest, report: TestReport, units: UnitSystem) -> impl IntoView {
     let (w, h, pad) = (320.0, 210.0, 36.0);
@@ -466,10 +526,10 @@ fn FlowChart(test: PumpTest, report: TestReport, units: UnitSystem) -> impl Into
         .map(|r| r.pressure.value)
         .fold(test.rated_pressure.value, f64::max)
         * 1.05;
-    let q_max = test
+    let q_max = report
         .readings
         .iter()
-        .map(|r| r.flow.value)
+        .map(|r| r.flow_at_full_load_speed)
         .fold(report.theoretical_flow, f64::max)
         * 1.1;
     if !(p_max > 0.0 && q_max > 0.0) {
@@ -485,7 +545,8 @@ fn FlowChart(test: PumpTest, report: TestReport, units: UnitSystem) -> impl Into
     let dots = test
         .readings
         .iter()
-        .map(|r| view! { <circle cx=x(r.pressure.value) cy=y(r.flow.value) r="5" class="reading-dot" /> })
+        .zip(&report.readings)
+        .map(|(r, at)| view! { <circle cx=x(r.pressure.value) cy=y(at.flow_at_full_load_speed) r="5" class="reading-dot" /> })
         .collect_view();
     let axis_p = format!("{} ({})", "Pressure", Measure::Pressure.label(units));
     let axis_q = format!("{} ({})", "Flow", Measure::Flow.label(units));
@@ -503,7 +564,7 @@ fn FlowChart(test: PumpTest, report: TestReport, units: UnitSystem) -> impl Into
                 <line x1=x(test.rated_pressure.value) y1=h - pad x2=x(test.rated_pressure.value) y2=h - pad + 4.0 class="axis" />
                 <text x=x(test.rated_pressure.value) y=h - pad + 28.0 class="tick" text-anchor="middle">{format!("rated {}", Measure::Pressure.format(units, test.rated_pressure.value))}</text>
             </svg>
-            <figcaption>"Dashed: what the pump sweeps. Dots: the readings. Line: the leakage line to the rated pressure."</figcaption>
+            <figcaption>"At the motor's full-load speed. Dashed: what the pump sweeps. Dots: the readings. Line: the leakage line to the rated pressure."</figcaption>
         </figure>
     }
     .into_any()
@@ -529,6 +590,7 @@ fn CopyToDesign(t: usize) -> impl IntoView {
     let copy = move |_| {
         let d = design.get_untracked();
         let job = state.job.get_untracked();
+        let u = job.units;
         let Some(x) = job.pump_tests.get(t) else {
             return;
         };
@@ -541,31 +603,39 @@ fn CopyToDesign(t: usize) -> impl IntoView {
             ));
             return;
         };
-        let Some(measured) = efficiency::measured_pump(x, &report) else {
-            note.set(Some(
-                "Nothing to copy: the test has no believable reading yet.".into(),
-            ));
+        let measured = match efficiency::measured_pump(x, &report) {
+            Ok(m) => m,
+            Err(why) => {
+                note.set(Some(why.message(u)));
+                return;
+            }
+        };
+        let Some(chosen) = job.designs.get(d) else {
             return;
         };
-        let count = job.designs.get(d).map_or(0, |x| x.pump_count());
-        let p = pump.get_untracked().min(count.saturating_sub(1));
-        let Some(changed) = job
-            .designs
-            .get(d)
-            .and_then(|x| efficiency::apply_to_design(x, p, &measured))
-        else {
-            return;
+        let p = pump
+            .get_untracked()
+            .min(chosen.pump_count().saturating_sub(1));
+        let changed = match efficiency::apply_to_design(chosen, p, &measured) {
+            Ok(changed) => changed,
+            Err(why) => {
+                note.set(Some(why.message(u)));
+                return;
+            }
         };
         let name = changed.name.clone();
-        state.job.update(|j| j.designs[d] = changed);
-        let u = job.units;
+        state.job.update(|j| {
+            if let Some(slot) = j.designs.get_mut(d) {
+                *slot = changed;
+            }
+        });
         note.set(Some(format!(
             "Copied into “{name}”, pump {}: volumetric {} at {}{}.",
             p + 1,
             percent(Some(measured.volumetric)),
             Measure::Pressure.with_unit(u, measured.at_pressure_pa),
             measured.hydromechanical.map_or(String::new(), |h| format!(
-                ", hydromechanical {}",
+                ", hydromechanical {} (its drag set to zero: the measured figure includes it)",
                 percent(Some(h))
             ))
         )));

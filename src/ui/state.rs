@@ -84,13 +84,10 @@ impl JobState {
                             .iter()
                             .enumerate()
                             .map(|(i, t)| {
-                                let errors =
-                                    crate::engine::validate::validate_pump_test(t, i, j.units);
-                                if errors.is_empty() {
-                                    Ok(crate::engine::efficiency::assess(t, &j.wear, j.units))
-                                } else {
-                                    Err(errors)
-                                }
+                                // Refused: the same checks, named by their paths in the job.
+                                crate::engine::efficiency::assess(t, &j.wear, j.units).map_err(
+                                    |_| crate::engine::validate::validate_pump_test(t, i, j.units),
+                                )
                             })
                             .collect(),
                     )

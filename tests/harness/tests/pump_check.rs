@@ -55,7 +55,7 @@ async fn readings_typed_on_a_phone_give_the_engines_verdict_and_go_into_a_design
     .await;
     let test = &job.pump_tests[0];
     assert_eq!(test.pump, "Pump 2, vane");
-    let report = efficiency::assess(test, &job.wear, UnitSystem::Si);
+    let report = efficiency::assess(test, &job.wear, UnitSystem::Si).unwrap();
     let kind = match report.verdict {
         Verdict::Good { .. } => "good",
         Verdict::Watch { .. } => "watch",
@@ -110,7 +110,7 @@ async fn readings_typed_on_a_phone_give_the_engines_verdict_and_go_into_a_design
         j["designs"][0]["base_pump"]["efficiency_pressure_pa"].as_f64() == Some(70e5)
     })
     .await;
-    let report = efficiency::assess(&job.pump_tests[0], &job.wear, UnitSystem::Si);
+    let report = efficiency::assess(&job.pump_tests[0], &job.wear, UnitSystem::Si).unwrap();
     let measured = efficiency::measured_pump(&job.pump_tests[0], &report).unwrap();
     let want = efficiency::apply_to_design(&before.designs[0], 1, &measured).unwrap();
     assert_eq!(job.designs[0], want);
