@@ -671,6 +671,7 @@ fn an_efficiency_no_pump_has_is_never_copied() {
         let m = MeasuredPump {
             volumetric,
             at_pressure_pa: 100e5,
+            at_speed_rad_per_s: 150.0,
             hydromechanical,
         };
         assert!(

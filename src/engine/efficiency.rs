@@ -653,6 +653,9 @@ pub fn day_number(date: &str) -> Option<i64> {
 pub struct MeasuredPump {
     pub volumetric: f64,
     pub at_pressure_pa: f64,
+    /// The speed the volumetric efficiency refers to (the test's full-load speed): the
+    /// leakage it fixes holds at any other speed the design turns the pump at.
+    pub at_speed_rad_per_s: f64,
     pub hydromechanical: Option<f64>,
 }
 
@@ -752,6 +755,7 @@ pub fn measured_pump(test: &PumpTest, report: &TestReport) -> Result<MeasuredPum
     let measured = MeasuredPump {
         volumetric: rounded_to_one(line.flow_at(p) / report.theoretical_flow),
         at_pressure_pa: p,
+        at_speed_rad_per_s: test.speed.value,
         hydromechanical: hydromechanical.map(rounded_to_one),
     };
     copyable(&measured)?;
@@ -776,6 +780,9 @@ pub fn apply_to_design(
     target.volumetric_efficiency = measured.volumetric;
     target.efficiency_pressure =
         Pressure::new::<uom::si::pressure::pascal>(measured.at_pressure_pa);
+    target.efficiency_speed = Some(AngularVelocity::new::<
+        uom::si::angular_velocity::radian_per_second,
+    >(measured.at_speed_rad_per_s));
     if let Some(h) = measured.hydromechanical {
         target.hydromechanical_efficiency = h;
         // The measured hydromechanical efficiency is the whole shaft power at the test
