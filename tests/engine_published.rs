@@ -7,7 +7,7 @@ use common::*;
 use phasewise::engine::cycle::{
     Cylinder, Direction, HoldMode, Load, MovePhase, Phase, PhaseKind, SpeedRule,
 };
-use phasewise::engine::ledger::{cycle_totals, PowerLedger};
+use phasewise::engine::ledger::{cycle_totals, PowerLedger, TimedLedger};
 use phasewise::engine::units::{GALLON_PER_MINUTE, HORSEPOWER, PSI};
 use phasewise::engine::valve::ReliefKind;
 use phasewise::engine::{solve, PumpState};
@@ -191,13 +191,18 @@ fn hydraulic_horsepower_of_engineering_toolbox() {
     assert_close(useful.value / HORSEPOWER, 17.5, 0.005, "useful power, hp");
 }
 
-fn ledger_of(electrical_kw: f64, relief_kw: f64) -> PowerLedger {
+/// A phase with the motor running, drawing `electrical_kw` for `seconds`.
+fn ledger_of(electrical_kw: f64, relief_kw: f64, seconds: f64) -> TimedLedger {
     let w = |kw: f64| Power::new::<uom::si::power::kilowatt>(kw);
-    PowerLedger {
-        electrical_input: w(electrical_kw),
-        relief_loss: w(relief_kw),
-        useful_power: w(electrical_kw - relief_kw),
-        ..PowerLedger::default()
+    TimedLedger {
+        ledger: PowerLedger {
+            electrical_input: w(electrical_kw),
+            relief_loss: w(relief_kw),
+            useful_power: w(electrical_kw - relief_kw),
+            ..PowerLedger::default()
+        },
+        duration_s: seconds,
+        motor_running: true,
     }
 }
 
@@ -208,7 +213,7 @@ fn rms_power_over_a_duty_cycle() {
     // sqrt((100 x 2 + 4 x 8) / 10) = sqrt(23.2) = 4.8166 kW.
     let j = job(vec![], vec![]);
     let totals = cycle_totals(
-        &[(ledger_of(10.0, 0.0), 2.0), (ledger_of(2.0, 0.0), 8.0)],
+        &[ledger_of(10.0, 0.0, 2.0), ledger_of(2.0, 0.0, 8.0)],
         &j.site,
         &j.oil,
     );
@@ -227,7 +232,7 @@ fn heat_load_in_btu_per_hour() {
     // 1 hp = 2544.4336 Btu_IT/h (REFERENCES, derived from NIST SP 811's exact definitions).
     let j = job(vec![], vec![]);
     let one_hp = HORSEPOWER / 1e3;
-    let totals = cycle_totals(&[(ledger_of(2.0 * one_hp, one_hp), 5.0)], &j.site, &j.oil);
+    let totals = cycle_totals(&[ledger_of(2.0 * one_hp, one_hp, 5.0)], &j.site, &j.oil);
     assert_close(totals.heat_load_btu_per_hour, 2544.4336, 1e-8, "Btu_IT/h");
     // Oil temperature rise with no cooler = heat / (volume x density x specific heat):
     // 745.7 W into 200 L of Esposito's oil (895 kg/m^3, 1.8 kJ/(kg.K)) is

@@ -781,3 +781,129 @@ fn a_compensated_pump_dead_heads_on_its_leakage() {
     );
     assert_eq!(phase.ledger.relief_loss.value, 0.0);
 }
+
+/// An invented test stand for the motor checks: an ideal pump giving exactly 1.0e-3 m^3/s
+/// (60 L/min: 40 cm^3/rev at 1500 rpm) holds 10 s against a pilot-operated relief set at
+/// 100 bar at 60 L/min, so all its flow crosses at 100 bar and takes 1.0e-3 x 100e5 = 10 kW
+/// from the shaft. `rest` is the phases after it, each an idle taking its path.
+fn test_stand(motor_kw: f64, rpm: f64, rest: &[(f64, IdlePath)]) -> phasewise::engine::Job {
+    let mut cycle = vec![hold("load", 90.0, 10.0, HoldMode::HeldByPump)];
+    cycle.extend(
+        rest.iter()
+            .enumerate()
+            .map(|(i, (seconds, _))| idle(&format!("idle {}", i + 1), *seconds)),
+    );
+    let mut d = design(
+        "stand",
+        motor(motor_kw, rpm, 0.9),
+        vec![],
+        ideal_pump(40.0 * 1500.0 / rpm),
+        relief(ReliefKind::PilotOperated, 100.0, 60.0, 0.97),
+        cycle.len(),
+    );
+    for (setting, (_, path)) in d.phase_settings[1..].iter_mut().zip(rest) {
+        setting.idle_path = *path;
+    }
+    job(cycle, vec![d])
+}
+
+#[test]
+fn stopped_time_counts_a_third_in_the_motors_rms() {
+    // 10 kW for 10 s, then the motor stopped for 50 s. A stopped TEFC motor has no fan, so its
+    // stopped time counts a third (common practice, from memory): RMS = sqrt(10^2 x 10 / (10 +
+    // 50 / 3)) = 10 x sqrt(0.375) = 6.123724 kW, above the plain time average's sqrt(10^2 x 10
+    // / 60) = 4.082483 kW. The supply's RMS stays over plain time.
+    let report = solve(&test_stand(11.0, 1500.0, &[(50.0, IdlePath::MotorStopped)])).unwrap();
+    let t = &report.designs[0].totals;
+    assert_close(in_kw(t.peak_shaft), 10.0, REL, "peak, kW");
+    assert_close(in_kw(t.rms_shaft), 10.0 * 0.375f64.sqrt(), REL, "RMS, kW");
+    assert!(in_kw(t.rms_shaft) > 10.0 * (10.0f64 / 60.0).sqrt() * 1.4);
+    let electrical = t.peak_electrical.value / 1e3;
+    assert_close(
+        in_kw(t.rms_electrical),
+        electrical * (10.0f64 / 60.0).sqrt(),
+        REL,
+        "supply RMS, kW",
+    );
+    // The same 50 s with the motor running (vented at 1.5 bar: 1.0e-3 x 1.5e5 = 150 W) counts
+    // in full: sqrt((10000^2 x 10 + 150^2 x 50) / 60) = 4.083860 kW.
+    let report = solve(&test_stand(11.0, 1500.0, &[(50.0, IdlePath::Vented)])).unwrap();
+    assert_close(
+        report.designs[0].totals.rms_shaft.value,
+        ((1e8 * 10.0 + 150.0f64.powi(2) * 50.0) / 60.0).sqrt(),
+        REL,
+        "RMS running, W",
+    );
+}
+
+#[test]
+fn a_cycle_longer_than_five_minutes_is_too_long_for_the_rms() {
+    // "The rms horsepower loading method works only for duty cycles less than five minutes"
+    // (Machine Design, "MSD 101: Motors and actuators", material from E. Cowern, Baldor). A 9 kW
+    // motor carries the 10 kW peak only briefly (9 x 1.25 = 11.25 kW), so its sizing rests on
+    // the RMS: a 10 s load and 400 s idling vented is a 410 s cycle, too long for it.
+    let vented = |seconds| [(seconds, IdlePath::Vented)];
+    let too_long = |motor_kw: f64, idle_s: f64| {
+        solve(&test_stand(motor_kw, 1500.0, &vented(idle_s)))
+            .unwrap()
+            .designs[0]
+            .findings
+            .iter()
+            .find_map(|f| match f {
+                Finding::RmsCycleTooLong { cycle_s, longest_s } => Some((*cycle_s, *longest_s)),
+                _ => None,
+            })
+    };
+    assert_eq!(too_long(9.0, 400.0), Some((410.0, 300.0)));
+    // Within five minutes, or on a motor that carries the peak all the time, nothing is said.
+    assert_eq!(too_long(9.0, 280.0), None);
+    assert_eq!(too_long(11.0, 400.0), None);
+    let report = solve(&test_stand(9.0, 1500.0, &vented(400.0))).unwrap();
+    let text = report.designs[0].findings[0].describe(phasewise::engine::units::UnitSystem::Si);
+    assert!(
+        text.contains("410.0 s") && text.contains("300.0 s"),
+        "{text}"
+    );
+}
+
+#[test]
+fn idles_that_stop_the_motor_are_counted_as_starts_an_hour() {
+    // Allowed starts an hour, NEMA MG 10-2001 Table 2-3 column A (NEMA Design A and B motors,
+    // as reproduced in EASA's Electrical Engineering Handbook, "Allowable starts and starting
+    // intervals"): 15 hp 4-pole 10.7, 6-pole 12.1; an 11 kW motor is 14.75 hp, the 15 hp row.
+    let starts = |motor_kw: f64, rpm: f64, rest: &[(f64, IdlePath)]| {
+        solve(&test_stand(motor_kw, rpm, rest)).unwrap().designs[0]
+            .findings
+            .iter()
+            .find_map(|f| match f {
+                Finding::MotorStartsTooOften {
+                    starts_per_hour,
+                    allowed_per_hour,
+                } => Some((*starts_per_hour, *allowed_per_hour)),
+                _ => None,
+            })
+    };
+    let stopped = IdlePath::MotorStopped;
+    // One stop in a 60 s cycle: 60 starts an hour.
+    let (n, allowed) = starts(11.0, 1500.0, &[(50.0, stopped)]).unwrap();
+    assert_close(n, 60.0, REL, "starts an hour");
+    assert_eq!(allowed, 10.7);
+    let (_, allowed) = starts(11.0, 960.0, &[(50.0, stopped)]).unwrap();
+    assert_eq!(allowed, 12.1, "6-pole");
+    // Two stops with the load between them: the load, stopped 20 s, running (vented) 10 s,
+    // stopped 20 s: two separate stops in 60 s, 120 starts an hour.
+    let two = [(20.0, stopped), (10.0, IdlePath::Vented), (20.0, stopped)];
+    assert_close(
+        starts(11.0, 1500.0, &two).unwrap().0,
+        120.0,
+        REL,
+        "two stops",
+    );
+    // Two stopped idles one after the other are one stop.
+    let one = [(20.0, stopped), (30.0, stopped)];
+    assert_close(starts(11.0, 1500.0, &one).unwrap().0, 60.0, REL, "one stop");
+    // A cycle of 10 s + 390 s stopped: 9 starts an hour, within 10.7.
+    assert_eq!(starts(11.0, 1500.0, &[(390.0, stopped)]), None);
+    // Never stopped: no starts to count.
+    assert_eq!(starts(11.0, 1500.0, &[(50.0, IdlePath::Vented)]), None);
+}

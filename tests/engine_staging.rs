@@ -8,8 +8,9 @@ mod common;
 use common::*;
 use phasewise::engine::cycle::PhaseKind;
 use phasewise::engine::demo::scrap_baler;
+use phasewise::engine::motor::EfficiencyClass;
 use phasewise::engine::solve::PumpState;
-use phasewise::engine::staging::{self, Candidate, Spec, StagingOptions};
+use phasewise::engine::staging::{self, Candidate, MotorSteps, Spec, StagingOptions};
 use phasewise::engine::valve::IdlePath;
 use phasewise::engine::valve::ReliefKind;
 use phasewise::engine::Finding;
@@ -254,13 +255,20 @@ fn a_candidate_worked_by_hand() {
     //   approach 2.0e-4 x 10.366198e5 + 1.0e-3 x 10.866198e5 = 1293.944 W for 1.963495 s
     //   press    2.0e-4 x 131.323954e5 + 1.0e-3 x 3e5        = 2926.479 W for 1.570796 s
     //   return   2.0e-4 x 11.564858e5 + 1.0e-3 x 12.064858e5 = 1437.783 W for 1.527443 s
-    //   idle, motor stopped, 20 s. Cycle 25.061734 s.
-    // RMS = sqrt((1293.944^2 x 1.963495 + 2926.479^2 x 1.570796 + 1437.783^2 x 1.527443)
-    //       / 25.061734) = 891.04 W; peak 2926.48 W.
+    //   idle, motor stopped, 20 s. Cycle 25.061734 s, 5.061734 s of it running.
+    // RMS, the stopped 20 s counting a third (common practice, from memory): sqrt((1293.944^2 x
+    // 1.963495 + 2926.479^2 x 1.570796 + 1437.783^2 x 1.527443) / (5.061734 + 20 / 3)) =
+    // sqrt(19,897,758.5 / 11.728401) = 1302.51 W (over plain time it would be 891.04 W); peak
+    // 2926.48 W.
     // Motor (IEC steps, service factor 1.0, peak allowance 1.25): 2.2 kW carries the RMS but
     // not the peak (2.75 kW < 2.93 kW); 3.0 kW carries both (3.75 kW).
-    // Energy with the 3.0 kW motor (full-load efficiency 0.9: loss 333.33 W at rated load, 35 %
-    // of it fixed): sum of (P + 333.33 x (0.35 + 0.65 (P/3000)^2)) x t = 10403.24 J.
+    // Energy with the 3.0 kW motor at IE3, the default class for IEC steps: 3 kW is below the
+    // table (5.5 to 37 kW), so the table's 5.5 kW figure, 89.6 % (IEC 60034-30-1, REFERENCES):
+    // loss 3000 x (1/0.896 - 1) = 348.214 W at rated load, 35 % of it fixed (the baseline's
+    // share): sum of (P + 348.214 x (0.35 + 0.65 (P/3000)^2)) x t = 10450.99 J.
+    // Starts: the motor stops once a cycle, 3600 / 25.061734 = 143.65 times an hour; a 3 kW
+    // (4.02 hp, the 5 hp row) 4-pole motor may start 16.3 times an hour (NEMA MG 10-2001,
+    // Table 2-3, as reproduced in EASA's Electrical Engineering Handbook): the one finding.
     let mut job = ideal_high_low();
     set_target(&mut job, 1, Some(2.0));
     let opts = StagingOptions {
@@ -321,11 +329,32 @@ fn a_candidate_worked_by_hand() {
         assert_close(phase.point.duration.value, seconds, 1e-6, name);
     }
     assert_close(c.cycle_time_s, 25.061734, 1e-6, "cycle");
-    assert_close(c.rms_shaft_w, 891.04, 1e-5, "RMS");
+    assert_close(c.rms_shaft_w, 1302.515, 1e-6, "RMS");
     assert_close(c.peak_shaft_w, 2926.479, 1e-6, "peak");
     assert_eq!(c.motor_w, 3000.0);
-    assert_close(c.energy_per_cycle_j, 10403.24, 1e-6, "energy per cycle");
-    assert!(r.findings.is_empty(), "{:?}", r.findings);
+    assert_close(
+        d.motor.full_load_efficiency,
+        0.896,
+        1e-12,
+        "IE3 at the table's 5.5 kW",
+    );
+    assert_close(c.energy_per_cycle_j, 10450.99, 1e-6, "energy per cycle");
+    assert_close(
+        r.totals.energy_per_cycle.value,
+        10450.99,
+        1e-6,
+        "energy, the design solved",
+    );
+    match r.findings.as_slice() {
+        [Finding::MotorStartsTooOften {
+            starts_per_hour,
+            allowed_per_hour,
+        }] => {
+            assert_close(*starts_per_hour, 143.6453, 1e-6, "starts an hour");
+            assert_eq!(*allowed_per_hour, 16.3);
+        }
+        other => panic!("{other:?}"),
+    }
 
     // With the press held to its as-found 0.26 s, pump 1 must feed it too: its unloading would
     // have to sit above the press's 144.46 bar, at or above the main relief, so no setting
@@ -439,4 +468,80 @@ fn an_applied_candidate_passes_the_engines_motor_checks() {
             );
         }
     }
+}
+
+#[test]
+fn each_candidates_motor_takes_its_class_efficiency_at_its_own_size() {
+    // The slow press's single 25 and 40 cm^3/rev pumps at 1450 rpm need 7.5 kW and 15 kW (7.5
+    // and 20 hp on NEMA steps). Each candidate's motor takes its class's nominal efficiency at
+    // its own rating, not the baseline's 90 %: IEC 60034-30-1 4-pole 50 Hz, IE3 7.5 kW 90.4 %,
+    // 15 kW 92.1 %; IE4 92.6 % and 93.9 %; NEMA MG 1 Table 12-12, NEMA Premium 10 hp 91.7 %,
+    // 20 hp 93.0 % (REFERENCES). Its energy is recomputed with that motor, so it is what the
+    // engine gives for the design applied.
+    let job = slow_press();
+    let single = |cc_per_rev: f64| Spec {
+        displacements: vec![cc(cc_per_rev)],
+        speed: AngularVelocity::new::<revolution_per_minute>(1450.0).value,
+        compensated: false,
+    };
+    let hp = phasewise::engine::units::HORSEPOWER;
+    let iec = options(&[25.0, 40.0], 1);
+    let cases = [
+        (iec.clone(), [(7.5e3, 0.904), (15e3, 0.921)]),
+        (
+            StagingOptions {
+                efficiency_class: Some(EfficiencyClass::Ie4),
+                ..iec.clone()
+            },
+            [(7.5e3, 0.926), (15e3, 0.939)],
+        ),
+        (
+            StagingOptions {
+                motor_steps: MotorSteps::NemaHp,
+                ..iec.clone()
+            },
+            [(10.0 * hp, 0.917), (20.0 * hp, 0.930)],
+        ),
+    ];
+    for (opts, expected) in cases {
+        let targets = staging::targets(&job, &opts).unwrap();
+        for (size, (motor_w, efficiency)) in [25.0, 40.0].into_iter().zip(expected) {
+            let c = staging::evaluate(&job, &opts, &targets, &single(size)).expect("it serves");
+            let what = format!("{size} cm^3/rev, {:?}", opts.efficiency_class());
+            assert_close(c.motor_w, motor_w, 1e-12, &what);
+            assert_close(
+                c.design.motor.full_load_efficiency,
+                efficiency,
+                1e-12,
+                &what,
+            );
+            // The energy, phase by phase with that motor's loss: the shaft power x t, plus the
+            // loss rated x (1/efficiency - 1) x (0.35 + 0.65 (P/rated)^2) x t.
+            let (after, target) = staging::apply_candidate(&job, 0, &c);
+            let solved = phasewise::engine::solve(&after).unwrap();
+            let d = &solved.designs[target];
+            let by_hand: f64 = d
+                .phases
+                .iter()
+                .map(|p| {
+                    let shaft = p.ledger.shaft_power().value;
+                    let load = shaft / motor_w;
+                    let loss = motor_w * (1.0 / efficiency - 1.0) * (0.35 + 0.65 * load * load);
+                    (shaft + loss) * p.point.duration.value
+                })
+                .sum();
+            assert_close(c.energy_per_cycle_j, by_hand, 1e-9, &what);
+            assert_close(
+                d.totals.energy_per_cycle.value,
+                c.energy_per_cycle_j,
+                1e-9,
+                &what,
+            );
+        }
+    }
+    // A job file written before the class was an option reads with none: the steps' usual one.
+    let text = serde_json::to_string(&StagingOptions::default()).unwrap();
+    assert!(!text.contains("efficiency_class"), "{text}");
+    let read: StagingOptions = serde_json::from_str(&text).unwrap();
+    assert_eq!(read.efficiency_class(), EfficiencyClass::Ie3);
 }

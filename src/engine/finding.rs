@@ -68,6 +68,15 @@ pub enum Finding {
     MotorRmsOverload { rms_w: f64, limit_w: f64 },
     /// The cycle's peak is above what the motor may carry briefly (rating x peak allowance).
     MotorPeakOverload { peak_w: f64, limit_w: f64 },
+    /// The cycle is too long for the RMS sizing method (the motor heats up to each long
+    /// phase's load), and its peak is above what the motor may carry continuously.
+    RmsCycleTooLong { cycle_s: f64, longest_s: f64 },
+    /// Idles that stop the motor start it more often an hour than a motor of its size and
+    /// speed may be started.
+    MotorStartsTooOften {
+        starts_per_hour: f64,
+        allowed_per_hour: f64,
+    },
 }
 
 impl Finding {
@@ -133,6 +142,14 @@ impl Finding {
                 "The cycle's peak of {} is above the {} the motor may carry briefly (rating times peak allowance): it may stall or trip.",
                 u.power(peak_w),
                 u.power(limit_w)
+            ),
+            Finding::RmsCycleTooLong { cycle_s, longest_s } => format!(
+                "The cycle takes {}, longer than the {} the RMS sizing holds for: the motor heats up to each long phase's load in turn, so its RMS load does not show how hot it runs. Check the heaviest long phase against what the motor carries continuously, or ask the motor's maker.",
+                seconds(cycle_s),
+                seconds(longest_s)
+            ),
+            Finding::MotorStartsTooOften { starts_per_hour, allowed_per_hour } => format!(
+                "The motor is stopped in idles and started again {starts_per_hour:.1} times an hour, more than the {allowed_per_hour:.1} a motor of its size and speed may take (NEMA MG 10): each start heats its windings. Keep it running, vented, through short idles, or ask the motor's maker.",
             ),
         }
     }

@@ -2,7 +2,7 @@
 
 use super::finding::Finding;
 use super::job::{Oil, Site};
-use super::motor::Motor;
+use super::motor::{Motor, RMS_LONGEST_CYCLE_S, STOPPED_COOLING_SHARE};
 use super::units::{BTU_IT, KILOWATT_HOUR};
 use serde::Serialize;
 use uom::si::f64::{Energy, Power, Time};
@@ -126,6 +126,8 @@ pub struct CycleTotals {
     pub average_electrical: Power,
     #[serde(rename = "peak_electrical_w")]
     pub peak_electrical: Power,
+    /// The root-mean-square electrical input over the cycle's time (stopped time counts in
+    /// full: this is the supply's figure, not the motor's heating).
     #[serde(rename = "rms_electrical_w")]
     pub rms_electrical: Power,
     #[serde(rename = "average_shaft_w")]
@@ -133,7 +135,10 @@ pub struct CycleTotals {
     /// The highest shaft power in any phase: checked against rating x service factor.
     #[serde(rename = "peak_shaft_w")]
     pub peak_shaft: Power,
-    /// The root-mean-square shaft power over the cycle: what the motor is sized on.
+    /// The root-mean-square shaft power over the cycle: what the motor is sized on. Time with
+    /// the motor stopped counts at [`STOPPED_COOLING_SHARE`] of running time (a stopped
+    /// motor cools less), so a cycle with stopped idles has a higher RMS than its plain time
+    /// average: sqrt(sum(P^2 t) / (running time + share x stopped time)).
     #[serde(rename = "rms_shaft_w")]
     pub rms_shaft: Power,
     /// Average heat into the oil.
@@ -147,16 +152,34 @@ pub struct CycleTotals {
     pub annual_cost: f64,
 }
 
-/// Sums a cycle's phases: (ledger, duration in s) pairs.
-pub fn cycle_totals(phases: &[(PowerLedger, f64)], site: &Site, oil: &Oil) -> CycleTotals {
+/// One phase as the cycle's totals see it.
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub struct TimedLedger {
+    pub ledger: PowerLedger,
+    /// How long the phase lasts (s).
+    pub duration_s: f64,
+    /// Whether the motor turns in the phase (an idle may stop it).
+    pub motor_running: bool,
+}
+
+/// Sums a cycle's phases.
+pub fn cycle_totals(phases: &[TimedLedger], site: &Site, oil: &Oil) -> CycleTotals {
     let mut time = 0.0;
+    // The time the motor's RMS load is averaged over: stopped time counts less.
+    let mut cooling_time = 0.0;
     let (mut energy, mut shaft_energy, mut heat_energy) = (0.0, 0.0, 0.0);
     let (mut el_sq, mut shaft_sq) = (0.0, 0.0);
     let (mut peak_el, mut peak_shaft) = (0.0f64, 0.0f64);
-    for (ledger, t) in phases {
+    for phase in phases {
+        let (ledger, t) = (&phase.ledger, &phase.duration_s);
         let el = ledger.electrical_input.value;
         let shaft = ledger.shaft_power().value;
         time += t;
+        cooling_time += if phase.motor_running {
+            *t
+        } else {
+            STOPPED_COOLING_SHARE * t
+        };
         energy += el * t;
         shaft_energy += shaft * t;
         heat_energy += ledger.heat_into_oil().value * t;
@@ -179,7 +202,11 @@ pub fn cycle_totals(phases: &[(PowerLedger, f64)], site: &Site, oil: &Oil) -> Cy
         rms_electrical: watts(average(el_sq).sqrt()),
         average_shaft: watts(average(shaft_energy)),
         peak_shaft: watts(peak_shaft),
-        rms_shaft: watts(average(shaft_sq).sqrt()),
+        rms_shaft: watts(if cooling_time > 0.0 {
+            (shaft_sq / cooling_time).sqrt()
+        } else {
+            0.0
+        }),
         heat_load: watts(heat),
         heat_load_btu_per_hour: heat * 3600.0 / BTU_IT,
         oil_rise_k_per_minute: heat * 60.0 / heat_capacity,
@@ -188,10 +215,22 @@ pub fn cycle_totals(phases: &[(PowerLedger, f64)], site: &Site, oil: &Oil) -> Cy
     }
 }
 
+/// How many times a cycle the motor starts: once after each span of phases with it stopped
+/// (the cycle repeats, so a span at its end runs on into the span at its start).
+pub fn motor_starts_per_cycle(phases: &[TimedLedger]) -> usize {
+    let n = phases.len();
+    (0..n)
+        .filter(|&i| !phases[i].motor_running && phases[(i + 1) % n].motor_running)
+        .count()
+}
+
 /// What the motor's sizing says about the cycle: the RMS load against what it may carry
 /// continuously (rating x service factor), the peak against what it may carry briefly (rating x
-/// peak allowance). The staging search sizes motors on the same two criteria.
-pub fn motor_findings(motor: &Motor, totals: &CycleTotals) -> Vec<Finding> {
+/// peak allowance); the staging search sizes motors on the same two criteria. Then whether the
+/// RMS can be trusted (a cycle longer than [`RMS_LONGEST_CYCLE_S`] whose peak the motor could
+/// not carry continuously), and the starts an hour when idles stop the motor, against what a
+/// motor of its size and speed may take ([`Motor::allowed_starts_per_hour`]).
+pub fn motor_findings(motor: &Motor, totals: &CycleTotals, phases: &[TimedLedger]) -> Vec<Finding> {
     let rated = motor.rated_power.value;
     let mut findings = Vec::new();
     let continuous = rated * motor.service_factor;
@@ -207,6 +246,24 @@ pub fn motor_findings(motor: &Motor, totals: &CycleTotals) -> Vec<Finding> {
             peak_w: totals.peak_shaft.value,
             limit_w: limit,
         });
+    }
+    let cycle = totals.cycle_time.value;
+    if cycle > RMS_LONGEST_CYCLE_S && totals.peak_shaft.value > continuous * (1.0 + 1e-9) {
+        findings.push(Finding::RmsCycleTooLong {
+            cycle_s: cycle,
+            longest_s: RMS_LONGEST_CYCLE_S,
+        });
+    }
+    let starts = motor_starts_per_cycle(phases);
+    if starts > 0 && cycle > 0.0 {
+        let per_hour = starts as f64 * 3600.0 / cycle;
+        let allowed = motor.allowed_starts_per_hour();
+        if per_hour > allowed * (1.0 + 1e-9) {
+            findings.push(Finding::MotorStartsTooOften {
+                starts_per_hour: per_hour,
+                allowed_per_hour: allowed,
+            });
+        }
     }
     findings
 }
@@ -313,6 +370,68 @@ mod tests {
         }
     }
 
+    fn phase(shaft_w: f64, seconds: f64, running: bool) -> TimedLedger {
+        TimedLedger {
+            ledger: PowerLedger {
+                electrical_input: watts(shaft_w),
+                useful_power: watts(shaft_w),
+                ..PowerLedger::default()
+            },
+            duration_s: seconds,
+            motor_running: running,
+        }
+    }
+
+    #[test]
+    fn a_start_follows_each_span_of_stopped_phases_round_the_cycle() {
+        let cycle = |running: &[bool]| {
+            running
+                .iter()
+                .map(|r| phase(1.0, 1.0, *r))
+                .collect::<Vec<_>>()
+        };
+        assert_eq!(motor_starts_per_cycle(&cycle(&[true, true])), 0);
+        assert_eq!(motor_starts_per_cycle(&cycle(&[false, false])), 0);
+        assert_eq!(motor_starts_per_cycle(&cycle(&[true, false])), 1);
+        assert_eq!(
+            motor_starts_per_cycle(&cycle(&[true, false, false, true])),
+            1
+        );
+        assert_eq!(
+            motor_starts_per_cycle(&cycle(&[true, false, true, false])),
+            2
+        );
+        // A stop at the end runs on into the one at the start: one span.
+        assert_eq!(motor_starts_per_cycle(&cycle(&[false, true, false])), 1);
+        assert_eq!(motor_starts_per_cycle(&[]), 0);
+    }
+
+    #[test]
+    fn stopped_time_counts_a_third_in_the_shaft_rms_only() {
+        // 3 kW for 10 s, stopped 30 s: sqrt(9e6 x 10 / (10 + 30 / 3)) = 2121.32 W; the supply's
+        // RMS over the plain 40 s, sqrt(9e6 x 10 / 40) = 1500 W.
+        let site = Site {
+            location: String::new(),
+            operating_hours_per_year: 1000.0,
+            tariff_per_kwh: 0.2,
+            currency: "EUR".into(),
+            retrofit_price: 0.0,
+            grid_factor: None,
+        };
+        let oil = Oil::mineral(uom::si::f64::Volume::new::<uom::si::volume::liter>(100.0));
+        let t = cycle_totals(
+            &[phase(3e3, 10.0, true), phase(0.0, 30.0, false)],
+            &site,
+            &oil,
+        );
+        assert!((t.rms_shaft.value - (9e6f64 * 10.0 / 20.0).sqrt()).abs() < 1e-9);
+        assert!((t.rms_electrical.value - 1500.0).abs() < 1e-9);
+        assert_eq!(t.cycle_time.value, 40.0);
+        // All stopped: nothing, not a NaN.
+        let t = cycle_totals(&[phase(0.0, 30.0, false)], &site, &oil);
+        assert_eq!(t.rms_shaft.value, 0.0);
+    }
+
     #[test]
     fn the_rms_is_judged_on_the_service_factor_and_the_peak_on_the_peak_allowance() {
         let rms = |f: &[Finding]| {
@@ -324,16 +443,33 @@ mod tests {
                 .any(|f| matches!(f, Finding::MotorPeakOverload { .. }))
         };
         // 11 kW RMS on a 10 kW motor: over at service factor 1.0, within 1.15.
-        assert!(rms(&motor_findings(&motor(1.0, 1.25), &totals(11e3, 11e3))));
+        assert!(rms(&motor_findings(
+            &motor(1.0, 1.25),
+            &totals(11e3, 11e3),
+            &[]
+        )));
         assert!(!rms(&motor_findings(
             &motor(1.15, 1.25),
-            &totals(11e3, 11e3)
+            &totals(11e3, 11e3),
+            &[]
         )));
         // A 13 kW peak: over 1.25 x 10 kW = 12.5 kW, within 1.5 x 10 kW.
-        assert!(peak(&motor_findings(&motor(1.0, 1.25), &totals(9e3, 13e3))));
-        assert!(!peak(&motor_findings(&motor(1.0, 1.5), &totals(9e3, 13e3))));
+        assert!(peak(&motor_findings(
+            &motor(1.0, 1.25),
+            &totals(9e3, 13e3),
+            &[]
+        )));
+        assert!(!peak(&motor_findings(
+            &motor(1.0, 1.5),
+            &totals(9e3, 13e3),
+            &[]
+        )));
         // The peak allowance, not the service factor, judges the peak.
-        assert!(peak(&motor_findings(&motor(1.4, 1.25), &totals(9e3, 13e3))));
-        assert!(motor_findings(&motor(1.0, 1.25), &totals(10e3, 12.5e3)).is_empty());
+        assert!(peak(&motor_findings(
+            &motor(1.4, 1.25),
+            &totals(9e3, 13e3),
+            &[]
+        )));
+        assert!(motor_findings(&motor(1.0, 1.25), &totals(10e3, 12.5e3), &[]).is_empty());
     }
 }

@@ -94,13 +94,17 @@ pub(crate) fn solve_design(job: &Job, design: &power_unit::Design) -> DesignRepo
         .zip(&design.phase_settings)
         .map(|(phase, setting)| solve::solve_phase(&unit, phase, setting))
         .collect();
-    let timed: Vec<(PowerLedger, f64)> = phases
+    let timed: Vec<ledger::TimedLedger> = phases
         .iter()
-        .map(|p| (p.ledger, p.point.duration.value))
+        .map(|p| ledger::TimedLedger {
+            ledger: p.ledger,
+            duration_s: p.point.duration.value,
+            motor_running: p.point.motor_running,
+        })
         .collect();
     let totals = ledger::cycle_totals(&timed, &job.site, &job.oil);
     let mut findings = solve::design_findings(design);
-    findings.extend(ledger::motor_findings(&design.motor, &totals));
+    findings.extend(ledger::motor_findings(&design.motor, &totals, &timed));
     DesignReport {
         name: design.name.clone(),
         phases,

@@ -38,6 +38,19 @@ fn typical_peak_allowance() -> f64 {
 /// A typical fixed share of a motor's full-load loss (common practice, roughly a third).
 pub const TYPICAL_FIXED_LOSS_SHARE: f64 = 0.35;
 
+/// How much a second with the motor stopped counts, against a second running, in the time
+/// the RMS load is averaged over: a stopped self-ventilated (TEFC) motor has lost its fan and
+/// sheds its heat about a third as fast (common practice, from memory; no published source at
+/// hand). A motor with a separate fan cools as well stopped, so this is the cautious figure.
+pub const STOPPED_COOLING_SHARE: f64 = 1.0 / 3.0;
+
+/// The longest cycle the RMS load sizes a motor for (s): the method assumes the cycle is short
+/// against the motor's heating time, so that its temperature follows the average of the
+/// losses. "The rms horsepower loading method works only for duty cycles less than five
+/// minutes" (Machine Design, "MSD 101: Motors and actuators", material from E. Cowern, Baldor
+/// Electric).
+pub const RMS_LONGEST_CYCLE_S: f64 = 300.0;
+
 impl Motor {
     /// The motor's own loss while it delivers `shaft` watts.
     pub fn loss(&self, shaft: f64) -> f64 {
@@ -131,6 +144,79 @@ impl EfficiencyClass {
         let t = (w.log10() - x0) / (x1 - x0);
         Ok((table[i - 1] + t * (table[i] - table[i - 1])) / 100.0)
     }
+
+    /// The class's nominal full-load efficiency for `rated`, as [`Self::nominal_efficiency`],
+    /// but a rating outside the table takes the figure of the table's nearest end (the staging
+    /// search's motors, which run from 0.37 to 200 kW and 0.5 to 250 hp). Our choice: below
+    /// the table it overstates a small motor's efficiency (a smaller motor of a class is less
+    /// efficient), above it it understates a large one's; the tables at hand stop there.
+    pub fn nominal_efficiency_or_nearest(self, rated: Power) -> f64 {
+        match self.nominal_efficiency(rated) {
+            Ok(efficiency) => efficiency,
+            Err(range) => {
+                let (first, last) = match self {
+                    EfficiencyClass::Ie2 => (IE2[0], IE2[6]),
+                    EfficiencyClass::Ie3 => (IE3[0], IE3[6]),
+                    EfficiencyClass::Ie4 => (IE4[0], IE4[6]),
+                    EfficiencyClass::NemaPremium => (NEMA_PREMIUM[0], NEMA_PREMIUM[6]),
+                };
+                if rated.value > range.highest_w {
+                    last / 100.0
+                } else {
+                    first / 100.0
+                }
+            }
+        }
+    }
+}
+
+/// Motor starts an hour a motor may take, by rated hp, for 2-, 4- and 6-pole NEMA Design A
+/// and B motors (NEMA MG 10-2001, Table 2-3, column A, as reproduced in EASA's Electrical
+/// Engineering Handbook, "Allowable starts and starting intervals"). The table holds for a
+/// load whose torque while starting is at most rated torque varying with the square of speed
+/// and whose inertia is within its column B: a pump started unloaded, whose inertia is small
+/// (our judgement; a flywheel or a large pump needs the maker's figure).
+const STARTS_HP: [f64; 20] = [
+    1.0, 1.5, 2.0, 3.0, 5.0, 7.5, 10.0, 15.0, 20.0, 25.0, 30.0, 40.0, 50.0, 60.0, 75.0, 100.0,
+    125.0, 150.0, 200.0, 250.0,
+];
+const STARTS_2_POLE: [f64; 20] = [
+    15.0, 12.9, 11.5, 9.9, 8.1, 7.0, 6.2, 5.4, 4.8, 4.4, 4.1, 3.7, 3.4, 3.2, 2.9, 2.6, 2.4, 2.2,
+    2.0, 1.8,
+];
+const STARTS_4_POLE: [f64; 20] = [
+    30.0, 25.7, 23.0, 19.8, 16.3, 13.9, 12.5, 10.7, 9.6, 8.8, 8.2, 7.4, 6.8, 6.3, 5.8, 5.2, 4.8,
+    4.5, 4.0, 3.7,
+];
+const STARTS_6_POLE: [f64; 20] = [
+    34.0, 29.1, 26.1, 22.4, 18.4, 15.8, 14.2, 12.1, 10.9, 10.0, 9.3, 8.4, 7.7, 7.2, 6.6, 5.9, 5.4,
+    5.1, 4.5, 4.2,
+];
+
+impl Motor {
+    /// How many times an hour the motor may be started (NEMA MG 10's table above). The poles
+    /// follow from the full-load speed: above 2400 rpm 2 poles (synchronous 3000 or 3600
+    /// rpm), above 1300 rpm 4 (1500 or 1800), else 6 (1000 or 1200; slower motors, with more
+    /// poles, are taken as 6-pole). A rating counts as the smallest table size it does not
+    /// exceed by more than 1 % (so 7.5 kW, 10.06 hp, is the 10 hp row); below 1 hp the 1 hp
+    /// row (cautious: smaller motors may start more often); above 250 hp the 250 hp row (not
+    /// cautious: the motor's maker must say).
+    pub fn allowed_starts_per_hour(&self) -> f64 {
+        let rpm = self.revolutions_per_second() * 60.0;
+        let row = if rpm > 2400.0 {
+            &STARTS_2_POLE
+        } else if rpm > 1300.0 {
+            &STARTS_4_POLE
+        } else {
+            &STARTS_6_POLE
+        };
+        let hp = self.rated_power.value / super::units::HORSEPOWER;
+        let i = STARTS_HP
+            .iter()
+            .position(|size| *size * 1.01 >= hp)
+            .unwrap_or(STARTS_HP.len() - 1);
+        row[i]
+    }
 }
 
 #[cfg(test)]
@@ -167,6 +253,51 @@ mod tests {
         assert!((m.loss(0.0) - 0.35 * full_load_loss).abs() < 1e-9);
         let eff = |p: f64| p / (p + m.loss(p));
         assert!(eff(3_000.0) < eff(7_500.0) && eff(7_500.0) < 0.95);
+    }
+
+    #[test]
+    fn outside_its_table_a_class_takes_the_nearest_ends_figure() {
+        // IEC 60034-30-1 IE3 4-pole: 89.6 % at 5.5 kW, 93.9 % at 37 kW; NEMA MG 1 Table 12-12
+        // NEMA Premium: 91.7 % at 10 hp, 94.5 % at 50 hp (REFERENCES).
+        let kw = |v: f64| Power::new::<kilowatt>(v);
+        let hp = |v: f64| Power::new::<uom::si::power::watt>(v * super::super::units::HORSEPOWER);
+        let close = |a: f64, b: f64| assert!((a - b).abs() < 1e-12, "{a} against {b}");
+        let ie3 = EfficiencyClass::Ie3;
+        close(ie3.nominal_efficiency_or_nearest(kw(3.0)), 0.896);
+        close(ie3.nominal_efficiency_or_nearest(kw(90.0)), 0.939);
+        close(ie3.nominal_efficiency_or_nearest(kw(f64::NAN)), 0.896);
+        let nema = EfficiencyClass::NemaPremium;
+        close(nema.nominal_efficiency_or_nearest(hp(5.0)), 0.917);
+        close(nema.nominal_efficiency_or_nearest(hp(100.0)), 0.945);
+        // Inside the table, the table (or its formula) as before.
+        for w in [kw(5.5), kw(9.0), kw(37.0)] {
+            assert_eq!(
+                Ok(ie3.nominal_efficiency_or_nearest(w)),
+                ie3.nominal_efficiency(w)
+            );
+        }
+    }
+
+    #[test]
+    fn allowed_starts_follow_the_size_and_the_poles() {
+        // NEMA MG 10-2001, Table 2-3, column A (as reproduced in EASA's Electrical Engineering
+        // Handbook): 4-pole 10 hp 12.5, 7.5 hp 13.9, 1 hp 30, 250 hp 3.7; 2-pole 10 hp 6.2;
+        // 6-pole 10 hp 14.2 starts an hour.
+        let at = |kw: f64, rpm: f64| Motor {
+            rated_power: Power::new::<kilowatt>(kw),
+            full_load_speed: AngularVelocity::new::<revolution_per_minute>(rpm),
+            ..motor(0.35)
+        };
+        // 7.5 kW is 10.06 hp: the 10 hp row; 4 kW (5.36 hp) the 7.5 hp row.
+        assert_eq!(at(7.5, 1450.0).allowed_starts_per_hour(), 12.5);
+        assert_eq!(at(7.5, 1750.0).allowed_starts_per_hour(), 12.5);
+        assert_eq!(at(4.0, 1450.0).allowed_starts_per_hour(), 13.9);
+        assert_eq!(at(7.5, 2900.0).allowed_starts_per_hour(), 6.2);
+        assert_eq!(at(7.5, 960.0).allowed_starts_per_hour(), 14.2);
+        assert_eq!(at(7.5, 1160.0).allowed_starts_per_hour(), 14.2);
+        // Below 1 hp the 1 hp row; above 250 hp the 250 hp row.
+        assert_eq!(at(0.37, 1450.0).allowed_starts_per_hour(), 30.0);
+        assert_eq!(at(200.0, 1450.0).allowed_starts_per_hour(), 3.7);
     }
 
     #[test]

@@ -487,8 +487,8 @@ pub const FORMULAS: [(&str, &str, &str); 9] = [
     ),
     (
         "RMS motor load",
-        "√(Σ P² × t / Σ t) over the phases of one cycle",
-        "Machine Design and Power & Motion articles on motor sizing",
+        "√(Σ P² × t / (running time + stopped time / 3)) over the phases of one cycle",
+        "Machine Design and Power & Motion articles on motor sizing; a stopped motor's time counted at a third: common practice",
     ),
     (
         "Service factor",

@@ -10,6 +10,7 @@
 
 use super::cycle::PhaseKind;
 use super::job::Job;
+use super::motor::EfficiencyClass;
 use super::power_unit::{Design, UnloadingStage};
 use super::pump::{Pump, PumpControl};
 use super::settings::{self, FlowNeed, UnloadingWindow};
@@ -52,6 +53,23 @@ impl MotorSteps {
                 .collect(),
         }
     }
+
+    /// The class a new motor of these steps usually has: IE3 for IEC motors, NEMA Premium for
+    /// NEMA ones (the minimum for most new motors sold in the EU and the US; from memory).
+    pub fn usual_class(self) -> EfficiencyClass {
+        match self {
+            MotorSteps::IecKw => EfficiencyClass::Ie3,
+            MotorSteps::NemaHp => EfficiencyClass::NemaPremium,
+        }
+    }
+}
+
+impl StagingOptions {
+    /// The new motor's efficiency class: the chosen one, else the steps' usual one.
+    pub fn efficiency_class(&self) -> EfficiencyClass {
+        self.efficiency_class
+            .unwrap_or_else(|| self.motor_steps.usual_class())
+    }
 }
 
 /// What the search may choose from, and what it must meet. Stored with the job.
@@ -70,6 +88,10 @@ pub struct StagingOptions {
     /// Also try a single pressure-compensated pump of each size.
     pub compensated: bool,
     pub motor_steps: MotorSteps,
+    /// The efficiency class of the new motor: each candidate's motor takes the class's nominal
+    /// full-load efficiency at its own rating. Absent: [`MotorSteps::usual_class`].
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub efficiency_class: Option<EfficiencyClass>,
     /// The motor's permissible continuous load over its rating: it must cover the RMS power.
     pub service_factor: f64,
     /// How far over its rating the motor may be loaded at the cycle's peak (common practice:
@@ -105,6 +127,7 @@ impl Default for StagingOptions {
             max_pumps: 3,
             compensated: true,
             motor_steps: MotorSteps::IecKw,
+            efficiency_class: None,
             service_factor: 1.0,
             peak_allowance: 1.25,
             cycle_time_target: None,
@@ -411,10 +434,15 @@ pub fn evaluate(
     let motor_w = options.motor_steps.ratings_w().into_iter().find(|&rated| {
         rated * options.service_factor >= rms && rated * options.peak_allowance >= peak
     })?;
-    // The energy with the motor of that size: its loss depends on its rating. It carries the
-    // sizing's factors, so the engine's motor findings judge it as the search did.
+    // The energy with the motor of that size: its loss depends on its rating and on its
+    // class's efficiency at that rating (the nearest table end outside the table; the fixed
+    // share of the loss stays the baseline's). It carries the sizing's factors, so the engine's
+    // motor findings judge it as the search did.
     let mut motor = design.motor;
     motor.rated_power = Power::new::<uom::si::power::watt>(motor_w);
+    motor.full_load_efficiency = options
+        .efficiency_class()
+        .nominal_efficiency_or_nearest(motor.rated_power);
     motor.service_factor = options.service_factor;
     motor.peak_allowance = options.peak_allowance;
     let energy = report

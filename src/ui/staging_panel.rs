@@ -6,6 +6,7 @@
 use super::field::{NumberField, OptionalNumberField};
 use super::state::use_job;
 use crate::engine::cycle::PhaseKind;
+use crate::engine::motor::EfficiencyClass;
 use crate::engine::staging::{self, Candidate, MotorSteps, Search, SearchResult};
 use crate::engine::units::{format_list, parse_list, Measure, UnitSystem};
 use crate::engine::Job;
@@ -262,6 +263,29 @@ fn StagingOptionsEditor() -> impl IntoView {
                 options=vec![("iec", "IEC, kW".to_string()), ("nema", "NEMA, hp".to_string())]
                 get=|j: &Job| match j.staging.motor_steps { MotorSteps::IecKw => "iec", MotorSteps::NemaHp => "nema" }
                 set=|j: &mut Job, v: &str| j.staging.motor_steps = if v == "nema" { MotorSteps::NemaHp } else { MotorSteps::IecKw } />
+            <super::field::ChoiceField label="New motor's efficiency class" path="staging.efficiency_class"
+                options=vec![
+                    ("usual", "As the sizes: IE3 for kW, NEMA Premium for hp".to_string()),
+                    ("ie2", "IE2".to_string()),
+                    ("ie3", "IE3".to_string()),
+                    ("ie4", "IE4".to_string()),
+                    ("nema_premium", "NEMA Premium".to_string()),
+                ]
+                get=|j: &Job| match j.staging.efficiency_class {
+                    None => "usual",
+                    Some(EfficiencyClass::Ie2) => "ie2",
+                    Some(EfficiencyClass::Ie3) => "ie3",
+                    Some(EfficiencyClass::Ie4) => "ie4",
+                    Some(EfficiencyClass::NemaPremium) => "nema_premium",
+                }
+                set=|j: &mut Job, v: &str| j.staging.efficiency_class = match v {
+                    "ie2" => Some(EfficiencyClass::Ie2),
+                    "ie3" => Some(EfficiencyClass::Ie3),
+                    "ie4" => Some(EfficiencyClass::Ie4),
+                    "nema_premium" => Some(EfficiencyClass::NemaPremium),
+                    _ => None,
+                } />
+            <p class="hint">"Each candidate's motor is taken at its class's nominal efficiency for its own size (IEC 60034-30-1, 5.5 to 37 kW; NEMA MG 1, 10 to 50 hp); a size outside those takes the figure at the nearer end."</p>
             <NumberField label="Service factor" path="staging.service_factor" measure=Measure::Factor
                 get=|j: &Job| j.staging.service_factor set=|j: &mut Job, v| j.staging.service_factor = v />
             <NumberField label="Peak over rating allowed" path="staging.peak_allowance" measure=Measure::Factor
