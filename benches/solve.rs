@@ -120,7 +120,7 @@ fn main() {
     let mut runs: Vec<(f64, phasewise::engine::staging::SearchResult)> = (0..5)
         .map(|_| {
             let start = Instant::now();
-            let found = phasewise::engine::staging::search(black_box(&job), &options);
+            let found = phasewise::engine::staging::search(black_box(&job), &options).unwrap();
             (start.elapsed().as_secs_f64() * 1e3, found)
         })
         .collect();

@@ -17,14 +17,23 @@ fn main() {
     }
     for (d, design) in job.designs.iter().enumerate() {
         println!("== {}", design.name);
-        for a in phasewise::engine::settings::advise(&job, d) {
+        let advice = match phasewise::engine::settings::advise(&job, d) {
+            Ok(advice) => advice,
+            Err(errors) => {
+                for e in errors {
+                    println!("{}: {}", e.field, e.message);
+                }
+                std::process::exit(1);
+            }
+        };
+        for a in advice {
             let text = a.describe(&job);
             println!("[{:?}] {}\n  {}", a.severity, text.title, text.explanation);
             if let Some(action) = text.action {
-                println!(
-                    "  -> {action} (saves {:.0} W in the phase, {:.0} kWh a year)",
-                    a.saving_w, a.annual_saving_kwh
-                );
+                match text.effect {
+                    Some(effect) => println!("  -> {action}. {effect}"),
+                    None => println!("  -> {action}."),
+                }
             }
         }
     }

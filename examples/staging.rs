@@ -17,7 +17,7 @@ fn main() {
         std::process::exit(1);
     }
     let started = std::time::Instant::now();
-    let found = phasewise::engine::staging::search(&job, &job.staging);
+    let found = phasewise::engine::staging::search(&job, &job.staging).unwrap();
     println!(
         "{} candidates, {} serve the cycle, {:.1} ms",
         found.evaluated,

@@ -907,3 +907,39 @@ fn idles_that_stop_the_motor_are_counted_as_starts_an_hour() {
     // Never stopped: no starts to count.
     assert_eq!(starts(11.0, 1500.0, &[(50.0, IdlePath::Vented)]), None);
 }
+
+/// A pressure-compensated flow control holds its flow only with a working drop across it
+/// (common practice: 5 to 10 bar; the advice's default 7 bar). A metered 20 bar move on a 22
+/// bar remote stage leaves it about 1.5 bar: a finding says so.
+#[test]
+fn a_metered_move_whose_limit_starves_its_flow_control_says_so() {
+    let mut d = design(
+        "one pump",
+        motor(15.0, 1000.0, 0.9),
+        vec![],
+        fixed_pump(30.0, 1.0, 100.0, 0.9, 0.0),
+        relief(ReliefKind::PilotOperated, 150.0, 60.0, 0.97),
+        1,
+    );
+    let (mut cycle, _) = test_rig(&[20.0]);
+    if let PhaseKind::Move(m) = &mut cycle[0].kind {
+        m.speed = metered_speed(0.05);
+    }
+    let starved = |report: &phasewise::engine::JobReport| {
+        report.designs[0].phases[0]
+            .findings
+            .iter()
+            .any(|f| matches!(f, Finding::FlowControlStarved { .. }))
+    };
+    assert!(!starved(
+        &solve(&job(cycle.clone(), vec![d.clone()])).unwrap()
+    ));
+    d.remote_stages = vec![bar_(22.0)];
+    d.phase_settings[0].limit = ActiveLimit::Remote { stage: 0 };
+    let report = solve(&job(cycle, vec![d])).unwrap();
+    assert!(
+        starved(&report),
+        "{:?}",
+        report.designs[0].phases[0].findings
+    );
+}

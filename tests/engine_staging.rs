@@ -93,7 +93,7 @@ fn the_search_agrees_with_a_brute_force_enumeration() {
             .filter_map(|s| staging::evaluate(&job, &opts, &targets, s))
             .collect();
         brute.sort_by(|a, b| key(a).partial_cmp(&key(b)).unwrap());
-        let found = staging::search(&job, &opts);
+        let found = staging::search(&job, &opts).unwrap();
         assert_eq!(found.evaluated, all.len());
         assert_eq!(found.feasible, brute.len());
         assert!(
@@ -117,7 +117,7 @@ fn a_longer_list_of_sizes_never_makes_the_best_worse() {
     ];
     let mut last: Option<(f64, f64, f64)> = None;
     for sizes in lists {
-        let found = staging::search(&job, &options(sizes, 3));
+        let found = staging::search(&job, &options(sizes, 3)).unwrap();
         if let Some(best) = found.best.first() {
             if let Some(previous) = last {
                 assert!(
@@ -137,7 +137,7 @@ fn kept_candidates_meet_the_times_and_size_their_motor_on_rms_and_peak() {
     let job = slow_press();
     let opts = options(&[8.0, 16.0, 25.0, 40.0, 63.0], 3);
     let targets = staging::targets(&job, &opts).unwrap();
-    let found = staging::search(&job, &opts);
+    let found = staging::search(&job, &opts).unwrap();
     assert!(!found.best.is_empty());
     // The as-found single pump is among the candidates, so the best is at most its motor.
     let as_found = staging::evaluate(
@@ -196,7 +196,7 @@ fn the_default_lists_give_over_five_thousand_candidates() {
 #[test]
 fn applying_a_candidate_changes_only_the_proposed_design() {
     let job = slow_press();
-    let found = staging::search(&job, &options(&[8.0, 16.0, 40.0], 2));
+    let found = staging::search(&job, &options(&[8.0, 16.0, 40.0], 2)).unwrap();
     let (after, target) = staging::apply_candidate(&job, 0, &found.best[0]);
     assert_eq!(target, 1);
     assert_eq!(after.designs[0], job.designs[0]);
@@ -373,7 +373,13 @@ fn a_candidate_worked_by_hand() {
 #[test]
 fn each_move_keeps_to_its_own_target_time() {
     let opts = options(&[8.0, 16.0, 25.0, 40.0, 63.0], 3);
-    let best_motor = |job: &Job| staging::search(job, &opts).best.first().map(|c| c.motor_w);
+    let best_motor = |job: &Job| {
+        staging::search(job, &opts)
+            .unwrap()
+            .best
+            .first()
+            .map(|c| c.motor_w)
+    };
     let as_found = slow_press();
     let press_time = staging::targets(&as_found, &opts).unwrap().phase_times[1].unwrap();
     let mut tighter = as_found.clone();
@@ -382,7 +388,7 @@ fn each_move_keeps_to_its_own_target_time() {
     set_target(&mut looser, 1, Some(press_time * 3.0));
     for job in [&tighter, &looser] {
         let targets = staging::targets(job, &opts).unwrap();
-        let found = staging::search(job, &opts);
+        let found = staging::search(job, &opts).unwrap();
         assert!(!found.best.is_empty());
         for c in &found.best {
             let report = staging::evaluate(job, &opts, &targets, &c.spec).unwrap();
@@ -417,7 +423,7 @@ fn each_move_keeps_to_its_own_target_time() {
 #[test]
 fn a_cycle_time_target_is_kept() {
     let job = slow_press();
-    let free = staging::search(&job, &options(&[8.0, 16.0, 25.0, 40.0], 2));
+    let free = staging::search(&job, &options(&[8.0, 16.0, 25.0, 40.0], 2)).unwrap();
     let fastest = free
         .frontier
         .iter()
@@ -433,7 +439,7 @@ fn a_cycle_time_target_is_kept() {
         cycle_time_target: Some(s(limit)),
         ..options(&[8.0, 16.0, 25.0, 40.0], 2)
     };
-    let held = staging::search(&job, &opts);
+    let held = staging::search(&job, &opts).unwrap();
     assert!(!held.best.is_empty() && held.feasible < free.feasible);
     for c in &held.best {
         assert!(c.cycle_time_s <= limit * (1.0 + 1e-9), "{}", c.cycle_time_s);
@@ -451,7 +457,7 @@ fn an_applied_candidate_passes_the_engines_motor_checks() {
             peak_allowance: 1.5,
             ..options(&[8.0, 16.0, 25.0, 40.0, 63.0], 3)
         };
-        let found = staging::search(&job, &opts);
+        let found = staging::search(&job, &opts).unwrap();
         for c in &found.best {
             let (after, target) = staging::apply_candidate(&job, 0, c);
             let report = phasewise::engine::solve(&after).unwrap();
@@ -544,4 +550,47 @@ fn each_candidates_motor_takes_its_class_efficiency_at_its_own_size() {
     assert!(!text.contains("efficiency_class"), "{text}");
     let read: StagingOptions = serde_json::from_str(&text).unwrap();
     assert_eq!(read.efficiency_class(), EfficiencyClass::Ie3);
+}
+
+/// A compensated candidate's relief follows the advice's rule: cracking above the compensator's
+/// dead-head pressure with the compensator margin (common practice: about 10 %, or 15 to 20
+/// bar), so the pump destrokes before the relief opens.
+#[test]
+fn compensated_candidates_keep_the_relief_clear_of_the_compensator() {
+    let job = ideal_high_low();
+    let opts = StagingOptions {
+        speeds: vec![AngularVelocity::new::<revolution_per_minute>(1500.0)],
+        ..StagingOptions::default()
+    };
+    let targets = staging::targets(&job, &opts).unwrap();
+    let mut checked = 0;
+    for size in [16.0, 25.0, 40.0, 63.0] {
+        let spec = Spec {
+            displacements: vec![cc(size)],
+            speed: opts.speeds[0].value,
+            compensated: true,
+        };
+        let Some(d) = staging::build(&job, &job.designs[0], &spec, &targets) else {
+            continue;
+        };
+        let dead_head = phasewise::engine::settings::compensator_dead_head(&d).unwrap();
+        let margin = (dead_head * 0.10).max(15.0 * 1e5);
+        assert!(
+            d.relief.setting.value >= dead_head + margin - 1e-6,
+            "{size}: relief {} against dead-head {dead_head}",
+            d.relief.setting.value
+        );
+        assert!(d.relief.cracking_pressure().value > dead_head);
+        let report = phasewise::engine::solve(&Job {
+            designs: vec![job.designs[0].clone(), d],
+            ..job.clone()
+        })
+        .unwrap();
+        assert!(!report.designs[1]
+            .findings
+            .iter()
+            .any(|f| matches!(f, phasewise::engine::Finding::ReliefAtCompensator { .. })));
+        checked += 1;
+    }
+    assert!(checked > 0);
 }

@@ -107,7 +107,10 @@ pub fn scrap_baler() -> Job {
     };
     let mut proposed = as_found.clone();
     proposed.name = "Proposed".into();
-    proposed.remote_stages = vec![Pressure::new::<bar>(175.0)];
+    // What the advice asks of it: main at the compress's lowest serving limit, the dwell held
+    // at its own pressure by a remote stage, the idle vented.
+    proposed.relief.setting = Pressure::new::<bar>(170.0);
+    proposed.remote_stages = vec![Pressure::new::<bar>(160.0)];
     proposed.phase_settings[2].limit = ActiveLimit::Remote { stage: 0 };
     proposed.phase_settings[4].idle_path = IdlePath::Vented;
     Job {
@@ -129,6 +132,15 @@ pub fn scrap_baler() -> Job {
 
 #[cfg(test)]
 mod tests {
+    /// The demo's proposal is the example users learn from: it must follow the advice's own
+    /// rules, so the advice has nothing to say about it.
+    #[test]
+    fn the_demo_proposal_follows_the_advices_own_rules() {
+        let job = super::scrap_baler();
+        let advice = super::super::settings::advise(&job, 1).expect("the demo job is valid");
+        assert!(advice.is_empty(), "{advice:#?}");
+    }
+
     #[test]
     fn the_demo_job_solves_and_its_proposal_saves_energy() {
         let report = super::super::solve(&super::scrap_baler()).expect("the demo job is valid");

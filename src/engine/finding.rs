@@ -77,6 +77,19 @@ pub enum Finding {
         starts_per_hour: f64,
         allowed_per_hour: f64,
     },
+    /// A limit (the main relief, or a remote stage a phase selects) cracks at or below a
+    /// compensated pump's dead-head pressure: the pump never destrokes and its whole flow
+    /// crosses the relief, burning `burns_w` whenever it is dead-headed on that limit.
+    ReliefAtCompensator {
+        /// `None` for the main relief, else the remote stage (from 0).
+        remote_stage: Option<usize>,
+        cracking_pa: f64,
+        dead_head_pa: f64,
+        burns_w: f64,
+    },
+    /// A metered move whose limit leaves its pressure-compensated flow control less than the
+    /// drop it needs to hold its flow: the move runs slower than metered.
+    FlowControlStarved { available_pa: f64, needed_pa: f64 },
 }
 
 impl Finding {
@@ -117,6 +130,21 @@ impl Finding {
                 stage + 1,
                 p(remote_pa),
                 p(main_pa)
+            ),
+            Finding::ReliefAtCompensator { remote_stage, cracking_pa, dead_head_pa, burns_w } => format!(
+                "The {} starts to open at {}, at or below the {} where the compensated pump destrokes: the pump never destrokes, and its whole flow crosses the relief, about {} of heat whenever it is dead-headed there. Set the relief clearly above the compensator.",
+                match remote_stage {
+                    Some(stage) => format!("remote stage {}", stage + 1),
+                    None => "main relief".to_string(),
+                },
+                p(cracking_pa),
+                p(dead_head_pa),
+                u.power(burns_w)
+            ),
+            Finding::FlowControlStarved { available_pa, needed_pa } => format!(
+                "The limit leaves the flow control {} across it, less than the {} it needs to hold its flow: the move runs slower than metered, or the flow control hunts. Raise the limit or check the flow control's rating.",
+                p(available_pa),
+                p(needed_pa)
             ),
             Finding::AboveRating { pump, what, setting_pa, rating_pa } => format!(
                 "Pump {pump} can see {} (the {what}), above its rating of {}. Never run above a component's rating.",

@@ -88,12 +88,17 @@ pub fn solve_json(text: &str) -> Result<String, String> {
 /// Solves one (validated) design over the job's cycle.
 pub(crate) fn solve_design(job: &Job, design: &power_unit::Design) -> DesignReport {
     let unit = solve::PreparedUnit::new(design);
-    let phases: Vec<PhaseReport> = job
+    let mut phases: Vec<PhaseReport> = job
         .cycle
         .iter()
         .zip(&design.phase_settings)
         .map(|(phase, setting)| solve::solve_phase(&unit, phase, setting))
         .collect();
+    for (report, phase) in phases.iter_mut().zip(&job.cycle) {
+        if let Some(f) = solve::flow_control_starved(phase, report, &job.advice) {
+            report.findings.push(f);
+        }
+    }
     let timed: Vec<ledger::TimedLedger> = phases
         .iter()
         .map(|p| ledger::TimedLedger {

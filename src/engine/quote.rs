@@ -392,6 +392,11 @@ pub fn assumptions(job: &Job) -> Vec<Assumption> {
         default_or_entered(a.margin_min == policy.margin_min),
     );
     push(
+        "Settings advice: least margin of a relief above a compensated pump".into(),
+        Assumed::Quantity(Measure::Pressure, a.compensator_margin_min.value),
+        default_or_entered(a.compensator_margin_min == policy.compensator_margin_min),
+    );
+    push(
         "Settings advice: drop a flow control needs".into(),
         Assumed::Quantity(Measure::Pressure, a.flow_control_drop.value),
         default_or_entered(a.flow_control_drop == policy.flow_control_drop),

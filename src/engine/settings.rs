@@ -12,6 +12,7 @@ use super::cycle::{HoldMode, PhaseKind, SpeedRule};
 use super::job::Job;
 use super::power_unit::{Design, UnloadingStage};
 use super::pump::PumpAtSpeed;
+use super::validate::InputError;
 use super::valve::{ActiveLimit, IdlePath};
 use super::{solve_design, DesignReport};
 use serde::{Deserialize, Serialize};
@@ -32,6 +33,18 @@ pub struct AdvicePolicy {
     pub flow_control_drop: Pressure,
     /// A change that saves less than this in its phase is not worth advising (W).
     pub least_saving_w: f64,
+    /// A relief stays at least this far above a compensated pump's dead-head pressure (and
+    /// `margin_fraction` of it, whichever is more), so the pump destrokes before the relief
+    /// opens (common practice: about 10 %, or 15 to 20 bar). Absent in older files: 15 bar.
+    #[serde(
+        rename = "compensator_margin_min_pa",
+        default = "typical_compensator_margin"
+    )]
+    pub compensator_margin_min: Pressure,
+}
+
+fn typical_compensator_margin() -> Pressure {
+    bar(15.0)
 }
 
 impl Default for AdvicePolicy {
@@ -41,6 +54,7 @@ impl Default for AdvicePolicy {
             margin_min: bar(7.0),
             flow_control_drop: bar(7.0),
             least_saving_w: 100.0,
+            compensator_margin_min: typical_compensator_margin(),
         }
     }
 }
@@ -120,6 +134,23 @@ pub enum Rule {
         phase: usize,
         need_pa: f64,
         limit_pa: f64,
+        lowest_pa: f64,
+    },
+    /// A hold the pump keeps sits at its limit, with the pump's flow over the relief: a limit
+    /// below the pressure it must hold falls short.
+    HoldBelowNeed {
+        phase: usize,
+        need_pa: f64,
+        limit_pa: f64,
+    },
+    /// A limit (main, or a phase's remote stage) that cracks at or below a compensated pump's
+    /// dead-head pressure: the pump never destrokes and its whole flow crosses the relief.
+    BelowCompensator {
+        /// The phase on that limit; `None` for the main relief.
+        phase: Option<usize>,
+        limit_pa: f64,
+        cracking_pa: f64,
+        dead_head_pa: f64,
         lowest_pa: f64,
     },
     /// The phase needs no pressure but the pump pushes its flow over a limit.
@@ -245,6 +276,48 @@ fn governing(design: &Design, i: usize, idle: bool) -> f64 {
     super::solve::governing_limit(design, &setting, idle).1
 }
 
+/// The lowest limit that serves a phase needing `need` (Pa) on `design`. A hold the pump keeps
+/// sits at its limit with the pump's whole flow over the relief (the limit is read that way),
+/// so its limit is its need, with no margin: a higher one only adds clamp force and heat.
+/// Every other need takes [`lowest_limit`]. Either way never below [`compensator_floor`].
+pub fn lowest_limit_for(
+    kind: &PhaseKind,
+    need: f64,
+    policy: &AdvicePolicy,
+    design: &Design,
+) -> f64 {
+    let held = matches!(kind, PhaseKind::Hold(h) if h.mode == HoldMode::HeldByPump);
+    let rule = if held {
+        need
+    } else {
+        lowest_limit(need, policy, design.relief.cracking_fraction)
+    };
+    rule.max(compensator_floor(design, policy).unwrap_or(0.0))
+}
+
+/// The lowest limit a relief may have on a unit with a compensated pump (Pa): cracking above
+/// the highest compensator's dead-head pressure, and the compensator margin above it (see
+/// [`AdvicePolicy::compensator_margin_min`]). `None` with no compensated pump.
+pub fn compensator_floor(design: &Design, policy: &AdvicePolicy) -> Option<f64> {
+    let dead_head = compensator_dead_head(design)?;
+    let margin = (dead_head * policy.margin_fraction).max(policy.compensator_margin_min.value);
+    Some((dead_head + margin).max(dead_head / design.relief.cracking_fraction.max(1e-3)))
+}
+
+/// The highest dead-head pressure of the design's compensated pumps (Pa): where the pump has
+/// destroked to its leakage (the top of its band).
+pub fn compensator_dead_head(design: &Design) -> Option<f64> {
+    design
+        .pumps()
+        .filter_map(|p| match p.control {
+            super::pump::PumpControl::Compensated { setting } => {
+                Some(setting.value * (1.0 + super::pump::COMPENSATOR_BAND))
+            }
+            super::pump::PumpControl::Fixed => None,
+        })
+        .reduce(f64::max)
+}
+
 /// Each phase's need and limit for `design`.
 pub fn phase_needs(job: &Job, design: &Design) -> Vec<PhaseNeed> {
     let policy = &job.advice;
@@ -256,7 +329,7 @@ pub fn phase_needs(job: &Job, design: &Design) -> Vec<PhaseNeed> {
             PhaseNeed {
                 need_pa: need,
                 limit_pa: governing(design, i, matches!(phase.kind, PhaseKind::Idle(_))),
-                lowest_pa: need.map(|n| lowest_limit(n, policy, design.relief.cracking_fraction)),
+                lowest_pa: need.map(|n| lowest_limit_for(&phase.kind, n, policy, design)),
             }
         })
         .collect()
@@ -331,12 +404,16 @@ pub fn apply(design: &Design, action: &Action) -> Design {
 /// baseline ("as found") is never changed. Returns the job and the design changed.
 pub fn apply_to_proposed(job: &Job, shown: usize, action: &Action) -> (Job, usize) {
     let mut job = job.clone();
+    let Some(baseline) = job.designs.first() else {
+        // Nothing to propose from: unchanged.
+        return (job, 0);
+    };
     let target = if shown > 0 && shown < job.designs.len() {
         shown
     } else if job.designs.len() > 1 {
         1
     } else {
-        let mut copy = job.designs[0].clone();
+        let mut copy = baseline.clone();
         copy.name = "Proposed".into();
         job.designs.push(copy);
         1
@@ -369,11 +446,19 @@ fn saving(
     )
 }
 
-/// Every piece of advice for design `index` of a valid job (one that `solve` accepts),
-/// most serious first.
-pub fn advise(job: &Job, index: usize) -> Vec<Advice> {
+/// Every piece of advice for design `index` of a job, most serious first; the job's input
+/// errors if it is invalid (or if it has no design `index`).
+pub fn advise(job: &Job, index: usize) -> Result<Vec<Advice>, Vec<InputError>> {
+    super::validate::validate(job)?;
     let Some(design) = job.designs.get(index) else {
-        return Vec::new();
+        return Err(vec![InputError {
+            field: "designs".into(),
+            message: format!(
+                "there is no design {} (the job has {})",
+                index + 1,
+                job.designs.len()
+            ),
+        }]);
     };
     let policy = &job.advice;
     let us = job.units == super::units::UnitSystem::UsCustomary;
@@ -382,6 +467,12 @@ pub fn advise(job: &Job, index: usize) -> Vec<Advice> {
     let rating = system_rating(design);
     let vent_port = design.relief.kind.has_vent_port();
     let main = design.relief.setting.value;
+    let cracking_fraction = design.relief.cracking_fraction;
+    let floor = compensator_floor(design, policy);
+    let dead_head = compensator_dead_head(design);
+    // No limit the compensator rule forbids is ever proposed.
+    let allowed = |p: f64| floor.is_none_or(|f| p >= f * (1.0 - 1e-9));
+    let below_compensator = |limit: f64| floor.is_some_and(|f| limit < f * (1.0 - 1e-9));
     let mut advice = Vec::new();
     let mut push = |severity, rule, action: Option<Action>, phase: Option<usize>| {
         let (saving_w, annual_saving_kwh) = action
@@ -414,36 +505,68 @@ pub fn advise(job: &Job, index: usize) -> Vec<Advice> {
                     continue;
                 }
                 let target = round_up_setting(lowest, us).min(main);
+                let held = job.cycle.get(i).is_some_and(
+                    |ph| matches!(&ph.kind, PhaseKind::Hold(h) if h.mode == HoldMode::HeldByPump),
+                );
                 if limit < lowest * (1.0 - 1e-9) {
                     // Raising a phase's limit past main means raising main: the cycle rule does.
-                    let action = (vent_port && target >= lowest).then_some(Action::LimitPhase {
-                        phase: i,
-                        pressure: pascals(target),
-                    });
+                    let action = (vent_port && target >= lowest && allowed(target)).then_some(
+                        Action::LimitPhase {
+                            phase: i,
+                            pressure: pascals(target),
+                        },
+                    );
                     let (need_pa, limit_pa, lowest_pa) = (n, limit, lowest);
-                    let (severity, rule) = if limit * design.relief.cracking_fraction < n {
-                        (
-                            Severity::Caution,
-                            Rule::LimitBelowNeed {
-                                phase: i,
-                                need_pa,
-                                limit_pa,
-                                lowest_pa,
-                            },
-                        )
-                    } else {
-                        (
-                            Severity::Note,
-                            Rule::MarginThin {
-                                phase: i,
-                                need_pa,
-                                limit_pa,
-                                lowest_pa,
-                            },
-                        )
-                    };
+                    let cracking = limit * cracking_fraction;
+                    let (severity, rule) =
+                        if let (true, Some(dead_head_pa)) = (below_compensator(limit), dead_head) {
+                            let severity = if cracking <= dead_head_pa {
+                                Severity::Caution
+                            } else {
+                                Severity::Note
+                            };
+                            (
+                                severity,
+                                Rule::BelowCompensator {
+                                    phase: Some(i),
+                                    limit_pa,
+                                    cracking_pa: cracking,
+                                    dead_head_pa,
+                                    lowest_pa,
+                                },
+                            )
+                        } else if held {
+                            (
+                                Severity::Caution,
+                                Rule::HoldBelowNeed {
+                                    phase: i,
+                                    need_pa,
+                                    limit_pa,
+                                },
+                            )
+                        } else if cracking < n {
+                            (
+                                Severity::Caution,
+                                Rule::LimitBelowNeed {
+                                    phase: i,
+                                    need_pa,
+                                    limit_pa,
+                                    lowest_pa,
+                                },
+                            )
+                        } else {
+                            (
+                                Severity::Note,
+                                Rule::MarginThin {
+                                    phase: i,
+                                    need_pa,
+                                    limit_pa,
+                                    lowest_pa,
+                                },
+                            )
+                        };
                     push(severity, rule, action, Some(i));
-                } else if target < limit * (1.0 - 1e-9) && vent_port {
+                } else if target < limit * (1.0 - 1e-9) && vent_port && allowed(target) {
                     let action = Action::LimitPhase {
                         phase: i,
                         pressure: pascals(target),
@@ -467,7 +590,9 @@ pub fn advise(job: &Job, index: usize) -> Vec<Advice> {
             _ => {
                 let vented = limit <= design.vent_pressure.value * (1.0 + 1e-9);
                 let stopped = design.phase_settings.get(i).is_some_and(|s| {
-                    matches!(job.cycle[i].kind, PhaseKind::Idle(_))
+                    job.cycle
+                        .get(i)
+                        .is_some_and(|ph| matches!(ph.kind, PhaseKind::Idle(_)))
                         && matches!(
                             s.idle_path,
                             IdlePath::MotorStopped | IdlePath::OpenCentre { .. }
@@ -501,10 +626,37 @@ pub fn advise(job: &Job, index: usize) -> Vec<Advice> {
     // The main relief serves the most demanding phase (remote stages only go lower), and
     // never lets the system line past the pump's rating.
     let highest = cycle_lowest_limit(&needs);
-    if main > rating * (1.0 + 1e-9) {
-        let action = highest.filter(|h| *h <= rating).map(|h| Action::SetMain {
-            pressure: pascals(round_up_setting(h, us).min(rating)),
+    if let (Some(f), Some(dead_head_pa), true) = (floor, dead_head, below_compensator(main)) {
+        let lowest = highest.map_or(f, |h| h.max(f));
+        let target = round_up_setting(lowest, us);
+        let action = (target <= rating).then_some(Action::SetMain {
+            pressure: pascals(target),
         });
+        let cracking = main * cracking_fraction;
+        push(
+            if cracking <= dead_head_pa {
+                Severity::Caution
+            } else {
+                Severity::Note
+            },
+            Rule::BelowCompensator {
+                phase: None,
+                limit_pa: main,
+                cracking_pa: cracking,
+                dead_head_pa,
+                lowest_pa: lowest,
+            },
+            action,
+            None,
+        );
+    } else if main > rating * (1.0 + 1e-9) {
+        let action = highest
+            .filter(|h| *h <= rating)
+            .map(|h| round_up_setting(h, us).min(rating))
+            .filter(|p| allowed(*p))
+            .map(|p| Action::SetMain {
+                pressure: pascals(p),
+            });
         push(
             Severity::Caution,
             Rule::MainAboveRating {
@@ -591,7 +743,7 @@ pub fn advise(job: &Job, index: usize) -> Vec<Advice> {
             .cmp(&b.severity)
             .then(b.annual_saving_kwh.total_cmp(&a.annual_saving_kwh))
     });
-    advice
+    Ok(advice)
 }
 
 /// Where pump `k`'s unloading valve may be set (numbered from 0 among the unloading stages):
@@ -658,7 +810,9 @@ pub fn unloading_window_by(
     let rps = design.motor.revolutions_per_second();
     let pumps: Vec<PumpAtSpeed> = design.pumps().map(|p| PumpAtSpeed::new(p, rps)).collect();
     let motor_limit = design.motor.rated_power.value * design.motor.service_factor;
-    let later_flow = |p: f64| pumps[k + 1..].iter().map(|q| q.delivered(p)).sum::<f64>();
+    // Out-of-range `k` (no such stage) reads as a pump with none after it.
+    let from = |i: usize| pumps.get(i.min(pumps.len())..).unwrap_or(&[]);
+    let later_flow = |p: f64| from(k + 1).iter().map(|q| q.delivered(p)).sum::<f64>();
     // (phase, needs the flow, its pressure without the pump, its pressure with it)
     let mut judged: Vec<(usize, bool, f64, f64)> = Vec::new();
     for (i, phase) in job.cycle.iter().enumerate() {
@@ -679,13 +833,13 @@ pub fn unloading_window_by(
             PhaseKind::Direct(d) => Some(d.flow.value),
             PhaseKind::Hold(_) | PhaseKind::Idle(_) => None,
         };
-        let supply: f64 = pumps[k..].iter().map(|q| q.delivered(need)).sum();
+        let supply: f64 = from(k).iter().map(|q| q.delivered(need)).sum();
         let runs_at_limit = demand.is_some_and(|q| q < supply * (1.0 - 1e-9));
         let needs_flow = match &phase.kind {
             PhaseKind::Move(m) => match m.speed {
                 SpeedRule::AllPumpFlow => match rule {
                     FlowNeed::MotorCarries => {
-                        let shaft: f64 = pumps[k..]
+                        let shaft: f64 = from(k)
                             .iter()
                             .map(|q| q.shaft_power(need, q.delivered(need)))
                             .sum();
@@ -709,7 +863,7 @@ pub fn unloading_window_by(
             PhaseKind::Hold(_) | PhaseKind::Idle(_) => false,
         };
         let with_pressure = if runs_at_limit {
-            need.max(needs[i].limit_pa)
+            need.max(needs.get(i).map_or(need, |n| n.limit_pa))
         } else {
             need
         };
@@ -887,6 +1041,42 @@ pub struct Described {
     pub title: String,
     pub explanation: String,
     pub action: Option<String>,
+    /// What the action does to the power drawn, solved: "Saves 686 W in the phase and 154 kWh
+    /// a year." A rise is never called a saving; a change to the whole cycle says nothing of
+    /// one phase. `None` when there is no action or it changes nothing worth a word.
+    pub effect: Option<String>,
+}
+
+impl Advice {
+    /// The action's effect in words (see [`Described::effect`]).
+    pub fn effect(&self, units: super::units::UnitSystem) -> Option<String> {
+        let action = self.action?;
+        // Below these a solved difference is rounding, not a change worth a word.
+        const LEAST_W: f64 = 0.5;
+        const LEAST_KWH: f64 = 0.5;
+        let in_one_phase = matches!(action, Action::LimitPhase { .. } | Action::VentPhase { .. });
+        let w = if in_one_phase { self.saving_w } else { 0.0 };
+        let kwh = self.annual_saving_kwh;
+        let mut clauses = Vec::new();
+        if w > LEAST_W {
+            clauses.push(format!("saves {} in the phase", units.power(w)));
+        } else if w < -LEAST_W {
+            clauses.push(format!("draws {} more in the phase", units.power(-w)));
+        }
+        if kwh > LEAST_KWH {
+            clauses.push(format!("saves {kwh:.0} kWh a year"));
+        } else if kwh < -LEAST_KWH {
+            clauses.push(format!("costs {:.0} kWh a year more", -kwh));
+        }
+        let mut sentence = clauses.join(" and ");
+        let first = sentence.chars().next()?;
+        sentence.replace_range(..first.len_utf8(), &first.to_uppercase().to_string());
+        if w < -LEAST_W || kwh < -LEAST_KWH {
+            sentence.push_str(": the price of a setting that does its job safely");
+        }
+        sentence.push('.');
+        Some(sentence)
+    }
 }
 
 impl Advice {
@@ -909,12 +1099,60 @@ impl Advice {
             job.advice.margin_fraction * 100.0,
             p(job.advice.margin_min.value)
         );
+        let is_held = |i: usize| {
+            job.cycle.get(i).is_some_and(
+                |ph| matches!(&ph.kind, PhaseKind::Hold(h) if h.mode == HoldMode::HeldByPump),
+            )
+        };
+        let floor_words = if job
+            .designs
+            .iter()
+            .any(|d| compensator_dead_head(d).is_some())
+        {
+            ", and on a unit with a compensated pump, the relief kept above the compensator"
+        } else {
+            ""
+        };
         let (title, explanation) = match self.rule {
             Rule::LimitAboveNeed { phase: i, need_pa, limit_pa, lowest_pa } => (
                 format!("{}: a lower limit would do", phase(i)),
+                if is_held(i) {
+                    format!(
+                        "It must hold {} but sits at {}: the pump's flow crosses the relief at the limit, so the extra pressure is extra clamp force and heat. A limit of {} holds it (the pump's flow over the valve at that setting gives that pressure).",
+                        p(need_pa), p(limit_pa), p(lowest_pa)
+                    )
+                } else {
+                    format!(
+                        "It needs {} but works against {}; the surplus flow crosses the relief (or the flow control) at that pressure as heat. The lowest limit that serves it is {} (the margin of {margin} above the need, and the valve's cracking pressure above it{}).",
+                        p(need_pa), p(limit_pa), p(lowest_pa), floor_words
+                    )
+                },
+            ),
+            Rule::HoldBelowNeed { phase: i, need_pa, limit_pa } => (
+                format!("{}: the limit is below the pressure to hold", phase(i)),
                 format!(
-                    "It needs {} but works against {}; the surplus flow crosses the relief (or the flow control) at that pressure as heat. The lowest limit that serves it is {} (the margin of {margin} above the need, and the valve's cracking pressure above it).",
-                    p(need_pa), p(limit_pa), p(lowest_pa)
+                    "It must hold {} but its limit is {}: the pump's flow crosses the relief there, short of the pressure the hold needs. Its limit must be at least {}.",
+                    p(need_pa), p(limit_pa), p(need_pa)
+                ),
+            ),
+            Rule::BelowCompensator { phase: i, limit_pa, cracking_pa, dead_head_pa, lowest_pa } => (
+                match i {
+                    Some(i) => format!("{}: the limit is at the compensator", phase(i)),
+                    None => "Main relief: at or below the compensator".to_string(),
+                },
+                format!(
+                    "The limit of {} starts to open at {}; the compensated pump only destrokes at {}. {} Keep the relief at least {} ({:.0} % or {} above the compensator, whichever is more, with its cracking above it).",
+                    p(limit_pa),
+                    p(cracking_pa),
+                    p(dead_head_pa),
+                    if cracking_pa <= dead_head_pa {
+                        "The pump never destrokes: its whole flow crosses the relief at that pressure, the commonest fault on such units and a frequent cause of hot oil."
+                    } else {
+                        "It opens just above the compensator, with less margin than the rule asks: a pressure peak or a drifting compensator sends the pump's flow over it."
+                    },
+                    p(lowest_pa),
+                    job.advice.margin_fraction * 100.0,
+                    p(job.advice.compensator_margin_min.value)
                 ),
             ),
             Rule::LimitBelowNeed { phase: i, need_pa, limit_pa, lowest_pa } => (
@@ -1026,6 +1264,7 @@ impl Advice {
             title,
             explanation,
             action,
+            effect: self.effect(u),
         }
     }
 }

@@ -175,17 +175,22 @@ impl<'a> PreparedUnit<'a> {
             return low;
         }
         // Every pressure where a flow changes slope, above `low`, in order.
+        // A fixed array (no allocation in the hot loop); validation allows at most MAX_PUMPS
+        // pumps, and `zip` stops at its end for any other caller.
         let mut points = [f64::INFINITY; 3 * super::power_unit::MAX_PUMPS + 1];
+        let feeding = self
+            .pumps
+            .iter()
+            .enumerate()
+            .filter(|(i, _)| unloaded & (1 << i) == 0)
+            .flat_map(|(_, s)| s.pump.breakpoints().map(|b| b - s.check));
         let mut n = 0;
-        points[n] = relief.cracking;
-        n += 1;
-        for (i, s) in self.pumps.iter().enumerate() {
-            if unloaded & (1 << i) == 0 {
-                for b in s.pump.breakpoints() {
-                    points[n] = b - s.check;
-                    n += 1;
-                }
-            }
+        for (slot, b) in points
+            .iter_mut()
+            .zip(std::iter::once(relief.cracking).chain(feeding))
+        {
+            *slot = b;
+            n += 1;
         }
         let points = &mut points[..n];
         points.sort_unstable_by(f64::total_cmp);
@@ -415,13 +420,9 @@ pub(crate) fn solve_phase(
 
     // Fewest pumps unloaded first: where two states agree (they cannot, with monotonic
     // flows, but rounding could), the one with more flow is kept.
-    let stages = unit.stages();
-    let mut masks: [u32; 1 << (super::power_unit::MAX_PUMPS - 1)] = [0; 8];
-    let count = 1usize << stages;
-    for (i, m) in masks.iter_mut().enumerate().take(count) {
-        *m = i as u32;
-    }
-    let masks = &mut masks[..count];
+    // Validation allows at most MAX_PUMPS pumps; the cap keeps any other caller finite.
+    let stages = unit.stages().min(super::power_unit::MAX_PUMPS - 1);
+    let mut masks: Vec<u32> = (0..1u32 << stages).collect();
     masks.sort_by_key(|m| (m.count_ones(), *m));
 
     let mut best: Option<(f64, u32, Point)> = None;
@@ -435,7 +436,11 @@ pub(crate) fn solve_phase(
             best = Some((miss, mask, point));
         }
     }
-    let (_, mask, mut point) = best.expect("at least one unloading state");
+    // `masks` always holds the all-feeding state, so `best` is set.
+    let Some((_, mask, mut point)) = best else {
+        let point = solve_state(unit, &relief, demand, setting, 0);
+        return report(unit, phase, limit, 0, point, false);
+    };
     for (i, s) in unit.pumps.iter().enumerate() {
         if let Some((setting, _)) = s.unloading {
             let unloaded = mask & (1 << i) != 0;
@@ -694,10 +699,75 @@ fn report(
     }
 }
 
+/// A metered move whose limit leaves its flow control less than the drop it needs (the
+/// advice policy's working drop): it cannot hold its flow.
+pub(crate) fn flow_control_starved(
+    phase: &Phase,
+    report: &PhaseReport,
+    policy: &super::settings::AdvicePolicy,
+) -> Option<Finding> {
+    let PhaseKind::Move(m) = &phase.kind else {
+        return None;
+    };
+    if m.speed == SpeedRule::AllPumpFlow || report.point.actuator_flow.value <= NO_FLOW {
+        return None;
+    }
+    let available = report.point.system_pressure.value - m.load_pressure() - m.line_loss.value;
+    let needed = policy.flow_control_drop.value;
+    (available < needed * (1.0 - 1e-9)).then_some(Finding::FlowControlStarved {
+        available_pa: available.max(0.0),
+        needed_pa: needed,
+    })
+}
+
+/// Where a limit at `governing` settles with the pumps dead-headed on it (compensators acting),
+/// and the flow then crossing the relief: (pressure, flow).
+fn dead_headed(unit: &PreparedUnit, governing: f64) -> (f64, f64) {
+    let mask = unit
+        .pumps
+        .iter()
+        .enumerate()
+        .filter(|(_, s)| s.unloading.is_some_and(|(setting, _)| governing >= setting))
+        .fold(0u32, |m, (i, _)| m | (1 << i));
+    let relief = unit.relief(governing);
+    let p = unit.balance(&relief, 0.0, 0.0, mask);
+    (p, relief.flow(p))
+}
+
 /// Findings about the design's settings, whatever the phase.
 pub(crate) fn design_findings(design: &Design) -> Vec<Finding> {
     let mut findings = Vec::new();
     let unit = PreparedUnit::new(design);
+    // A relief cracking at or below a compensator takes the pump's whole flow (DOMAIN.md,
+    // "Pressure-compensated pumps on a fixed-speed motor").
+    if let Some(dead_head) = super::settings::compensator_dead_head(design) {
+        let main = design.relief.setting.value;
+        let limits = std::iter::once((None, main)).chain(
+            design
+                .remote_stages
+                .iter()
+                .enumerate()
+                .filter(|(stage, _)| {
+                    design
+                        .phase_settings
+                        .iter()
+                        .any(|s| s.limit == ActiveLimit::Remote { stage: *stage })
+                })
+                .map(|(stage, r)| (Some(stage), r.value.min(main))),
+        );
+        for (remote_stage, governing) in limits {
+            let cracking = governing * design.relief.cracking_fraction;
+            if cracking <= dead_head * (1.0 + 1e-9) {
+                let (p, flow) = dead_headed(&unit, governing);
+                findings.push(Finding::ReliefAtCompensator {
+                    remote_stage,
+                    cracking_pa: cracking,
+                    dead_head_pa: dead_head,
+                    burns_w: p * flow,
+                });
+            }
+        }
+    }
     let all_pumps = unit.swept(0);
     if design.relief.rated_flow.value < all_pumps * (1.0 - 1e-9) {
         findings.push(Finding::ReliefUndersized {

@@ -15,6 +15,7 @@ use super::power_unit::{Design, UnloadingStage};
 use super::pump::{Pump, PumpControl};
 use super::settings::{self, FlowNeed, UnloadingWindow};
 use super::solve_design;
+use super::validate::InputError;
 use super::valve::{ActiveLimit, CheckValve, IdlePath, UnloadingValve};
 use super::Finding;
 use serde::{Deserialize, Serialize};
@@ -324,15 +325,12 @@ pub fn build(job: &Job, baseline: &Design, spec: &Spec, targets: &Targets) -> Op
     let main = settings::round_up_setting(highest, us);
     if spec.compensated {
         // The compensator governs at the highest need with its margin; the relief, now a
-        // safety valve, sits one margin above it.
-        let margin = (main * job.advice.margin_fraction).max(job.advice.margin_min.value);
-        // The relief stays shut up to the compensator's dead-head pressure (the top of its
-        // band), whatever its cracking.
-        let dead_head = main * (1.0 + super::pump::COMPENSATOR_BAND);
-        let relief = (main + margin).max(dead_head / design.relief.cracking_fraction.max(1e-3));
+        // safety valve, sits where the advice's rule puts it: cracking above the
+        // compensator's dead-head pressure, with the compensator margin.
         design.base_pump.control = PumpControl::Compensated {
             setting: pascals(main),
         };
+        let relief = settings::compensator_floor(&design, &job.advice).unwrap_or(main);
         design.relief.setting = pascals(settings::round_up_setting(relief, us));
     } else {
         design.relief.setting = pascals(main);
@@ -471,11 +469,12 @@ pub fn evaluate(
     })
 }
 
-/// Searches every spec the options allow.
-pub fn search(job: &Job, options: &StagingOptions) -> SearchResult {
-    let mut progress = Search::new(job.clone(), options.clone());
+/// Searches every spec the options allow; the job's and the options' input errors if either
+/// is invalid.
+pub fn search(job: &Job, options: &StagingOptions) -> Result<SearchResult, Vec<InputError>> {
+    let mut progress = Search::new(job.clone(), options.clone())?;
     progress.run(usize::MAX);
-    progress.result()
+    Ok(progress.result())
 }
 
 /// A search that can run in slices (so a page stays responsive): `run(n)` evaluates up to `n`
@@ -492,9 +491,14 @@ pub struct Search {
 }
 
 impl Search {
-    /// A search over every spec `options` allows, for `job` (valid: one `solve` accepts).
-    pub fn new(job: Job, options: StagingOptions) -> Search {
-        Search {
+    /// A search over every spec `options` allows, for `job`; the input errors of the job, or of
+    /// the options (checked as the job's own `staging`), if either is invalid.
+    pub fn new(job: Job, options: StagingOptions) -> Result<Search, Vec<InputError>> {
+        super::validate::validate(&Job {
+            staging: options.clone(),
+            ..job.clone()
+        })?;
+        Ok(Search {
             targets: targets(&job, &options),
             specs: specs(&options),
             job,
@@ -503,7 +507,7 @@ impl Search {
             feasible: 0,
             best: Vec::new(),
             frontier: Vec::new(),
-        }
+        })
     }
 
     pub fn total(&self) -> usize {
@@ -557,12 +561,17 @@ impl Search {
 /// [`settings::apply_to_proposed`] for which design that is); the baseline never changes.
 pub fn apply_candidate(job: &Job, shown: usize, candidate: &Candidate) -> (Job, usize) {
     let mut job = job.clone();
+    let Some(baseline) = job.designs.first().cloned() else {
+        // No baseline to compare with: the candidate becomes the job's only design.
+        job.designs.push(candidate.design.clone());
+        return (job, 0);
+    };
     let target = if shown > 0 && shown < job.designs.len() {
         shown
     } else if job.designs.len() > 1 {
         1
     } else {
-        job.designs.push(job.designs[0].clone());
+        job.designs.push(baseline);
         1
     };
     let name =

@@ -216,6 +216,11 @@ pub fn validate(job: &Job) -> Result<(), Vec<InputError>> {
     c.fraction("advice.margin_fraction", a.margin_fraction, true);
     c.pressure("advice.margin_min_pa", a.margin_min.value, true);
     c.pressure(
+        "advice.compensator_margin_min_pa",
+        a.compensator_margin_min.value,
+        true,
+    );
+    c.pressure(
         "advice.flow_control_drop_pa",
         a.flow_control_drop.value,
         true,

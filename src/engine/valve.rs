@@ -138,9 +138,4 @@ impl ReliefCharacteristic {
             self.setting_flow * (pressure - self.cracking) / (self.full - self.cracking)
         }
     }
-
-    /// The pressure at which the valve passes `flow` (the inverse of [`Self::flow`]).
-    pub fn pressure_at(&self, flow: f64) -> f64 {
-        self.cracking + (self.full - self.cracking) * flow.max(0.0) / self.setting_flow
-    }
 }

@@ -222,7 +222,7 @@ fn DesignSection(
             )
         }
     );
-    let advice = settings::advise(&job, index);
+    let advice = settings::advise(&job, index).unwrap_or_default();
     let row = |label: &'static str, value: String| {
         view! { <tr><th scope="row">{label}</th><td>{value}</td></tr> }
     };
@@ -313,6 +313,7 @@ fn DesignSection(
                                     <strong>{format!("{kind}: {}", text.title)}</strong>
                                     " "{text.explanation}
                                     {text.action.map(|action| view! { " "<em>{format!("What to do: {action}.")}</em> })}
+                                    {text.effect.map(|effect| view! { " "{effect} })}
                                 </li>
                             }
                         }).collect_view()}

@@ -18,13 +18,13 @@ pub fn SettingsArea() -> impl IntoView {
     // what to fix).
     let advice = Memo::new(move |_| {
         let d = state.design_index();
-        state.result.with(|r| r.is_ok()).then(|| {
-            state.job.with(|job| {
-                (
-                    settings::phase_needs(job, &job.designs[d]),
-                    settings::advise(job, d),
-                )
-            })
+        if state.result.with(|r| r.is_err()) {
+            return None;
+        }
+        state.job.with(|job| {
+            let design = job.designs.get(d)?;
+            let advice = settings::advise(job, d).ok()?;
+            Some((settings::phase_needs(job, design), advice))
         })
     });
     let apply = move |action: settings::Action| {
@@ -114,31 +114,13 @@ fn AdviceCard(
     can_apply: bool,
 ) -> impl IntoView {
     let text = advice.describe(&job);
-    let u = job.units;
     let (class, label) = match advice.severity {
         Severity::Caution => ("advice caution", "Caution"),
         Severity::Saving => ("advice saving", "Saving"),
         Severity::Note => ("advice note", "Note"),
     };
-    // Solved, not estimated: the engine ran the design again with the change.
-    let saving = (advice.action.is_some()
-        && (advice.saving_w.abs() > 0.5 || advice.annual_saving_kwh.abs() > 0.5))
-        .then(|| {
-            let costs = advice.annual_saving_kwh < 0.0;
-            let mut parts = Vec::new();
-            if advice.saving_w.abs() > 0.5 {
-                parts.push(format!(
-                    "{} in the phase",
-                    Measure::Power.with_unit(u, advice.saving_w.abs())
-                ));
-            }
-            parts.push(format!("{:.0} kWh a year", advice.annual_saving_kwh.abs()));
-            if costs {
-                format!("Costs {} more: the price of the margin.", parts.join(", "))
-            } else {
-                format!("Saves {}.", parts.join(", "))
-            }
-        });
+    // Solved, not estimated: the engine ran the design again with the change, and words it.
+    let saving = text.effect.clone();
     let action = advice.action;
     view! {
         <li class=class>
@@ -177,6 +159,8 @@ fn Margins() -> impl IntoView {
                 get=|j: &Job| j.advice.margin_min.value set=|j: &mut Job, v| j.advice.margin_min.value = v />
             <NumberField label="Drop a flow control needs" path="advice.flow_control_drop_pa" measure=Measure::Pressure
                 get=|j: &Job| j.advice.flow_control_drop.value set=|j: &mut Job, v| j.advice.flow_control_drop.value = v />
+            <NumberField label="Relief above a compensator, at least" path="advice.compensator_margin_min_pa" measure=Measure::Pressure
+                get=|j: &Job| j.advice.compensator_margin_min.value set=|j: &mut Job, v| j.advice.compensator_margin_min.value = v />
             <NumberField label="Smallest saving worth advising" path="advice.least_saving_w" measure=Measure::Power
                 get=|j: &Job| j.advice.least_saving_w set=|j: &mut Job, v| j.advice.least_saving_w = v />
         </details>

@@ -53,7 +53,11 @@ pub fn StagingPanel() -> impl IntoView {
         }
         let job = state.job.get_untracked();
         let options = job.staging.clone();
-        let search = Rc::new(RefCell::new(Search::new(job, options)));
+        // The results area says what to fix when the job or its options are invalid.
+        let Ok(search) = Search::new(job, options) else {
+            return;
+        };
+        let search = Rc::new(RefCell::new(search));
         let total = search.borrow().total();
         generation.update_value(|g| *g += 1);
         let mine = generation.get_value();
