@@ -1,8 +1,11 @@
-//! Solves a job file and prints the full report as JSON (or why it cannot):
+//! Says everything the engine says about a job file, as one JSON document (or why it cannot):
+//! each design's report, the findings in words, the settings advice with its actions and
+//! solved figures, and each pump test's assessment and trend (DEVELOPERS.md, "Everything the
+//! engine says"):
 //!
 //!     cargo run --example solve -- job.json
 //!
-//! Exit status 0 with the report on stdout; 2 with the input errors (a JSON list of
+//! Exit status 0 with the document on stdout; 2 with the input errors (a JSON list of
 //! `{field, message}`) or the file's problem on stderr; 1 if the file cannot be read.
 
 fn main() -> std::process::ExitCode {
@@ -18,8 +21,8 @@ fn main() -> std::process::ExitCode {
         }
     };
     match phasewise::engine::solve_json(&text) {
-        Ok(report) => {
-            println!("{report}");
+        Ok(answer) => {
+            println!("{answer}");
             std::process::ExitCode::SUCCESS
         }
         Err(problem) => {

@@ -72,17 +72,128 @@ pub fn solve(job: &Job) -> Result<JobReport, Vec<InputError>> {
     })
 }
 
-/// Reads a job file and solves it: the report as pretty JSON, or the reason the file could
-/// not be read, or its input errors as a JSON list of `{field, message}`. This is what
-/// `cargo run --example solve -- job.json` prints, and what the golden-file tests compare.
+/// Everything the engine says about a job, in one document: what `cargo run --example solve`
+/// prints (its shape is in DEVELOPERS.md, "Everything the engine says").
+#[derive(Clone, Debug, PartialEq, Serialize)]
+pub struct JobAnswer {
+    /// Every design's phases, ledgers, totals and findings, and the comparisons.
+    pub report: JobReport,
+    /// The findings of each design (its own, then each phase's) in words, in the job's units.
+    pub findings_in_words: Vec<DesignWords>,
+    /// The settings advice for each design, in the job's order.
+    pub advice: Vec<DesignAdvice>,
+    /// Each pump test's assessment (or its input errors) and its trend, in the job's order.
+    pub pump_tests: Vec<PumpTestAnswer>,
+}
+
+#[derive(Clone, Debug, PartialEq, Serialize)]
+pub struct DesignWords {
+    pub design: String,
+    pub design_findings: Vec<String>,
+    /// Per phase, in the cycle's order.
+    pub phase_findings: Vec<Vec<String>>,
+}
+
+#[derive(Clone, Debug, PartialEq, Serialize)]
+pub struct DesignAdvice {
+    pub design: String,
+    pub items: Vec<AdviceAnswer>,
+}
+
+/// One piece of advice: its rule, action and solved figures, and the same in words.
+#[derive(Clone, Debug, PartialEq, Serialize)]
+pub struct AdviceAnswer {
+    #[serde(flatten)]
+    pub advice: settings::Advice,
+    pub words: settings::Described,
+}
+
+#[derive(Clone, Debug, PartialEq, Serialize)]
+pub struct PumpTestAnswer {
+    pub pump: String,
+    pub date: String,
+    /// The assessment, or why the test cannot be assessed yet.
+    pub assessment: Assessed,
+    pub trend: Option<efficiency::Trend>,
+}
+
+/// A pump test read, or the input errors that stop it being read.
+#[derive(Clone, Debug, PartialEq, Serialize)]
+#[serde(rename_all = "snake_case")]
+pub enum Assessed {
+    Assessment(efficiency::TestReport),
+    InputErrors(Vec<InputError>),
+}
+
+/// Everything the engine says about `job`; its input errors if it is invalid.
+pub fn answer(job: &Job) -> Result<JobAnswer, Vec<InputError>> {
+    let report = solve(job)?;
+    let units = job.units;
+    let findings_in_words = report
+        .designs
+        .iter()
+        .map(|d| DesignWords {
+            design: d.name.clone(),
+            design_findings: d.findings.iter().map(|f| f.describe(units)).collect(),
+            phase_findings: d
+                .phases
+                .iter()
+                .map(|p| p.findings.iter().map(|f| f.describe(units)).collect())
+                .collect(),
+        })
+        .collect();
+    let advice = (0..job.designs.len())
+        .map(|d| {
+            Ok(DesignAdvice {
+                design: job.designs[d].name.clone(),
+                items: settings::advise(job, d)?
+                    .into_iter()
+                    .map(|advice| AdviceAnswer {
+                        words: advice.describe(job),
+                        advice,
+                    })
+                    .collect(),
+            })
+        })
+        .collect::<Result<Vec<_>, Vec<InputError>>>()?;
+    let pump_tests = job
+        .pump_tests
+        .iter()
+        .enumerate()
+        .map(|(i, test)| PumpTestAnswer {
+            pump: test.pump.clone(),
+            date: test.date.clone(),
+            assessment: match efficiency::assess(test, &job.wear, units) {
+                Ok(report) => Assessed::Assessment(report),
+                Err(errors) => Assessed::InputErrors(errors),
+            },
+            trend: efficiency::trend(&job.pump_tests, i, &job.wear),
+        })
+        .collect();
+    Ok(JobAnswer {
+        report,
+        findings_in_words,
+        advice,
+        pump_tests,
+    })
+}
+
+/// Reads a job file and says everything about it ([`answer`]) as pretty JSON, or the reason
+/// the file could not be read, or its input errors as a JSON list of `{field, message}`. This
+/// is what `cargo run --example solve -- job.json` prints, and what the golden-file tests
+/// compare.
 pub fn solve_json(text: &str) -> Result<String, String> {
     let job = Job::from_json(text).map_err(|e| e.to_string())?;
-    match solve(&job) {
-        Ok(report) => {
-            Ok(serde_json::to_string_pretty(&report).expect("a report always serialises"))
-        }
-        Err(errors) => Err(serde_json::to_string_pretty(&errors).expect("errors always serialise")),
+    match answer(&job) {
+        Ok(answer) => Ok(pretty(&answer)),
+        Err(errors) => Err(pretty(&errors)),
     }
+}
+
+/// Pretty JSON of an answer type. Serialising them cannot fail (no maps with non-string keys,
+/// no failing `Serialize`), so the fallback is never seen.
+fn pretty<T: Serialize>(value: &T) -> String {
+    serde_json::to_string_pretty(value).unwrap_or_else(|e| format!("{{\"error\": \"{e}\"}}"))
 }
 
 /// Solves one (validated) design over the job's cycle.

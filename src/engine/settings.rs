@@ -508,6 +508,14 @@ pub fn advise(job: &Job, index: usize) -> Result<Vec<Advice>, Vec<InputError>> {
                 let held = job.cycle.get(i).is_some_and(
                     |ph| matches!(&ph.kind, PhaseKind::Hold(h) if h.mode == HoldMode::HeldByPump),
                 );
+                let on_main = design
+                    .phase_settings
+                    .get(i)
+                    .is_none_or(|s| s.limit == ActiveLimit::Main);
+                if on_main && below_compensator(limit) {
+                    // The main relief's own rule says it once, for every phase on it.
+                    continue;
+                }
                 if limit < lowest * (1.0 - 1e-9) {
                     // Raising a phase's limit past main means raising main: the cycle rule does.
                     let action = (vent_port && target >= lowest && allowed(target)).then_some(
@@ -1036,7 +1044,7 @@ fn unloading_advice(
 
 /// A piece of advice in words: a heading, the rule and the numbers behind it, and what its
 /// action does.
-#[derive(Clone, Debug, PartialEq, Eq)]
+#[derive(Clone, Debug, PartialEq, Eq, Serialize)]
 pub struct Described {
     pub title: String,
     pub explanation: String,
@@ -1063,8 +1071,13 @@ impl Advice {
         } else if w < -LEAST_W {
             clauses.push(format!("draws {} more in the phase", units.power(-w)));
         }
+        let saves_in_phase = w > LEAST_W;
         if kwh > LEAST_KWH {
-            clauses.push(format!("saves {kwh:.0} kWh a year"));
+            clauses.push(if saves_in_phase {
+                format!("{kwh:.0} kWh a year")
+            } else {
+                format!("saves {kwh:.0} kWh a year")
+            });
         } else if kwh < -LEAST_KWH {
             clauses.push(format!("costs {:.0} kWh a year more", -kwh));
         }

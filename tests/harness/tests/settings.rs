@@ -43,6 +43,7 @@ async fn the_demo_advice_shows_and_one_applies_to_the_proposed_design() {
     let b = &app.browser;
     let job = scrap_baler();
     let expected: Vec<String> = settings::advise(&job, 0)
+        .unwrap()
         .iter()
         .map(|a| a.describe(&job).title)
         .collect();
@@ -77,9 +78,24 @@ async fn the_demo_advice_shows_and_one_applies_to_the_proposed_design() {
         .await
         .contains("Show the proposed design to apply it there"));
 
-    // The proposed design's own advice: its dwell's remote stage sits inside the margin.
+    // The demo's proposed design follows the advice's own rules: nothing to change.
     b.click(".design-tabs button:nth-child(2)").await;
-    let proposed_advice = settings::advise(&job, 1);
+    assert!(settings::advise(&job, 1).unwrap().is_empty());
+    b.wait_for_text("[data-advice-count='0']", |t| {
+        t.contains("Nothing to change")
+    })
+    .await;
+    // Raise its dwell's remote stage in the power-unit area: the advice then offers the
+    // pressure that holds the dwell, and applies it to the proposed design.
+    b.eval("location.hash = '#/unit'; return null;").await;
+    b.fill("input[data-path='designs[1].remote_stages_pa[0]']", "175")
+        .await;
+    b.stored_job_when(|j| j["designs"][1]["remote_stages_pa"][0] == serde_json::json!(17500000.0))
+        .await;
+    b.eval("location.hash = '#/settings'; return null;").await;
+    let mut job = job.clone();
+    job.designs[1].remote_stages[0] = uom::si::f64::Pressure::new::<uom::si::pressure::bar>(175.0);
+    let proposed_advice = settings::advise(&job, 1).unwrap();
     let titles: Vec<String> = proposed_advice
         .iter()
         .map(|a| a.describe(&job).title)
@@ -108,12 +124,13 @@ async fn the_demo_advice_shows_and_one_applies_to_the_proposed_design() {
         serde_json::from_value(stored["designs"][1].clone()).unwrap();
     let (want, _) = settings::apply_to_proposed(&job, 1, &proposed_advice[index].action.unwrap());
     assert_eq!(proposed, want.designs[1]);
-    // The area now shows the changed design's advice: the old 175 bar stage is unused.
+    // The area now shows the changed design's advice, if any.
     let changed = Job {
         designs: vec![as_found, proposed],
         ..job.clone()
     };
     let now: Vec<String> = settings::advise(&changed, 1)
+        .unwrap()
         .iter()
         .map(|a| a.describe(&changed).title)
         .collect();
@@ -158,7 +175,7 @@ async fn the_staging_search_runs_and_its_best_candidate_becomes_the_proposed_des
         ));
     }
     // The engine's own search on the same job, natively.
-    let native = phasewise::engine::staging::search(&job, &job.staging);
+    let native = phasewise::engine::staging::search(&job, &job.staging).unwrap();
     assert!(native.evaluated >= 5000 && !native.best.is_empty());
     run_search(b, &native, "staging search in Chromium").await;
     assert_eq!(b.count("li.candidate").await, native.best.len());
@@ -192,7 +209,7 @@ async fn the_staging_search_time_on_a_ten_phase_cycle_is_printed() {
     }
     job.name = "Ten-phase baler".into();
     assert_eq!(job.cycle.len(), 10);
-    let native = phasewise::engine::staging::search(&job, &job.staging);
+    let native = phasewise::engine::staging::search(&job, &job.staging).unwrap();
     let app = AppSession::start_at("staging_ten_phases", Viewport::LAPTOP, "#/settings").await;
     let b = &app.browser;
     let entry = phasewise::library::write_entry(&job, 1.0);
