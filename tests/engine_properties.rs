@@ -501,6 +501,9 @@ fn an_invalid_job_is_always_a_typed_error_and_never_a_panic() {
         (job_strategy(), any::<usize>(), bad),
         |(mut job, which, bad)| {
             spoil(&mut job, which, bad);
+            // The other public entry points refuse it too, with errors, never a panic.
+            prop_assert!(phasewise::engine::settings::advise(&job, 0).is_err());
+            prop_assert!(phasewise::engine::answer(&job).is_err());
             match solve(&job) {
                 Ok(_) => Err(TestCaseError::fail(format!("{bad} was accepted"))),
                 Err(errors) => {
@@ -532,6 +535,50 @@ fn any_text_read_as_a_job_file_is_a_job_or_a_reason() {
     ];
     check("job file text", text, |text| {
         let _ = Job::from_json(&text);
+        Ok(())
+    });
+}
+
+/// On any valid job the advice keeps its own rules: no proposed limit below a compensated pump's
+/// floor (DOMAIN.md, "Pressure-compensated pumps on a fixed-speed motor"; common practice), and
+/// an action that draws more is never worded as a saving.
+#[test]
+fn the_advice_keeps_its_own_rules_on_any_job() {
+    use phasewise::engine::settings::{self, Action};
+    check("advice rules", job_strategy(), |job| {
+        if solve(&job).is_err() {
+            return Ok(());
+        }
+        for (d, design) in job.designs.iter().enumerate() {
+            let floor = settings::compensator_floor(design, &job.advice);
+            let advice =
+                settings::advise(&job, d).map_err(|e| TestCaseError::fail(format!("{e:?}")))?;
+            for a in &advice {
+                if let (
+                    Some(f),
+                    Some(Action::LimitPhase { pressure, .. } | Action::SetMain { pressure }),
+                ) = (floor, a.action)
+                {
+                    prop_assert!(pressure.value >= f * (1.0 - 1e-9), "{a:?} below {f}");
+                }
+                if let Some(effect) = a.effect(job.units).map(|e| e.to_lowercase()) {
+                    if a.annual_saving_kwh < -0.5 {
+                        prop_assert!(effect.contains("costs"), "{effect} / {a:?}");
+                        prop_assert!(!effect.contains("aves") || a.saving_w > 0.5, "{effect}");
+                    }
+                    let in_phase = matches!(
+                        a.action,
+                        Some(Action::LimitPhase { .. } | Action::VentPhase { .. })
+                    );
+                    if in_phase && a.saving_w < -0.5 {
+                        prop_assert!(effect.contains("more in the phase"), "{effect} / {a:?}");
+                    }
+                    if !in_phase {
+                        prop_assert!(!effect.contains("in the phase"), "{effect} / {a:?}");
+                    }
+                }
+            }
+        }
         Ok(())
     });
 }
