@@ -307,7 +307,7 @@ pub fn assumptions(job: &Job) -> Vec<Assumption> {
             default_or_entered(design.relief.cracking_fraction == typical),
         );
         push(
-            "Relief valve's rated flow (its override line ends there)".to_string(),
+            "Relief valve's rated flow (the maker's; its setting is read with the pumps' flow over it)".to_string(),
             Assumed::Quantity(Measure::Flow, design.relief.rated_flow.value),
             Basis::Entered,
         );
@@ -437,7 +437,7 @@ fn lowercase_first(text: &str) -> String {
 }
 
 /// The simplifications every result rests on.
-const MODEL: [(&str, &str); 7] = [
+const MODEL: [(&str, &str); 8] = [
     (
         "One part per cycle; the machine cycles through all its running hours",
         "our model of the job",
@@ -451,7 +451,11 @@ const MODEL: [(&str, &str); 7] = [
         COMMON,
     ),
     (
-        "A pump's leakage grows in proportion to pressure, from its stated volumetric efficiency",
+        "A pump's leakage grows in proportion to pressure, from its stated volumetric efficiency, and not with its speed",
+        COMMON,
+    ),
+    (
+        "A relief setting is the pressure with the pumps dead-headed, their whole flow over the valve; it opens from its cracking pressure and rises in a straight line above it",
         COMMON,
     ),
     (
