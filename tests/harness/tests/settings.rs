@@ -6,12 +6,6 @@ use phasewise::engine::demo::scrap_baler;
 use phasewise::engine::settings;
 use phasewise::engine::Job;
 use phasewise_harness::browser::{AppSession, Viewport};
-use serde_json::Value;
-
-/// The open job as stored, once the autosave has written it.
-async fn stored_job(b: &phasewise_harness::browser::Browser) -> Value {
-    b.stored_job_when(|_| true).await
-}
 
 /// Runs the search in the page and checks its counts against the engine's native `native`
 /// run on the same job; prints the time it took (measured, never asserted).
@@ -90,7 +84,7 @@ async fn the_demo_advice_shows_and_one_applies_to_the_proposed_design() {
     b.eval("location.hash = '#/unit'; return null;").await;
     b.fill("input[data-path='designs[1].remote_stages_pa[0]']", "175")
         .await;
-    b.stored_job_when(|j| j["designs"][1]["remote_stages_pa"][0] == serde_json::json!(17500000.0))
+    b.stored_job_when(|j| j["designs"][1]["remote_stages_pa"][0].as_f64() == Some(175e5))
         .await;
     b.eval("location.hash = '#/settings'; return null;").await;
     let mut job = job.clone();
@@ -115,15 +109,20 @@ async fn the_demo_advice_shows_and_one_applies_to_the_proposed_design() {
     .await;
     b.wait_for_text("[data-applied]", |t| t.contains("Applied to “Proposed”"))
         .await;
-    // Applying changed the job, so it is saved: read the stored copy.
-    let stored = stored_job(b).await;
-    let as_found: phasewise::engine::power_unit::Design =
-        serde_json::from_value(stored["designs"][0].clone()).unwrap();
-    assert_eq!(as_found, job.designs[0], "the baseline is unchanged");
-    let proposed: phasewise::engine::power_unit::Design =
-        serde_json::from_value(stored["designs"][1].clone()).unwrap();
+    // Applying changed the job, so it is saved: wait for the stored copy to hold it.
+    type Design = phasewise::engine::power_unit::Design;
     let (want, _) = settings::apply_to_proposed(&job, 1, &proposed_advice[index].action.unwrap());
-    assert_eq!(proposed, want.designs[1]);
+    let stored = b
+        .stored_job_when(|j| {
+            serde_json::from_value::<Design>(j["designs"][1].clone())
+                .ok()
+                .as_ref()
+                == Some(&want.designs[1])
+        })
+        .await;
+    let as_found: Design = serde_json::from_value(stored["designs"][0].clone()).unwrap();
+    assert_eq!(as_found, job.designs[0], "the baseline is unchanged");
+    let proposed: Design = serde_json::from_value(stored["designs"][1].clone()).unwrap();
     // The area now shows the changed design's advice, if any.
     let changed = Job {
         designs: vec![as_found, proposed],
