@@ -25,12 +25,13 @@ pub fn CautionIcon() -> impl IntoView {
 const CAUTION: &str = "M12 3.5 22 20.5H2Z M12 10v4.5 M12 17.5v.01";
 
 /// The icon of an area in the navigation bar.
-pub fn area_icon(area: Area) -> impl IntoView {
+pub fn area_icon(area: Area) -> AnyView {
     line_icon(match area {
         // A loop closing on itself: the repeating machine cycle.
         Area::Cycle => "M19.5 12a7.5 7.5 0 1 1-2.2-5.3 M19.5 4v4h-4",
-        // A pump as ISO 1219 draws one: a circle with the flow triangle pointing out.
-        Area::PowerUnit => "M12 4.5a7.5 7.5 0 1 1 0 15a7.5 7.5 0 1 1 0-15 M12 4.5l3 5h-6Z",
+        // A hydraulic pump as ISO 1219-1 draws one: a circle with the flow triangle pointing
+        // out, filled (a hollow triangle means air).
+        Area::PowerUnit => return pump_icon().into_any(),
         // Stacked bars: the power ledger.
         Area::Results => "M4 20h16 M7 17v-6 M12 17V6 M17 17v-9",
         // A gauge dial and needle: pressure settings.
@@ -43,6 +44,16 @@ pub fn area_icon(area: Area) -> impl IntoView {
         Area::Jobs => "M3 6.5h6l2 2h10V19H3Z",
         Area::Safety => CAUTION,
     })
+    .into_any()
+}
+
+fn pump_icon() -> impl IntoView {
+    view! {
+        <svg class="icon" viewBox="0 0 24 24" width="24" height="24" aria-hidden="true">
+            <path d="M12 4.5a7.5 7.5 0 1 1 0 15a7.5 7.5 0 1 1 0-15" />
+            <path class="flow-triangle" d="M12 4.5l3 5h-6Z" />
+        </svg>
+    }
 }
 
 fn line_icon(path: &'static str) -> impl IntoView {

@@ -671,7 +671,7 @@ fn WearLines() -> impl IntoView {
     view! {
         <details class="staging-options">
             <summary>"Where the verdict draws its lines"</summary>
-            <p class="hint">"Judged on the volumetric efficiency the leakage line predicts at the rated pressure. Defaults: good from 90 %, worn below 80 % (common practice for gear and vane pumps, from memory; the maker's figures come first)."</p>
+            <p class="hint">"Judged on the volumetric efficiency the leakage line predicts at the rated pressure. Defaults: good from 90 %, worn below 80 % (typical for gear and vane pumps; the maker's figures come first)."</p>
             <div class="field-grid">
                 <NumberField label="Good from" path="wear.good_from" measure=Measure::Percent
                     get=|j: &Job| j.wear.good_from set=|j: &mut Job, v| j.wear.good_from = v />

@@ -288,7 +288,7 @@ fn OilFields() -> impl IntoView {
         let oil = crate::engine::job::Oil::mineral(Default::default());
         let u = state.units();
         format!(
-            "Mineral oil is about {} and {} (Esposito's working values).",
+            "Mineral oil is typically about {} and {} (the report lists the source).",
             Measure::Density.with_unit(u, oil.density.value),
             Measure::SpecificHeat.with_unit(u, oil.specific_heat.value)
         )

@@ -251,10 +251,10 @@ fn StagingOptionsEditor() -> impl IntoView {
             <summary>"What to choose from"</summary>
             <ListField label="Pump sizes" path="staging.displacements_m3_per_rev" measure=Measure::Displacement
                 get=sizes set=set_sizes />
-            <p class="hint">"Default: the R10 preferred numbers from 2.5 to 160 cm³/rev, as pumps are commonly sized (from memory)."</p>
+            <p class="hint">"Default: the R10 preferred numbers from 2.5 to 160 cm³/rev, as pumps are typically sized."</p>
             <ListField label="Motor speeds" path="staging.speeds_rad_per_s" measure=Measure::ShaftSpeed
                 get=speeds set=set_speeds />
-            <p class="hint">"Default: 4- and 6-pole motors at 50 and 60 Hz, common full-load speeds (from memory)."</p>
+            <p class="hint">"Default: 4- and 6-pole motors at 50 and 60 Hz, typical full-load speeds."</p>
             <super::field::ChoiceField label="Most pumps on the shaft" path="staging.max_pumps"
                 options=vec![("1", "One".to_string()), ("2", "Two".to_string()), ("3", "Three".to_string())]
                 get=|j: &Job| match j.staging.max_pumps { 1 => "1", 2 => "2", _ => "3" }

@@ -348,6 +348,45 @@ impl Browser {
         panic!("the job was never saved as expected");
     }
 
+    /// Every visible piece of text whose contrast with what is behind it falls short of WCAG 2.2
+    /// AA (success criterion 1.4.3: 4.5:1, or 3:1 for large text: 24 px, or 18.66 px bold),
+    /// with the ratio and where it is. Colours are read as computed, blended over every
+    /// translucent background and ancestor opacity down to an opaque one; SVG text is read by
+    /// its fill. Text over a background image (none in the app) is skipped.
+    pub async fn contrast_failures(&self) -> Vec<String> {
+        const CHECK: &str = r#"
+const parse = c => { const m = c && c.match(/rgba?\(([^)]+)\)/); if (!m) return null;
+  const p = m[1].split(',').map(s => parseFloat(s)); return { r: p[0], g: p[1], b: p[2], a: p.length > 3 ? p[3] : 1 }; };
+const over = (top, under) => ({ r: top.r * top.a + under.r * (1 - top.a), g: top.g * top.a + under.g * (1 - top.a),
+  b: top.b * top.a + under.b * (1 - top.a), a: 1 });
+const lum = ({ r, g, b }) => { const f = v => { v /= 255; return v <= 0.04045 ? v / 12.92 : Math.pow((v + 0.055) / 1.055, 2.4); };
+  return 0.2126 * f(r) + 0.7152 * f(g) + 0.0722 * f(b); };
+const behind = el => { const layers = []; for (let e = el; e; e = e.parentElement) { const s = getComputedStyle(e);
+    if (s.backgroundImage !== 'none') return null; const c = parse(s.backgroundColor);
+    if (c && c.a > 0) { layers.push(c); if (c.a >= 1) break; } }
+  let bg = { r: 255, g: 255, b: 255, a: 1 }; for (let i = layers.length - 1; i >= 0; i--) bg = over(layers[i], bg); return bg; };
+const opacity = el => { let o = 1; for (let e = el; e; e = e.parentElement) o *= parseFloat(getComputedStyle(e).opacity); return o; };
+const out = [], seen = new Set(), walk = document.createTreeWalker(document.body, NodeFilter.SHOW_TEXT);
+while (walk.nextNode()) { const t = walk.currentNode, el = t.parentElement;
+  if (!el || !t.textContent.trim() || seen.has(el)) continue; seen.add(el);
+  const r = el.getBoundingClientRect(); if (r.width === 0 || r.height === 0) continue;
+  const s = getComputedStyle(el); if (s.visibility === 'hidden') continue;
+  const svg = el.closest('svg'); let fg = parse(svg ? s.fill : s.color); const bg = behind(svg || el);
+  if (!fg || !bg) continue; fg = { ...fg, a: fg.a * opacity(el) }; const f = over(fg, bg);
+  const a = lum(f), b = lum(bg), ratio = (Math.max(a, b) + 0.05) / (Math.min(a, b) + 0.05);
+  const size = parseFloat(s.fontSize), bold = parseInt(s.fontWeight) >= 700;
+  const need = size >= 24 || (bold && size >= 18.66) ? 3 : 4.5;
+  if (ratio < need - 0.005) out.push(ratio.toFixed(2) + ' < ' + need + ': "' + t.textContent.trim().slice(0, 40) + '" in ' + el.tagName.toLowerCase() + '.' + String(el.className.baseVal ?? el.className).replace(/ /g, '.')); }
+return out;"#;
+        match self.eval(CHECK).await {
+            Value::Array(items) => items
+                .into_iter()
+                .map(|v| v.as_str().unwrap_or_default().to_string())
+                .collect(),
+            other => vec![format!("the check did not run: {other}")],
+        }
+    }
+
     /// How far the page reaches past the right edge of the viewport, in CSS pixels (0 when
     /// nothing overflows sideways).
     pub async fn sideways_overflow(&self) -> i64 {

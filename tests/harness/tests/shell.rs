@@ -25,6 +25,14 @@ async fn the_frame_renders_on_a_phone_without_errors_or_sideways_overflow() {
         .eval("return document.querySelectorAll('nav.areas a').length;")
         .await;
     assert_eq!(nav.as_u64(), Some(Area::NAV.len() as u64));
+    // During a normal start the failure sentence was never shown: it is still hidden.
+    let failed_shown = b
+        .eval("const f = document.querySelector('.boot-failed'); return f ? !f.hidden : 'no sentence';")
+        .await;
+    assert_eq!(
+        failed_shown, false,
+        "the failure sentence stays hidden on a normal start"
+    );
     // The start-up notice is hidden once the app is up.
     let boot = b
         .eval("return getComputedStyle(document.querySelector('.boot')).display;")
@@ -163,6 +171,15 @@ async fn a_broken_wasm_module_is_caught() {
         !errors.is_empty(),
         "the start-up failure must reach the console"
     );
+    // ... and the page says so, in place of the loading bar.
+    let said = app
+        .browser
+        .eval("const f = document.querySelector('.boot-failed'); return !!f && !f.hidden && f.getBoundingClientRect().height > 0;")
+        .await;
+    assert_eq!(
+        said, true,
+        "the failure sentence shows after a real failure"
+    );
     app.browser.screenshot("broken").await;
     app.browser.close().await;
     std::fs::remove_dir_all(&broken).unwrap();
@@ -221,4 +238,83 @@ fn copy_dir(from: &std::path::Path, to: &std::path::Path) {
             std::fs::copy(entry.path(), target).unwrap();
         }
     }
+}
+
+/// Opens `area` by its address and waits until the page is its page.
+async fn open_area(b: &phasewise_harness::browser::Browser, area: Area) {
+    b.eval(&format!("location.hash = '{}'; return null;", area.href()))
+        .await;
+    let title = format!("{} · Phasewise", area.title());
+    for _ in 0..100 {
+        if b.client().title().await.unwrap() == title {
+            // One more frame for the area's own content.
+            tokio::time::sleep(Duration::from_millis(150)).await;
+            return;
+        }
+        tokio::time::sleep(Duration::from_millis(50)).await;
+    }
+    panic!("{area:?} did not open");
+}
+
+/// Flips one of the display switches (on the results area) by its label.
+async fn flip(b: &phasewise_harness::browser::Browser, label: &str) {
+    open_area(b, Area::Results).await;
+    let found = b
+        .eval(&format!(
+            "const t = [...document.querySelectorAll('button.toggle')].find(x => x.textContent === '{label}'); \
+             if (t) t.click(); return !!t;"
+        ))
+        .await;
+    assert_eq!(found, true, "the {label} switch");
+}
+
+/// Every area, in each display mode (as it comes, high contrast, projector), passes WCAG 2.2 AA
+/// contrast (success criterion 1.4.3) for every visible piece of text.
+#[tokio::test]
+async fn every_area_passes_wcag_aa_contrast_in_every_display_mode() {
+    let app = AppSession::start_at("contrast", Viewport::LAPTOP, &Area::Results.href()).await;
+    let b = &app.browser;
+    let mut failures = Vec::new();
+    for (mode, switch) in [
+        ("as it comes", None),
+        ("high contrast", Some("High contrast")),
+        ("projector", Some("Projector")),
+    ] {
+        if let Some(label) = switch {
+            flip(b, label).await;
+        }
+        for area in Area::ALL {
+            open_area(b, area).await;
+            for f in b.contrast_failures().await {
+                failures.push(format!("{mode}, {}: {f}", area.title()));
+            }
+        }
+        b.screenshot(&mode.replace(' ', "-")).await;
+        if let Some(label) = switch {
+            flip(b, label).await;
+        }
+    }
+    assert!(failures.is_empty(), "{}", failures.join("\n"));
+    app.finish().await;
+}
+
+/// ISO 1219-1 draws a hydraulic pump's triangle filled (a hollow one means air): the
+/// power-unit area's icon follows it.
+#[tokio::test]
+async fn the_pump_icon_has_the_filled_triangle_of_a_hydraulic_pump() {
+    let app = AppSession::start("pump_icon", Viewport::PHONE).await;
+    let b = &app.browser;
+    let fill = b
+        .eval(&format!(
+            "const t = document.querySelector(\"nav.areas a[href='{}'] svg .flow-triangle\"); \
+             return t ? getComputedStyle(t).fill : 'no triangle';",
+            Area::PowerUnit.href()
+        ))
+        .await;
+    let fill = fill.as_str().unwrap_or_default().to_string();
+    assert!(
+        fill != "none" && fill != "no triangle" && !fill.contains("rgba(0, 0, 0, 0)"),
+        "the triangle's fill: {fill}"
+    );
+    app.finish().await;
 }
