@@ -130,8 +130,62 @@ pub fn scrap_baler() -> Job {
     }
 }
 
+/// Makes an edited example the user's own job: it is no longer marked as an example (no banner,
+/// no "example" in a quote, a report or an export), and the invented words that describe the
+/// example go (its notes, its site, the "(example)" in its name) where they are still the
+/// example's. Every figure stays as the user left it. Nothing changes on a job that is not an
+/// example.
+pub fn claim(job: &mut Job) {
+    if !job.example {
+        return;
+    }
+    let example = scrap_baler();
+    job.example = false;
+    if job.notes == example.notes {
+        job.notes.clear();
+    }
+    if job.site.location == example.site.location {
+        job.site.location.clear();
+    }
+    if job.name == example.name {
+        job.name = EXAMPLE_MACHINE.to_string();
+    }
+}
+
+/// The example's machine, without the "(example)" its job's name carries.
+const EXAMPLE_MACHINE: &str = "Scrap baler";
+
 #[cfg(test)]
 mod tests {
+    #[test]
+    fn an_edited_example_becomes_the_users_job_with_its_figures() {
+        let mut job = super::scrap_baler();
+        job.cycle[1].name = "Press".into();
+        let edited = job.clone();
+        super::claim(&mut job);
+        assert!(!job.example);
+        assert_eq!(job.notes, "");
+        assert_eq!(job.site.location, "");
+        assert_eq!(job.name, "Scrap baler");
+        assert_eq!(
+            (job.cycle.clone(), job.designs.clone()),
+            (edited.cycle, edited.designs)
+        );
+        assert!(!job.to_json().contains("\"example\": true"));
+        // The user's own words stay; a job that is not an example is never touched.
+        let mut own = super::scrap_baler();
+        own.notes = "measured on site".into();
+        own.name = "Baler 3".into();
+        super::claim(&mut own);
+        assert_eq!(
+            (own.notes.as_str(), own.name.as_str()),
+            ("measured on site", "Baler 3")
+        );
+        let before = own.clone();
+        super::claim(&mut own);
+        assert_eq!(own, before);
+    }
+
     /// The demo's proposal is the example users learn from: it must follow the advice's own
     /// rules, so the advice has nothing to say about it.
     #[test]

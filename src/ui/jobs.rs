@@ -183,6 +183,12 @@ pub fn keep_saved(state: JobState) {
         if state.save_note.get_untracked() == SaveNote::Conflict {
             return;
         }
+        // A user's edit makes an example theirs (the mark and the invented words go); this
+        // runs the effect once more, which then saves it.
+        if state.job.with_untracked(|j| j.example) {
+            state.job.update(crate::engine::demo::claim);
+            return;
+        }
         if let Some(handle) = timer.get_value() {
             handle.clear();
         }
@@ -313,6 +319,7 @@ pub fn JobsArea() -> impl IntoView {
                 <h2>"Open now"</h2>
                 <TextField label="Job name" path="name" get=|j: &Job| j.name.clone() set=|j: &mut Job, v| j.name = v />
                 <TextField label="Site" path="site.location" get=|j: &Job| j.site.location.clone() set=|j: &mut Job, v| j.site.location = v />
+                <TextField label="Notes" path="notes" get=|j: &Job| j.notes.clone() set=|j: &mut Job, v| j.notes = v />
             </div>
             <button type="button" class="button wide" on:click=new_job>"Start a new job"</button>
             <Transfer />

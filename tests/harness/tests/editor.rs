@@ -275,3 +275,39 @@ async fn nothing_overflows_sideways_and_the_projector_view_reads_large() {
     b.screenshot("projector-contrast").await;
     app.finish().await;
 }
+
+/// Once the user edits the example it is theirs: the banner and the mark go, the invented
+/// notes, site and "(example)" go, the figures stay, and the printed report never calls it an
+/// example; the job's notes are a field of its own.
+#[tokio::test]
+async fn an_edited_example_becomes_the_users_own_job() {
+    let app = AppSession::start("claim_example", Viewport::PHONE).await;
+    let b = &app.browser;
+    b.wait_for(".example-banner").await;
+    open_phase(b, 1).await;
+    b.fill(&field("cycle[1].load.force_n"), "250").await;
+    let stored = b
+        .stored_job_when(|j| j["cycle"][1]["load"]["force_n"].as_f64() == Some(250e3))
+        .await;
+    assert!(
+        stored.get("example").is_none_or(|e| e == false),
+        "the stored job is no longer an example: {}",
+        stored["example"]
+    );
+    assert_eq!(stored["notes"].as_str().unwrap_or_default(), "");
+    assert_eq!(stored["name"], "Scrap baler");
+    assert_eq!(b.count(".example-banner").await, 0, "the banner is gone");
+    // The printed report says nothing of an example.
+    b.eval("location.hash = '#/report'; return null;").await;
+    b.wait_for(".report").await;
+    let report = b.text("main").await;
+    assert!(!report.contains("Example data"), "{report}");
+    assert!(!report.contains("invented"), "{report}");
+    // The job's notes are the user's to write.
+    b.eval("location.hash = '#/jobs'; return null;").await;
+    b.fill("[data-path='notes']", "Baler 3, measured 2 Dec")
+        .await;
+    b.stored_job_when(|j| j["notes"] == "Baler 3, measured 2 Dec")
+        .await;
+    app.finish().await;
+}

@@ -78,6 +78,8 @@ async fn every_area_is_reachable_from_the_navigation_and_safety_from_every_area(
     }
     b.click(&format!(".topbar a[href='{}']", Area::Safety.href()))
         .await;
+    // The count waits for the safety page itself, not only the click.
+    b.wait_for("main[data-area='safety'] .caution").await;
     let cautions = b
         .eval("return document.querySelectorAll('.caution').length;")
         .await;
