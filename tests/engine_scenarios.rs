@@ -943,3 +943,35 @@ fn a_metered_move_whose_limit_starves_its_flow_control_says_so() {
         report.designs[0].phases[0].findings
     );
 }
+
+/// "Which phase wastes most" is answered per cycle: the trim press's 10 s idle over the relief
+/// (4731.873 W, worked above) costs 47.32 kJ a cycle and outranks its 5 s dwell at the same
+/// power (23.66 kJ); each phase's energy is its input times its duration, the shares add up to
+/// the whole cycle, and the dwell says both the 120 bar it needs and the 160 bar the pump holds.
+#[test]
+fn phases_rank_by_their_energy_over_the_cycle() {
+    let (cycle, d) = trim_press(false);
+    let job = job(cycle, vec![d]);
+    let report = solve(&job).unwrap();
+    let ranked = phasewise::engine::phases_by_energy(&job, &report, 0);
+    assert_eq!(ranked.len(), 5);
+    let place = |name: &str| ranked.iter().position(|e| e.name == name).unwrap();
+    assert!(place("unload part") < place("dwell"));
+    let idle = &ranked[place("unload part")];
+    assert_close(idle.energy_j, 4_731.872_864_446_938 * 10.0, REL, "idle, J");
+    let dwell = &ranked[place("dwell")];
+    assert_close(dwell.energy_j, 4_731.872_864_446_938 * 5.0, REL, "dwell, J");
+    assert_eq!(dwell.needed_pa, Some(120e5));
+    assert_close(dwell.pump_pa, 160e5, REL, "dwell pump, Pa");
+    assert_eq!(idle.needed_pa, None);
+    let shares: f64 = ranked.iter().map(|e| e.share).sum();
+    assert_close(shares, 1.0, 1e-12, "shares");
+    assert_close(
+        ranked.iter().map(|e| e.energy_j).sum::<f64>(),
+        report.designs[0].totals.energy_per_cycle.value,
+        1e-12,
+        "the cycle's energy",
+    );
+    assert!(ranked.windows(2).all(|w| w[0].energy_j >= w[1].energy_j));
+    assert!(phasewise::engine::phases_by_energy(&job, &report, 3).is_empty());
+}

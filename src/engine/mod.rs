@@ -72,6 +72,65 @@ pub fn solve(job: &Job) -> Result<JobReport, Vec<InputError>> {
     })
 }
 
+/// One phase's part of a cycle's energy: what "which phase wastes most" is answered by, since
+/// a long idle at a few kilowatts can cost more than a short dwell at many.
+#[derive(Clone, Debug, PartialEq, Serialize)]
+pub struct PhaseEnergy {
+    /// The phase's place in the cycle (from 0).
+    pub phase: usize,
+    pub name: String,
+    /// Electrical energy over the phase, once per cycle (J).
+    pub energy_j: f64,
+    /// Its share of the cycle's electrical energy (0 when the cycle draws none).
+    pub share: f64,
+    /// Of it, what ends as heat in the oil (J).
+    pub heat_j: f64,
+    /// The pressure the phase needs (the advice's reading of it), if it needs any (Pa).
+    pub needed_pa: Option<f64>,
+    /// The pressure the pump works at in the phase (Pa).
+    pub pump_pa: f64,
+}
+
+/// Each phase of design `d`'s report by its energy over one cycle, most first (ties in cycle
+/// order). Empty for a design the report does not hold.
+pub fn phases_by_energy(job: &Job, report: &JobReport, d: usize) -> Vec<PhaseEnergy> {
+    let Some(design) = report.designs.get(d) else {
+        return Vec::new();
+    };
+    let total: f64 = design
+        .phases
+        .iter()
+        .map(|p| p.ledger.electrical_input.value * p.point.duration.value)
+        .sum();
+    let mut phases: Vec<PhaseEnergy> = design
+        .phases
+        .iter()
+        .enumerate()
+        .map(|(i, p)| {
+            let t = p.point.duration.value;
+            let energy = p.ledger.electrical_input.value * t;
+            PhaseEnergy {
+                phase: i,
+                name: p.name.clone(),
+                energy_j: energy,
+                share: if total > 0.0 { energy / total } else { 0.0 },
+                heat_j: p.ledger.heat_into_oil().value * t,
+                needed_pa: job
+                    .cycle
+                    .get(i)
+                    .and_then(|ph| settings::needed_pressure(&ph.kind, &job.advice)),
+                pump_pa: p.point.system_pressure.value,
+            }
+        })
+        .collect();
+    phases.sort_by(|a, b| {
+        b.energy_j
+            .total_cmp(&a.energy_j)
+            .then(a.phase.cmp(&b.phase))
+    });
+    phases
+}
+
 /// Everything the engine says about a job, in one document: what `cargo run --example solve`
 /// prints (its shape is in DEVELOPERS.md, "Everything the engine says").
 #[derive(Clone, Debug, PartialEq, Serialize)]

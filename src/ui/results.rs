@@ -210,6 +210,7 @@ fn ReportView(
             view! { <p class="empty-note">"No power is drawn in this cycle (the motor is stopped throughout), so there is nothing to chart."</p> }.into_any()
         }}
         <button type="button" class="button" data-action="ledger-csv" on:click=download_csv>"Download this ledger for a spreadsheet (CSV)"</button>
+        <PhasesByEnergy report=report.clone() d=d units=units />
         <h2>"Through the cycle"</h2>
         <TimelineChart design=design.clone() units=units />
         <h2>"Phase by phase"</h2>
@@ -222,6 +223,45 @@ fn ReportView(
                 {design.findings.iter().map(|f| view! { <li>{f.describe(units)}</li> }).collect_view()}
             </ul>
         })}
+    }
+}
+
+/// The phases ranked by their energy over one cycle, with their share of it and, where a
+/// phase needs less pressure than the pump works at, both pressures.
+#[component]
+fn PhasesByEnergy(report: std::sync::Arc<JobReport>, d: usize, units: UnitSystem) -> impl IntoView {
+    let state = use_job();
+    // The report shown (the last good one while a figure is being retyped), with the job's
+    // needs as they were read for it.
+    let ranked = state
+        .job
+        .with_untracked(|job| crate::engine::phases_by_energy(job, &report, d));
+    view! {
+        <h2>"Where each cycle's energy goes"</h2>
+        <ol class="card energy-rank" data-energy-rank="true">
+            {ranked.into_iter().map(|e| {
+                let pressures = match e.needed_pa {
+                    Some(need) if (e.pump_pa - need).abs() > need.abs() * 0.01 + 1e3 => format!(
+                        "needs {}, pump at {}",
+                        Measure::Pressure.with_unit(units, need),
+                        Measure::Pressure.with_unit(units, e.pump_pa)
+                    ),
+                    Some(need) => format!("at {}", Measure::Pressure.with_unit(units, need)),
+                    None => format!("needs no pressure, pump at {}", Measure::Pressure.with_unit(units, e.pump_pa)),
+                };
+                view! {
+                    <li data-phase=e.phase>
+                        <span class="rank-name">{format!("{}. {}", e.phase + 1, e.name)}</span>
+                        <span class="rank-energy" data-value="energy">{format!(
+                            "{} per cycle, {:.0} % of it",
+                            Measure::Energy.with_unit(units, e.energy_j),
+                            e.share * 100.0
+                        )}</span>
+                        <span class="rank-pressure" data-value="pressures">{pressures}</span>
+                    </li>
+                }
+            }).collect_view()}
+        </ol>
     }
 }
 

@@ -311,3 +311,36 @@ async fn an_edited_example_becomes_the_users_own_job() {
         .await;
     app.finish().await;
 }
+
+/// The results rank the phases by their energy over one cycle, as the engine does, and say
+/// both the pressure a phase needs and the pressure the pump works at where they differ: the
+/// demo's 25 s of loading scrap over the relief outranks its 4 s dwell at the same power.
+#[tokio::test]
+async fn the_results_rank_phases_by_their_energy_per_cycle() {
+    let app = AppSession::start_at("energy_rank", Viewport::PHONE, "#/results").await;
+    let b = &app.browser;
+    let job = scrap_baler();
+    let report = solve(&job).unwrap();
+    let ranked = phasewise::engine::phases_by_energy(&job, &report, 0);
+    b.wait_for("[data-energy-rank] li").await;
+    let shown = b
+        .eval("return [...document.querySelectorAll('[data-energy-rank] li')].map(l => Number(l.dataset.phase));")
+        .await;
+    let expected: Vec<usize> = ranked.iter().map(|e| e.phase).collect();
+    assert_eq!(shown, serde_json::json!(expected), "the engine's order");
+    let first = job.cycle[ranked[0].phase].name.clone();
+    assert_eq!(first, "Load scrap");
+    let dwell = b
+        .text("[data-energy-rank] li[data-phase='2'] [data-value='pressures']")
+        .await;
+    assert_eq!(dwell, "needs 160.0 bar, pump at 210.0 bar");
+    let share = b
+        .text("[data-energy-rank] li[data-phase='4'] [data-value='energy']")
+        .await;
+    assert!(
+        share.ends_with(&format!("{:.0} % of it", ranked[0].share * 100.0)),
+        "{share}"
+    );
+    b.screenshot("ranked").await;
+    app.finish().await;
+}
