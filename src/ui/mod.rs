@@ -18,6 +18,7 @@ mod settings_area;
 mod share;
 mod staging_panel;
 pub mod state;
+mod undo;
 mod unit_editor;
 
 use area::Area;

@@ -32,8 +32,14 @@ pub fn SettingsArea() -> impl IntoView {
         let (job, target) = state
             .job
             .with_untracked(|j| settings::apply_to_proposed(j, shown, &action));
-        let name = job.designs[target].name.clone();
-        state.job.set(job);
+        let Some(name) = job.designs.get(target).map(|x| x.name.clone()) else {
+            return;
+        };
+        state.change_with_undo(
+            "advice",
+            format!("Changed “{name}” by the advice"),
+            |j| *j = job,
+        );
         state.design.set(target);
         applied.set(Some(format!(
             "Applied to “{name}”, now shown. The baseline is unchanged."
@@ -48,6 +54,7 @@ pub fn SettingsArea() -> impl IntoView {
             <SettingsCaution />
             <DesignTabs />
             {move || applied.get().map(|t| view! { <p class="save-note" role="status" data-applied="true">{t}</p> })}
+            <super::undo::UndoChange place="advice" />
             {move || match advice.get() {
                 None => view! { <p class="empty-note">"Advice appears once every figure of the job is valid."</p> }.into_any(),
                 Some((needs, list)) => {

@@ -72,8 +72,14 @@ pub fn StagingPanel() -> impl IntoView {
         let (job, target) = state
             .job
             .with_untracked(|j| staging::apply_candidate(j, shown, &candidate));
-        let name = job.designs[target].name.clone();
-        state.job.set(job);
+        let Some(name) = job.designs.get(target).map(|x| x.name.clone()) else {
+            return;
+        };
+        state.change_with_undo(
+            "staging",
+            format!("Gave “{name}” the candidate's pumps and motor"),
+            |j| *j = job,
+        );
         state.design.set(target);
         note.set(Some(format!("“{name}” now has this candidate's pumps, motor and settings. The baseline is unchanged.")));
     };
@@ -97,6 +103,7 @@ pub fn StagingPanel() -> impl IntoView {
                 Run::Finished { result, ms } => view! { <Found result=result ms=ms apply=apply /> }.into_any(),
             }}
             {move || note.get().map(|t| view! { <p class="save-note" role="status" data-staging-applied="true">{t}</p> })}
+            <super::undo::UndoChange place="staging" />
         </section>
     }
 }

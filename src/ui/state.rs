@@ -25,6 +25,22 @@ pub struct Display {
     pub high_contrast: bool,
 }
 
+/// A change that threw something away (a design removed, a proposed design overwritten), kept
+/// so one tap puts the job back as it was.
+#[derive(Clone, Debug, PartialEq)]
+pub struct Undo {
+    /// Where it was done (the bar that offers it shows there): "unit", "advice", "staging".
+    pub place: &'static str,
+    /// What was done, in words ("Removed “Proposed”").
+    pub what: String,
+    /// The job before it, and the design shown then.
+    pub before: Job,
+    pub design: usize,
+    /// The job just after it: the undo is offered only while the job is still this (any later
+    /// edit would be lost by it).
+    pub after: Job,
+}
+
 #[derive(Clone, Copy)]
 pub struct JobState {
     pub job: RwSignal<Job>,
@@ -57,6 +73,8 @@ pub struct JobState {
     /// A one-off message for the jobs area (a job arrived by a link, or a link was unreadable):
     /// whether it is good news, and the sentence.
     pub notice: RwSignal<Option<(bool, String)>>,
+    /// The last change that threw something away, while it can still be undone.
+    pub undo: RwSignal<Option<Undo>>,
     /// The autosave waiting for the edits to pause, if one is.
     pub pending_save: StoredValue<Option<leptos::prelude::TimeoutHandle>>,
 }
@@ -123,7 +141,33 @@ impl JobState {
             deleted_entry: RwSignal::new(None),
             pending_save: StoredValue::new(None),
             notice: RwSignal::new(None),
+            undo: RwSignal::new(None),
         }
+    }
+
+    /// Changes the job by `change`, keeping what it was so the change can be undone (see
+    /// [`Undo`]); `what` says what was done, `place` where its bar shows.
+    pub fn change_with_undo(
+        &self,
+        place: &'static str,
+        what: String,
+        change: impl FnOnce(&mut Job),
+    ) {
+        let before = self.job.get_untracked();
+        let design = self.design.get_untracked();
+        self.job.update(|j| {
+            change(j);
+            // An edit makes an example the user's own (as the autosave would next), so the job
+            // the undo is offered against is the one that stays.
+            crate::engine::demo::claim(j);
+        });
+        self.undo.set(Some(Undo {
+            place,
+            what,
+            before,
+            design,
+            after: self.job.get_untracked(),
+        }));
     }
 
     pub fn units(&self) -> UnitSystem {

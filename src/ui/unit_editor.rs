@@ -104,10 +104,14 @@ pub fn UnitArea() -> impl IntoView {
     };
     let remove_design = move |_: leptos::ev::MouseEvent| {
         let d = state.design_index();
-        state.job.update(|j| {
-            if j.designs.len() > 1 {
-                j.designs.remove(d);
-            }
+        if state.job.with_untracked(|j| j.designs.len()) <= 1 {
+            return;
+        }
+        let name = state
+            .job
+            .with_untracked(|j| j.designs.get(d).map(|x| x.name.clone()).unwrap_or_default());
+        state.change_with_undo("unit", format!("Removed “{name}”"), |j| {
+            j.designs.remove(d);
         });
         state.design.set(d.saturating_sub(1));
     };
@@ -123,9 +127,10 @@ pub fn UnitArea() -> impl IntoView {
             <super::cycle_editor::ExampleBanner />
             <super::results::LiveSummary />
             <DesignTabs />
+            <super::undo::UndoChange place="unit" />
             <div class="row-tools">
                 <button type="button" class="button" on:click=add_design>"Copy as a new proposal"</button>
-                <button type="button" class="button danger" disabled=move || { designs() <= 1 } on:click=remove_design>"Remove this unit"</button>
+                <button type="button" class="button danger" data-action="remove-design" disabled=move || { designs() <= 1 } on:click=remove_design>"Remove this unit"</button>
             </div>
             {move || {
                 let d = shown.get();

@@ -344,3 +344,28 @@ async fn the_results_rank_phases_by_their_energy_per_cycle() {
     b.screenshot("ranked").await;
     app.finish().await;
 }
+
+/// Removing a design throws its figures away: one tap brings it back, as it was.
+#[tokio::test]
+async fn a_removed_design_comes_back_with_undo() {
+    let app = AppSession::start_at("undo_design", Viewport::PHONE, "#/unit").await;
+    let b = &app.browser;
+    let job = scrap_baler();
+    b.click(".design-tabs button:nth-child(2)").await;
+    b.click("[data-action='remove-design']").await;
+    let bar = b
+        .wait_for_text("[data-undo]", |t| t.contains("Removed “Proposed”"))
+        .await;
+    assert!(bar.contains("Undo"), "{bar}");
+    b.stored_job_when(|j| j["designs"].as_array().map(Vec::len) == Some(1))
+        .await;
+    b.click("[data-action='undo']").await;
+    let stored = b
+        .stored_job_when(|j| j["designs"].as_array().map(Vec::len) == Some(2))
+        .await;
+    let proposed: phasewise::engine::power_unit::Design =
+        serde_json::from_value(stored["designs"][1].clone()).unwrap();
+    assert_eq!(proposed, job.designs[1], "the design is back as it was");
+    assert_eq!(b.count("[data-undo]").await, 0, "the bar goes once used");
+    app.finish().await;
+}

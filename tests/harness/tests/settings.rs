@@ -123,7 +123,30 @@ async fn the_demo_advice_shows_and_one_applies_to_the_proposed_design() {
     let as_found: Design = serde_json::from_value(stored["designs"][0].clone()).unwrap();
     assert_eq!(as_found, job.designs[0], "the baseline is unchanged");
     let proposed: Design = serde_json::from_value(stored["designs"][1].clone()).unwrap();
-    // The area now shows the changed design's advice, if any.
+    // The change can be undone: the proposed design is back as it was before the advice.
+    b.wait_for_text("[data-undo]", |t| t.contains("by the advice"))
+        .await;
+    b.click("[data-action='undo']").await;
+    b.stored_job_when(|j| {
+        serde_json::from_value::<Design>(j["designs"][1].clone())
+            .ok()
+            .as_ref()
+            == Some(&job.designs[1])
+    })
+    .await;
+    // ... and applied again, the area shows the changed design's advice, if any.
+    b.click(&format!(
+        ".advice-list > li:nth-child({}) [data-action='apply-advice']",
+        index + 1
+    ))
+    .await;
+    b.stored_job_when(|j| {
+        serde_json::from_value::<Design>(j["designs"][1].clone())
+            .ok()
+            .as_ref()
+            == Some(&want.designs[1])
+    })
+    .await;
     let changed = Job {
         designs: vec![as_found, proposed],
         ..job.clone()
