@@ -33,6 +33,90 @@ pub fn place_of(field: &str, job: &Job) -> String {
     }
 }
 
+/// A field's name in words, from its path: `cycle[1].load.force_n` is "force",
+/// `designs[0].relief.setting_pa` is "relief setting". The unit suffix of the job file's key
+/// goes; the part it belongs to stays where it says which (relief, motor, unloading, check).
+pub fn field_words(field: &str) -> String {
+    const SUFFIXES: [&str; 13] = [
+        "_m3_per_rev",
+        "_m3_per_s",
+        "_rad_per_s",
+        "_m_per_s",
+        "_kg_per_m3",
+        "_j_per_kg_k",
+        "_per_kwh",
+        "_m3",
+        "_pa",
+        "_m",
+        "_n",
+        "_s",
+        "_w",
+    ];
+    let mut parts = field.split('.').map(|p| p.split('[').next().unwrap_or(p));
+    let last = parts.next_back().unwrap_or(field);
+    let key = SUFFIXES
+        .iter()
+        .find_map(|s| last.strip_suffix(s))
+        .unwrap_or(last);
+    let owner = parts.next_back().filter(|p| {
+        matches!(
+            *p,
+            "relief" | "motor" | "unloading" | "check" | "load" | "speed"
+        )
+    });
+    let words = key.replace('_', " ");
+    match owner {
+        Some(owner) if !words.starts_with(owner) && owner != "load" && owner != "speed" => {
+            format!("{owner} {words}")
+        }
+        _ => words,
+    }
+}
+
+/// The area that holds a field, by its path.
+pub fn area_of(field: &str) -> super::area::Area {
+    use super::area::Area;
+    match field.split(['.', '[']).next().unwrap_or_default() {
+        "cycle" => Area::Cycle,
+        "designs" => Area::PowerUnit,
+        "site" | "oil" => Area::Quote,
+        "advice" | "staging" => Area::Settings,
+        "pump_tests" | "wear" => Area::PumpTest,
+        _ => Area::Jobs,
+    }
+}
+
+/// Opens the area holding `field` (the phase or design it belongs to first) and puts the
+/// cursor in it.
+fn go_to_field(state: super::state::JobState, field: String) {
+    let index = |prefix: &str| {
+        field
+            .strip_prefix(prefix)
+            .and_then(|rest| rest.split(']').next())
+            .and_then(|n| n.parse::<usize>().ok())
+    };
+    if let Some(i) = index("cycle[") {
+        state.open_phase.set(Some(i));
+    }
+    if let Some(i) = index("designs[") {
+        state.design.set(i);
+    }
+    let _ = window().location().set_hash(&area_of(&field).href());
+    // Once the area has drawn, the field takes the cursor and comes into view.
+    let _ = set_timeout_with_handle(
+        move || {
+            let selector = format!("[data-path='{field}']");
+            if let Ok(Some(el)) = document().query_selector(&selector) {
+                el.scroll_into_view();
+                if let Ok(input) = wasm_bindgen::JsCast::dyn_into::<web_sys::HtmlInputElement>(el) {
+                    let _ = input.focus();
+                }
+            }
+        },
+        std::time::Duration::from_millis(150),
+    );
+}
+
 /// The display switches: projector view and high contrast.
 #[component]
 pub fn DisplaySwitches() -> impl IntoView {
@@ -153,7 +237,18 @@ pub fn StaleNotice() -> impl IntoView {
                         if count == 1 { "figure" } else { "figures" }
                     )}
                     <ul>
-                        {errors.iter().take(5).map(|e| view! { <li>{format!("{}: {}", place_of(&e.field, &job), e.message)}</li> }).collect_view()}
+                        {errors.iter().take(5).map(|e| {
+                            let field = e.field.clone();
+                            view! {
+                                <li>
+                                    {format!("{}, {}: {} ", place_of(&e.field, &job), field_words(&e.field), e.message)}
+                                    <a href=area_of(&e.field).href() data-go-to=e.field.clone()
+                                        on:click=move |ev| { ev.prevent_default(); go_to_field(state, field.clone()); }>
+                                        "Go to it"
+                                    </a>
+                                </li>
+                            }
+                        }).collect_view()}
                     </ul>
                 </div>
             }
@@ -360,5 +455,39 @@ fn PhaseResult(i: usize, phase: crate::engine::PhaseReport, units: UnitSystem) -
                 </ul>
             })}
         </li>
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::{area_of, field_words};
+    use crate::ui::area::Area;
+
+    #[test]
+    fn a_field_is_named_in_words_and_found_in_its_area() {
+        assert_eq!(field_words("cycle[1].load.force_n"), "force");
+        assert_eq!(field_words("cycle[0].cylinder.bore_m"), "bore");
+        assert_eq!(
+            field_words("designs[0].relief.setting_pa"),
+            "relief setting"
+        );
+        assert_eq!(
+            field_words("designs[1].unloading_stages[0].unloading.setting_pa"),
+            "unloading setting"
+        );
+        assert_eq!(
+            field_words("designs[0].motor.rated_power_w"),
+            "motor rated power"
+        );
+        assert_eq!(field_words("site.tariff_per_kwh"), "tariff");
+        assert_eq!(field_words("name"), "name");
+        assert_eq!(area_of("cycle[3].duration_s"), Area::Cycle);
+        assert_eq!(
+            area_of("designs[0].base_pump.drag_power_w"),
+            Area::PowerUnit
+        );
+        assert_eq!(area_of("site.retrofit_price"), Area::Quote);
+        assert_eq!(area_of("advice.margin_min_pa"), Area::Settings);
+        assert_eq!(area_of("name"), Area::Jobs);
     }
 }

@@ -369,3 +369,34 @@ async fn a_removed_design_comes_back_with_undo() {
     assert_eq!(b.count("[data-undo]").await, 0, "the bar goes once used");
     app.finish().await;
 }
+
+/// The out-of-date notice names the field to fix, in words, and takes the user to it.
+#[tokio::test]
+async fn the_out_of_date_notice_names_the_field_and_goes_to_it() {
+    let app = AppSession::start("stale_goes_to_field", Viewport::PHONE).await;
+    let b = &app.browser;
+    open_phase(b, 1).await;
+    b.fill(&field("cycle[1].load.force_n"), "-5").await;
+    b.click("nav.areas a[href='#/results']").await;
+    let notice = b
+        .wait_for_text("[data-stale]", |t| t.contains("Go to it"))
+        .await;
+    assert!(notice.contains("Phase 2 (Compress), force: "), "{notice}");
+    b.click("[data-go-to='cycle[1].load.force_n']").await;
+    b.wait_for("main[data-area='cycle']").await;
+    let mut focused = serde_json::Value::Null;
+    for _ in 0..40 {
+        focused = b
+            .eval("return document.activeElement && document.activeElement.dataset.path;")
+            .await;
+        if focused == "cycle[1].load.force_n" {
+            break;
+        }
+        tokio::time::sleep(std::time::Duration::from_millis(50)).await;
+    }
+    assert_eq!(
+        focused, "cycle[1].load.force_n",
+        "the cursor is in the field"
+    );
+    app.finish().await;
+}
