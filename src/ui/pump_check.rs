@@ -389,17 +389,19 @@ fn TestResults(t: usize) -> impl IntoView {
     }
 }
 
-#[component]
-fn TestFindings(t: usize, test: PumpTest, report: TestReport) -> impl IntoView {
-    let state = use_job();
-    let u = state.job.with_untracked(|j| j.units);
+/// A test's verdict in words, with its style class and its short name (`good`, `watch`,
+/// `worn`, `none`): the pump-check area, the quote and the report say it the same way.
+pub(super) fn verdict_words(
+    test: &PumpTest,
+    report: &TestReport,
+) -> (&'static str, String, &'static str) {
     let (used, total) = (report.readings_used, test.readings.len());
     let basis = match report.readings_rejected {
         0 => format!("Judged on {used} readings."),
-        1 => format!("Judged on {used} readings; 1 left out (see the notes below)."),
-        n => format!("Judged on {used} readings; {n} left out (see the notes below)."),
+        1 => format!("Judged on {used} readings; 1 left out (its note says why)."),
+        n => format!("Judged on {used} readings; {n} left out (their notes say why)."),
     };
-    let (class, verdict_text, data) = match report.verdict {
+    match report.verdict {
         Verdict::Good {
             volumetric_at_rated,
         } => (
@@ -435,7 +437,8 @@ fn TestFindings(t: usize, test: PumpTest, report: TestReport) -> impl IntoView {
             if used == 0 {
                 "Not judged: no reading can be believed as it stands.".to_string()
             } else if report.problems.iter().any(|p| p.field == "readings") {
-                "Not judged: these readings give no leakage line (see the notes below).".to_string()
+                "Not judged: these readings give no leakage line (the readings' notes say why)."
+                    .to_string()
             } else {
                 format!(
                     "Not judged: a verdict needs at least {READINGS_FOR_VERDICT} believable readings at different test pressures, and {used} of the {total} readings can be believed."
@@ -443,7 +446,57 @@ fn TestFindings(t: usize, test: PumpTest, report: TestReport) -> impl IntoView {
             },
             "none",
         ),
-    };
+    }
+}
+
+/// Each pump test of the job with its verdict, for the quote and the report; nothing when the
+/// job has none.
+#[component]
+pub(super) fn PumpVerdicts() -> impl IntoView {
+    let state = use_job();
+    move || {
+        let lines: Vec<(String, &'static str, String)> = state.job.with(|j| {
+            state.pump_tests.with(|outcomes| {
+                j.pump_tests
+                    .iter()
+                    .zip(outcomes.iter())
+                    .map(|(test, outcome)| {
+                        let (_, words, data) = match outcome {
+                            Ok(report) => verdict_words(test, report),
+                            Err(_) => (
+                                "",
+                                "Not judged: the test has figures to fix.".to_string(),
+                                "none",
+                            ),
+                        };
+                        let when = if test.date.trim().is_empty() {
+                            String::new()
+                        } else {
+                            format!(", {}", test.date)
+                        };
+                        (format!("{}{when}", test.pump), data, words)
+                    })
+                    .collect()
+            })
+        });
+        (!lines.is_empty()).then(|| {
+            view! {
+                <ul class="pump-verdicts" data-pump-verdicts="true">
+                    {lines.into_iter().map(|(which, data, words)| view! {
+                        <li data-verdict=data><strong>{format!("{which}: ")}</strong>{words}</li>
+                    }).collect_view()}
+                </ul>
+            }
+        })
+    }
+}
+
+#[component]
+fn TestFindings(t: usize, test: PumpTest, report: TestReport) -> impl IntoView {
+    let state = use_job();
+    let u = state.job.with_untracked(|j| j.units);
+    let used = report.readings_used;
+    let (class, verdict_text, data) = verdict_words(&test, &report);
     let trend_text = state.job.with_untracked(|j| {
         let tr = efficiency::trend(&j.pump_tests, t, &j.wear)?;
         let when = j.pump_tests.get(tr.earlier)?.date.clone();

@@ -86,6 +86,12 @@ pub fn QuoteArea() -> impl IntoView {
                     </div>
                 }
             })}
+            {move || state.job.with(|j| !j.pump_tests.is_empty()).then(|| view! {
+                <div class="card" data-quote-pumps="true">
+                    <h2>"The pumps as checked"</h2>
+                    <super::pump_check::PumpVerdicts />
+                </div>
+            })}
             <SiteCosts />
             <OilFields />
             <a class="button wide" href=super::area::Area::Report.href() data-action="open-report">

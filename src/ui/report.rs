@@ -145,6 +145,13 @@ fn Document(job: Job, report: Arc<JobReport>, columns: Vec<QuoteColumn>) -> impl
                 <h2>"Cooling"</h2>
                 <CoolingList columns=columns.clone() units=units precision=Precision::ForCustomer />
             </section>
+            {(!job.pump_tests.is_empty()).then(|| view! {
+                <section class="report-block keep" data-report-pumps="true">
+                    <h2>"Pump checks"</h2>
+                    <p class="hint">"A worn pump loses flow and power whatever the retrofit: its verdict from the readings taken at the machine."</p>
+                    <super::pump_check::PumpVerdicts />
+                </section>
+            })}
 
             {designs}
 

@@ -88,6 +88,23 @@ async fn readings_typed_on_a_phone_give_the_engines_verdict_and_go_into_a_design
     assert_eq!(b.sideways_overflow().await, 0);
     b.screenshot("verdict").await;
     b.screenshot_of(".flow-chart", "chart").await;
+    // The verdict is also where the retrofit is decided: on the quote and in its report.
+    let said = b.text("[data-verdict]").await;
+    for (area, list) in [
+        ("#/quote", "[data-quote-pumps]"),
+        ("#/report", "[data-report-pumps]"),
+    ] {
+        b.eval(&format!("location.hash = '{area}'; return null;"))
+            .await;
+        let text = b
+            .wait_for_text(&format!("{list} [data-verdict='{kind}']"), |t| {
+                !t.is_empty()
+            })
+            .await;
+        assert!(text.contains(&said), "{area}: {text} / {said}");
+    }
+    b.eval("location.hash = '#/pump-test'; return null;").await;
+    b.wait_for("[data-verdict]").await;
 
     // A reading that cannot be right gets its message at the field, and no figure.
     b.fill(&field(&format!("{t}.readings[1].flow_m3_per_s")), "120")
