@@ -219,6 +219,17 @@ async fn the_staging_search_runs_and_its_best_candidate_becomes_the_proposed_des
     let as_found: phasewise::engine::power_unit::Design =
         serde_json::from_value(stored["designs"][0].clone()).unwrap();
     assert_eq!(as_found, job.designs[0]);
+    // The overwritten proposal comes back with one tap.
+    b.wait_for_text("[data-undo]", |t| t.contains("candidate's pumps and motor"))
+        .await;
+    b.click("[data-action='undo']").await;
+    b.stored_job_when(|j| {
+        serde_json::from_value::<phasewise::engine::power_unit::Design>(j["designs"][1].clone())
+            .ok()
+            .as_ref()
+            == Some(&job.designs[1])
+    })
+    .await;
     app.finish().await;
 }
 
