@@ -105,6 +105,32 @@ fn negative_zero_and_not_a_number_say_which() {
     );
 }
 
+/// A length, a force or a time out of range is said in the field's own unit and the job's
+/// unit system, rounded as the field shows it: never the stored metres with float noise.
+#[test]
+fn an_absurd_length_is_refused_in_the_fields_own_unit_without_float_noise() {
+    let bore = |j: &mut Job| {
+        if let PhaseKind::Move(m) = &mut j.cycle[0].kind {
+            m.cylinder.bore = mm(999_999_999_999.999);
+        }
+    };
+    let errors = errors_after(bore);
+    assert_eq!(errors[0].0, "cycle[0].cylinder.bore_m");
+    assert_eq!(
+        errors[0].1,
+        "1000000000000.0 mm is more than any machine has: at most 50000.0 mm"
+    );
+    let errors = errors_after(|j| {
+        j.units = phasewise::engine::units::UnitSystem::UsCustomary;
+        bore(j);
+    });
+    assert!(
+        errors[0].1.ends_with("at most 1968.504 in"),
+        "{}",
+        errors[0].1
+    );
+}
+
 #[test]
 fn an_absurd_pressure_is_refused_with_the_limit_in_the_jobs_units() {
     let errors = errors_after(|j| j.designs[0].relief.setting = bar_(25_000.0));

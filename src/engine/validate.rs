@@ -7,7 +7,7 @@ use super::cycle::{Load, PhaseKind, SpeedRule};
 use super::job::{Job, SCHEMA_VERSION};
 use super::power_unit::{Design, MAX_PUMPS};
 use super::pump::{Pump, PumpControl};
-use super::units::{UnitSystem, BAR, LITRE_PER_MINUTE};
+use super::units::{Measure, UnitSystem, BAR, LITRE_PER_MINUTE};
 use super::valve::{ActiveLimit, IdlePath};
 use serde::Serialize;
 
@@ -114,17 +114,18 @@ impl Checker {
         self.amount(field, value, zero_ok, MAX_POWER, UnitSystem::power)
     }
 
-    /// As `amount`, for a quantity shown as it is stored (metres, seconds, hours...).
+    /// As `amount`, with the figures in the field's own unit and the job's unit system, rounded
+    /// as the field shows them (never "999999999.9990001 m").
     fn plain(
         &mut self,
         field: &str,
         value: f64,
         zero_ok: bool,
         max: f64,
-        unit: &'static str,
+        measure: Measure,
     ) -> bool {
-        self.amount(field, value, zero_ok, max, move |_, v| {
-            format!("{v} {unit}")
+        self.amount(field, value, zero_ok, max, move |units, v| {
+            measure.with_unit(units, v)
         })
     }
 
@@ -178,39 +179,51 @@ pub fn validate(job: &Job) -> Result<(), Vec<InputError>> {
         job.site.operating_hours_per_year,
         true,
         HOURS_PER_YEAR,
-        "h",
+        Measure::HoursPerYear,
     );
     c.plain(
         "site.tariff_per_kwh",
         job.site.tariff_per_kwh,
         true,
         1e3,
-        "per kWh",
+        Measure::Tariff,
     );
     c.plain(
         "site.retrofit_price",
         job.site.retrofit_price,
         true,
         1e12,
-        "",
+        Measure::Money,
     );
     if let Some(f) = job.site.grid_factor {
-        c.plain("site.grid_kg_co2_per_kwh", f, true, 5.0, "kg/kWh");
+        c.plain(
+            "site.grid_kg_co2_per_kwh",
+            f,
+            true,
+            5.0,
+            Measure::GridFactor,
+        );
     }
-    c.plain("oil.volume_m3", job.oil.volume.value, false, 1000.0, "m3");
+    c.plain(
+        "oil.volume_m3",
+        job.oil.volume.value,
+        false,
+        1000.0,
+        Measure::OilVolume,
+    );
     c.plain(
         "oil.density_kg_per_m3",
         job.oil.density.value,
         false,
         2000.0,
-        "kg/m3",
+        Measure::Density,
     );
     c.plain(
         "oil.specific_heat_j_per_kg_k",
         job.oil.specific_heat.value,
         false,
         10_000.0,
-        "J/(kg.K)",
+        Measure::SpecificHeat,
     );
     let a = &job.advice;
     c.fraction("advice.margin_fraction", a.margin_fraction, true);
@@ -233,7 +246,7 @@ pub fn validate(job: &Job) -> Result<(), Vec<InputError>> {
             v.value,
             false,
             1e-2,
-            "m3/rev",
+            Measure::Displacement,
         );
     }
     for (i, v) in st.speeds.iter().enumerate() {
@@ -242,21 +255,33 @@ pub fn validate(job: &Job) -> Result<(), Vec<InputError>> {
             v.value,
             false,
             1e3,
-            "rad/s",
+            Measure::ShaftSpeed,
         );
     }
     if !(1..=3).contains(&st.max_pumps) {
         c.fail("staging.max_pumps", "choose one to three pumps");
     }
-    c.plain("staging.service_factor", st.service_factor, false, 2.0, "");
-    c.plain("staging.peak_allowance", st.peak_allowance, false, 5.0, "");
+    c.plain(
+        "staging.service_factor",
+        st.service_factor,
+        false,
+        2.0,
+        Measure::Factor,
+    );
+    c.plain(
+        "staging.peak_allowance",
+        st.peak_allowance,
+        false,
+        5.0,
+        Measure::Factor,
+    );
     if let Some(t) = st.cycle_time_target {
         c.plain(
             "staging.cycle_time_target_s",
             t.value,
             false,
             MAX_DURATION,
-            "s",
+            Measure::Duration,
         );
     }
     c.fraction("wear.good_from", job.wear.good_from, false);
@@ -284,8 +309,20 @@ fn check_phase(c: &mut Checker, kind: &PhaseKind) {
     match kind {
         PhaseKind::Move(m) => {
             let cyl = &m.cylinder;
-            let bore = c.plain("cylinder.bore_m", cyl.bore.value, false, MAX_LENGTH, "m");
-            let rod = c.plain("cylinder.rod_m", cyl.rod.value, true, MAX_LENGTH, "m");
+            let bore = c.plain(
+                "cylinder.bore_m",
+                cyl.bore.value,
+                false,
+                MAX_LENGTH,
+                Measure::Length,
+            );
+            let rod = c.plain(
+                "cylinder.rod_m",
+                cyl.rod.value,
+                true,
+                MAX_LENGTH,
+                Measure::Length,
+            );
             if bore && rod && cyl.rod.value >= cyl.bore.value {
                 c.fail("cylinder.rod_m", "the rod must be thinner than the bore");
             }
@@ -294,11 +331,11 @@ fn check_phase(c: &mut Checker, kind: &PhaseKind) {
                 cyl.stroke.value,
                 false,
                 MAX_LENGTH,
-                "m",
+                Measure::Length,
             );
             match m.load {
                 Load::Force { force } => {
-                    c.plain("load.force_n", force.value, true, MAX_FORCE, "N");
+                    c.plain("load.force_n", force.value, true, MAX_FORCE, Measure::Force);
                 }
                 Load::Pressure { pressure } => {
                     c.pressure("load.pressure_pa", pressure.value, true);
@@ -313,7 +350,7 @@ fn check_phase(c: &mut Checker, kind: &PhaseKind) {
                         speed.value,
                         false,
                         MAX_VELOCITY,
-                        "m/s",
+                        Measure::Speed,
                     );
                 }
                 SpeedRule::MeteredFlow { flow } => {
@@ -321,20 +358,44 @@ fn check_phase(c: &mut Checker, kind: &PhaseKind) {
                 }
             }
             if let Some(t) = m.target_time {
-                c.plain("target_time_s", t.value, false, MAX_DURATION, "s");
+                c.plain(
+                    "target_time_s",
+                    t.value,
+                    false,
+                    MAX_DURATION,
+                    Measure::Duration,
+                );
             }
         }
         PhaseKind::Hold(h) => {
             c.pressure("pressure_pa", h.pressure.value, false);
-            c.plain("duration_s", h.duration.value, false, MAX_DURATION, "s");
+            c.plain(
+                "duration_s",
+                h.duration.value,
+                false,
+                MAX_DURATION,
+                Measure::Duration,
+            );
         }
         PhaseKind::Idle(i) => {
-            c.plain("duration_s", i.duration.value, false, MAX_DURATION, "s");
+            c.plain(
+                "duration_s",
+                i.duration.value,
+                false,
+                MAX_DURATION,
+                Measure::Duration,
+            );
         }
         PhaseKind::Direct(d) => {
             c.flow("flow_m3_per_s", d.flow.value, true);
             c.pressure("pressure_pa", d.pressure.value, true);
-            c.plain("duration_s", d.duration.value, false, MAX_DURATION, "s");
+            c.plain(
+                "duration_s",
+                d.duration.value,
+                false,
+                MAX_DURATION,
+                Measure::Duration,
+            );
         }
     }
 }
@@ -360,7 +421,7 @@ fn check_design_fields(c: &mut Checker, d: &Design, job: &Job) {
         c.fail("name", "give the power unit a name");
     }
     if let Some(price) = d.retrofit_price {
-        c.plain("retrofit_price", price, true, 1e12, "");
+        c.plain("retrofit_price", price, true, 1e12, Measure::Money);
     }
     let m = &d.motor;
     c.power("motor.rated_power_w", m.rated_power.value, false);
@@ -491,7 +552,7 @@ fn check_pump(c: &mut Checker, p: &Pump) {
         p.displacement.value,
         false,
         MAX_DISPLACEMENT,
-        "m3/rev",
+        Measure::Displacement,
     );
     c.fraction("volumetric_efficiency", p.volumetric_efficiency, false);
     c.pressure("efficiency_pressure_pa", p.efficiency_pressure.value, false);
@@ -569,7 +630,7 @@ fn check_pump_test(
             test.displacement.value,
             false,
             MAX_DISPLACEMENT,
-            "m3/rev",
+            Measure::Displacement,
         );
         let full_load = test.speed.value;
         let full_load_ok = c.amount("speed_rad_per_s", full_load, false, MAX_SPEED_RAD_S, rpm);
@@ -618,8 +679,8 @@ fn check_pump_test(
                         current,
                         power_factor,
                     }) => {
-                        c.plain("electrical.line_voltage_v", voltage.value, false, 50e3, "V");
-                        c.plain("electrical.line_current_a", current.value, false, 50e3, "A");
+                        c.plain("electrical.line_voltage_v", voltage.value, false, 50e3, Measure::Voltage);
+                        c.plain("electrical.line_current_a", current.value, false, 50e3, Measure::Current);
                         if !(power_factor.is_finite() && power_factor > 0.0 && power_factor <= 1.0) {
                             c.fail(
                                 "electrical.power_factor",
@@ -629,7 +690,7 @@ fn check_pump_test(
                     }
                 }
                 if let Some(t) = r.torque {
-                    c.plain("torque_n_m", t.value, false, 1e6, "N.m");
+                    c.plain("torque_n_m", t.value, false, 1e6, Measure::Torque);
                 }
             });
         }

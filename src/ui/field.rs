@@ -153,7 +153,8 @@ fn number_input(
                 <span class="unit">{move || measure.label(units())}</span>
             </div>
             <p class="field-error" id=error_id role="status">
-                {move || error.get()}
+                // Left empty, the field needs a value (the engine sees no number either way).
+                {move || error.get().map(|e| if text.with(|t| t.trim().is_empty()) { "needs a value".to_string() } else { e })}
             </p>
         </div>
     }

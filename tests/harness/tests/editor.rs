@@ -195,7 +195,7 @@ async fn bad_input_is_kept_and_explained_at_the_field() {
     for (typed, says) in [
         ("abc", "is not a number: type a value"),
         ("-5", "cannot be negative"),
-        ("", "is not a number: type a value"),
+        ("", "needs a value"),
         ("0", "must be more than zero"),
         ("80", "the rod must be thinner than the bore"),
     ] {
@@ -398,5 +398,25 @@ async fn the_out_of_date_notice_names_the_field_and_goes_to_it() {
         focused, "cycle[1].load.force_n",
         "the cursor is in the field"
     );
+    app.finish().await;
+}
+
+/// A field left empty says it needs a value; one holding text says what the engine says of it.
+#[tokio::test]
+async fn an_empty_field_says_it_needs_a_value() {
+    let app = AppSession::start("empty_field", Viewport::PHONE).await;
+    let b = &app.browser;
+    open_phase(b, 1).await;
+    let force = field("cycle[1].load.force_n");
+    let message = "#f-cycle-1-load-force_n-error";
+    b.fill(&force, "").await;
+    b.wait_for_text(message, |t| t == "needs a value").await;
+    b.fill(&force, "abc").await;
+    let said = b
+        .wait_for_text(message, |t| !t.is_empty() && t != "needs a value")
+        .await;
+    assert!(said.contains("type a value"), "{said}");
+    b.fill(&force, "300").await;
+    b.wait_for_text(message, |t| t.is_empty()).await;
     app.finish().await;
 }
