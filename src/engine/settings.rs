@@ -276,6 +276,11 @@ fn governing(design: &Design, i: usize, idle: bool) -> f64 {
     super::solve::governing_limit(design, &setting, idle).1
 }
 
+/// A hold the pump keeps (its flow over the relief at the limit), not one a check valve locks.
+fn held_by_pump(kind: &PhaseKind) -> bool {
+    matches!(kind, PhaseKind::Hold(h) if h.mode == HoldMode::HeldByPump)
+}
+
 /// The lowest limit that serves a phase needing `need` (Pa) on `design`. A hold the pump keeps
 /// sits at its limit with the pump's whole flow over the relief (the limit is read that way),
 /// so its limit is its need, with no margin: a higher one only adds clamp force and heat.
@@ -286,8 +291,7 @@ pub fn lowest_limit_for(
     policy: &AdvicePolicy,
     design: &Design,
 ) -> f64 {
-    let held = matches!(kind, PhaseKind::Hold(h) if h.mode == HoldMode::HeldByPump);
-    let rule = if held {
+    let rule = if held_by_pump(kind) {
         need
     } else {
         lowest_limit(need, policy, design.relief.cracking_fraction)
@@ -505,9 +509,7 @@ pub fn advise(job: &Job, index: usize) -> Result<Vec<Advice>, Vec<InputError>> {
                     continue;
                 }
                 let target = round_up_setting(lowest, us).min(main);
-                let held = job.cycle.get(i).is_some_and(
-                    |ph| matches!(&ph.kind, PhaseKind::Hold(h) if h.mode == HoldMode::HeldByPump),
-                );
+                let held = job.cycle.get(i).is_some_and(|ph| held_by_pump(&ph.kind));
                 let on_main = design
                     .phase_settings
                     .get(i)
@@ -1112,11 +1114,7 @@ impl Advice {
             job.advice.margin_fraction * 100.0,
             p(job.advice.margin_min.value)
         );
-        let is_held = |i: usize| {
-            job.cycle.get(i).is_some_and(
-                |ph| matches!(&ph.kind, PhaseKind::Hold(h) if h.mode == HoldMode::HeldByPump),
-            )
-        };
+        let is_held = |i: usize| job.cycle.get(i).is_some_and(|ph| held_by_pump(&ph.kind));
         let floor_words = if job
             .designs
             .iter()

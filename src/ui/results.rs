@@ -10,14 +10,18 @@ use crate::engine::valve::ActiveLimit;
 use crate::engine::{DesignReport, Job, JobReport, PumpState};
 use leptos::prelude::*;
 
+/// The index a field path gives right after `prefix`: 1 for `cycle[1].load.force_n` after
+/// `cycle[`.
+fn index_after(field: &str, prefix: &str) -> Option<usize> {
+    field
+        .strip_prefix(prefix)
+        .and_then(|rest| rest.split(']').next())
+        .and_then(|n| n.parse::<usize>().ok())
+}
+
 /// Where a field path points, in words: "Phase 3 (Dwell)" or "Unit “Proposed”".
 pub fn place_of(field: &str, job: &Job) -> String {
-    let index = |prefix: &str| {
-        field
-            .strip_prefix(prefix)
-            .and_then(|rest| rest.split(']').next())
-            .and_then(|n| n.parse::<usize>().ok())
-    };
+    let index = |prefix: &str| index_after(field, prefix);
     if let Some(i) = index("cycle[") {
         let name = job.cycle.get(i).map(|p| p.name.as_str()).unwrap_or("");
         return format!("Phase {} ({name})", i + 1);
@@ -89,12 +93,7 @@ pub fn area_of(field: &str) -> super::area::Area {
 /// Opens the area holding `field` (the phase or design it belongs to first) and puts the
 /// cursor in it.
 fn go_to_field(state: super::state::JobState, field: String) {
-    let index = |prefix: &str| {
-        field
-            .strip_prefix(prefix)
-            .and_then(|rest| rest.split(']').next())
-            .and_then(|n| n.parse::<usize>().ok())
-    };
+    let index = |prefix: &str| index_after(&field, prefix);
     if let Some(i) = index("cycle[") {
         state.open_phase.set(Some(i));
     }
