@@ -139,6 +139,8 @@ pub struct JobAnswer {
     pub report: JobReport,
     /// The findings of each design (its own, then each phase's) in words, in the job's units.
     pub findings_in_words: Vec<DesignWords>,
+    /// Each design's phases by their energy over one cycle, most first ([`phases_by_energy`]).
+    pub phases_by_energy: Vec<Vec<PhaseEnergy>>,
     /// The settings advice for each design, in the job's order.
     pub advice: Vec<DesignAdvice>,
     /// Each pump test's assessment (or its input errors) and its trend, in the job's order.
@@ -229,7 +231,11 @@ pub fn answer(job: &Job) -> Result<JobAnswer, Vec<InputError>> {
             trend: efficiency::trend(&job.pump_tests, i, &job.wear),
         })
         .collect();
+    let phases_by_energy = (0..report.designs.len())
+        .map(|d| phases_by_energy(job, &report, d))
+        .collect();
     Ok(JobAnswer {
+        phases_by_energy,
         report,
         findings_in_words,
         advice,

@@ -88,7 +88,7 @@ pub fn QuoteArea() -> impl IntoView {
             })}
             {move || state.job.with(|j| !j.pump_tests.is_empty()).then(|| view! {
                 <div class="card" data-quote-pumps="true">
-                    <h2>"The pumps as checked"</h2>
+                    <h2>"Pump checks"</h2>
                     <super::pump_check::PumpVerdicts />
                 </div>
             })}
