@@ -104,9 +104,9 @@ pub fn scrap_baler() -> Job {
         vent_pressure: Pressure::new::<bar>(1.7),
         phase_settings: vec![PhaseSetting::default(); cycle.len()],
         retrofit_price: None,
+        made_from: None,
     };
-    let mut proposed = as_found.clone();
-    proposed.name = "Proposed".into();
+    let mut proposed = Design::proposal_from(&as_found, "Proposed".into());
     // What the advice asks of it: main at the compress's lowest serving limit, the dwell held
     // at its own pressure by a remote stage, the idle vented.
     proposed.relief.setting = Pressure::new::<bar>(170.0);

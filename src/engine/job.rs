@@ -95,6 +95,105 @@ impl Oil {
     }
 }
 
+impl Job {
+    /// A new job with nothing of another machine in it: no phases, and one power unit (the
+    /// baseline, "As found") with one pump and a pilot-operated relief whose figures are
+    /// empty, for the user to read off the machine and its nameplates. Only what a component
+    /// type states for itself is filled in (the relief type's cracking share, the motor's
+    /// typical fixed-loss share and peak allowance, a service factor of 1). The display units
+    /// and the currency are the user's preferences, carried over.
+    pub fn blank(name: String, units: UnitSystem, currency: String) -> Job {
+        use super::motor::{Motor, TYPICAL_FIXED_LOSS_SHARE, TYPICAL_PEAK_ALLOWANCE};
+        use super::pump::{Pump, PumpControl};
+        use super::valve::{ReliefKind, ReliefValve};
+        use uom::si::f64::{AngularVelocity, Power, Pressure, VolumeRate};
+        let empty = f64::NAN;
+        let design = Design {
+            name: "As found".into(),
+            motor: Motor {
+                rated_power: Power { value: empty, ..Default::default() },
+                full_load_speed: AngularVelocity { value: empty, ..Default::default() },
+                full_load_efficiency: empty,
+                fixed_loss_share: TYPICAL_FIXED_LOSS_SHARE,
+                service_factor: 1.0,
+                peak_allowance: TYPICAL_PEAK_ALLOWANCE,
+            },
+            unloading_stages: Vec::new(),
+            base_pump: Pump {
+                displacement: Volume { value: empty, ..Default::default() },
+                volumetric_efficiency: empty,
+                efficiency_pressure: Pressure { value: empty, ..Default::default() },
+                efficiency_speed: None,
+                hydromechanical_efficiency: empty,
+                drag_power: Power { value: empty, ..Default::default() },
+                rated_pressure: Pressure { value: empty, ..Default::default() },
+                control: PumpControl::Fixed,
+            },
+            relief: ReliefValve {
+                kind: ReliefKind::PilotOperated,
+                setting: Pressure { value: empty, ..Default::default() },
+                rated_flow: VolumeRate { value: empty, ..Default::default() },
+                cracking_fraction: ReliefKind::PilotOperated.typical_cracking_fraction(),
+            },
+            remote_stages: Vec::new(),
+            vent_pressure: Pressure { value: empty, ..Default::default() },
+            phase_settings: Vec::new(),
+            retrofit_price: None,
+            made_from: None,
+        };
+        Job {
+            schema_version: SCHEMA_VERSION,
+            name,
+            notes: String::new(),
+            example: false,
+            units,
+            cycle: Vec::new(),
+            designs: vec![design],
+            site: Site {
+                location: String::new(),
+                operating_hours_per_year: empty,
+                tariff_per_kwh: empty,
+                currency,
+                retrofit_price: empty,
+                grid_factor: None,
+            },
+            oil: Oil::mineral(Volume { value: empty, ..Default::default() }),
+            advice: Default::default(),
+            staging: Default::default(),
+            pump_tests: Vec::new(),
+            wear: Default::default(),
+        }
+    }
+}
+
+impl Job {
+    /// Proposal `index` made again from the baseline as it is now: the baseline's machine and
+    /// settings under the proposal's name and price. Does nothing to the baseline or to an
+    /// index that is no proposal.
+    pub fn rebuild_from_baseline(&mut self, index: usize) {
+        let Some(baseline) = self.designs.first() else {
+            return;
+        };
+        let fresh = Design::proposal_from(baseline, String::new());
+        if let Some(old) = self.designs.get_mut(index).filter(|_| index > 0) {
+            *old = Design {
+                name: std::mem::take(&mut old.name),
+                retrofit_price: old.retrofit_price,
+                ..fresh
+            };
+        }
+    }
+
+    /// The name for a new proposal: "Proposed", else "Proposed 2", "Proposed 3", ..., the
+    /// first no design of the job has.
+    pub fn next_proposal_name(&self) -> String {
+        (1..)
+            .map(|n| if n == 1 { "Proposed".to_string() } else { format!("Proposed {n}") })
+            .find(|name| self.designs.iter().all(|d| d.name != *name))
+            .unwrap_or_default()
+    }
+}
+
 /// Why a job file could not be read.
 #[derive(Clone, Debug, PartialEq, Eq)]
 pub enum JobFileError {
@@ -297,5 +396,32 @@ mod tests {
         job.duplicate_phase(99);
         job.move_phase_down(4);
         assert_eq!(job, before);
+    }
+}
+
+#[cfg(test)]
+mod blank_tests {
+    use super::*;
+
+    /// An empty job asks for every figure of the machine and holds nothing of another one.
+    #[test]
+    fn a_blank_job_asks_for_the_machines_figures_and_holds_none() {
+        let job = Job::blank("New job".into(), UnitSystem::Si, "GBP".into());
+        let errors = crate::engine::solve(&job).expect_err("an empty job has no answer yet");
+        let fields: Vec<&str> = errors.iter().map(|e| e.field.as_str()).collect();
+        for field in [
+            "cycle",
+            "designs[0].motor.rated_power_w",
+            "designs[0].base_pump.displacement_m3_per_rev",
+            "designs[0].relief.setting_pa",
+            "site.tariff_per_kwh",
+            "oil.volume_m3",
+        ] {
+            assert!(fields.contains(&field), "{field} not asked for: {fields:?}");
+        }
+        assert!(job.cycle.is_empty() && job.pump_tests.is_empty() && !job.example);
+        assert_eq!((job.site.currency.as_str(), job.notes.as_str()), ("GBP", ""));
+        // It cannot be stored or exported half-typed; the library says so rather than write it.
+        assert!(crate::library::job_file(&job).is_err());
     }
 }

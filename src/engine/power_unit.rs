@@ -32,6 +32,10 @@ pub struct Design {
     /// the site's one price (absent: the site's `retrofit_price`). Unused on the baseline.
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub retrofit_price: Option<f64>,
+    /// For a proposal: the [`Design::machine_mark`] of the baseline it was made from (absent in
+    /// older files and on the baseline), so the app can tell when "as found" has changed since.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub made_from: Option<String>,
 }
 
 impl Design {
@@ -76,5 +80,93 @@ impl Design {
 
     pub fn pump_count(&self) -> usize {
         self.unloading_stages.len() + 1
+    }
+}
+
+impl Design {
+    /// A mark of this design's machine: its motor, its pumps with their unloading and check
+    /// valves, and its relief valve's type and size (not the settings a proposal exists to
+    /// change). Two designs with the same machine have the same mark.
+    pub fn machine_mark(&self) -> String {
+        let machine = serde_json::json!([
+            self.motor,
+            self.unloading_stages,
+            self.base_pump,
+            self.relief.kind,
+            self.relief.rated_flow,
+        ]);
+        // FNV-1a, 64 bits: stable across builds and platforms, unlike std's hasher.
+        let hash = machine.to_string().bytes().fold(0xcbf2_9ce4_8422_2325_u64, |h, b| {
+            (h ^ u64::from(b)).wrapping_mul(0x0100_0000_01b3)
+        });
+        format!("{hash:016x}")
+    }
+
+    /// A proposal made from `baseline` as it is now, under `name`.
+    pub fn proposal_from(baseline: &Design, name: String) -> Design {
+        Design {
+            name,
+            retrofit_price: None,
+            made_from: Some(baseline.machine_mark()),
+            ..baseline.clone()
+        }
+    }
+
+    /// Whether this proposal was made from an "as found" whose machine has changed since.
+    pub fn made_from_older(&self, baseline: &Design) -> bool {
+        self.made_from
+            .as_ref()
+            .is_some_and(|mark| *mark != baseline.machine_mark())
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use crate::engine::demo::scrap_baler;
+    use uom::si::power::kilowatt;
+    use uom::si::pressure::bar;
+
+    #[test]
+    fn a_proposal_knows_when_as_found_has_changed_under_it_and_can_be_made_again() {
+        let mut job = scrap_baler();
+        assert!(!job.designs[1].made_from_older(&job.designs[0]));
+        // A setting of "as found" is what proposals change: not a new machine.
+        job.designs[0].relief.setting = uom::si::f64::Pressure::new::<bar>(200.0);
+        assert!(!job.designs[1].made_from_older(&job.designs[0]));
+        // The motor found on the machine is another: the proposal holds the old one.
+        job.designs[0].motor.rated_power = uom::si::f64::Power::new::<kilowatt>(30.0);
+        job.designs[1].retrofit_price = Some(1800.0);
+        assert!(job.designs[1].made_from_older(&job.designs[0]));
+        job.rebuild_from_baseline(1);
+        let rebuilt = &job.designs[1];
+        assert!(!rebuilt.made_from_older(&job.designs[0]));
+        assert_eq!(rebuilt.motor, job.designs[0].motor);
+        assert_eq!((rebuilt.name.as_str(), rebuilt.retrofit_price), ("Proposed", Some(1800.0)));
+        // The baseline has no proposal to rebuild; an index past the end changes nothing.
+        let before = job.clone();
+        job.rebuild_from_baseline(0);
+        job.rebuild_from_baseline(9);
+        assert_eq!(job, before);
+    }
+
+    #[test]
+    fn new_proposals_are_named_apart() {
+        let mut job = scrap_baler();
+        assert_eq!(job.next_proposal_name(), "Proposed 2");
+        job.designs.truncate(1);
+        assert_eq!(job.next_proposal_name(), "Proposed");
+        // Advice applied to a lone baseline makes a proposal that knows its baseline.
+        let (job, at) = crate::engine::settings::apply_to_proposed(
+            &job,
+            0,
+            &crate::engine::settings::Action::SetMain {
+                pressure: uom::si::f64::Pressure::new::<bar>(180.0),
+            },
+        );
+        assert_eq!((at, job.designs[1].name.as_str()), (1, "Proposed"));
+        assert_eq!(
+            job.designs[1].made_from.as_deref(),
+            Some(job.designs[0].machine_mark().as_str())
+        );
     }
 }

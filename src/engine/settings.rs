@@ -417,8 +417,7 @@ pub fn apply_to_proposed(job: &Job, shown: usize, action: &Action) -> (Job, usiz
     } else if job.designs.len() > 1 {
         1
     } else {
-        let mut copy = baseline.clone();
-        copy.name = "Proposed".into();
+        let copy = Design::proposal_from(baseline, job.next_proposal_name());
         job.designs.push(copy);
         1
     };

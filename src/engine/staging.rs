@@ -566,6 +566,7 @@ pub fn apply_candidate(job: &Job, shown: usize, candidate: &Candidate) -> (Job, 
         job.designs.push(candidate.design.clone());
         return (job, 0);
     };
+    let mark = baseline.machine_mark();
     let target = if shown > 0 && shown < job.designs.len() {
         shown
     } else if job.designs.len() > 1 {
@@ -584,6 +585,7 @@ pub fn apply_candidate(job: &Job, shown: usize, candidate: &Candidate) -> (Job, 
     job.designs[target] = Design {
         name,
         retrofit_price: job.designs[target].retrofit_price,
+        made_from: Some(mark),
         ..candidate.design.clone()
     };
     (job, target)

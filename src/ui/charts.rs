@@ -9,7 +9,8 @@ use crate::engine::{DesignReport, PowerLedger};
 use leptos::prelude::*;
 
 const WIDTH: f64 = 400.0;
-const LEFT: f64 = 104.0;
+/// The timeline's margin for its value ticks.
+const LEFT: f64 = 52.0;
 const RIGHT: f64 = 12.0;
 
 /// The ledger's items in the order they are stacked ([`LedgerItem::ALL`]), with their legend
@@ -28,16 +29,13 @@ fn ledger_values(l: &PowerLedger) -> [f64; 7] {
     LedgerItem::ALL.map(|item| l.part(item).value)
 }
 
-/// A name cut to fit the charts' label column.
-fn short(name: &str) -> String {
-    if name.chars().count() > 12 {
-        name.chars().take(11).chain(std::iter::once('…')).collect()
-    } else {
-        name.to_string()
-    }
-}
+/// Where the bars of a stacked chart start: the names stand on their own line above each bar,
+/// so a long phase name is never cut to fit a column beside it.
+const BAR_LEFT: f64 = 12.0;
 
-/// One bar per row, split into the ledger's items, on an axis from zero to about `max`.
+/// One bar per row, split into the ledger's items, on an axis from zero to about `max`. Each
+/// segment's figure can be read three ways: hovering (its title), tapping or focusing it (the
+/// read-out line under the chart), and the table of figures that opens below.
 fn stacked_bars(
     rows: Vec<(String, [f64; 7])>,
     max: f64,
@@ -45,36 +43,61 @@ fn stacked_bars(
     aria: &'static str,
     tip: impl Fn(f64) -> String,
 ) -> impl IntoView {
-    let row = 30.0;
+    let row = 48.0;
     let top = 8.0;
     let axis = 44.0;
     let height = top + row * rows.len() as f64 + axis;
-    let plot = WIDTH - LEFT - RIGHT;
+    let plot = WIDTH - BAR_LEFT - RIGHT;
     let axis_ticks = ticks(max);
     let axis_max = *axis_ticks.last().unwrap_or(&1.0);
-    let x = move |v: f64| LEFT + plot * v / axis_max;
+    let x = move |v: f64| BAR_LEFT + plot * v / axis_max;
+    let picked = RwSignal::new(None::<String>);
+    // Each row's segments in words, for the read-out and the table.
+    let words: Vec<(String, Vec<(&'static str, &'static str, String)>, String)> = rows
+        .iter()
+        .map(|(name, values)| {
+            let parts = values
+                .iter()
+                .zip(LEDGER_ITEMS)
+                .filter(|(v, _)| **v > 0.0)
+                .map(|(v, (item, class))| (item, class, tip(*v)))
+                .collect();
+            (name.clone(), parts, tip(values.iter().sum()))
+        })
+        .collect();
     let bars = rows
-        .into_iter()
+        .iter()
+        .zip(&words)
         .enumerate()
-        .map(|(i, (name, values))| {
+        .map(|(i, ((name, values), (_, parts, _)))| {
             let y = top + row * i as f64;
             let mut start = 0.0;
             let segments = values
-                .into_iter()
-                .zip(LEDGER_ITEMS)
-                .filter(|(v, _)| *v > 0.0)
-                .map(|(v, (item, class))| {
+                .iter()
+                .filter(|v| **v > 0.0)
+                .zip(parts.clone())
+                .map(|(v, (item, class, figure))| {
                     let (x0, x1) = (x(start), x(start + v));
                     start += v;
+                    let said = format!("{name}: {item} {figure}");
+                    let on_pick = {
+                        let said = said.clone();
+                        move || picked.set(Some(said.clone()))
+                    };
+                    let on_key = on_pick.clone();
+                    let label = said.clone();
                     view! {
-                        <rect class=class x=x0 y=y + 4.0 width=(x1 - x0).max(0.0) height=row - 8.0>
-                            <title>{format!("{name}: {item} {}", tip(v))}</title>
+                        <rect class=class x=x0 y=y + 22.0 width=(x1 - x0).max(0.0) height=row - 28.0
+                            tabindex="0" role="button" aria-label=label
+                            on:click=move |_| on_pick()
+                            on:focus=move |_| on_key()>
+                            <title>{said}</title>
                         </rect>
                     }
                 })
                 .collect_view();
             view! {
-                <text class="chart-label" x=LEFT - 6.0 y=y + row / 2.0 + 5.0 text-anchor="end">{short(&name)}</text>
+                <text class="chart-label" x=BAR_LEFT y=y + 16.0>{name.clone()}</text>
                 {segments}
             }
         })
@@ -82,10 +105,23 @@ fn stacked_bars(
     let grid = axis_ticks
         .iter()
         .map(|t| {
-            let gx = LEFT + plot * t / axis_max;
+            let gx = x(*t);
             view! {
                 <line class="chart-grid" x1=gx x2=gx y1=top y2=height - axis + 4.0 />
                 <text class="chart-tick" x=gx y=height - axis + 19.0 text-anchor="middle">{format_tick(*t)}</text>
+            }
+        })
+        .collect_view();
+    let table = words
+        .into_iter()
+        .map(|(name, parts, total)| {
+            view! {
+                <tbody>
+                    <tr class="chart-figures-row"><th scope="rowgroup">{name}</th><td>{total}</td></tr>
+                    {parts.into_iter().map(|(item, class, figure)| view! {
+                        <tr><th scope="row"><span class=format!("swatch {class}") aria-hidden="true"></span>{item}</th><td>{figure}</td></tr>
+                    }).collect_view()}
+                </tbody>
             }
         })
         .collect_view();
@@ -94,13 +130,20 @@ fn stacked_bars(
             <svg viewBox=format!("0 0 {WIDTH} {height}") role="img" aria-label=aria>
                 {grid}
                 {bars}
-                <text class="chart-axis" x=LEFT + plot / 2.0 y=height - 4.0 text-anchor="middle">{axis_label}</text>
+                <text class="chart-axis" x=BAR_LEFT + plot / 2.0 y=height - 4.0 text-anchor="middle">{axis_label}</text>
             </svg>
+            <p class="chart-readout" aria-live="polite">
+                {move || picked.get().unwrap_or_else(|| "Tap a coloured part of a bar to read its figure.".into())}
+            </p>
             <ul class="legend">
                 {LEDGER_ITEMS.iter().map(|(name, class)| view! {
                     <li><span class=format!("swatch {class}") aria-hidden="true"></span>{*name}</li>
                 }).collect_view()}
             </ul>
+            <details class="chart-figures">
+                <summary>"Every figure in this chart"</summary>
+                <table>{table}</table>
+            </details>
         </figure>
     }
 }
@@ -251,9 +294,11 @@ fn timeline_panel(
         })
         .collect_view();
     view! {
-        <text class="chart-title" x=LEFT y=top - 8.0>{format!("{title}, {}", measure.label(units))}</text>
-        {grid}
-        <polyline class="chart-line" points=points />
+        <g class="timeline-panel">
+            <text class="chart-title" x=LEFT y=top - 8.0>{format!("{title}, {}", measure.label(units))}</text>
+            {grid}
+            <polyline class="chart-line" points=points />
+        </g>
     }
 }
 
@@ -263,7 +308,7 @@ pub fn TimelineChart(design: DesignReport, units: UnitSystem) -> impl IntoView {
     let total: f64 = design.phases.iter().map(|p| p.point.duration.value).sum();
     let panel = 70.0;
     let gap = 34.0;
-    let height = 3.0 * (panel + gap) + 30.0;
+    let height = 3.0 * (panel + gap) + 48.0;
     let series = |f: &dyn Fn(&crate::engine::PhaseReport) -> f64| {
         design
             .phases
@@ -278,12 +323,13 @@ pub fn TimelineChart(design: DesignReport, units: UnitSystem) -> impl IntoView {
     let time_ticks = ticks(total);
     let time_max = *time_ticks.last().unwrap_or(&1.0);
     let scale = total / time_max;
-    let base = 3.0 * (panel + gap) - gap + 8.0;
+    // The time axis sits under the last panel's baseline, never across the power panel.
+    let base = 3.0 * (panel + gap);
     let x_axis = time_ticks
         .iter()
         .map(|t| {
             let gx = LEFT + plot * t / time_max;
-            view! { <text class="chart-tick" x=gx y=base + 14.0 text-anchor="middle">{format_tick(*t)}</text> }
+            view! { <text class="chart-tick time-tick" x=gx y=base + 21.0 text-anchor="middle">{format_tick(*t)}</text> }
         })
         .collect_view();
     // Phase boundaries, so a bump can be matched to its phase.
@@ -305,7 +351,7 @@ pub fn TimelineChart(design: DesignReport, units: UnitSystem) -> impl IntoView {
                 {timeline_panel("Flow to the actuator".into(), &flow, Measure::Flow, units, gap + panel + gap, panel, total / scale)}
                 {timeline_panel("Electrical input".into(), &power, Measure::Power, units, gap + 2.0 * (panel + gap), panel, total / scale)}
                 {x_axis}
-                <text class="chart-axis" x=LEFT + plot / 2.0 y=height - 2.0 text-anchor="middle">"Time in the cycle, s"</text>
+                <text class="chart-axis time-axis" x=LEFT + plot / 2.0 y=height - 4.0 text-anchor="middle">"Time in the cycle, s"</text>
             </svg>
         </figure>
     }

@@ -95,11 +95,19 @@ fn number_input(
         move || state.job.with(|j| get(j))
     };
     let units = move || state.units();
-    let text = RwSignal::new(shown_text(
-        measure,
-        state.job.with_untracked(|j| j.units),
-        state.job.with_untracked(|j| get(j)),
-    ));
+    // A field left holding text that is no number shows that text again, not an empty box.
+    let kept = state.job.with_untracked(|j| get(j)).is_nan().then(|| {
+        state
+            .typed_text
+            .with_value(|typed| typed.get(&path).cloned())
+    });
+    let text = RwSignal::new(kept.flatten().unwrap_or_else(|| {
+        shown_text(
+            measure,
+            state.job.with_untracked(|j| j.units),
+            state.job.with_untracked(|j| get(j)),
+        )
+    }));
     // What this field last showed or wrote: a different model value or unit system means the
     // job changed elsewhere (undo, a unit switch, another field), so the text is redrawn.
     let shown = StoredValue::new((
@@ -117,11 +125,21 @@ fn number_input(
             }
         }
     });
+    let path_typed = path.clone();
     let on_input = move |ev: leptos::ev::Event| {
         let raw = event_target_value(&ev);
         let system = units();
         let typed = (!raw.trim().is_empty())
             .then(|| parse_number(&raw).map_or(f64::NAN, |n| measure.from_shown(system, n)));
+        let path = path_typed.clone();
+        state.typed_text.update_value(|kept| match typed {
+            Some(n) if n.is_nan() => {
+                kept.insert(path, raw.clone());
+            }
+            _ => {
+                kept.remove(&path);
+            }
+        });
         text.set(raw);
         shown.set_value((typed.unwrap_or(f64::NAN), system));
         let set = set.clone();

@@ -122,7 +122,12 @@ pub fn save_now(state: &JobState) {
     let text = match state.job.with_untracked(|j| library::entry_to_store(j, at)) {
         Ok(text) => text,
         Err(why) => {
-            state.save_note.set(SaveNote::Failed(why));
+            // A job never saved yet (a new, empty one) waits for its numbers: nothing is lost.
+            state.save_note.set(if state.current.get_untracked().is_some() {
+                SaveNote::Failed(why)
+            } else {
+                SaveNote::NotSaved
+            });
             return;
         }
     };
@@ -158,12 +163,8 @@ pub(super) fn open(state: &JobState, id: &str, job: Job) {
         handle.clear();
         state.pending_save.set_value(None);
     }
-    state.skip_save.set_value(true);
-    state.job.set(job);
+    state.replace_job(job);
     state.current.set(Some(id.to_string()));
-    state.design.set(0);
-    state.open_phase.set(None);
-    state.deleted.set(None);
     let _ = write(library::LAST_OPEN_KEY, id);
     let raw = local_storage()
         .ok()
@@ -257,7 +258,8 @@ pub fn SaveStatus() -> impl IntoView {
     let state = use_job();
     move || {
         let (class, text) = match state.save_note.get() {
-            SaveNote::NotSaved => ("save-note", "Not saved yet: the example is saved on this device once you change it.".to_string()),
+            SaveNote::NotSaved if state.job.with(|j| j.example) => ("save-note", "Not saved yet: the example is saved on this device once you change it.".to_string()),
+            SaveNote::NotSaved => ("save-note", "Not saved yet: it is saved on this device once every marked field holds a number.".to_string()),
             SaveNote::Saved { at_ms } => ("save-note", format!("Saved on this device, {}.", when(at_ms))),
             SaveNote::Failed(why) => ("save-note failed", format!("Not saved: {why}")),
             SaveNote::Conflict => ("save-note failed", "This job was changed in another window. Choose which version to keep below; nothing is saved until you do.".to_string()),
@@ -283,18 +285,27 @@ fn OfflineNote() -> impl IntoView {
 #[component]
 pub fn JobsArea() -> impl IntoView {
     let state = use_job();
-    let new_job = move |_: leptos::ev::MouseEvent| {
+    // A new job starts empty or as a copy of the open one: the user says which, and nothing
+    // comes from the example unseen.
+    let choosing = RwSignal::new(false);
+    let start = move |job: Job| {
         flush_pending(&state);
-        let taken = stored_names(&state);
-        let mut job = crate::engine::demo::scrap_baler();
-        job.example = false;
-        job.name = library::unique_name("New job", &strs(&taken));
-        job.notes.clear();
-        job.site.location.clear();
-        state.skip_save.set_value(true);
-        state.job.set(job);
+        state.replace_job(job);
         state.current.set(None);
+        state.save_note.set(SaveNote::NotSaved);
+        choosing.set(false);
         save_now(&state);
+    };
+    let new_blank = move |_: leptos::ev::MouseEvent| {
+        let taken = stored_names(&state);
+        let (units, currency) = state.job.with_untracked(|j| (j.units, j.site.currency.clone()));
+        start(Job::blank(library::unique_name("New job", &strs(&taken)), units, currency));
+    };
+    let new_copy = move |_: leptos::ev::MouseEvent| {
+        let taken = stored_names(&state);
+        let mut job = state.job.get_untracked();
+        job.name = library::unique_name(&format!("{} (copy)", job.name), &strs(&taken));
+        start(job);
     };
     let restore = move |_: leptos::ev::MouseEvent| {
         if let Some((id, raw)) = state.deleted_entry.get_untracked() {
@@ -321,7 +332,20 @@ pub fn JobsArea() -> impl IntoView {
                 <TextField label="Site" path="site.location" get=|j: &Job| j.site.location.clone() set=|j: &mut Job, v| j.site.location = v />
                 <TextField label="Notes" path="notes" get=|j: &Job| j.notes.clone() set=|j: &mut Job, v| j.notes = v />
             </div>
-            <button type="button" class="button wide" on:click=new_job>"Start a new job"</button>
+            <button type="button" class="button wide" data-action="new-job" aria-expanded=move || choosing.get().to_string()
+                on:click=move |_| choosing.update(|c| *c = !*c)>"Start a new job"</button>
+            {move || choosing.get().then(|| view! {
+                <div class="card new-job" role="group" aria-label="Start the new job from">
+                    <p>"Start the new job from:"</p>
+                    <button type="button" class="button wide" data-new="blank" on:click=new_blank>
+                        "Nothing: empty fields to fill in from the machine"
+                    </button>
+                    <button type="button" class="button wide" data-new="copy" on:click=new_copy>
+                        {move || format!("A copy of “{}”, every figure as it is", state.job.with(|j| j.name.clone()))}
+                    </button>
+                    <button type="button" class="button" on:click=move |_| choosing.set(false)>"Cancel"</button>
+                </div>
+            })}
             <Transfer />
             <super::share::SharePanel />
             {move || state.deleted_entry.get().map(|_| view! {

@@ -52,6 +52,20 @@ pub fn QuoteArea() -> impl IntoView {
             </div>
             <super::cycle_editor::ExampleBanner />
             <super::results::StaleNotice />
+            {move || {
+                // A quote on a proposal made from an earlier "as found" compares two machines.
+                let older: Vec<String> = state.job.with(|j| match j.designs.split_first() {
+                    Some((baseline, rest)) => rest.iter().filter(|x| x.made_from_older(baseline)).map(|x| format!("“{}”", x.name)).collect(),
+                    None => Vec::new(),
+                });
+                (!older.is_empty()).then(|| view! {
+                    <p class="older-baseline" role="status" data-older-baseline="true">
+                        {format!("{} made from an earlier “as found”: the machine found has changed since. Make it again in the ", older.join(", ") + if older.len() == 1 { " was" } else { " were" })}
+                        <a href=super::area::Area::PowerUnit.href()>{super::area::Area::PowerUnit.title()}</a>
+                        " area before quoting."
+                    </p>
+                })
+            }}
             {move || (designs() < 2).then(|| view! {
                 <p class="empty-note" data-quote-single="true">
                     "Only one power unit so far. Add a proposed one in the "

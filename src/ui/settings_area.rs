@@ -55,6 +55,7 @@ pub fn SettingsArea() -> impl IntoView {
             <DesignTabs />
             {move || applied.get().map(|t| view! { <p class="save-note" role="status" data-applied="true">{t}</p> })}
             <super::undo::UndoChange place="advice" />
+            <super::unit_editor::OlderBaselineNotice place="advice" />
             {move || match advice.get() {
                 None => view! { <p class="empty-note">"Advice appears once every figure of the job is valid."</p> }.into_any(),
                 Some((needs, list)) => {
@@ -62,9 +63,14 @@ pub fn SettingsArea() -> impl IntoView {
                     // Advice for the baseline is applied only where the baseline is all there
                     // is (a proposed copy is made); with a proposed design, its own advice is.
                     let can_apply = state.design_index() > 0 || job.designs.len() == 1;
+                    // The machine the advice is for, so it is never applied to one unseen.
+                    let machine = job.designs.get(state.design_index()).map(|x| {
+                        format!("For “{}”: {}.", x.name, super::unit_editor::machine_words(x, job.units))
+                    });
                     view! {
                         <PhaseNeeds job=job.clone() needs=needs />
                         <h2>"Advice"</h2>
+                        <p class="hint" data-advice-machine="true">{machine}</p>
                         {if list.is_empty() {
                             view! { <p class="empty-note" data-advice-count="0">"Nothing to change: every setting of this design is within the rules below."</p> }.into_any()
                         } else {

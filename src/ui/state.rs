@@ -77,6 +77,10 @@ pub struct JobState {
     pub undo: RwSignal<Option<Undo>>,
     /// The autosave waiting for the edits to pause, if one is.
     pub pending_save: StoredValue<Option<leptos::prelude::TimeoutHandle>>,
+    /// What was typed into each number field (by path) that is not a number: the job holds NaN
+    /// there, so the text itself is kept here, to be shown again when the field is (a move to
+    /// another area and back must not wipe what the user is correcting).
+    pub typed_text: StoredValue<std::collections::HashMap<String, String>>,
 }
 
 impl JobState {
@@ -142,6 +146,7 @@ impl JobState {
             pending_save: StoredValue::new(None),
             notice: RwSignal::new(None),
             undo: RwSignal::new(None),
+            typed_text: StoredValue::new(Default::default()),
         }
     }
 
@@ -168,6 +173,19 @@ impl JobState {
             design,
             after: self.job.get_untracked(),
         }));
+    }
+
+    /// Puts another job in place of the open one (opened, or started new): nothing shown or
+    /// kept for the job before it stays (its last good report, its undo, its typed text).
+    pub fn replace_job(&self, job: Job) {
+        self.skip_save.set_value(true);
+        self.typed_text.update_value(|kept| kept.clear());
+        self.last_good.set(None);
+        self.undo.set(None);
+        self.deleted.set(None);
+        self.design.set(0);
+        self.open_phase.set(None);
+        self.job.set(job);
     }
 
     pub fn units(&self) -> UnitSystem {

@@ -77,7 +77,8 @@ pub fn DesignTabs() -> impl IntoView {
                                 aria-pressed=move || if state.design_index() == i { "true" } else { "false" }
                                 on:click=move |_| state.design.set(i)
                             >
-                                {if name.trim().is_empty() { format!("Unit {}", i + 1) } else { name }}
+                                {if name.trim().is_empty() { format!("Power unit {}", i + 1) } else { name }}
+                                {(i == 0).then(|| view! { <span class="role-tag">" (baseline)"</span> })}
                             </button>
                         }
                     })
@@ -93,10 +94,14 @@ pub fn UnitArea() -> impl IntoView {
     let add_design = move |_: leptos::ev::MouseEvent| {
         let from = state.design_index();
         state.job.update(|j| {
-            if let Some(mut copy) = j.designs.get(from).cloned() {
-                copy.name = format!("Proposal {}", j.designs.len());
-                j.designs.push(copy);
-            }
+            let name = j.next_proposal_name();
+            let copy = match j.designs.get(from) {
+                // A copy of the baseline remembers which "as found" it was made from.
+                Some(baseline) if from == 0 => Design::proposal_from(baseline, name),
+                Some(other) => Design { name, ..other.clone() },
+                None => return,
+            };
+            j.designs.push(copy);
         });
         state
             .design
@@ -128,6 +133,7 @@ pub fn UnitArea() -> impl IntoView {
             <super::results::LiveSummary />
             <DesignTabs />
             <super::undo::UndoChange place="unit" />
+            <OlderBaselineNotice place="unit" />
             <div class="row-tools">
                 <button type="button" class="button" on:click=add_design>"Copy as a new proposal"</button>
                 <button type="button" class="button danger" data-action="remove-design" disabled=move || { designs() <= 1 } on:click=remove_design>"Remove this unit"</button>
@@ -512,5 +518,57 @@ fn IdlePathField(d: usize, i: usize) -> impl IntoView {
                 get=move |j: &Job| match path(j) { Some(IdlePath::OpenCentre { drop }) => drop.value, _ => f64::NAN }
                 set=move |j: &mut Job, v| if let Some(s) = design_mut(j, d).and_then(|x| x.phase_settings.get_mut(i)) { s.idle_path = IdlePath::OpenCentre { drop: Pressure::new::<pascal>(v) } } />
         })}
+    }
+}
+
+/// A design's machine in one line: its motor and pumps, as the user entered them.
+pub fn machine_words(design: &Design, units: crate::engine::units::UnitSystem) -> String {
+    let pumps: Vec<String> = design
+        .pumps()
+        .map(|p| Measure::Displacement.with_unit(units, p.displacement.value))
+        .collect();
+    format!(
+        "motor {} at {}; pumps {}",
+        Measure::Power.with_unit(units, design.motor.rated_power.value),
+        Measure::ShaftSpeed.with_unit(units, design.motor.full_load_speed.value),
+        pumps.join(" + ")
+    )
+}
+
+/// Shown on a proposal made from an earlier "as found" whose machine has changed since: what
+/// the proposal still holds, what "as found" holds now, and a button that makes the proposal
+/// again from today's baseline (undoable where `place` shows its bar).
+#[component]
+pub fn OlderBaselineNotice(place: &'static str) -> impl IntoView {
+    let state = use_job();
+    let older = Memo::new(move |_| {
+        let d = state.design_index();
+        state.job.with(|j| {
+            let baseline = j.designs.first()?;
+            let design = j.designs.get(d).filter(|x| d > 0 && x.made_from_older(baseline))?;
+            Some((d, design.name.clone(), baseline.name.clone(), machine_words(design, j.units), machine_words(baseline, j.units)))
+        })
+    });
+    move || {
+        older.get().map(|(d, name, baseline, theirs, now)| {
+            let what = format!("Made “{name}” again from today's “{baseline}”");
+            let rebuild = move |_: leptos::ev::MouseEvent| {
+                let what = what.clone();
+                state.change_with_undo(place, what, |j| j.rebuild_from_baseline(d));
+            };
+            view! {
+                <div class="older-baseline" role="status" data-older-baseline="true">
+                    <p><strong>{format!("“{name}” was made from an earlier “{baseline}”.")}</strong>
+                        " The machine found has changed since, and this power unit still holds the one it was made from."</p>
+                    <ul>
+                        <li data-machine="proposal">{format!("{name}: {theirs}")}</li>
+                        <li data-machine="baseline">{format!("{baseline} now: {now}")}</li>
+                    </ul>
+                    <button type="button" class="button" data-action="rebuild-proposal" on:click=rebuild>
+                        {format!("Make “{name}” again from today's “{baseline}”")}
+                    </button>
+                </div>
+            }
+        })
     }
 }

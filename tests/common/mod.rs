@@ -134,6 +134,7 @@ pub fn design(
         vent_pressure: bar_(1.5),
         phase_settings: vec![PhaseSetting::default(); phases],
         retrofit_price: None,
+        made_from: None,
     }
 }
 

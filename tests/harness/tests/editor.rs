@@ -420,3 +420,79 @@ async fn an_empty_field_says_it_needs_a_value() {
     b.wait_for_text(message, |t| t.is_empty()).await;
     app.finish().await;
 }
+
+/// The charts at a phone and at a projector: every phase named whole above its bar, the time
+/// axis's figures below the power panel (not over it), and every segment's figure reachable by
+/// a tap and in a table, not by hovering only.
+#[tokio::test]
+async fn charts_name_phases_whole_keep_the_time_axis_clear_and_give_figures_by_touch() {
+    let job = scrap_baler();
+    let report = solve(&job).unwrap();
+    for (name, viewport) in [("phone", Viewport::PHONE), ("projector", Viewport::PROJECTOR)] {
+        let app = AppSession::start_at(&format!("charts_{name}"), viewport, "#/results").await;
+        let b = &app.browser;
+        b.wait_for(".chart rect").await;
+        // Names: the phases' own, none cut short, each inside the drawing.
+        let labels = b
+            .eval(
+                "const c = document.querySelector('.results .chart svg'); const box = c.getBoundingClientRect(); \
+                 return [...c.querySelectorAll('.chart-label')].map(t => { const r = t.getBoundingClientRect(); \
+                 return [t.textContent, r.left >= box.left - 0.5 && r.right <= box.right + 0.5]; });",
+            )
+            .await;
+        let expected: Vec<serde_json::Value> = report.designs[0]
+            .phases
+            .iter()
+            .map(|p| serde_json::json!([p.name, true]))
+            .collect();
+        assert_eq!(labels, serde_json::Value::Array(expected), "{name}");
+        // The time axis's figures sit below the last panel's baseline.
+        let clear = b
+            .eval(
+                "const panels = [...document.querySelectorAll('.timeline-panel line, .timeline-panel polyline')].map(p => p.getBoundingClientRect().bottom); \
+                 const ticks = [...document.querySelectorAll('.time-tick')].map(t => t.getBoundingClientRect().top); \
+                 return ticks.length > 0 && panels.length >= 3 && ticks.every(t => t >= Math.max(...panels));",
+            )
+            .await;
+        assert_eq!(clear, true, "{name}: time-axis figures drawn over a panel");
+        // A tap on a segment reads its figure out in words.
+        let first = report.designs[0].phases[0].name.clone();
+        let said = b
+            .eval("const r = document.querySelector('.results .chart rect[tabindex]'); r.dispatchEvent(new MouseEvent('click', {bubbles: true})); return r.getAttribute('aria-label');")
+            .await;
+        let said = said.as_str().unwrap_or_default().to_string();
+        assert!(said.starts_with(&format!("{first}: ")), "{said}");
+        b.wait_for_text(".results .chart-readout", |t| t == said).await;
+        // The table holds a row for every drawn segment and one per bar.
+        let segments = b.count(".results .chart:first-of-type rect[tabindex]").await;
+        let table_rows = b.count(".results .chart:first-of-type .chart-figures tr").await;
+        assert_eq!(table_rows, segments + report.designs[0].phases.len(), "{name}");
+        b.screenshot(&format!("charts-{name}")).await;
+        app.finish().await;
+    }
+}
+
+/// Text that is not a number stays in its field while the user looks elsewhere: the job holds no
+/// number there, but the field shows what was typed (to correct it) when the user comes back.
+#[tokio::test]
+async fn text_left_invalid_survives_a_move_to_another_area() {
+    let app = AppSession::start("invalid_text_kept", Viewport::PHONE).await;
+    let b = &app.browser;
+    open_phase(b, 1).await;
+    let bore = field("cycle[1].cylinder.bore_m");
+    b.fill(&bore, "12o").await;
+    b.wait_for(".field.invalid").await;
+    b.click("nav.areas a[href='#/results']").await;
+    b.wait_for(".stale-notice").await;
+    b.click("nav.areas a[href='#/cycle']").await;
+    open_phase(b, 1).await;
+    assert_eq!(b.value(&bore).await, "12o");
+    assert_eq!(b.count(".field.invalid").await, 1);
+    // Corrected, the number is the job's again and nothing is kept aside.
+    b.fill(&bore, "125").await;
+    b.click("nav.areas a[href='#/results']").await;
+    b.click("nav.areas a[href='#/cycle']").await;
+    open_phase(b, 1).await;
+    assert_eq!(b.value(&bore).await, Measure::Length.format(UnitSystem::Si, 0.125));
+    app.finish().await;
+}

@@ -42,7 +42,8 @@ async fn export_all_then_clear_then_import_gives_the_same_jobs() {
     let downloads = b.allow_downloads().await;
     b.fill("input[data-path='name']", "Shear, bay 2").await;
     stored_as(b, "Shear, bay 2").await;
-    b.click("button.button.wide").await; // start a new job
+    b.click("button[data-action='new-job']").await;
+    b.click("button[data-new='copy']").await;
     b.fill("input[data-path='name']", "Test rig").await;
     stored_as(b, "Test rig").await;
     let originals = b.eval(STORED_JOBS).await;
@@ -169,5 +170,59 @@ async fn a_job_with_a_field_holding_no_number_is_neither_exported_nor_shared() {
     tokio::time::sleep(std::time::Duration::from_millis(500)).await;
     let files = std::fs::read_dir(&downloads).unwrap().count();
     assert_eq!(files, 0, "nothing was downloaded");
+    app.finish().await;
+}
+
+/// "Start a new job" asks where from: nothing (empty fields, no phases, nothing of the
+/// example), or a copy of the open job with every figure in view. An empty job waits, unsaved,
+/// until its fields hold numbers, and every area copes with it.
+#[tokio::test]
+async fn a_new_job_starts_empty_or_as_a_copy_the_user_chose() {
+    let app = AppSession::start_at("new_job", Viewport::PHONE, "#/jobs").await;
+    let b = &app.browser;
+    b.click("button[data-action='new-job']").await;
+    b.click("button[data-new='copy']").await;
+    b.wait_for_text("h1", |t| t == "Jobs on this device").await;
+    assert_eq!(b.value("input[data-path='name']").await, "Scrap baler (example) (copy)");
+    // A copy of the example is still the example, and says so.
+    b.click("nav.areas a[href='#/cycle']").await;
+    b.wait_for(".example-banner").await;
+    b.click("nav.areas a[href='#/jobs']").await;
+
+    b.click("button[data-action='new-job']").await;
+    b.click("button[data-new='blank']").await;
+    assert_eq!(b.value("input[data-path='name']").await, "New job");
+    b.wait_for_text("[data-save-note]", |t| {
+        t == "Not saved yet: it is saved on this device once every marked field holds a number."
+    })
+    .await;
+    b.click("nav.areas a[href='#/cycle']").await;
+    b.wait_for_text("h1", |t| t == "Machine cycle").await;
+    assert_eq!(b.count("li[data-phase]").await, 0);
+    assert_eq!(b.count(".example-banner").await, 0);
+    b.click("nav.areas a[href='#/unit']").await;
+    for path in [
+        "designs[0].motor.rated_power_w",
+        "designs[0].base_pump.displacement_m3_per_rev",
+        "designs[0].relief.setting_pa",
+    ] {
+        let input = format!("input[data-path='{path}']");
+        assert_eq!(b.value(&input).await, "", "{path}");
+        let error = format!("#{}-error", phasewise::ui::field::field_id(path));
+        assert_eq!(b.text(&error).await, "needs a value", "{path}");
+    }
+    // Every area shows an empty job without a fault or a figure from nowhere.
+    for area in phasewise::ui::area::Area::ALL {
+        // Moved by the address's fragment, as a link does: the page is not reloaded.
+        b.eval(&format!("window.location.hash = '{}';", area.href())).await;
+        b.wait_for(&format!("main[data-area='{}']", area.slug())).await;
+        let text = b.eval("return document.body.innerText;").await;
+        let text = text.as_str().unwrap_or_default().to_string();
+        assert!(!text.contains("NaN") && !text.contains("Infinity"), "{area:?}: {text}");
+    }
+    b.eval("window.location.hash = '#/jobs';").await;
+    b.wait_for("main[data-area='jobs']").await;
+    assert_eq!(b.value("input[data-path='name']").await, "New job", "the empty job is still open");
+    assert_eq!(b.console_errors().await, Vec::<String>::new());
     app.finish().await;
 }
