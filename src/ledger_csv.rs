@@ -8,6 +8,7 @@
 
 use crate::engine::units::{Measure, UnitSystem};
 use crate::engine::{DesignReport, PowerLedger};
+use crate::engine::ledger::LedgerItem;
 
 /// The ledger's items, in the order of the columns.
 fn ledger_items(l: &PowerLedger) -> [f64; 9] {
@@ -24,16 +25,17 @@ fn ledger_items(l: &PowerLedger) -> [f64; 9] {
     ]
 }
 
+/// The columns' names: the ledger's items as every screen names them.
 const ITEM_NAMES: [&str; 9] = [
     "Electrical input",
-    "Motor loss",
-    "Pump internal loss",
-    "Unloading loss",
-    "Relief loss",
-    "Metering loss",
-    "Lines and valves loss",
-    "Useful power",
-    "Heat into oil",
+    LedgerItem::Motor.name(),
+    LedgerItem::InsidePumps.name(),
+    LedgerItem::Unloading.name(),
+    LedgerItem::Relief.name(),
+    LedgerItem::FlowControl.name(),
+    LedgerItem::LinesAndValves.name(),
+    LedgerItem::UsefulWork.name(),
+    "Heat into the oil",
 ];
 
 /// One field, quoted if it holds a comma, a quote or a line break.

@@ -80,7 +80,7 @@ impl Row {
 
     pub fn label(self) -> &'static str {
         match self {
-            Row::MotorSize => "Motor size",
+            Row::MotorSize => "Motor rated power",
             Row::PeakLoad => "Motor load, peak",
             Row::RmsLoad => "Motor load, RMS",
             Row::CycleTime => "Cycle time",
@@ -92,7 +92,7 @@ impl Row {
             Row::Co2 => "CO₂ a year",
             Row::EnergySaved => "Energy saved a year",
             Row::CostSaved => "Cost saved a year",
-            Row::HeatSaved => "Less heat for the cooler",
+            Row::HeatSaved => "Less heat into the oil",
             Row::Co2Saved => "CO₂ saved a year",
             Row::Payback => "Simple payback",
         }

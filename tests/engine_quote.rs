@@ -198,12 +198,12 @@ fn the_assumptions_say_which_values_are_defaults() {
     let basis = |job: &phasewise::engine::Job, what: &str| {
         quote::assumptions(job)
             .into_iter()
-            .find(|a| a.what.contains(what))
+            .find(|a| a.what.to_lowercase().contains(&what.to_lowercase()))
             .map(|a| a.basis)
             .unwrap_or_else(|| panic!("no assumption on {what}"))
     };
     // The helpers use the common-practice figures: the report names them as defaults.
-    assert!(matches!(basis(&job, "peak allowed"), Basis::Default { .. }));
+    assert!(matches!(basis(&job, "Peak allowance"), Basis::Default { .. }));
     assert!(matches!(basis(&job, "fixed"), Basis::Default { .. }));
     assert!(matches!(basis(&job, "cracks at"), Basis::Default { .. }));
     assert!(
@@ -214,7 +214,7 @@ fn the_assumptions_say_which_values_are_defaults() {
     job.designs[0].motor.peak_allowance = 1.5;
     job.oil.density =
         uom::si::f64::MassDensity::new::<uom::si::mass_density::kilogram_per_cubic_meter>(870.0);
-    assert_eq!(basis(&job, "peak allowed"), Basis::Entered);
+    assert_eq!(basis(&job, "Peak allowance"), Basis::Entered);
     assert_eq!(basis(&job, "Oil density"), Basis::Entered);
     // Two designs: what they share is one line, what differs is a line each.
     let mut other = job.designs[0].clone();
@@ -226,7 +226,7 @@ fn the_assumptions_say_which_values_are_defaults() {
         .map(|a| a.what)
         .collect();
     assert!(
-        whats.contains(&"Every design: short peak allowed over rating".to_string()),
+        whats.contains(&"Every power unit: peak allowance (short peaks, times the rating)".to_string()),
         "{whats:?}"
     );
     assert!(whats.contains(&"“As found”: motor efficiency at full load".to_string()));

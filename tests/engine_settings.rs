@@ -485,7 +485,7 @@ fn actions_go_to_the_proposed_design_never_the_baseline() {
         assert_eq!(&settings::apply(d, &bad), d, "{bad:?}");
     }
     let no_such = settings::advise(&demo, 7).unwrap_err();
-    assert!(no_such[0].message.contains("no design 8"), "{no_such:?}");
+    assert!(no_such[0].message.contains("no power unit 8"), "{no_such:?}");
 }
 
 /// The public entry points refuse an invalid job with its input errors instead of relying on a

@@ -697,7 +697,7 @@ impl NotCopied {
                 hydromechanical * 100.0
             ),
             NotCopied::NoSuchPump { pump, pumps } => format!(
-                "Not copied: this design has no pump {} (it has {pumps}).",
+                "Not copied: this power unit has no pump {} (it has {pumps}).",
                 pump + 1
             ),
         }
@@ -854,7 +854,7 @@ mod tests {
         let drawn = pump.shaft_power(at, pump.delivered(at));
         assert!(
             (drawn - shaft).abs() <= 1e-9 * shaft,
-            "the design draws {drawn} W, the test measured {shaft} W"
+            "the power unit draws {drawn} W, the test measured {shaft} W"
         );
     }
 }

@@ -69,7 +69,7 @@ impl LedgerItem {
             LedgerItem::Unloading => "Unloading valves",
             LedgerItem::LinesAndValves => "Lines and valves",
             LedgerItem::InsidePumps => "Inside the pumps",
-            LedgerItem::Motor => "Motor",
+            LedgerItem::Motor => "Inside the motor",
         }
     }
 }

@@ -235,10 +235,10 @@ pub fn assumptions(job: &Job) -> Vec<Assumption> {
         }
     }
     push(
-        "Grid emission factor".into(),
+        "Grid CO₂ factor".into(),
         match site.grid_factor {
-            Some(f) => Assumed::Plain(f, "kg CO2 per kWh".into()),
-            None => Assumed::Text("not given: no CO2 figures".into()),
+            Some(f) => Assumed::Plain(f, "kg CO₂ per kWh".into()),
+            None => Assumed::Text("not given: no CO₂ figures".into()),
         },
         Basis::Entered,
     );
@@ -296,7 +296,7 @@ pub fn assumptions(job: &Job) -> Vec<Assumption> {
             Basis::Entered,
         );
         push(
-            "Short peak allowed over rating".to_string(),
+            "Peak allowance (short peaks, times the rating)".to_string(),
             Assumed::Quantity(Measure::Factor, m.peak_allowance),
             default_or_entered(m.peak_allowance == TYPICAL_PEAK_ALLOWANCE),
         );
@@ -365,7 +365,7 @@ pub fn assumptions(job: &Job) -> Vec<Assumption> {
                 .all(|(_, _, v, b)| (v, b) == (&lines[0].2, &lines[0].3));
         if same && job.designs.len() > 1 {
             push(
-                format!("Every design: {}", lowercase_first(key)),
+                format!("Every power unit: {}", lowercase_first(key)),
                 lines[0].2.clone(),
                 lines[0].3.clone(),
             );

@@ -457,7 +457,7 @@ pub fn advise(job: &Job, index: usize) -> Result<Vec<Advice>, Vec<InputError>> {
         return Err(vec![InputError {
             field: "designs".into(),
             message: format!(
-                "there is no design {} (the job has {})",
+                "there is no power unit {} (the job has {})",
                 index + 1,
                 job.designs.len()
             ),
@@ -1194,7 +1194,7 @@ impl Advice {
             Rule::BeyondRating { phase: i, lowest_pa, rating_pa } => (
                 format!("{}: beyond the pump's rating", phase(i)),
                 format!(
-                    "With the margin it needs a limit of {}, above the {} rating of the pump on the system line. No setting serves it safely: the load, the bore or the components must change.",
+                    "With the margin it needs a limit of {}, above the {} rating of the pump to the relief. No setting serves it safely: the load, the bore or the components must change.",
                     p(lowest_pa), p(rating_pa)
                 ),
             ),
@@ -1215,7 +1215,7 @@ impl Advice {
             Rule::MainAboveRating { main_pa, rating_pa } => (
                 "Main relief: above the pump's rating".to_string(),
                 format!(
-                    "Set at {}, above the {} rating of the pump on the system line: a stalled load or a closed valve takes the pump past what its maker allows. Set the main relief at or below the rating.",
+                    "Set at {}, above the {} rating of the pump to the relief: a stalled load or a closed valve takes the pump past what its maker allows. Set the main relief at or below the rating.",
                     p(main_pa), p(rating_pa)
                 ),
             ),

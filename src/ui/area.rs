@@ -57,6 +57,12 @@ impl Area {
         Area::Safety,
     ];
 
+    /// Whether the user types the machine's figures here: the presenter view shows the
+    /// figures they move beside it.
+    pub fn takes_figures(self) -> bool {
+        matches!(self, Area::Cycle | Area::PowerUnit | Area::Settings)
+    }
+
     /// The area's name in the address: stable, because links and bookmarks carry it.
     pub fn slug(self) -> &'static str {
         match self {
@@ -93,12 +99,12 @@ impl Area {
             Area::Cycle => "Machine cycle",
             Area::PowerUnit => "Power unit",
             Area::Results => "Results",
-            Area::Settings => "Pressure settings",
-            Area::PumpTest => "Pump check",
+            Area::Settings => "Valve settings",
+            Area::PumpTest => "Pump test",
             Area::Quote => "Retrofit quote",
             Area::Report => "Quote report",
             Area::Jobs => "Jobs on this device",
-            Area::Safety => "Safety first",
+            Area::Safety => "Safety",
         }
     }
 
@@ -109,8 +115,8 @@ impl Area {
             Area::Cycle => "Cycle",
             Area::PowerUnit => "Unit",
             Area::Results => "Results",
-            Area::Settings => "Settings",
-            Area::PumpTest => "Pump",
+            Area::Settings => "Valve settings",
+            Area::PumpTest => "Pump test",
             Area::Quote => "Quote",
             Area::Report => "Report",
             Area::Jobs => "Jobs",
@@ -202,10 +208,27 @@ mod tests {
 
     #[test]
     fn nav_labels_fit_a_narrow_phone() {
-        // Seven items across 360 px leave 51 px each; at the bar's 11 px type about 8 characters
-        // fit (the browser test checks no label is cut).
+        // Seven items across 360 px leave 51 px each: a label is a word or two short enough to
+        // fit there on at most two lines (the browser test checks no label is cut).
         for area in Area::NAV {
-            assert!(area.nav_label().chars().count() <= 8, "{area:?}");
+            let label = area.nav_label();
+            assert!(label.split(' ').all(|w| w.chars().count() <= 8), "{area:?}");
+            assert!(label.split(' ').count() <= 2, "{area:?}");
+        }
+    }
+
+    #[test]
+    fn nav_labels_name_what_the_area_holds() {
+        // Each label is a word of its area's heading, so the bar and the page say one thing,
+        // and none reads as the app's preferences or as a part's data sheet.
+        for area in Area::ALL {
+            let label = area.nav_label();
+            assert!(
+                area.title().to_lowercase().contains(&label.to_lowercase()),
+                "{area:?}: “{label}” is not in “{}”",
+                area.title()
+            );
+            assert!(!["Settings", "Options", "Preferences", "Pump"].contains(&label), "{area:?}");
         }
     }
 }

@@ -174,7 +174,7 @@ pub fn EnergyChart(columns: Vec<QuoteColumn>) -> impl IntoView {
         rows,
         max * scale,
         format!("Electrical energy a year, {unit}"),
-        "Where the energy goes in each design over a year",
+        "Where the energy goes in each power unit over a year",
         move |v| {
             format!(
                 "{} {unit}",

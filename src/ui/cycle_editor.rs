@@ -402,7 +402,7 @@ fn IdleFields(index: usize) -> impl IntoView {
         <NumberField label="Duration" path=format!("cycle[{index}].duration_s") measure=Measure::Duration
             get=move |j: &Job| match j.cycle.get(index).map(|p| &p.kind) { Some(PhaseKind::Idle(i)) => i.duration.value, _ => f64::NAN }
             set=move |j: &mut Job, v| if let Some(PhaseKind::Idle(i)) = j.cycle.get_mut(index).map(|p| &mut p.kind) { i.duration.value = v } />
-        <p class="hint">"Where the pump flow goes while idle is set per power unit, under Unit."</p>
+        <p class="hint">"Where the pump flow goes while idle is set per power unit, in the Power unit area."</p>
     }
 }
 

@@ -462,7 +462,7 @@ fn JobRow(entry: Entry) -> impl IntoView {
             let input_id = format!("rename-{id}");
             let name = saved.job.name.clone();
             let detail = format!(
-                "{}{} phases, {} units · changed {}",
+                "{}{} phases, {} power units · changed {}",
                 if saved.job.site.location.is_empty() {
                     String::new()
                 } else {

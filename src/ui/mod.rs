@@ -37,6 +37,7 @@ pub fn App() -> impl IntoView {
     let state = state::JobState::new(job, saved, entries);
     provide_context(state);
     jobs::keep_saved(state);
+    keep_display(state);
     provide_context(offline::start());
     // A job arriving by a share link is taken in first; the address then names the jobs area.
     share::receive(&state, &window().location().hash().unwrap_or_default());
@@ -58,7 +59,7 @@ pub fn App() -> impl IntoView {
     view! {
         <div
             class="shell"
-            class:projector=move || state.display.with(|d| d.projector)
+            class:presenter=move || state.display.with(|d| d.presenter)
             class:contrast=move || state.display.with(|d| d.high_contrast)
         >
             <header class="topbar">
@@ -79,6 +80,9 @@ pub fn App() -> impl IntoView {
                 <offline::NewerVersionNotice />
                 {move || page(area.get())}
             </main>
+            // Beside an area where figures are typed, the figures they move.
+            {move || (state.display.with(|d| d.presenter) && area.get().takes_figures())
+                .then(|| view! { <results::PresenterPanel /> })}
             <nav class="areas" aria-label="Areas">
                 {Area::NAV
                     .into_iter()
@@ -113,4 +117,21 @@ fn page(area: Area) -> AnyView {
         Area::Quote => view! { <quote_area::QuoteArea /> }.into_any(),
         Area::Report => view! { <report::ReportArea /> }.into_any(),
     }
+}
+
+/// The display switches as the device last kept them, and kept again on each change.
+fn keep_display(state: state::JobState) {
+    use gloo_storage::Storage as _;
+    let stored = gloo_storage::LocalStorage::raw()
+        .get_item(state::DISPLAY_KEY)
+        .ok()
+        .flatten();
+    state.display.set(state::Display::from_stored(stored.as_deref()));
+    Effect::new(move |_| {
+        let display = state.display.get();
+        if let Ok(text) = serde_json::to_string(&display) {
+            // A full or refused storage only forgets the switch; nothing else depends on it.
+            let _ = gloo_storage::LocalStorage::raw().set_item(state::DISPLAY_KEY, &text);
+        }
+    });
 }

@@ -94,7 +94,7 @@ pub fn PumpCheckArea() -> impl IntoView {
     view! {
         <section class="area pump-check" aria-labelledby="area-title">
             <div class="area-head">
-                <h1 id="area-title">"Pump check"</h1>
+                <h1 id="area-title">"Pump test"</h1>
             </div>
             <p class="purpose">"A pump's volumetric and overall efficiency from flow, pressure, speed and motor readings, and whether it is worn."</p>
             <p class="inline-caution">
@@ -164,7 +164,7 @@ fn TestEditor(t: usize) -> impl IntoView {
             <NumberField label="Rated pressure" path=p("rated_pressure_pa") measure=Measure::Pressure
                 get=move |j: &Job| test(j, t).map_or(f64::NAN, |x| x.rated_pressure.value)
                 set=move |j: &mut Job, v| if let Some(x) = test_mut(j, t) { x.rated_pressure.value = v } />
-            <NumberField label="Motor rating" path=p("motor_rated_power_w") measure=Measure::Power
+            <NumberField label="Motor rated power" path=p("motor_rated_power_w") measure=Measure::Power
                 get=move |j: &Job| test(j, t).map_or(f64::NAN, |x| x.motor_rated_power.value)
                 set=move |j: &mut Job, v| if let Some(x) = test_mut(j, t) { x.motor_rated_power.value = v } />
             <ChoiceField label="Motor efficiency from" path=p("motor_efficiency")
@@ -697,7 +697,7 @@ fn CopyToDesign(t: usize) -> impl IntoView {
         <h2>"Use these figures"</h2>
         <div class="field-grid">
             <div class="field">
-                <label for="copy-design">"Into the design"</label>
+                <label for="copy-design">"Into the power unit"</label>
                 <select id="copy-design" on:change=move |ev| design.set(event_target_value(&ev).parse().unwrap_or(0))>
                     {move || designs().into_iter().enumerate().map(|(i, n)| view! { <option value=i selected=move || design.get() == i>{n}</option> }).collect_view()}
                 </select>
@@ -707,7 +707,7 @@ fn CopyToDesign(t: usize) -> impl IntoView {
                 <select id="copy-pump" on:change=move |ev| pump.set(event_target_value(&ev).parse().unwrap_or(0))>
                     {move || { let n = pumps(); (0..n).map(|i| view! {
                         <option value=i selected=move || pump.get().min(n.saturating_sub(1)) == i>
-                            {if i + 1 == n { format!("Pump {} (the last on the shaft)", i + 1) } else { format!("Pump {}", i + 1) }}
+                            {if i + 1 == n { format!("Pump {} (to the relief)", i + 1) } else { format!("Pump {}", i + 1) }}
                         </option>
                     }).collect_view() }}
                 </select>

@@ -69,7 +69,7 @@ pub fn QuoteArea() -> impl IntoView {
             {move || (designs() < 2).then(|| view! {
                 <p class="empty-note" data-quote-single="true">
                     "Only one power unit so far. Add a proposed one in the "
-                    <a href="#/unit">"Unit"</a>
+                    <a href=super::area::Area::PowerUnit.href()>{super::area::Area::PowerUnit.title()}</a>
                     " area (or apply a staging candidate or a setting's advice) to compare it with this one."
                 </p>
             })}
@@ -102,7 +102,7 @@ pub fn QuoteArea() -> impl IntoView {
             })}
             {move || state.job.with(|j| !j.pump_tests.is_empty()).then(|| view! {
                 <div class="card" data-quote-pumps="true">
-                    <h2>"Pump checks"</h2>
+                    <h2>"Pump tests"</h2>
                     <super::pump_check::PumpVerdicts />
                 </div>
             })}

@@ -131,10 +131,13 @@ fn Document(job: Job, report: Arc<JobReport>, columns: Vec<QuoteColumn>) -> impl
                 {(!job.notes.trim().is_empty()).then(|| view! { <p class="report-notes">{job.notes.clone()}</p> })}
             </header>
 
-            <section class="report-block keep">
+            // Not kept whole: the summary starts on page one under the heading block, its
+            // sentences first, and a long table runs on to the next page rather than leave the
+            // first one empty.
+            <section class="report-block report-opening">
                 <h2>"Summary"</h2>
-                <ComparisonTable columns=columns.clone() units=units currency=currency.clone() precision=Precision::ForCustomer />
                 <ul class="report-summary">{summary}</ul>
+                <ComparisonTable columns=columns.clone() units=units currency=currency.clone() precision=Precision::ForCustomer />
                 {super::quote_area::fewer_parts_notes(&columns)}
             </section>
             <section class="report-block keep">
@@ -147,7 +150,7 @@ fn Document(job: Job, report: Arc<JobReport>, columns: Vec<QuoteColumn>) -> impl
             </section>
             {(!job.pump_tests.is_empty()).then(|| view! {
                 <section class="report-block keep" data-report-pumps="true">
-                    <h2>"Pump checks"</h2>
+                    <h2>"Pump tests"</h2>
                     <p class="hint">"A worn pump loses flow and power whatever the retrofit: its verdict from the readings taken at the machine."</p>
                     <super::pump_check::PumpVerdicts />
                 </section>
@@ -163,7 +166,7 @@ fn Document(job: Job, report: Arc<JobReport>, columns: Vec<QuoteColumn>) -> impl
             <Assumptions job=job.clone() />
             <Formulas />
             <section class="report-block keep report-cautions">
-                <h2>"Cautions"</h2>
+                <h2>"Safety"</h2>
                 <ul>
                     {CAUTIONS.iter().map(|(rule, detail)| view! { <li><strong>{*rule}</strong>" "{*detail}</li> }).collect_view()}
                 </ul>
@@ -262,7 +265,7 @@ fn DesignSection(
     };
     view! {
         <section class="report-block report-design" data-report-design=index>
-            <h2>{format!("“{}”", design.name)}{if index == 0 { " (as the baseline)" } else { "" }}</h2>
+            <h2>{format!("“{}”", design.name)}{if index == 0 { " (baseline)" } else { "" }}</h2>
             <ul class="unit-lines">
                 <li>{format!(
                     "Motor: {} at {}, {} efficient at full load",
@@ -296,12 +299,12 @@ fn DesignSection(
                 </table>
             </div>
             {(!report.findings.is_empty()).then(|| view! {
-                <h3>"About this unit"</h3>
+                <h3>"About this power unit"</h3>
                 <ul class="findings">
                     {report.findings.iter().map(|f| view! { <li>{f.describe(units)}</li> }).collect_view()}
                 </ul>
             })}
-            <h3>"Pressure settings advice"</h3>
+            <h3>"Valve settings advice"</h3>
             <p class="caution-line">"Settings are changed only by a qualified person, with the machine locked out and every pressure released, and never above any component's rating: see the cautions at the end."</p>
             {if advice.is_empty() {
                 view! { <p>"Nothing to change: every setting is within the rules (see the assumptions)."</p> }.into_any()

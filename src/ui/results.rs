@@ -8,6 +8,7 @@ use super::unit_editor::DesignTabs;
 use crate::engine::units::{Measure, UnitSystem};
 use crate::engine::valve::ActiveLimit;
 use crate::engine::{DesignReport, Job, JobReport, PumpState};
+use crate::engine::ledger::LedgerItem;
 use leptos::prelude::*;
 
 /// The index a field path gives right after `prefix`: 1 for `cycle[1].load.force_n` after
@@ -19,7 +20,7 @@ fn index_after(field: &str, prefix: &str) -> Option<usize> {
         .and_then(|n| n.parse::<usize>().ok())
 }
 
-/// Where a field path points, in words: "Phase 3 (Dwell)" or "Unit “Proposed”".
+/// Where a field path points, in words: "Phase 3 (Dwell)" or "Power unit “Proposed”".
 pub fn place_of(field: &str, job: &Job) -> String {
     let index = |prefix: &str| index_after(field, prefix);
     if let Some(i) = index("cycle[") {
@@ -28,7 +29,7 @@ pub fn place_of(field: &str, job: &Job) -> String {
     }
     if let Some(i) = index("designs[") {
         let name = job.designs.get(i).map(|d| d.name.as_str()).unwrap_or("");
-        return format!("Unit “{name}”");
+        return format!("Power unit “{name}”");
     }
     match field.split('.').next() {
         Some("site") => "Site".into(),
@@ -116,7 +117,7 @@ fn go_to_field(state: super::state::JobState, field: String) {
     );
 }
 
-/// The display switches: projector view and high contrast.
+/// The display switches: presenter view and high contrast.
 #[component]
 pub fn DisplaySwitches() -> impl IntoView {
     let state = use_job();
@@ -134,7 +135,7 @@ pub fn DisplaySwitches() -> impl IntoView {
     };
     view! {
         <div class="segmented" role="group" aria-label="Display">
-            {toggle("Projector", |d| d.projector, |d| d.projector = !d.projector)}
+            {toggle("Presenter view", |d| d.presenter, |d| d.presenter = !d.presenter)}
             {toggle("High contrast", |d| d.high_contrast, |d| d.high_contrast = !d.high_contrast)}
         </div>
     }
@@ -288,13 +289,13 @@ fn ReportView(
                 <h2>{format!("Against “{}”", c.baseline)}</h2>
                 <dl class="figures">
                     <Figure label="Average power saved" value=Measure::Power.with_unit(units, c.average_power_saved.value) key="saved-power" />
-                    <Figure label="Heat load saved" value=Measure::Heat.with_unit(units, c.heat_load_saved.value) key="saved-heat" />
+                    <Figure label="Less heat into the oil" value=Measure::Heat.with_unit(units, c.heat_load_saved.value) key="saved-heat" />
                     <Figure label="Motor RMS load saved" value=Measure::Power.with_unit(units, c.rms_shaft_saved.value) key="saved-rms" />
                     <Figure label="Energy saved a year" value=format!("{:.0} kWh", c.annual_energy_saved_kwh) key="saved-energy" />
                     <Figure label="Cost saved a year" value=format!("{:.0} {currency}", c.annual_cost_saved) key="saved-cost" />
                     <Figure label="Simple payback" value=crate::quote_text::payback_text(c.payback_years, crate::quote_text::Precision::ForCustomer) key="payback" />
                 </dl>
-                <a href=super::area::Area::Quote.href()>"Every design side by side, and the printable report"</a>
+                <a href=super::area::Area::Quote.href()>"Every power unit side by side, and the printable report"</a>
             </div>
         })}
         <h2>"Where the power goes"</h2>
@@ -312,7 +313,7 @@ fn ReportView(
             {design.phases.iter().enumerate().map(|(i, p)| view! { <PhaseResult i=i phase=p.clone() units=units /> }).collect_view()}
         </ol>
         {(!design.findings.is_empty()).then(|| view! {
-            <h2>"About this unit"</h2>
+            <h2>"About this power unit"</h2>
             <ul class="findings">
                 {design.findings.iter().map(|f| view! { <li>{f.describe(units)}</li> }).collect_view()}
             </ul>
@@ -385,7 +386,7 @@ fn Totals(design: DesignReport, units: UnitSystem, currency: String) -> impl Int
                 <Figure label="Heat into the oil" value=Measure::Heat.with_unit(units, t.heat_load.value) key="heat" />
                 <Figure label="Oil warms, no cooler" value=Measure::RiseRate.with_unit(units, t.oil_rise_k_per_minute) key="oil-rise" />
                 <Figure label="Energy a year" value=format!("{:.0} kWh", t.annual_energy_kwh) key="annual-energy" />
-                <Figure label="Cost a year" value=format!("{:.0} {currency}", t.annual_cost) key="annual-cost" />
+                <Figure label="Running cost a year" value=format!("{:.0} {currency}", t.annual_cost) key="annual-cost" />
             </dl>
         </div>
     }
@@ -434,18 +435,18 @@ fn PhaseResult(i: usize, phase: crate::engine::PhaseReport, units: UnitSystem) -
                 {row("Pumps", "pumps", pumps)}
                 {row("Limit", "limit", format!("{limit}, {}", Measure::Pressure.with_unit(units, p.limit.setting.value)))}
                 {row("Electrical input", "input", Measure::Power.with_unit(units, l.electrical_input.value))}
-                {row("Useful work", "useful", Measure::Power.with_unit(units, l.useful_power.value))}
+                {row(LedgerItem::UsefulWork.name(), "useful", Measure::Power.with_unit(units, l.useful_power.value))}
                 {row("Heat into the oil", "heat", Measure::Power.with_unit(units, l.heat_into_oil().value))}
             </dl>
             <details>
                 <summary>"The whole ledger"</summary>
                 <dl class="figures">
-                    {row("Motor loss", "motor-loss", Measure::Power.with_unit(units, l.motor_loss.value))}
-                    {row("Inside the pumps", "pump-loss", Measure::Power.with_unit(units, l.pump_internal_loss.value))}
-                    {row("Unloading valves", "unloading-loss", Measure::Power.with_unit(units, l.unloading_loss.value))}
-                    {row("Relief valve", "relief-loss", Measure::Power.with_unit(units, l.relief_loss.value))}
-                    {row("Flow control", "metering-loss", Measure::Power.with_unit(units, l.metering_loss.value))}
-                    {row("Lines and valves", "line-loss", Measure::Power.with_unit(units, l.line_valve_loss.value))}
+                    {row(LedgerItem::Motor.name(), "motor-loss", Measure::Power.with_unit(units, l.motor_loss.value))}
+                    {row(LedgerItem::InsidePumps.name(), "pump-loss", Measure::Power.with_unit(units, l.pump_internal_loss.value))}
+                    {row(LedgerItem::Unloading.name(), "unloading-loss", Measure::Power.with_unit(units, l.unloading_loss.value))}
+                    {row(LedgerItem::Relief.name(), "relief-loss", Measure::Power.with_unit(units, l.relief_loss.value))}
+                    {row(LedgerItem::FlowControl.name(), "metering-loss", Measure::Power.with_unit(units, l.metering_loss.value))}
+                    {row(LedgerItem::LinesAndValves.name(), "line-loss", Measure::Power.with_unit(units, l.line_valve_loss.value))}
                 </dl>
             </details>
             {(!phase.findings.is_empty()).then(|| view! {
@@ -488,5 +489,94 @@ mod tests {
         assert_eq!(area_of("site.retrofit_price"), Area::Quote);
         assert_eq!(area_of("advice.margin_min_pa"), Area::Settings);
         assert_eq!(area_of("name"), Area::Jobs);
+    }
+}
+
+/// The presenter view's panel, beside an area where figures are typed: the shown power unit's
+/// headline figures (each with the value it had before the last change, as a ghost) and its
+/// power ledger, so a class sees a change and what it moves on one screen.
+#[component]
+pub fn PresenterPanel() -> impl IntoView {
+    let state = use_job();
+    // The figures in words, from the engine's answer; none while the job has errors.
+    let figures = Memo::new(move |_| {
+        let units = state.units();
+        let d = state.design.get();
+        let currency = state.job.with(|j| j.site.currency.clone());
+        state.result.with(|r| {
+            let report = r.as_ref().ok()?;
+            let design = report.designs.get(d.min(report.designs.len().saturating_sub(1)))?;
+            let t = &design.totals;
+            Some((
+                design.name.clone(),
+                [
+                    Measure::Power.with_unit(units, t.average_electrical.value),
+                    Measure::Heat.with_unit(units, t.heat_load.value),
+                    format!("{:.0} kWh", t.annual_energy_kwh),
+                    format!("{:.0} {currency}", t.annual_cost),
+                    Measure::Duration.with_unit(units, t.cycle_time.value),
+                ],
+            ))
+        })
+    });
+    // What each figure was before the last change that moved it.
+    let before = RwSignal::new(None::<[String; 5]>);
+    let last = StoredValue::new(None::<(String, [String; 5])>);
+    Effect::new(move |_| {
+        if let Some((name, now)) = figures.get() {
+            if let Some((last_name, was)) = last.get_value() {
+                if last_name != name {
+                    // Another power unit shown: no "before" across two machines.
+                    before.set(None);
+                } else if was != now {
+                    before.set(Some(was));
+                }
+            }
+            last.set_value(Some((name, now)));
+        }
+    });
+    const LABELS: [(&str, &str); 5] = [
+        ("Average input", "average"),
+        ("Heat into the oil", "heat"),
+        ("Energy a year", "annual-energy"),
+        ("Running cost a year", "annual-cost"),
+        ("Cycle time", "cycle-time"),
+    ];
+    let chart = Memo::new(move |_| {
+        let d = state.design.get();
+        state.result.with(|r| {
+            let report = r.as_ref().ok()?;
+            let design = report.designs.get(d.min(report.designs.len().saturating_sub(1)))?.clone();
+            Some((design, super::charts::ledger_scale_w(report)))
+        })
+    });
+    view! {
+        <aside class="presenter-panel" aria-label="Live figures" data-presenter-panel="true">
+            {move || match figures.get() {
+                None => view! { <p class="empty-note">"Figures return once every field holds a valid number."</p> }.into_any(),
+                Some((name, now)) => {
+                    let was = before.get();
+                    view! {
+                        <h2>{name}</h2>
+                        <dl class="figures presenter-figures">
+                            {LABELS.iter().zip(now).enumerate().map(|(i, ((label, key), value))| {
+                                let ghost = was.as_ref().map(|w| w[i].clone()).filter(|w| *w != value);
+                                view! {
+                                    <div class="figure">
+                                        <dt>{*label}</dt>
+                                        <dd data-presenter=*key>{value}</dd>
+                                        {ghost.map(|g| view! { <dd class="ghost" data-ghost=*key>{format!("before: {g}")}</dd> })}
+                                    </div>
+                                }
+                            }).collect_view()}
+                        </dl>
+                    }.into_any()
+                }
+            }}
+            {move || chart.get().map(|(design, scale)| {
+                let units = state.units();
+                view! { <LedgerChart design=design units=units scale_w=scale /> }
+            })}
+        </aside>
     }
 }

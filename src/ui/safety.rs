@@ -44,7 +44,7 @@ pub const ESTIMATE_NOTE: &str =
 pub fn SafetyPage() -> impl IntoView {
     view! {
         <section class="safety" aria-labelledby="safety-title">
-            <h1 id="safety-title">"Safety first"</h1>
+            <h1 id="safety-title">"Safety"</h1>
             <p class="purpose">
                 "Hydraulic machines store energy and run at pressures that injure. "
                 "Read this before you change any setting."

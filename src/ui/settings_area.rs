@@ -48,7 +48,7 @@ pub fn SettingsArea() -> impl IntoView {
     view! {
         <section class="area settings" aria-labelledby="area-title">
             <div class="area-head">
-                <h1 id="area-title">"Pressure settings"</h1>
+                <h1 id="area-title">"Valve settings"</h1>
             </div>
             <p class="purpose">"What each phase needs, the limit it works against, and the settings that would serve it with the least heat."</p>
             <SettingsCaution />
@@ -72,7 +72,7 @@ pub fn SettingsArea() -> impl IntoView {
                         <h2>"Advice"</h2>
                         <p class="hint" data-advice-machine="true">{machine}</p>
                         {if list.is_empty() {
-                            view! { <p class="empty-note" data-advice-count="0">"Nothing to change: every setting of this design is within the rules below."</p> }.into_any()
+                            view! { <p class="empty-note" data-advice-count="0">"Nothing to change: every setting of this power unit is within the rules below."</p> }.into_any()
                         } else {
                             let count = list.len();
                             view! {
@@ -145,11 +145,11 @@ fn AdviceCard(
                 {if can_apply {
                     view! {
                         <button type="button" class="button" data-action="apply-advice" on:click=move |_| apply(a)>
-                            {format!("{what}, in the proposed design")}
+                            {format!("{what}, in the proposed power unit")}
                         </button>
                     }.into_any()
                 } else {
-                    view! { <p class="hint">{format!("To do: {what}. Show the proposed design to apply it there; the baseline stays as found.")}</p> }.into_any()
+                    view! { <p class="hint">{format!("To do: {what}. Show a proposed power unit to apply it there; the baseline stays as it is.")}</p> }.into_any()
                 }}
                 <p class="setting-caution">
                     "Before setting it on the machine: lock out, release the pressure (accumulators too), check it against every component's rating on that line."

@@ -176,7 +176,7 @@ fn Found(
                     <li class="candidate" data-rank=i + 1>
                         <p>{line}</p>
                         <button type="button" class="button" data-action="use-candidate" on:click=move |_| apply(candidate.clone())>
-                            "Make this the proposed design"
+                            "Make this the proposed power unit"
                         </button>
                     </li>
                 }
@@ -270,7 +270,7 @@ fn StagingOptionsEditor() -> impl IntoView {
                 options=vec![("yes", "Yes".to_string()), ("no", "No".to_string())]
                 get=|j: &Job| if j.staging.compensated { "yes" } else { "no" }
                 set=|j: &mut Job, v: &str| j.staging.compensated = v == "yes" />
-            <super::field::ChoiceField label="Motor sizes" path="staging.motor_steps"
+            <super::field::ChoiceField label="Standard motor ratings" path="staging.motor_steps"
                 options=vec![("iec", "IEC, kW".to_string()), ("nema", "NEMA, hp".to_string())]
                 get=|j: &Job| match j.staging.motor_steps { MotorSteps::IecKw => "iec", MotorSteps::NemaHp => "nema" }
                 set=|j: &mut Job, v: &str| j.staging.motor_steps = if v == "nema" { MotorSteps::NemaHp } else { MotorSteps::IecKw } />
@@ -299,7 +299,7 @@ fn StagingOptionsEditor() -> impl IntoView {
             <p class="hint">"Each candidate's motor is taken at its class's nominal efficiency for its own size (IEC 60034-30-1, 5.5 to 37 kW; NEMA MG 1, 10 to 50 hp); a size outside those takes the figure at the nearer end."</p>
             <NumberField label="Service factor" path="staging.service_factor" measure=Measure::Factor
                 get=|j: &Job| j.staging.service_factor set=|j: &mut Job, v| j.staging.service_factor = v />
-            <NumberField label="Peak over rating allowed" path="staging.peak_allowance" measure=Measure::Factor
+            <NumberField label="Peak allowance (short peaks, times the rating)" path="staging.peak_allowance" measure=Measure::Factor
                 get=|j: &Job| j.staging.peak_allowance set=|j: &mut Job, v| j.staging.peak_allowance = v />
         </details>
         <LongestTimes />

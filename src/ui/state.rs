@@ -16,13 +16,27 @@ pub type Outcome = Result<Arc<JobReport>, Arc<Vec<InputError>>>;
 pub type PumpTestOutcomes =
     Arc<Vec<Result<crate::engine::efficiency::TestReport, Vec<InputError>>>>;
 
-/// How the app is shown; not part of the job.
-#[derive(Clone, Copy, Debug, PartialEq, Eq, Default)]
+/// How the app is shown; not part of the job, but kept on the device (`DISPLAY_KEY`) so a
+/// workshop's projector opens in the presenter view it was left in.
+#[derive(Clone, Copy, Debug, PartialEq, Eq, Default, serde::Serialize, serde::Deserialize)]
 pub struct Display {
-    /// Large type and results first, for a workshop projector.
-    pub projector: bool,
+    /// Type legible from the back of a room, results first, and beside an area where figures
+    /// are typed, the figures and chart they move (see DEVELOPERS.md, "Presenter view").
+    #[serde(default)]
+    pub presenter: bool,
     /// Black, white and yellow, for glare or a dim corner.
+    #[serde(default)]
     pub high_contrast: bool,
+}
+
+/// Where the display switches are kept on the device.
+pub const DISPLAY_KEY: &str = "phasewise.display";
+
+impl Display {
+    /// The switches as kept on the device (none kept, or unreadable: the plain view).
+    pub fn from_stored(text: Option<&str>) -> Display {
+        text.and_then(|t| serde_json::from_str(t).ok()).unwrap_or_default()
+    }
 }
 
 /// A change that threw something away (a design removed, a proposed design overwritten), kept

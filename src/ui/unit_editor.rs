@@ -135,8 +135,8 @@ pub fn UnitArea() -> impl IntoView {
             <super::undo::UndoChange place="unit" />
             <OlderBaselineNotice place="unit" />
             <div class="row-tools">
-                <button type="button" class="button" on:click=add_design>"Copy as a new proposal"</button>
-                <button type="button" class="button danger" data-action="remove-design" disabled=move || { designs() <= 1 } on:click=remove_design>"Remove this unit"</button>
+                <button type="button" class="button" on:click=add_design>"Copy as a new proposed power unit"</button>
+                <button type="button" class="button danger" data-action="remove-design" disabled=move || { designs() <= 1 } on:click=remove_design>"Remove this power unit"</button>
             </div>
             {move || {
                 let d = shown.get();
@@ -190,7 +190,7 @@ fn DesignEditor(d: usize) -> impl IntoView {
     let phases = Memo::new(move |_| state.job.with(|j| j.cycle.len()));
     let phases = move || phases.get();
     view! {
-        <TextField label="Name of this unit" path=format!("designs[{d}].name")
+        <TextField label="Name of this power unit" path=format!("designs[{d}].name")
             get=move |j: &Job| design(j, d).map(|x| x.name.clone()).unwrap_or_default()
             set=move |j: &mut Job, v| if let Some(x) = design_mut(j, d) { x.name = v } />
 
@@ -211,7 +211,7 @@ fn DesignEditor(d: usize) -> impl IntoView {
             <NumberField label="Service factor" path=format!("designs[{d}].motor.service_factor") measure=Measure::Factor
                 get=move |j: &Job| design(j, d).map_or(f64::NAN, |x| x.motor.service_factor)
                 set=move |j: &mut Job, v| if let Some(x) = design_mut(j, d) { x.motor.service_factor = v } />
-            <NumberField label="Short peak allowed over rating" path=format!("designs[{d}].motor.peak_allowance") measure=Measure::Factor
+            <NumberField label="Peak allowance (short peaks, times the rating)" path=format!("designs[{d}].motor.peak_allowance") measure=Measure::Factor
                 get=move |j: &Job| design(j, d).map_or(f64::NAN, |x| x.motor.peak_allowance)
                 set=move |j: &mut Job, v| if let Some(x) = design_mut(j, d) { x.motor.peak_allowance = v } />
         </div>
@@ -302,7 +302,7 @@ pub(super) fn SettingsCaution() -> impl IntoView {
             <CautionIcon />
             <span>
                 "Pressure settings are changed only by a qualified person, with the machine locked out and pressure released, and never above any component's rating. "
-                <a href="#/safety">"Safety notes"</a>
+                <a href="#/safety">"Safety"</a>
             </span>
         </p>
     }

@@ -232,7 +232,7 @@ async fn bad_input_is_kept_and_explained_at_the_field() {
 }
 
 #[tokio::test]
-async fn nothing_overflows_sideways_and_the_projector_view_reads_large() {
+async fn nothing_overflows_sideways_and_the_presenter_view_reads_large() {
     for (name, viewport) in [
         ("small-phone", Viewport::SMALL_PHONE),
         ("phone", Viewport::PHONE),
@@ -259,12 +259,12 @@ async fn nothing_overflows_sideways_and_the_projector_view_reads_large() {
         .await;
     b.click(".segmented[aria-label='Display'] button:nth-child(1)")
         .await;
-    b.wait_for(".shell.projector").await;
+    b.wait_for(".shell.presenter").await;
     let large = b
         .eval("return parseFloat(getComputedStyle(document.querySelector('.figure dd')).fontSize);")
         .await;
     assert!(large.as_f64() > normal.as_f64(), "{large} > {normal}");
-    // Charts come first in the projector view.
+    // Charts come first in the presenter view.
     let chart_first = b.eval("const c = document.querySelector('.results .chart').getBoundingClientRect().top, t = document.querySelector('.results .totals').getBoundingClientRect().top; return c < t;").await;
     assert_eq!(chart_first, true);
     assert_eq!(b.sideways_overflow().await, 0);
@@ -494,5 +494,60 @@ async fn text_left_invalid_survives_a_move_to_another_area() {
     b.click("nav.areas a[href='#/cycle']").await;
     open_phase(b, 1).await;
     assert_eq!(b.value(&bore).await, Measure::Length.format(UnitSystem::Si, 0.125));
+    app.finish().await;
+}
+
+/// The presenter view at 1920x1080, for a class: the field being changed and the figures and
+/// chart it moves on one screen, the headline figures above the fold, each figure's value before
+/// the change kept beside the new one, every text legible from the back of the room (the size
+/// rule is in style/main.css: no text under 27 px), and the view remembered after a reload.
+#[tokio::test]
+async fn the_presenter_view_shows_a_change_beside_what_it_moves_legibly_and_is_remembered() {
+    let app = AppSession::start_at("presenter", Viewport::PROJECTOR, "#/results").await;
+    let b = &app.browser;
+    b.click(".segmented[aria-label='Display'] button:nth-child(1)").await;
+    b.wait_for(".shell.presenter").await;
+    b.client().refresh().await.unwrap();
+    b.wait_for(phasewise_harness::browser::APP_READY).await;
+    b.wait_for(".shell.presenter").await;
+
+    b.click("nav.areas a[href='#/cycle']").await;
+    b.wait_for("[data-presenter-panel] [data-presenter='average']").await;
+    open_phase(b, 1).await;
+    let before = b.text("[data-presenter='average']").await;
+    let force = field("cycle[1].load.force_n");
+    b.fill(&force, "250").await;
+    let after = b.wait_for_text("[data-presenter='average']", |t| t != before).await;
+    assert_eq!(b.text("[data-ghost='average']").await, format!("before: {before}"), "now {after}");
+
+    let layout = b
+        .eval(&format!(
+            "const r = s => document.querySelector(s).getBoundingClientRect(), h = innerHeight; \
+             const field = r(\"{force}\"), figures = r('.presenter-figures'), chart = r('[data-presenter-panel] .chart svg'); \
+             return {{ field: field.top >= 0 && field.bottom <= h, figures: figures.top >= 0 && figures.bottom <= h, \
+                       chart: chart.top < h - 100, beside: chart.left >= field.right }};",
+        ))
+        .await;
+    assert_eq!(
+        layout,
+        serde_json::json!({"field": true, "figures": true, "chart": true, "beside": true}),
+        "the change and what it moves on one screen"
+    );
+    let small = b
+        .eval(
+            "const out = [], walk = document.createTreeWalker(document.body, NodeFilter.SHOW_TEXT); \
+             while (walk.nextNode()) { const t = walk.currentNode, el = t.parentElement; \
+               if (!el || !t.textContent.trim()) continue; const rect = el.getBoundingClientRect(); \
+               if (rect.width === 0 || rect.height === 0 || getComputedStyle(el).visibility === 'hidden') continue; \
+               if (rect.bottom < 0 || rect.top > innerHeight) continue; \
+               const svg = el.closest('svg'); let size = parseFloat(getComputedStyle(el).fontSize); \
+               if (svg) size *= svg.getBoundingClientRect().width / svg.viewBox.baseVal.width; \
+               if (size < 27 - 0.01) out.push(size.toFixed(1) + ' px: ' + t.textContent.trim().slice(0, 30) + ' (' + el.tagName.toLowerCase() + '.' + String(el.className.baseVal ?? el.className) + ')'); } \
+             return out;",
+        )
+        .await;
+    assert_eq!(small, serde_json::json!([]), "text under the size rule");
+    assert_eq!(b.sideways_overflow().await, 0);
+    b.screenshot("presenter-view").await;
     app.finish().await;
 }

@@ -225,7 +225,7 @@ async fn the_report_prints_to_a_clean_pdf_on_a4_and_letter() {
             job.name.as_str(),
             payback.as_str(),
             "Assumptions",
-            "Cautions",
+            "Safety",
         ]
         .into_iter()
         .chain(energy.iter().map(String::as_str))
@@ -233,6 +233,21 @@ async fn the_report_prints_to_a_clean_pdf_on_a4_and_letter() {
             assert!(
                 text.contains(&squeezed(wanted)),
                 "{paper}: the PDF lacks “{wanted}”"
+            );
+        }
+        // The summary starts on page one: the job, what it saves and the payback are there,
+        // not pushed over by a block that would not fit beside them.
+        let first_page = squeezed(&poppler(
+            "pdftotext",
+            &["-f", "1", "-l", "1", pdf.to_str().unwrap(), "-"],
+        ));
+        for wanted in [job.name.as_str(), payback.as_str(), "Powerunitscompared"]
+            .into_iter()
+            .chain(energy.iter().map(String::as_str))
+        {
+            assert!(
+                first_page.contains(&squeezed(wanted)),
+                "{paper}: page 1 lacks “{wanted}”: {first_page}"
             );
         }
         for unwanted in ["Printorsaveas", "Backtothequote"] {

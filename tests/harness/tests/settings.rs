@@ -70,7 +70,7 @@ async fn the_demo_advice_shows_and_one_applies_to_the_proposed_design() {
     assert!(b
         .text(".advice-list")
         .await
-        .contains("Show the proposed design to apply it there"));
+        .contains("Show a proposed power unit to apply it there"));
 
     // The demo's proposed design follows the advice's own rules: nothing to change.
     b.click(".design-tabs button:nth-child(2)").await;

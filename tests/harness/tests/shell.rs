@@ -270,7 +270,7 @@ async fn flip(b: &phasewise_harness::browser::Browser, label: &str) {
     assert_eq!(found, true, "the {label} switch");
 }
 
-/// Every area, in each display mode (as it comes, high contrast, projector), passes WCAG 2.2 AA
+/// Every area, in each display mode (as it comes, high contrast, presenter view), passes WCAG 2.2 AA
 /// contrast (success criterion 1.4.3) for every visible piece of text.
 #[tokio::test]
 async fn every_area_passes_wcag_aa_contrast_in_every_display_mode() {
@@ -280,7 +280,7 @@ async fn every_area_passes_wcag_aa_contrast_in_every_display_mode() {
     for (mode, switch) in [
         ("as it comes", None),
         ("high contrast", Some("High contrast")),
-        ("projector", Some("Projector")),
+        ("presenter view", Some("Presenter view")),
     ] {
         if let Some(label) = switch {
             flip(b, label).await;
