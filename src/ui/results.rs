@@ -519,20 +519,27 @@ pub fn PresenterPanel() -> impl IntoView {
             ))
         })
     });
-    // What each figure was before the last change that moved it.
+    // What each figure was when the field being changed was entered, so typing "250" shows
+    // the figures before the 2, not those after the 25. Entering another field starts anew.
     let before = RwSignal::new(None::<[String; 5]>);
-    let last = StoredValue::new(None::<(String, [String; 5])>);
+    let anchor = StoredValue::new(None::<(String, [String; 5])>);
+    let entered = window_event_listener(leptos::ev::focusin, move |_| {
+        if let Some(now) = figures.get_untracked() {
+            anchor.set_value(Some(now));
+        }
+    });
+    on_cleanup(move || entered.remove());
     Effect::new(move |_| {
-        if let Some((name, now)) = figures.get() {
-            if let Some((last_name, was)) = last.get_value() {
-                if last_name != name {
-                    // Another power unit shown: no "before" across two machines.
-                    before.set(None);
-                } else if was != now {
-                    before.set(Some(was));
-                }
+        let Some((name, now)) = figures.get() else { return };
+        match anchor.get_value() {
+            Some((anchor_name, was)) if anchor_name == name => {
+                before.set((was != now).then_some(was));
             }
-            last.set_value(Some((name, now)));
+            // First figures, or another power unit shown: no "before" across two machines.
+            _ => {
+                anchor.set_value(Some((name, now)));
+                before.set(None);
+            }
         }
     });
     const LABELS: [(&str, &str); 5] = [

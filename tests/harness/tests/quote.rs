@@ -183,7 +183,8 @@ async fn the_report_prints_to_a_clean_pdf_on_a4_and_letter() {
                tools: css('.report-tools').display,
                shell: css('.shell').backgroundColor,
                text: css('.report-job').color,
-               table: css('.quote-table').breakInside,
+               table: css('.report-block:not(.report-opening) table').breakInside,
+               opening: css('.report-opening table').breakInside,
                figure: css('.report .chart').breakInside,
              };",
         )
@@ -194,6 +195,8 @@ async fn the_report_prints_to_a_clean_pdf_on_a4_and_letter() {
             "nav": "none", "tools": "none",
             "shell": "rgb(255, 255, 255)", "text": "rgb(0, 0, 0)",
             "table": "avoid", "figure": "avoid",
+            // The summary's table may run on to page two so the summary starts on page one.
+            "opening": "auto",
         }),
         "print styles"
     );
