@@ -1,5 +1,7 @@
 //! The app's pictures, drawn as inline SVG so they need no file, no font and no network.
-//! Line icons on a 24-unit grid take their colour from the text around them.
+//! Line icons on a 24-unit grid take their colour from the text around them. Only the pump is
+//! drawn after an ISO 1219-1 symbol, and drawn as the standard draws it; the rest are pictures
+//! (a loop, bars, a dial, a trace, a sheet, a folder) that resemble none of its symbols.
 
 use super::area::Area;
 use leptos::prelude::*;

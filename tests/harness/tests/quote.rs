@@ -76,6 +76,16 @@ async fn the_demo_comparison_on_a_phone_is_the_engines() {
         .text("[data-quote-table='customer'] tr[data-quote-row='payback'] td[data-design='1']")
         .await;
     assert!(payback.ends_with("years"), "{payback}");
+    // The baseline is marked as such where power units stand side by side.
+    let baseline = format!("{} (baseline)", job.designs[0].name);
+    assert_eq!(
+        b.text("[data-quote-table='customer'] thead th[data-design='0']").await,
+        baseline
+    );
+    assert_eq!(
+        b.text("[data-quote-table='customer'] thead th[data-design='1']").await,
+        job.designs[1].name
+    );
     assert_eq!(
         b.sideways_overflow().await,
         0,
@@ -119,6 +129,12 @@ async fn the_demo_comparison_on_a_phone_is_the_engines() {
         .await;
     job.designs[1].retrofit_price = Some(5000.0);
     wait_for_table(b, "exact", &expected(&job, Precision::Exact)).await;
+    // The tabs that pick the power unit shown mark the baseline the same way.
+    b.click("nav.areas a[href='#/results']").await;
+    assert_eq!(
+        b.text(".design-tabs [data-design='0']").await,
+        format!("{} (baseline)", job.designs[0].name)
+    );
     app.finish().await;
 }
 
