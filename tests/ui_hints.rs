@@ -75,8 +75,8 @@ fn every_thing_has_one_name_wherever_it_is_shown() {
         .map(|e| e.unwrap().path())
         .collect();
     for shown in [
-        "src/quote_text.rs",
-        "src/ledger_csv.rs",
+        "src/formats/quote_text.rs",
+        "src/formats/ledger_csv.rs",
         "src/engine/finding.rs",
         "src/engine/quote.rs",
         "src/engine/settings.rs",

@@ -802,7 +802,7 @@ pub fn apply_to_design(
 #[cfg(test)]
 mod tests {
     use super::*;
-    use crate::engine::pump::PumpAtSpeed;
+    use crate::pump::PumpAtSpeed;
     use uom::si::angular_velocity::revolution_per_minute;
     use uom::si::pressure::bar;
     use uom::si::volume::cubic_centimeter;
@@ -844,7 +844,7 @@ mod tests {
         assert!((shaft - 120.0 * 1000.0 * TAU / 60.0).abs() < 1e-9 * shaft);
         // A design whose last pump is the tested one, on a motor at the test's speed; its
         // pump has a drag to start with (the demo's: a fixture, not a reference).
-        let mut design = crate::engine::demo::scrap_baler().designs[0].clone();
+        let mut design = crate::demo::scrap_baler().designs[0].clone();
         design.base_pump.displacement = test.displacement;
         design.motor.full_load_speed = test.speed;
         assert!(design.base_pump.drag_power.value > 0.0);

@@ -122,7 +122,7 @@ impl Design {
 
 #[cfg(test)]
 mod tests {
-    use crate::engine::demo::scrap_baler;
+    use crate::demo::scrap_baler;
     use uom::si::power::kilowatt;
     use uom::si::pressure::bar;
 
@@ -156,10 +156,10 @@ mod tests {
         job.designs.truncate(1);
         assert_eq!(job.next_proposal_name(), "Proposed");
         // Advice applied to a lone baseline makes a proposal that knows its baseline.
-        let (job, at) = crate::engine::settings::apply_to_proposed(
+        let (job, at) = crate::settings::apply_to_proposed(
             &job,
             0,
-            &crate::engine::settings::Action::SetMain {
+            &crate::settings::Action::SetMain {
                 pressure: uom::si::f64::Pressure::new::<bar>(180.0),
             },
         );

@@ -178,7 +178,7 @@ pub fn EnergyChart(columns: Vec<QuoteColumn>) -> impl IntoView {
         move |v| {
             format!(
                 "{} {unit}",
-                crate::quote_text::grouped(v, if scale < 1.0 { 2 } else { 0 })
+                crate::formats::quote_text::grouped(v, if scale < 1.0 { 2 } else { 0 })
             )
         },
     )

@@ -5,7 +5,7 @@ use super::field::TextField;
 use super::state::use_job;
 use super::state::JobState;
 use crate::engine::Job;
-use crate::library::{self, Entry};
+use crate::formats::library::{self, Entry};
 use gloo_storage::Storage as _;
 use leptos::prelude::*;
 use wasm_bindgen::JsCast;

@@ -8,7 +8,7 @@ use super::state::use_job;
 use crate::engine::quote::{self, QuoteColumn};
 use crate::engine::units::{Measure, UnitSystem};
 use crate::engine::Job;
-use crate::quote_text::{self, Precision, Row};
+use crate::formats::quote_text::{self, Precision, Row};
 use leptos::prelude::*;
 
 /// The comparison as the job now stands, or none while any figure is invalid: a quote is

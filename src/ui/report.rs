@@ -14,7 +14,7 @@ use crate::engine::settings::{self, Severity};
 use crate::engine::units::{Measure, UnitSystem};
 use crate::engine::valve::ReliefKind;
 use crate::engine::{DesignReport, Job, JobReport, PumpState};
-use crate::quote_text::{self, Precision};
+use crate::formats::quote_text::{self, Precision};
 use leptos::prelude::*;
 use std::sync::Arc;
 

@@ -279,7 +279,7 @@ fn ReportView(
             super::jobs::file_stem(&job_name),
             super::jobs::file_stem(&csv_design.name)
         );
-        let text = crate::ledger_csv::ledger_csv(&csv_design, units);
+        let text = crate::formats::ledger_csv::ledger_csv(&csv_design, units);
         super::jobs::download_as(&name, "text/csv", &text);
     };
     view! {
@@ -293,7 +293,7 @@ fn ReportView(
                     <Figure label="Motor RMS load saved" value=Measure::Power.with_unit(units, c.rms_shaft_saved.value) key="saved-rms" />
                     <Figure label="Energy saved a year" value=format!("{:.0} kWh", c.annual_energy_saved_kwh) key="saved-energy" />
                     <Figure label="Cost saved a year" value=format!("{:.0} {currency}", c.annual_cost_saved) key="saved-cost" />
-                    <Figure label="Simple payback" value=crate::quote_text::payback_text(c.payback_years, crate::quote_text::Precision::ForCustomer) key="payback" />
+                    <Figure label="Simple payback" value=crate::formats::quote_text::payback_text(c.payback_years, crate::formats::quote_text::Precision::ForCustomer) key="payback" />
                 </dl>
                 <a href=super::area::Area::Quote.href()>"Every power unit side by side, and the printable report"</a>
             </div>

@@ -1,11 +1,11 @@
 //! Sharing a job by link and QR code, and taking in a job that arrives by a link. The packing
-//! and the QR modules come from [`crate::share`]; this only shows them and stores the job.
+//! and the QR modules come from [`crate::formats::share`]; this only shows them and stores the job.
 
 use super::jobs::{load_all, now_ms, open, stored_ids, stored_names, strs, write};
 use super::state::{use_job, JobState};
 use crate::engine::Job;
-use crate::library::{self, Entry};
-use crate::share;
+use crate::formats::library::{self, Entry};
+use crate::formats::share;
 use leptos::prelude::*;
 use wasm_bindgen::JsValue;
 
@@ -124,7 +124,7 @@ pub fn SharePanel() -> impl IntoView {
     let made = Memo::new(move |_| {
         shown.get().then(|| {
             state.job.with(|job| {
-                crate::library::job_file(job).map(|_| share::link(&address.get_value(), job))
+                crate::formats::library::job_file(job).map(|_| share::link(&address.get_value(), job))
             })
         })
     });

@@ -76,7 +76,7 @@ pub struct JobState {
     pub current: RwSignal<Option<String>>,
     pub save_note: RwSignal<super::jobs::SaveNote>,
     /// What storage holds, as last read.
-    pub library: RwSignal<Vec<crate::library::Entry>>,
+    pub library: RwSignal<Vec<crate::formats::library::Entry>>,
     /// The text this window last wrote for the open job: a storage event with other text
     /// means another window changed it.
     pub last_written: StoredValue<Option<String>>,
@@ -103,7 +103,7 @@ impl JobState {
     pub fn new(
         job: Job,
         saved: Option<(String, f64)>,
-        library: Vec<crate::library::Entry>,
+        library: Vec<crate::formats::library::Entry>,
     ) -> JobState {
         let job = RwSignal::new(job);
         // Every new answer counts as a change: comparing two reports field by field costs as

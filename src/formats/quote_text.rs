@@ -2,8 +2,8 @@
 //! show it: which rows the table has, and each cell's text, rounded for a customer or exact.
 //! Pure (no browser), so the browser tests can work out what the screen must say.
 
-use crate::engine::quote::{for_customer, payback_for_customer, QuoteColumn};
-use crate::engine::units::{Measure, UnitSystem};
+use phasewise_engine::quote::{for_customer, payback_for_customer, QuoteColumn};
+use phasewise_engine::units::{Measure, UnitSystem};
 
 /// How a figure is shown: rounded as a quote gives it, or as the engine computed it.
 #[derive(Clone, Copy, Debug, PartialEq, Eq, Default)]

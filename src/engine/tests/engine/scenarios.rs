@@ -2,13 +2,13 @@
 //! the inputs with the physics of the field brief (DOMAIN.md), independently of the engine's
 //! code; 1e-9 relative allows for rounding only.
 
-mod common;
-use common::*;
-use phasewise::engine::cycle::{
+
+use crate::common::*;
+use phasewise_engine::cycle::{
     Cylinder, Direction, HoldMode, Load, MovePhase, Phase, PhaseKind, SpeedRule,
 };
-use phasewise::engine::valve::{ActiveLimit, IdlePath, ReliefKind};
-use phasewise::engine::{solve, Finding, PumpState};
+use phasewise_engine::valve::{ActiveLimit, IdlePath, ReliefKind};
+use phasewise_engine::{solve, Finding, PumpState};
 
 const REL: f64 = 1e-9;
 
@@ -23,7 +23,7 @@ const REL: f64 = 1e-9;
 /// pump 2's 12 - 0.003 x 160 = 11.52 L/min crosses it there), cracking at 0.97 x 160 = 155.2
 /// bar, so above cracking it passes 11.52 / 4.8 = 2.4 L/min per bar (rated 60 L/min).
 /// Cylinder: bore 100 mm (area 7.853982e-3 m^2), rod 56 mm (annulus 5.390973e-3 m^2).
-fn trim_press(vented_idle: bool) -> (Vec<Phase>, phasewise::engine::power_unit::Design) {
+fn trim_press(vented_idle: bool) -> (Vec<Phase>, phasewise_engine::power_unit::Design) {
     let cycle = vec![
         move_phase(
             "approach",
@@ -337,7 +337,7 @@ fn venting_the_idle_saves_its_relief_heat() {
 /// 10 L/min), leak-free, 90 % hydromechanical, no drag; pump 1 unloads at 40 bar and pump 2 at
 /// 80 bar, each with a 2 bar drop and no check-valve drop. Relief pilot-operated, set at 150
 /// bar (dead-headed there only pump 3's 10 L/min crosses it), rated 60 L/min. Moves are on a 100 mm bore, 100 mm stroke (0.785398 L) at a pressure read off a gauge.
-fn test_rig(loads_bar: &[f64]) -> (Vec<Phase>, phasewise::engine::power_unit::Design) {
+fn test_rig(loads_bar: &[f64]) -> (Vec<Phase>, phasewise_engine::power_unit::Design) {
     let ideal = |cc| fixed_pump(cc, 1.0, 100.0, 0.9, 0.0);
     let cycle: Vec<Phase> = loads_bar
         .iter()
@@ -479,7 +479,7 @@ fn an_unloading_setting_inside_the_relief_override_hunts() {
     let (_, mut d) = test_rig(&[]);
     d.unloading_stages[1].unloading.setting = bar_(59.5);
     d.remote_stages = vec![bar_(60.0)];
-    d.phase_settings = vec![phasewise::engine::power_unit::PhaseSetting {
+    d.phase_settings = vec![phasewise_engine::power_unit::PhaseSetting {
         limit: ActiveLimit::Remote { stage: 0 },
         idle_path: IdlePath::OverLimit,
     }];
@@ -521,7 +521,7 @@ fn an_idle_over_a_limit_settles_where_the_limit_was_read() {
     let (_, mut d) = test_rig(&[]);
     d.unloading_stages[1].unloading.setting = bar_(58.9);
     d.remote_stages = vec![bar_(60.0)];
-    d.phase_settings = vec![phasewise::engine::power_unit::PhaseSetting {
+    d.phase_settings = vec![phasewise_engine::power_unit::PhaseSetting {
         limit: ActiveLimit::Remote { stage: 0 },
         idle_path: IdlePath::OverLimit,
     }];
@@ -743,7 +743,7 @@ fn a_compensated_pump_dead_heads_on_its_leakage() {
     // its displacement only covers the 0.015 x 154.5 = 2.3175 L/min it leaks, which takes
     // 2.3175 x 154.5 / 600 / 0.9 = 0.663056 kW from the shaft, all of it heat.
     let mut pump = fixed_pump(20.0, 0.9, 200.0, 0.9, 0.0);
-    pump.control = phasewise::engine::pump::PumpControl::Compensated {
+    pump.control = phasewise_engine::pump::PumpControl::Compensated {
         setting: bar_(150.0),
     };
     let d = design(
@@ -786,7 +786,7 @@ fn a_compensated_pump_dead_heads_on_its_leakage() {
 /// (60 L/min: 40 cm^3/rev at 1500 rpm) holds 10 s against a pilot-operated relief set at
 /// 100 bar at 60 L/min, so all its flow crosses at 100 bar and takes 1.0e-3 x 100e5 = 10 kW
 /// from the shaft. `rest` is the phases after it, each an idle taking its path.
-fn test_stand(motor_kw: f64, rpm: f64, rest: &[(f64, IdlePath)]) -> phasewise::engine::Job {
+fn test_stand(motor_kw: f64, rpm: f64, rest: &[(f64, IdlePath)]) -> phasewise_engine::Job {
     let mut cycle = vec![hold("load", 90.0, 10.0, HoldMode::HeldByPump)];
     cycle.extend(
         rest.iter()
@@ -859,7 +859,7 @@ fn a_cycle_longer_than_five_minutes_is_too_long_for_the_rms() {
     assert_eq!(too_long(9.0, 280.0), None);
     assert_eq!(too_long(11.0, 400.0), None);
     let report = solve(&test_stand(9.0, 1500.0, &vented(400.0))).unwrap();
-    let text = report.designs[0].findings[0].describe(phasewise::engine::units::UnitSystem::Si);
+    let text = report.designs[0].findings[0].describe(phasewise_engine::units::UnitSystem::Si);
     assert!(
         text.contains("410.0 s") && text.contains("300.0 s"),
         "{text}"
@@ -925,7 +925,7 @@ fn a_metered_move_whose_limit_starves_its_flow_control_says_so() {
     if let PhaseKind::Move(m) = &mut cycle[0].kind {
         m.speed = metered_speed(0.05);
     }
-    let starved = |report: &phasewise::engine::JobReport| {
+    let starved = |report: &phasewise_engine::JobReport| {
         report.designs[0].phases[0]
             .findings
             .iter()
@@ -953,7 +953,7 @@ fn phases_rank_by_their_energy_over_the_cycle() {
     let (cycle, d) = trim_press(false);
     let job = job(cycle, vec![d]);
     let report = solve(&job).unwrap();
-    let ranked = phasewise::engine::phases_by_energy(&job, &report, 0);
+    let ranked = phasewise_engine::phases_by_energy(&job, &report, 0);
     assert_eq!(ranked.len(), 5);
     let place = |name: &str| ranked.iter().position(|e| e.name == name).unwrap();
     assert!(place("unload part") < place("dwell"));
@@ -973,5 +973,5 @@ fn phases_rank_by_their_energy_over_the_cycle() {
         "the cycle's energy",
     );
     assert!(ranked.windows(2).all(|w| w[0].energy_j >= w[1].energy_j));
-    assert!(phasewise::engine::phases_by_energy(&job, &report, 3).is_empty());
+    assert!(phasewise_engine::phases_by_energy(&job, &report, 3).is_empty());
 }

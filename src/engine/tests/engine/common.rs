@@ -1,14 +1,13 @@
 //! Builders for the engine's tests: jobs written in the trade's units, so a test reads like
 //! the machine it describes. Every value here is an invented scenario, not a reference.
-#![allow(dead_code)]
 
-use phasewise::engine::cycle::*;
-use phasewise::engine::job::{Job, Oil, Site, SCHEMA_VERSION};
-use phasewise::engine::motor::Motor;
-use phasewise::engine::power_unit::{Design, PhaseSetting, UnloadingStage};
-use phasewise::engine::pump::{Pump, PumpControl};
-use phasewise::engine::units::UnitSystem;
-use phasewise::engine::valve::*;
+use phasewise_engine::cycle::*;
+use phasewise_engine::job::{Job, Oil, Site, SCHEMA_VERSION};
+use phasewise_engine::motor::Motor;
+use phasewise_engine::power_unit::{Design, PhaseSetting, UnloadingStage};
+use phasewise_engine::pump::{Pump, PumpControl};
+use phasewise_engine::units::UnitSystem;
+use phasewise_engine::valve::*;
 use uom::si::angular_velocity::revolution_per_minute;
 use uom::si::f64::*;
 use uom::si::force::kilonewton;
@@ -89,7 +88,7 @@ pub fn motor(kw_rated: f64, rpm: f64, efficiency: f64) -> Motor {
         full_load_efficiency: efficiency,
         fixed_loss_share: 0.35,
         service_factor: 1.0,
-        peak_allowance: phasewise::engine::motor::TYPICAL_PEAK_ALLOWANCE,
+        peak_allowance: phasewise_engine::motor::TYPICAL_PEAK_ALLOWANCE,
     }
 }
 

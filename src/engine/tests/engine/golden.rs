@@ -1,10 +1,10 @@
-//! Golden files: each `tests/fixtures/NAME.job.json` is solved as `cargo run --example solve`
+//! Golden files: each `tests/fixtures/NAME.job.json` is solved as `cargo run -p phasewise-engine --example solve`
 //! would, and the output must equal `NAME.report.json` (or, for a job with input errors,
 //! `NAME.errors.json`). These guard against unintended change, so they are regression
 //! checks, not references: the fixtures are invented jobs.
 //!
 //! After a deliberate change to the engine, check the differences, then re-record with
-//! `PHASEWISE_BLESS=1 cargo test --test engine_golden`.
+//! `PHASEWISE_BLESS=1 cargo test -p phasewise-engine --test engine golden`.
 
 use std::path::Path;
 
@@ -27,7 +27,7 @@ fn job_files_solve_to_their_recorded_output() {
             continue;
         };
         let text = std::fs::read_to_string(&job).unwrap();
-        let (output, kind) = match phasewise::engine::solve_json(&text) {
+        let (output, kind) = match phasewise_engine::solve_json(&text) {
             Ok(report) => (report, "report"),
             Err(errors) => (errors, "errors"),
         };

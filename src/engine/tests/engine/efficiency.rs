@@ -5,17 +5,17 @@
 //! from the motor's slip and its shaft power from the motor's part-load model; what is copied
 //! into a design; how many readings a verdict needs; tests in date order.
 
-mod common;
-use common::*;
-use phasewise::engine::efficiency::{
+
+use crate::common::*;
+use phasewise_engine::efficiency::{
     self, ElectricalInput, MeasuredPump, MotorEfficiency, NotCopied, PumpTest, Reading, SpeedFrom,
     Verdict, WearPolicy,
 };
-use phasewise::engine::motor::{
+use phasewise_engine::motor::{
     EfficiencyClass, Motor, TYPICAL_FIXED_LOSS_SHARE, TYPICAL_PEAK_ALLOWANCE,
 };
-use phasewise::engine::units::{UnitSystem, GALLON_PER_MINUTE, HORSEPOWER, INCH, PSI};
-use phasewise::engine::validate::validate_pump_test;
+use phasewise_engine::units::{UnitSystem, GALLON_PER_MINUTE, HORSEPOWER, INCH, PSI};
+use phasewise_engine::validate::validate_pump_test;
 use uom::si::angular_velocity::revolution_per_minute;
 use uom::si::f64::{
     AngularVelocity, ElectricCurrent, ElectricPotential, Power, Torque, Volume, VolumeRate,
@@ -270,7 +270,7 @@ fn the_leakage_fit_recovers_a_known_line() {
         "intercept",
     );
     assert_close(
-        line.leakage_per_pa * 1e5 / phasewise::engine::units::LITRE_PER_MINUTE,
+        line.leakage_per_pa * 1e5 / phasewise_engine::units::LITRE_PER_MINUTE,
         0.02,
         1e-9,
         "leakage per bar",
@@ -439,7 +439,7 @@ fn the_measured_efficiencies_go_into_a_design() {
     let report = assess(&t);
     let measured = efficiency::measured_pump(&t, &report).unwrap();
     assert_eq!(measured.at_pressure_pa, 70e5);
-    let job = phasewise::engine::demo::scrap_baler();
+    let job = phasewise_engine::demo::scrap_baler();
     let d = efficiency::apply_to_design(&job.designs[0], 1, &measured).unwrap();
     assert_close(
         d.base_pump.volumetric_efficiency,
@@ -459,7 +459,7 @@ fn the_measured_efficiencies_go_into_a_design() {
     );
     let mut changed = job.clone();
     changed.designs[0] = d;
-    assert!(phasewise::engine::solve(&changed).is_ok());
+    assert!(phasewise_engine::solve(&changed).is_ok());
 }
 
 /// A 22 kW four-pole motor on 50 Hz, 1465 rpm at full load, 93 % efficient there, driving a
@@ -627,7 +627,7 @@ fn copying_a_measured_hydromechanical_efficiency_zeroes_the_drag() {
     r.torque = Some(newton_metres(120.0));
     let t = test_of(100.0, 1000.0, vec![reading(20.0, m3s(0.00162)), r]);
     let measured = efficiency::measured_pump(&t, &assess(&t)).unwrap();
-    let job = phasewise::engine::demo::scrap_baler();
+    let job = phasewise_engine::demo::scrap_baler();
     assert!(job.designs[0].base_pump.drag_power.value > 0.0);
     let d = efficiency::apply_to_design(&job.designs[0], 1, &measured).unwrap();
     assert_eq!(d.base_pump.drag_power.value, 0.0);
@@ -659,7 +659,7 @@ fn an_efficiency_no_pump_has_is_never_copied() {
     );
     assert!(why.message(UnitSystem::Si).contains("no working pump has"));
     // Nor put into a design by hand.
-    let design = &phasewise::engine::demo::scrap_baler().designs[0];
+    let design = &phasewise_engine::demo::scrap_baler().designs[0];
     for (volumetric, hydromechanical) in [
         (0.0, None),
         (-0.1, None),

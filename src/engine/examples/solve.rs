@@ -3,14 +3,14 @@
 //! solved figures, and each pump test's assessment and trend (DEVELOPERS.md, "Everything the
 //! engine says"):
 //!
-//!     cargo run --example solve -- job.json
+//!     cargo run -p phasewise-engine --example solve -- job.json
 //!
 //! Exit status 0 with the document on stdout; 2 with the input errors (a JSON list of
 //! `{field, message}`) or the file's problem on stderr; 1 if the file cannot be read.
 
 fn main() -> std::process::ExitCode {
     let Some(path) = std::env::args().nth(1) else {
-        eprintln!("usage: cargo run --example solve -- JOB.json");
+        eprintln!("usage: cargo run -p phasewise-engine --example solve -- JOB.json");
         return std::process::ExitCode::from(1);
     };
     let text = match std::fs::read_to_string(&path) {
@@ -20,7 +20,7 @@ fn main() -> std::process::ExitCode {
             return std::process::ExitCode::from(1);
         }
     };
-    match phasewise::engine::solve_json(&text) {
+    match phasewise_engine::solve_json(&text) {
         Ok(answer) => {
             println!("{answer}");
             std::process::ExitCode::SUCCESS

@@ -4,17 +4,17 @@
 //! on the RMS and the peak as the engine's motor findings judge it; one candidate is worked by
 //! hand (pressures, pump states, powers, motor step, energy). The machines are invented.
 
-mod common;
-use common::*;
-use phasewise::engine::cycle::PhaseKind;
-use phasewise::engine::demo::scrap_baler;
-use phasewise::engine::motor::EfficiencyClass;
-use phasewise::engine::solve::PumpState;
-use phasewise::engine::staging::{self, Candidate, MotorSteps, Spec, StagingOptions};
-use phasewise::engine::valve::IdlePath;
-use phasewise::engine::valve::ReliefKind;
-use phasewise::engine::Finding;
-use phasewise::engine::Job;
+
+use crate::common::*;
+use phasewise_engine::cycle::PhaseKind;
+use phasewise_engine::demo::scrap_baler;
+use phasewise_engine::motor::EfficiencyClass;
+use phasewise_engine::solve::PumpState;
+use phasewise_engine::staging::{self, Candidate, MotorSteps, Spec, StagingOptions};
+use phasewise_engine::valve::IdlePath;
+use phasewise_engine::valve::ReliefKind;
+use phasewise_engine::Finding;
+use phasewise_engine::Job;
 use uom::si::angular_velocity::revolution_per_minute;
 use uom::si::f64::{AngularVelocity, Volume};
 use uom::si::volume::cubic_centimeter;
@@ -154,7 +154,7 @@ fn kept_candidates_meet_the_times_and_size_their_motor_on_rms_and_peak() {
     assert!(key(&found.best[0]) <= key(&as_found));
     let steps = opts.motor_steps.ratings_w();
     for c in &found.best {
-        let report = phasewise::engine::solve(&Job {
+        let report = phasewise_engine::solve(&Job {
             designs: vec![job.designs[0].clone(), c.design.clone()],
             ..job.clone()
         })
@@ -205,7 +205,7 @@ fn applying_a_candidate_changes_only_the_proposed_design() {
         after.designs[1].pump_count(),
         found.best[0].spec.displacements.len()
     );
-    assert!(phasewise::engine::solve(&after).is_ok());
+    assert!(phasewise_engine::solve(&after).is_ok());
 }
 
 fn set_target(job: &mut Job, phase: usize, seconds: Option<f64>) {
@@ -305,7 +305,7 @@ fn a_candidate_worked_by_hand() {
     );
     assert_close(in_bar(d.relief.setting), 145.0, 1e-12, "main");
 
-    let report = phasewise::engine::solve(&Job {
+    let report = phasewise_engine::solve(&Job {
         designs: vec![job.designs[0].clone(), d.clone()],
         ..job.clone()
     })
@@ -393,7 +393,7 @@ fn each_move_keeps_to_its_own_target_time() {
         for c in &found.best {
             let report = staging::evaluate(job, &opts, &targets, &c.spec).unwrap();
             assert_eq!(&report, c);
-            let solved = phasewise::engine::solve(&Job {
+            let solved = phasewise_engine::solve(&Job {
                 designs: vec![job.designs[0].clone(), c.design.clone()],
                 ..job.clone()
             })
@@ -460,7 +460,7 @@ fn an_applied_candidate_passes_the_engines_motor_checks() {
         let found = staging::search(&job, &opts).unwrap();
         for c in &found.best {
             let (after, target) = staging::apply_candidate(&job, 0, c);
-            let report = phasewise::engine::solve(&after).unwrap();
+            let report = phasewise_engine::solve(&after).unwrap();
             let motor = &after.designs[target].motor;
             assert_eq!((motor.service_factor, motor.peak_allowance), (1.15, 1.5));
             assert!(
@@ -490,7 +490,7 @@ fn each_candidates_motor_takes_its_class_efficiency_at_its_own_size() {
         speed: AngularVelocity::new::<revolution_per_minute>(1450.0).value,
         compensated: false,
     };
-    let hp = phasewise::engine::units::HORSEPOWER;
+    let hp = phasewise_engine::units::HORSEPOWER;
     let iec = options(&[25.0, 40.0], 1);
     let cases = [
         (iec.clone(), [(7.5e3, 0.904), (15e3, 0.921)]),
@@ -524,7 +524,7 @@ fn each_candidates_motor_takes_its_class_efficiency_at_its_own_size() {
             // The energy, phase by phase with that motor's loss: the shaft power x t, plus the
             // loss rated x (1/efficiency - 1) x (0.35 + 0.65 (P/rated)^2) x t.
             let (after, target) = staging::apply_candidate(&job, 0, &c);
-            let solved = phasewise::engine::solve(&after).unwrap();
+            let solved = phasewise_engine::solve(&after).unwrap();
             let d = &solved.designs[target];
             let by_hand: f64 = d
                 .phases
@@ -573,7 +573,7 @@ fn compensated_candidates_keep_the_relief_clear_of_the_compensator() {
         let Some(d) = staging::build(&job, &job.designs[0], &spec, &targets) else {
             continue;
         };
-        let dead_head = phasewise::engine::settings::compensator_dead_head(&d).unwrap();
+        let dead_head = phasewise_engine::settings::compensator_dead_head(&d).unwrap();
         let margin = (dead_head * 0.10).max(15.0 * 1e5);
         assert!(
             d.relief.setting.value >= dead_head + margin - 1e-6,
@@ -581,7 +581,7 @@ fn compensated_candidates_keep_the_relief_clear_of_the_compensator() {
             d.relief.setting.value
         );
         assert!(d.relief.cracking_pressure().value > dead_head);
-        let report = phasewise::engine::solve(&Job {
+        let report = phasewise_engine::solve(&Job {
             designs: vec![job.designs[0].clone(), d],
             ..job.clone()
         })
@@ -589,7 +589,7 @@ fn compensated_candidates_keep_the_relief_clear_of_the_compensator() {
         assert!(!report.designs[1]
             .findings
             .iter()
-            .any(|f| matches!(f, phasewise::engine::Finding::ReliefAtCompensator { .. })));
+            .any(|f| matches!(f, phasewise_engine::Finding::ReliefAtCompensator { .. })));
         checked += 1;
     }
     assert!(checked > 0);
@@ -628,10 +628,10 @@ fn a_slower_candidate_leaks_the_same_flow_per_displacement() {
         "hold",
         150.0,
         5.0,
-        phasewise::engine::cycle::HoldMode::HeldByPump,
+        phasewise_engine::cycle::HoldMode::HeldByPump,
     )];
     one.phase_settings = vec![Default::default()];
-    let report = phasewise::engine::solve(&Job {
+    let report = phasewise_engine::solve(&Job {
         cycle,
         designs: vec![one],
         ..job.clone()

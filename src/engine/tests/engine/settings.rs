@@ -5,13 +5,13 @@
 //! whichever is more; a flow control's drop 7 bar; cracking 0.97 (pilot-operated) or 0.80
 //! (direct-acting) of the setting.
 
-mod common;
-use common::*;
-use phasewise::engine::cycle::{Direction, HoldMode};
-use phasewise::engine::settings::{self, Action, Advice, Rule, Severity};
-use phasewise::engine::units::UnitSystem;
-use phasewise::engine::valve::{ActiveLimit, ReliefKind};
-use phasewise::engine::{solve, Finding, Job};
+
+use crate::common::*;
+use phasewise_engine::cycle::{Direction, HoldMode};
+use phasewise_engine::settings::{self, Action, Advice, Rule, Severity};
+use phasewise_engine::units::UnitSystem;
+use phasewise_engine::valve::{ActiveLimit, ReliefKind};
+use phasewise_engine::{solve, Finding, Job};
 
 const BAR: f64 = 1e5;
 
@@ -458,7 +458,7 @@ fn remote_stages_above_main_or_never_selected_are_flagged_and_removable() {
 
 #[test]
 fn actions_go_to_the_proposed_design_never_the_baseline() {
-    let demo = phasewise::engine::demo::scrap_baler();
+    let demo = phasewise_engine::demo::scrap_baler();
     let action = Action::SetMain {
         pressure: bar_(180.0),
     };
@@ -502,13 +502,13 @@ fn advice_and_the_staging_search_refuse_an_invalid_job_with_its_errors() {
     assert!(errors
         .iter()
         .any(|e| e.field == "designs[0].phase_settings"));
-    let errors = phasewise::engine::staging::search(&job, &job.staging).unwrap_err();
+    let errors = phasewise_engine::staging::search(&job, &job.staging).unwrap_err();
     assert!(!errors.is_empty());
     let mut five = high_low(20.0, 145.0);
     let stage = five.designs[0].unloading_stages[0];
     five.designs[0].unloading_stages = vec![stage; 4];
     assert!(settings::advise(&five, 0).is_err());
-    assert!(phasewise::engine::solve(&five).is_err());
+    assert!(phasewise_engine::solve(&five).is_err());
     let mut no_designs = high_low(20.0, 145.0);
     no_designs.designs.clear();
     assert!(settings::advise(&no_designs, 0).is_err());
@@ -571,7 +571,7 @@ fn a_hold_the_pump_keeps_is_advised_the_limit_that_holds_it() {
 /// and a relief set too low is advised up.
 #[test]
 fn a_relief_is_never_advised_at_or_below_a_compensator() {
-    use phasewise::engine::pump::PumpControl;
+    use phasewise_engine::pump::PumpControl;
     let compensated = |main_bar: f64| {
         let mut pump = fixed_pump(30.0, 0.95, 200.0, 0.9, 0.1);
         pump.control = PumpControl::Compensated {

@@ -6,9 +6,9 @@
 //! that a spreadsheet would take for a formula gets a leading apostrophe (common practice
 //! against formula injection).
 
-use crate::engine::units::{Measure, UnitSystem};
-use crate::engine::{DesignReport, PowerLedger};
-use crate::engine::ledger::LedgerItem;
+use phasewise_engine::units::{Measure, UnitSystem};
+use phasewise_engine::{DesignReport, PowerLedger};
+use phasewise_engine::ledger::LedgerItem;
 
 /// The ledger's items, in the order of the columns.
 fn ledger_items(l: &PowerLedger) -> [f64; 9] {
@@ -124,7 +124,7 @@ pub fn ledger_csv(design: &DesignReport, units: UnitSystem) -> String {
 #[cfg(test)]
 mod tests {
     use super::*;
-    use crate::engine::{demo::scrap_baler, solve};
+    use phasewise_engine::{demo::scrap_baler, solve};
 
     fn cells(csv: &str) -> Vec<Vec<String>> {
         // Enough of a reader for these rows: the demo's names hold no quotes.

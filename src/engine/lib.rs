@@ -131,7 +131,7 @@ pub fn phases_by_energy(job: &Job, report: &JobReport, d: usize) -> Vec<PhaseEne
     phases
 }
 
-/// Everything the engine says about a job, in one document: what `cargo run --example solve`
+/// Everything the engine says about a job, in one document: what `cargo run -p phasewise-engine --example solve`
 /// prints (its shape is in DEVELOPERS.md, "Everything the engine says").
 #[derive(Clone, Debug, PartialEq, Serialize)]
 pub struct JobAnswer {
@@ -245,7 +245,7 @@ pub fn answer(job: &Job) -> Result<JobAnswer, Vec<InputError>> {
 
 /// Reads a job file and says everything about it ([`answer`]) as pretty JSON, or the reason
 /// the file could not be read, or its input errors as a JSON list of `{field, message}`. This
-/// is what `cargo run --example solve -- job.json` prints, and what the golden-file tests
+/// is what `cargo run -p phasewise-engine --example solve -- job.json` prints, and what the golden-file tests
 /// compare.
 pub fn solve_json(text: &str) -> Result<String, String> {
     let job = Job::from_json(text).map_err(|e| e.to_string())?;

@@ -1,6 +1,6 @@
 //! How long one solve takes: a 12-phase cycle on a three-pump unit (an invented baler).
 //!
-//!     cargo bench --bench solve
+//!     cargo bench -p phasewise-engine --bench solve
 //!
 //! Prints the time per solve (the best of several batches, and their median). Target: under
 //! 20 microseconds, so a staging search over tens of thousands of designs stays interactive.
@@ -10,12 +10,12 @@
 mod common;
 
 use common::*;
-use phasewise::engine::cycle::{Direction, HoldMode, SpeedRule};
-use phasewise::engine::valve::{ActiveLimit, IdlePath, ReliefKind};
+use phasewise_engine::cycle::{Direction, HoldMode, SpeedRule};
+use phasewise_engine::valve::{ActiveLimit, IdlePath, ReliefKind};
 use std::hint::black_box;
 use std::time::Instant;
 
-fn baler_job() -> phasewise::engine::Job {
+fn baler_job() -> phasewise_engine::Job {
     let ram = |name, force, stroke, direction, speed| {
         move_phase(name, 160.0, 90.0, stroke, direction, force, 5.0, speed)
     };
@@ -104,23 +104,23 @@ fn time(f: impl Fn()) -> (f64, f64) {
 
 fn main() {
     let job = baler_job();
-    phasewise::engine::solve(&job).expect("the benchmark job is valid");
+    phasewise_engine::solve(&job).expect("the benchmark job is valid");
     let (best, median) = time(|| {
-        black_box(phasewise::engine::solve(black_box(&job)).ok());
+        black_box(phasewise_engine::solve(black_box(&job)).ok());
     });
     println!("solve, 12 phases, 3 pumps, 1 design: {best:.2} us best, {median:.2} us median (15 batches of 20000)");
     let (best, median) = time(|| {
-        black_box(phasewise::engine::validate::validate(black_box(&job)).ok());
+        black_box(phasewise_engine::validate::validate(black_box(&job)).ok());
     });
     println!("  of which validation: {best:.2} us best, {median:.2} us median");
 
     // The staging search with the default lists (over 5,000 candidates) on the same 12-phase
     // cycle. Target in the browser: under 200 ms (the wasm build is measured there).
-    let options = phasewise::engine::staging::StagingOptions::default();
-    let mut runs: Vec<(f64, phasewise::engine::staging::SearchResult)> = (0..5)
+    let options = phasewise_engine::staging::StagingOptions::default();
+    let mut runs: Vec<(f64, phasewise_engine::staging::SearchResult)> = (0..5)
         .map(|_| {
             let start = Instant::now();
-            let found = phasewise::engine::staging::search(black_box(&job), &options).unwrap();
+            let found = phasewise_engine::staging::search(black_box(&job), &options).unwrap();
             (start.elapsed().as_secs_f64() * 1e3, found)
         })
         .collect();

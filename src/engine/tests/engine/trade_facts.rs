@@ -1,14 +1,14 @@
 //! Facts of the trade the engine must honour. None has a published source: each is marked
 //! common practice (REFERENCES, "Facts of the trade").
 
-mod common;
-use common::*;
-use phasewise::engine::cycle::{Direction, HoldMode, SpeedRule};
-use phasewise::engine::valve::{ActiveLimit, IdlePath, ReliefKind};
-use phasewise::engine::{solve, Finding};
+
+use crate::common::*;
+use phasewise_engine::cycle::{Direction, HoldMode, SpeedRule};
+use phasewise_engine::valve::{ActiveLimit, IdlePath, ReliefKind};
+use phasewise_engine::{solve, Finding};
 
 /// One ideal 20 cm^3/rev pump at 1500 rpm (30 L/min) and a relief set at 200 bar for 30 L/min.
-fn unit(kind: ReliefKind) -> phasewise::engine::power_unit::Design {
+fn unit(kind: ReliefKind) -> phasewise_engine::power_unit::Design {
     let cracking = kind.typical_cracking_fraction();
     design(
         "test",
@@ -21,7 +21,7 @@ fn unit(kind: ReliefKind) -> phasewise::engine::power_unit::Design {
 }
 
 /// A move that needs `bar` at the pump (bore 100 mm, no line loss), taking all pump flow.
-fn move_at(bar: f64) -> phasewise::engine::cycle::Phase {
+fn move_at(bar: f64) -> phasewise_engine::cycle::Phase {
     let area = std::f64::consts::PI / 4.0 * 0.1 * 0.1;
     move_phase(
         "work",
@@ -189,8 +189,8 @@ fn a_pump_slower_than_its_efficiency_was_stated_at_leaks_the_same_flow() {
         0.0,
         SpeedRule::AllPumpFlow,
     )];
-    if let phasewise::engine::cycle::PhaseKind::Move(m) = &mut cycle[0].kind {
-        m.load = phasewise::engine::cycle::Load::Pressure {
+    if let phasewise_engine::cycle::PhaseKind::Move(m) = &mut cycle[0].kind {
+        m.load = phasewise_engine::cycle::Load::Pressure {
             pressure: bar_(200.0),
         };
     }

@@ -5,7 +5,7 @@
 //! Each job is one local-storage entry, `phasewise.job.<id>`, holding a [`SavedJob`] envelope
 //! as JSON. There is no index entry to go stale: the list is the entries themselves.
 
-use crate::engine::job::{Job, JobFileError};
+use phasewise_engine::job::{Job, JobFileError};
 use serde::{Deserialize, Serialize};
 
 /// The envelope's version. Raise it when the envelope (not the job inside) changes, and add
@@ -241,7 +241,7 @@ pub fn parse_import(text: &str, taken_names: &[&str]) -> Result<Vec<Job>, String
     let mut jobs = Vec::with_capacity(files.len());
     for (i, file) in files.iter().enumerate() {
         let mut job = Job::from_json(file).map_err(|e| format!("job {}: {e}", i + 1))?;
-        if let Err(errors) = crate::engine::validate::validate(&job) {
+        if let Err(errors) = phasewise_engine::validate::validate(&job) {
             let first = &errors[0];
             return Err(format!(
                 "job {} (“{}”) has {} problem(s), the first at {}: {}",
@@ -278,8 +278,16 @@ pub fn sorted(mut entries: Vec<Entry>) -> Vec<Entry> {
 #[cfg(test)]
 mod tests {
     use super::*;
-    use crate::engine::demo::scrap_baler;
-    use crate::engine::job::SCHEMA_VERSION;
+
+    /// A blank job cannot be stored or exported half-typed: the file writer says so rather
+    /// than write it.
+    #[test]
+    fn a_blank_job_is_refused_rather_than_written_half_typed() {
+        let job = Job::blank("New job".into(), phasewise_engine::units::UnitSystem::Si, "GBP".into());
+        assert!(job_file(&job).is_err());
+    }
+    use phasewise_engine::demo::scrap_baler;
+    use phasewise_engine::job::SCHEMA_VERSION;
 
     #[test]
     fn a_half_typed_job_is_no_job_file() {
@@ -308,7 +316,7 @@ mod tests {
         let job = scrap_baler();
         assert!(entry_to_store(&job, 1.0).is_ok());
         let mut half = job.clone();
-        if let crate::engine::cycle::PhaseKind::Move(m) = &mut half.cycle[0].kind {
+        if let phasewise_engine::cycle::PhaseKind::Move(m) = &mut half.cycle[0].kind {
             m.cylinder.bore.value = f64::NAN;
         }
         // Written plainly it would not read back: JSON has no NaN.

@@ -1,4 +1,4 @@
-//! `cargo run --release --example staging -- [job.json]`: the pump-staging search with the
+//! `cargo run --release -p phasewise-engine --example staging -- [job.json]`: the pump-staging search with the
 //! job's options (the demo job when no file is given): counts, the best candidates and the
 //! motor-size trade-off.
 
@@ -6,18 +6,18 @@ fn main() {
     let job = match std::env::args().nth(1) {
         Some(path) => {
             let text = std::fs::read_to_string(&path).expect("readable file");
-            phasewise::engine::Job::from_json(&text).expect("a job file")
+            phasewise_engine::Job::from_json(&text).expect("a job file")
         }
-        None => phasewise::engine::demo::scrap_baler(),
+        None => phasewise_engine::demo::scrap_baler(),
     };
-    if let Err(errors) = phasewise::engine::solve(&job) {
+    if let Err(errors) = phasewise_engine::solve(&job) {
         for e in errors {
             println!("{}: {}", e.field, e.message);
         }
         std::process::exit(1);
     }
     let started = std::time::Instant::now();
-    let found = phasewise::engine::staging::search(&job, &job.staging).unwrap();
+    let found = phasewise_engine::staging::search(&job, &job.staging).unwrap();
     println!(
         "{} candidates, {} serve the cycle, {:.1} ms",
         found.evaluated,

@@ -6,7 +6,7 @@
 //! a server, so sharing sends the job to nobody but the person who opens the link. Opening it
 //! reads the job through the same checks as a file import ([`crate::library::parse_import`]).
 
-use crate::engine::Job;
+use phasewise_engine::Job;
 use crate::library;
 use base64::Engine as _;
 
@@ -109,7 +109,7 @@ pub fn qr(text: &str) -> Result<QrDrawing, String> {
 #[cfg(test)]
 mod tests {
     use super::*;
-    use crate::engine::demo::scrap_baler;
+    use phasewise_engine::demo::scrap_baler;
 
     #[test]
     fn a_link_carries_the_job_unchanged() {

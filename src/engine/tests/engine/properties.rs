@@ -1,19 +1,19 @@
 //! Properties over random jobs. CI runs a few thousand cases per property; for a long run:
 //!
-//!     PHASEWISE_CASES=100000 cargo test --release --test engine_properties -- --nocapture
+//!     PHASEWISE_CASES=100000 cargo test --release -p phasewise-engine --test engine properties -- --nocapture
 //!
 //! which prints how many cases each property ran. The generated units are plausible designs:
 //! the relief is rated for the pumps' full flow, and the vent pressure plus a check valve's
 //! cracking stays under the unloading drop, as on an ordinary unit.
 
-mod common;
-use common::*;
-use phasewise::engine::cycle::*;
-use phasewise::engine::job::Job;
-use phasewise::engine::power_unit::{Design, PhaseSetting, UnloadingStage};
-use phasewise::engine::pump::{Pump, PumpControl};
-use phasewise::engine::valve::*;
-use phasewise::engine::{solve, Finding, JobReport};
+
+use crate::common::*;
+use phasewise_engine::cycle::*;
+use phasewise_engine::job::Job;
+use phasewise_engine::power_unit::{Design, PhaseSetting, UnloadingStage};
+use phasewise_engine::pump::{Pump, PumpControl};
+use phasewise_engine::valve::*;
+use phasewise_engine::{solve, Finding, JobReport};
 use proptest::prelude::*;
 use proptest::test_runner::{Config, TestCaseError, TestRunner};
 use uom::si::f64::{Force, Volume, VolumeRate};
@@ -502,8 +502,8 @@ fn an_invalid_job_is_always_a_typed_error_and_never_a_panic() {
         |(mut job, which, bad)| {
             spoil(&mut job, which, bad);
             // The other public entry points refuse it too, with errors, never a panic.
-            prop_assert!(phasewise::engine::settings::advise(&job, 0).is_err());
-            prop_assert!(phasewise::engine::answer(&job).is_err());
+            prop_assert!(phasewise_engine::settings::advise(&job, 0).is_err());
+            prop_assert!(phasewise_engine::answer(&job).is_err());
             match solve(&job) {
                 Ok(_) => Err(TestCaseError::fail(format!("{bad} was accepted"))),
                 Err(errors) => {
@@ -544,7 +544,7 @@ fn any_text_read_as_a_job_file_is_a_job_or_a_reason() {
 /// an action that draws more is never worded as a saving.
 #[test]
 fn the_advice_keeps_its_own_rules_on_any_job() {
-    use phasewise::engine::settings::{self, Action};
+    use phasewise_engine::settings::{self, Action};
     check("advice rules", job_strategy(), |job| {
         if solve(&job).is_err() {
             return Ok(());

@@ -2,13 +2,13 @@
 //! payback example solved through the whole engine, a hand-worked invented case, the yearly
 //! energy split by ledger item, the assumptions list, and the rounding a customer's quote uses.
 
-mod common;
-use common::*;
-use phasewise::engine::cycle::HoldMode;
-use phasewise::engine::quote::{self, for_customer, payback_for_customer, Basis};
-use phasewise::engine::units::HORSEPOWER;
-use phasewise::engine::valve::ReliefKind;
-use phasewise::engine::{solve, CycleTotals, JobReport};
+
+use crate::common::*;
+use phasewise_engine::cycle::HoldMode;
+use phasewise_engine::quote::{self, for_customer, payback_for_customer, Basis};
+use phasewise_engine::units::HORSEPOWER;
+use phasewise_engine::valve::ReliefKind;
+use phasewise_engine::{solve, CycleTotals, JobReport};
 use uom::si::f64::{Energy, Power, Time};
 
 fn totals(cycle_s: f64, kwh: f64, cost: f64, heat_w: f64) -> CycleTotals {
@@ -195,7 +195,7 @@ fn the_assumptions_say_which_values_are_defaults() {
         relief(ReliefKind::PilotOperated, 150.0, 80.0, 0.97),
         1,
     )];
-    let basis = |job: &phasewise::engine::Job, what: &str| {
+    let basis = |job: &phasewise_engine::Job, what: &str| {
         quote::assumptions(job)
             .into_iter()
             .find(|a| a.what.to_lowercase().contains(&what.to_lowercase()))
@@ -250,7 +250,7 @@ fn a_retrofit_worked_by_hand() {
         vec![],
         ideal_pump(40.0),
         relief(
-            phasewise::engine::valve::ReliefKind::PilotOperated,
+            phasewise_engine::valve::ReliefKind::PilotOperated,
             150.0,
             80.0,
             0.97,
@@ -272,13 +272,13 @@ fn a_retrofit_worked_by_hand() {
     );
     let report = JobReport {
         designs: vec![
-            phasewise::engine::DesignReport {
+            phasewise_engine::DesignReport {
                 name: "As found".into(),
                 phases: vec![],
                 totals: totals(30.0, 40_000.0, 8_000.0, 7_000.0),
                 findings: vec![],
             },
-            phasewise::engine::DesignReport {
+            phasewise_engine::DesignReport {
                 name: "Proposed".into(),
                 phases: vec![],
                 totals: totals(32.0, 24_000.0, 4_800.0, 3_500.0),

@@ -2,15 +2,15 @@
 //! tolerances follow REFERENCES: 1e-12 against exact definitions, 0.5 % against textbook
 //! answers (which round their intermediate steps).
 
-mod common;
-use common::*;
-use phasewise::engine::cycle::{
+
+use crate::common::*;
+use phasewise_engine::cycle::{
     Cylinder, Direction, HoldMode, Load, MovePhase, Phase, PhaseKind, SpeedRule,
 };
-use phasewise::engine::ledger::{cycle_totals, PowerLedger, TimedLedger};
-use phasewise::engine::units::{GALLON_PER_MINUTE, HORSEPOWER, PSI};
-use phasewise::engine::valve::ReliefKind;
-use phasewise::engine::{solve, PumpState};
+use phasewise_engine::ledger::{cycle_totals, PowerLedger, TimedLedger};
+use phasewise_engine::units::{GALLON_PER_MINUTE, HORSEPOWER, PSI};
+use phasewise_engine::valve::ReliefKind;
+use phasewise_engine::{solve, PumpState};
 use uom::si::f64::{Power, Pressure};
 
 fn pressure_load(name: &str, load_bar: f64) -> Phase {
@@ -104,7 +104,7 @@ fn volumetric_efficiency_of_hydraulics_and_pneumatics_2023() {
 }
 
 /// One ideal pump of `gpm` at 1200 rpm, and a relief set to pass `relief_gpm` at `setting_psi`.
-fn us_unit(gpm: f64, setting_psi: f64, relief_gpm: f64) -> phasewise::engine::power_unit::Design {
+fn us_unit(gpm: f64, setting_psi: f64, relief_gpm: f64) -> phasewise_engine::power_unit::Design {
     let cc = gpm * GALLON_PER_MINUTE * 60.0 / 1200.0 * 1e6;
     let mut r = relief(ReliefKind::PilotOperated, 0.0, 0.0, 0.9);
     r.setting = Pressure::new::<uom::si::pressure::pascal>(setting_psi * PSI);

@@ -1,11 +1,11 @@
 //! Bad input: every problem is a typed error naming its field, in words a technician
 //! understands; job files are read back unchanged or refused with a reason.
 
-mod common;
-use common::*;
-use phasewise::engine::cycle::{Direction, PhaseKind, SpeedRule};
-use phasewise::engine::valve::{ActiveLimit, IdlePath, ReliefKind};
-use phasewise::engine::{solve, Job, JobFileError, SCHEMA_VERSION};
+
+use crate::common::*;
+use phasewise_engine::cycle::{Direction, PhaseKind, SpeedRule};
+use phasewise_engine::valve::{ActiveLimit, IdlePath, ReliefKind};
+use phasewise_engine::{solve, Job, JobFileError, SCHEMA_VERSION};
 
 fn good_job() -> Job {
     let cycle = vec![
@@ -23,7 +23,7 @@ fn good_job() -> Job {
             "hold",
             90.0,
             3.0,
-            phasewise::engine::cycle::HoldMode::HeldByPump,
+            phasewise_engine::cycle::HoldMode::HeldByPump,
         ),
         idle("idle", 8.0),
     ];
@@ -53,7 +53,7 @@ fn errors_after(edit: impl FnOnce(&mut Job)) -> Vec<(String, String)> {
     }
 }
 
-fn cylinder(j: &mut Job) -> &mut phasewise::engine::cycle::Cylinder {
+fn cylinder(j: &mut Job) -> &mut phasewise_engine::cycle::Cylinder {
     match &mut j.cycle[0].kind {
         PhaseKind::Move(m) => &mut m.cylinder,
         _ => unreachable!(),
@@ -121,7 +121,7 @@ fn an_absurd_length_is_refused_in_the_fields_own_unit_without_float_noise() {
         "1000000000000.0 mm is more than any machine has: at most 50000.0 mm"
     );
     let errors = errors_after(|j| {
-        j.units = phasewise::engine::units::UnitSystem::UsCustomary;
+        j.units = phasewise_engine::units::UnitSystem::UsCustomary;
         bore(j);
     });
     assert!(
@@ -140,7 +140,7 @@ fn an_absurd_pressure_is_refused_with_the_limit_in_the_jobs_units() {
         "25000.0 bar is more than any machine has: at most 2000.0 bar"
     );
     let errors = errors_after(|j| {
-        j.units = phasewise::engine::units::UnitSystem::UsCustomary;
+        j.units = phasewise_engine::units::UnitSystem::UsCustomary;
         j.designs[0].relief.setting = bar_(25_000.0);
     });
     assert!(
