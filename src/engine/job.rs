@@ -5,9 +5,8 @@ use super::cycle::Phase;
 use super::power_unit::{Design, PhaseSetting};
 use super::units::UnitSystem;
 use serde::{Deserialize, Serialize};
-use uom::si::f64::{MassDensity, SpecificHeatCapacity, Volume};
-use uom::si::mass_density::kilogram_per_cubic_meter;
-use uom::si::specific_heat_capacity::joule_per_kilogram_kelvin;
+
+pub use super::site::{Oil, Site};
 
 /// The job file format's version. Raise it on any change a previous version could not read,
 /// and add the migration (see DEVELOPERS.md, "Job file format").
@@ -35,64 +34,16 @@ pub struct Job {
     pub oil: Oil,
     /// The margins the settings advice uses (absent in older files: the defaults).
     #[serde(default)]
-    pub advice: super::settings::AdvicePolicy,
+    pub advice: super::policy::AdvicePolicy,
     /// What the pump-staging search may choose from (absent in older files: the defaults).
     #[serde(default)]
-    pub staging: super::staging::StagingOptions,
+    pub staging: super::policy::StagingOptions,
     /// Field tests of the machine's pumps (absent in older files: none).
     #[serde(default, skip_serializing_if = "Vec::is_empty")]
-    pub pump_tests: Vec<super::efficiency::PumpTest>,
+    pub pump_tests: Vec<super::pump_test::PumpTest>,
     /// Where the pump-wear verdict draws its lines (absent: the defaults).
     #[serde(default)]
-    pub wear: super::efficiency::WearPolicy,
-}
-
-/// Where the machine is and what running it costs.
-#[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
-pub struct Site {
-    /// The customer or plant and the machine's place in it, as the user writes it.
-    #[serde(default)]
-    pub location: String,
-    /// Hours a year the machine cycles.
-    pub operating_hours_per_year: f64,
-    /// Price of a kilowatt-hour, in `currency`.
-    pub tariff_per_kwh: f64,
-    /// A label only: "EUR", "USD", "£".
-    pub currency: String,
-    /// What the retrofit from the baseline design to the others costs, in `currency`.
-    pub retrofit_price: f64,
-    /// The grid's emission factor, kg CO2 per kWh, for the yearly CO2 of each design (absent:
-    /// not shown). The user enters the figure their utility or national inventory publishes.
-    #[serde(
-        default,
-        rename = "grid_kg_co2_per_kwh",
-        skip_serializing_if = "Option::is_none"
-    )]
-    pub grid_factor: Option<f64>,
-}
-
-/// The oil, for the temperature rise with no cooler.
-#[derive(Clone, Copy, Debug, PartialEq, Serialize, Deserialize)]
-pub struct Oil {
-    /// Oil in circulation (the reservoir's working volume).
-    #[serde(rename = "volume_m3")]
-    pub volume: Volume,
-    #[serde(rename = "density_kg_per_m3")]
-    pub density: MassDensity,
-    #[serde(rename = "specific_heat_j_per_kg_k")]
-    pub specific_heat: SpecificHeatCapacity,
-}
-
-impl Oil {
-    /// Mineral oil with the working values of Esposito, *Fluid Power with Applications*
-    /// (density 895 kg/m^3, specific heat 1.8 kJ/(kg.K)).
-    pub fn mineral(volume: Volume) -> Oil {
-        Oil {
-            volume,
-            density: MassDensity::new::<kilogram_per_cubic_meter>(895.0),
-            specific_heat: SpecificHeatCapacity::new::<joule_per_kilogram_kelvin>(1800.0),
-        }
-    }
+    pub wear: super::policy::WearPolicy,
 }
 
 impl Job {
@@ -106,7 +57,7 @@ impl Job {
         use super::motor::{Motor, TYPICAL_FIXED_LOSS_SHARE, TYPICAL_PEAK_ALLOWANCE};
         use super::pump::{Pump, PumpControl};
         use super::valve::{ReliefKind, ReliefValve};
-        use uom::si::f64::{AngularVelocity, Power, Pressure, VolumeRate};
+        use uom::si::f64::{AngularVelocity, Power, Pressure, Volume, VolumeRate};
         let empty = f64::NAN;
         let design = Design {
             name: "As found".into(),
@@ -337,7 +288,7 @@ impl Job {
 /// `solve::format_1_relief`). Figures that cannot be converted
 /// stay as found, for validation to point at.
 fn upgrade_relief_from_format_1(design: &mut Design) {
-    let Some(new) = super::solve::format_1_relief(design) else {
+    let Some(new) = super::delivery::format_1_relief(design) else {
         return;
     };
     design.relief.setting.value = new.main;

@@ -1,7 +1,7 @@
 //! The power ledger: where every watt of a phase goes, and the cycle's totals built from it.
 
 use super::finding::Finding;
-use super::job::{Oil, Site};
+use super::site::{Oil, Site};
 use super::motor::{Motor, RMS_LONGEST_CYCLE_S, STOPPED_COOLING_SHARE};
 use super::units::{BTU_IT, KILOWATT_HOUR};
 use serde::Serialize;

@@ -40,7 +40,7 @@ pub struct Design {
 
 impl Design {
     /// What the retrofit to this design costs: its own price, else the site's.
-    pub fn retrofit_price_or(&self, site: &super::job::Site) -> f64 {
+    pub fn retrofit_price_or(&self, site: &super::site::Site) -> f64 {
         self.retrofit_price.unwrap_or(site.retrofit_price)
     }
 }
@@ -118,6 +118,20 @@ impl Design {
             .as_ref()
             .is_some_and(|mark| *mark != baseline.machine_mark())
     }
+}
+
+/// The highest dead-head pressure of the design's compensated pumps (Pa): where the pump has
+/// destroked to its leakage (the top of its band).
+pub fn compensator_dead_head(design: &Design) -> Option<f64> {
+    design
+        .pumps()
+        .filter_map(|p| match p.control {
+            super::pump::PumpControl::Compensated { setting } => {
+                Some(setting.value * (1.0 + super::pump::COMPENSATOR_BAND))
+            }
+            super::pump::PumpControl::Fixed => None,
+        })
+        .reduce(f64::max)
 }
 
 #[cfg(test)]

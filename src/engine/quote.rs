@@ -9,7 +9,7 @@ use super::ledger::{denoised, simple_payback, LedgerItem};
 use super::motor::{TYPICAL_FIXED_LOSS_SHARE, TYPICAL_PEAK_ALLOWANCE};
 use super::units::{Measure, KILOWATT_HOUR};
 use super::valve::{TYPICAL_CHECK_CRACKING_PA, TYPICAL_UNLOADED_DROP_PA};
-use super::{DesignReport, JobReport};
+use super::solve::{DesignReport, JobReport};
 use serde::Serialize;
 use uom::si::f64::Volume;
 
@@ -380,7 +380,7 @@ pub fn assumptions(job: &Job) -> Vec<Assumption> {
         }
     }
     let a = &job.advice;
-    let policy = super::settings::AdvicePolicy::default();
+    let policy = super::policy::AdvicePolicy::default();
     push(
         "Settings advice: margin above the pressure a phase needs".into(),
         Assumed::Quantity(Measure::Percent, a.margin_fraction),

@@ -14,54 +14,12 @@ use super::power_unit::{Design, UnloadingStage};
 use super::pump::PumpAtSpeed;
 use super::validate::InputError;
 use super::valve::{ActiveLimit, IdlePath};
-use super::{solve_design, DesignReport};
+use super::solve::{solve_design, DesignReport};
 use serde::{Deserialize, Serialize};
 use uom::si::f64::Pressure;
 
-/// The margins and thresholds the advice uses. Every default is common practice.
-#[derive(Clone, Copy, Debug, PartialEq, Serialize, Deserialize)]
-pub struct AdvicePolicy {
-    /// A setting stays at least this share above the pressure it must reach (common
-    /// practice: about 10 %).
-    pub margin_fraction: f64,
-    /// ... and at least this much above it (common practice: 7 to 15 bar, 100 to 200 psi).
-    #[serde(rename = "margin_min_pa")]
-    pub margin_min: Pressure,
-    /// The drop a pressure-compensated flow control needs across it to hold its flow (common
-    /// practice: 5 to 10 bar; the maker's curve decides).
-    #[serde(rename = "flow_control_drop_pa")]
-    pub flow_control_drop: Pressure,
-    /// A change that saves less than this in its phase is not worth advising (W).
-    pub least_saving_w: f64,
-    /// A relief stays at least this far above a compensated pump's dead-head pressure (and
-    /// `margin_fraction` of it, whichever is more), so the pump destrokes before the relief
-    /// opens (common practice: about 10 %, or 15 to 20 bar). Absent in older files: 15 bar.
-    #[serde(
-        rename = "compensator_margin_min_pa",
-        default = "typical_compensator_margin"
-    )]
-    pub compensator_margin_min: Pressure,
-}
-
-fn typical_compensator_margin() -> Pressure {
-    bar(15.0)
-}
-
-impl Default for AdvicePolicy {
-    fn default() -> Self {
-        AdvicePolicy {
-            margin_fraction: 0.10,
-            margin_min: bar(7.0),
-            flow_control_drop: bar(7.0),
-            least_saving_w: 100.0,
-            compensator_margin_min: typical_compensator_margin(),
-        }
-    }
-}
-
-fn bar(b: f64) -> Pressure {
-    Pressure::new::<uom::si::pressure::bar>(b)
-}
+pub use super::policy::AdvicePolicy;
+pub use super::power_unit::compensator_dead_head;
 
 fn pascals(pa: f64) -> Pressure {
     Pressure::new::<uom::si::pressure::pascal>(pa)
@@ -306,20 +264,6 @@ pub fn compensator_floor(design: &Design, policy: &AdvicePolicy) -> Option<f64> 
     let dead_head = compensator_dead_head(design)?;
     let margin = (dead_head * policy.margin_fraction).max(policy.compensator_margin_min.value);
     Some((dead_head + margin).max(dead_head / design.relief.cracking_fraction.max(1e-3)))
-}
-
-/// The highest dead-head pressure of the design's compensated pumps (Pa): where the pump has
-/// destroked to its leakage (the top of its band).
-pub fn compensator_dead_head(design: &Design) -> Option<f64> {
-    design
-        .pumps()
-        .filter_map(|p| match p.control {
-            super::pump::PumpControl::Compensated { setting } => {
-                Some(setting.value * (1.0 + super::pump::COMPENSATOR_BAND))
-            }
-            super::pump::PumpControl::Fixed => None,
-        })
-        .reduce(f64::max)
 }
 
 /// Each phase's need and limit for `design`.

@@ -12,13 +12,16 @@ use super::cycle::{HoldMode, Phase, PhaseKind, SpeedRule};
 use super::finding::Finding;
 use super::ledger::{watts, PowerLedger};
 use super::power_unit::{Design, PhaseSetting};
-use super::pump::{PumpAtSpeed, PumpControl};
+use super::pump::PumpControl;
 use super::valve::{ActiveLimit, IdlePath, ReliefCharacteristic};
+use super::job::Job;
+use super::ledger::{Comparison, CycleTotals};
+use super::validate::InputError;
 use serde::Serialize;
 use uom::si::f64::{Pressure, Time, Velocity, VolumeRate};
 
-/// Below this a flow is none (m^3/s; about 0.00006 L/min).
-const NO_FLOW: f64 = 1e-9;
+pub(crate) use super::delivery::governing_limit;
+use super::delivery::{PreparedUnit, NO_FLOW};
 
 /// One phase at its operating point.
 #[derive(Clone, Debug, PartialEq, Serialize)]
@@ -81,202 +84,81 @@ pub enum PumpState {
     Stopped,
 }
 
-/// A pump on this design's shaft, in SI numbers.
-#[derive(Clone, Copy, Debug)]
-struct StagePump {
-    pump: PumpAtSpeed,
-    /// The check valve's cracking pressure (none on the base pump).
-    check: f64,
-    /// The unloading valve's setting and unloaded drop (none on the base pump).
-    unloading: Option<(f64, f64)>,
+/// Everything the engine says about a job.
+#[derive(Clone, Debug, PartialEq, Serialize)]
+pub struct JobReport {
+    /// One per design, in the job's order.
+    pub designs: Vec<DesignReport>,
+    /// Each design after the first against the first (the baseline).
+    pub comparisons: Vec<Comparison>,
 }
 
-/// The design prepared for solving: numbers computed once, not per phase.
-pub(crate) struct PreparedUnit<'a> {
-    design: &'a Design,
-    pumps: Vec<StagePump>,
+#[derive(Clone, Debug, PartialEq, Serialize)]
+pub struct DesignReport {
+    pub name: String,
+    pub phases: Vec<PhaseReport>,
+    pub totals: CycleTotals,
+    /// Findings about the design as a whole: its settings and its motor.
+    pub findings: Vec<Finding>,
 }
 
-impl<'a> PreparedUnit<'a> {
-    pub fn new(design: &'a Design) -> Self {
-        let rps = design.motor.revolutions_per_second();
-        let mut pumps: Vec<StagePump> = design
-            .unloading_stages
-            .iter()
-            .map(|s| StagePump {
-                pump: PumpAtSpeed::new(&s.pump, rps),
-                check: s.check.cracking.value,
-                unloading: Some((s.unloading.setting.value, s.unloading.unloaded_drop.value)),
-            })
-            .collect();
-        pumps.push(StagePump {
-            pump: PumpAtSpeed::new(&design.base_pump, rps),
-            check: 0.0,
-            unloading: None,
-        });
-        PreparedUnit { design, pumps }
-    }
-
-    /// The flow the pumps send over the relief with the system dead-headed at `p` (m^3/s), as
-    /// when a relief is set: every pump not unloaded at that pressure, at full stroke (a
-    /// compensator is turned up out of the way while the relief is set, common practice),
-    /// less its leakage there.
-    pub(crate) fn dead_head_flow(&self, p: f64) -> f64 {
-        self.pumps
-            .iter()
-            .filter(|s| s.unloading.is_none_or(|(setting, _)| p < setting))
-            .map(|s| (s.pump.swept - s.pump.leakage * (p + s.check)).max(0.0))
-            .sum()
-    }
-
-    /// The relief's characteristic with `governing` the governing setting: that setting is
-    /// read with the dead-head flow at it over the valve (see
-    /// [`ReliefValve`](super::valve::ReliefValve)). A unit whose pumps give nothing there is
-    /// refused by validation; the floor keeps the line finite for any other caller.
-    pub(crate) fn relief(&self, governing: f64) -> ReliefCharacteristic {
-        ReliefCharacteristic::new(
-            governing,
-            self.design.relief.cracking_fraction,
-            self.dead_head_flow(governing).max(NO_FLOW),
-        )
-    }
-
-    fn stages(&self) -> usize {
-        self.pumps.len() - 1
-    }
-
-    /// Flow into the system at system pressure `p`, with the stages in `unloaded` sent to tank.
-    fn supply(&self, p: f64, unloaded: u32) -> f64 {
-        self.pumps
-            .iter()
-            .enumerate()
-            .filter(|(i, _)| unloaded & (1 << i) == 0)
-            .map(|(_, s)| s.pump.delivered(p + s.check))
-            .sum()
-    }
-
-    /// Theoretical flow of the feeding pumps.
-    fn swept(&self, unloaded: u32) -> f64 {
-        self.pumps
-            .iter()
-            .enumerate()
-            .filter(|(i, _)| unloaded & (1 << i) == 0)
-            .map(|(_, s)| s.pump.swept)
-            .sum()
-    }
-
-    /// The system pressure at or above `low` where supply = relief flow + `demand`. If even
-    /// at `low` the supply falls short, `low` itself.
-    fn balance(&self, relief: &ReliefCharacteristic, demand: f64, low: f64, unloaded: u32) -> f64 {
-        let h = |p: f64| self.supply(p, unloaded) - relief.flow(p) - demand;
-        let mut a = low;
-        let mut ha = h(a);
-        if ha <= 0.0 {
-            return low;
-        }
-        // Every pressure where a flow changes slope, above `low`, in order.
-        // A fixed array (no allocation in the hot loop); validation allows at most MAX_PUMPS
-        // pumps, and `zip` stops at its end for any other caller.
-        let mut points = [f64::INFINITY; 3 * super::power_unit::MAX_PUMPS + 1];
-        let feeding = self
-            .pumps
-            .iter()
-            .enumerate()
-            .filter(|(i, _)| unloaded & (1 << i) == 0)
-            .flat_map(|(_, s)| s.pump.breakpoints().map(|b| b - s.check));
-        let mut n = 0;
-        for (slot, b) in points
-            .iter_mut()
-            .zip(std::iter::once(relief.cracking).chain(feeding))
-        {
-            *slot = b;
-            n += 1;
-        }
-        let points = &mut points[..n];
-        points.sort_unstable_by(f64::total_cmp);
-        for &b in points.iter().filter(|b| b.is_finite() && **b > low) {
-            let hb = h(b);
-            if hb <= 0.0 {
-                return a + ha * (b - a) / (ha - hb);
-            }
-            (a, ha) = (b, hb);
-        }
-        // Past the last breakpoint every flow is a straight line: one more point gives it.
-        let b = a + a.max(1e5);
-        let hb = h(b);
-        if hb < ha {
-            a + ha * (b - a) / (ha - hb)
-        } else {
-            a
-        }
-    }
-}
-
-/// A format-1 relief (its settings read at the valve's rated flow) in today's meaning (each
-/// governing pressure read with that limit's dead-head flow over the valve): the main setting,
-/// each remote stage and the vent pressure as the old model's gauge would read them dead-headed
-/// on that limit, and the cracking fraction that keeps the main limit's cracking pressure.
-/// `None` when the design's figures cannot be converted (left as found, for validation).
-///
-/// On the main limit the new line is the old one exactly (same cracking pressure, and the old
-/// line's pressure at the dead-head flow); so every phase on it solves as before. On a remote
-/// stage or the vent the answer dead-headed is the same, and between cracking and full flow it
-/// differs by less than the valve's override band.
-pub(crate) fn format_1_relief(design: &Design) -> Option<Format1Relief> {
-    let relief = &design.relief;
-    let (rated, cracking) = (relief.rated_flow.value, relief.cracking_fraction);
-    let sane = |x: f64| x.is_finite() && x > 0.0;
-    if !(sane(rated) && sane(cracking) && cracking < 1.0) {
-        return None;
-    }
-    let unit = PreparedUnit::new(design);
-    // The old line from cracking `c G` to the rated flow `Qr` at `G` meets the dead-head flow
-    // `Q(p)` at `p = c G + Q(p) G (1 - c) / Qr`. `Q` falls as `p` rises (leakage, stages
-    // unloading), so the difference of the two sides rises: bisect it.
-    let reading = |governing: f64| -> Option<f64> {
-        if !sane(governing) {
-            return None;
-        }
-        let span = governing * (1.0 - cracking) / rated;
-        let excess = |p: f64| p - cracking * governing - unit.dead_head_flow(p) * span;
-        let mut low = cracking * governing;
-        let mut high = low + unit.dead_head_flow(low) * span;
-        if !high.is_finite() || high <= low {
-            return None;
-        }
-        for _ in 0..200 {
-            let mid = 0.5 * (low + high);
-            if mid <= low || mid >= high {
-                break;
-            }
-            if excess(mid) < 0.0 {
-                low = mid;
-            } else {
-                high = mid;
-            }
-        }
-        Some(high)
-    };
-    let main = reading(relief.setting.value)?;
-    let remote_stages = design
-        .remote_stages
+/// Solves every design of a job over its cycle.
+pub fn solve(job: &Job) -> Result<JobReport, Vec<InputError>> {
+    super::validate::validate(job)?;
+    let designs: Vec<DesignReport> = job
+        .designs
         .iter()
-        .map(|r| reading(r.value))
-        .collect::<Option<Vec<f64>>>()?;
-    Some(Format1Relief {
-        main,
-        cracking_fraction: cracking * relief.setting.value / main,
-        remote_stages,
-        vent: reading(design.vent_pressure.value)?,
+        .map(|design| solve_design(job, design))
+        .collect();
+    let baseline = &designs[0];
+    let comparisons = designs[1..]
+        .iter()
+        .zip(&job.designs[1..])
+        .map(|(d, design)| {
+            super::ledger::compare(
+                (&baseline.name, &baseline.totals),
+                (&d.name, &d.totals),
+                design.retrofit_price_or(&job.site),
+            )
+        })
+        .collect();
+    Ok(JobReport {
+        designs,
+        comparisons,
     })
 }
 
-/// A format-1 relief's settings in today's meaning (Pa).
-pub(crate) struct Format1Relief {
-    pub main: f64,
-    pub cracking_fraction: f64,
-    pub remote_stages: Vec<f64>,
-    pub vent: f64,
+/// Solves one (validated) design over the job's cycle.
+pub(crate) fn solve_design(job: &Job, design: &Design) -> DesignReport {
+    let unit = PreparedUnit::new(design);
+    let mut phases: Vec<PhaseReport> = job
+        .cycle
+        .iter()
+        .zip(&design.phase_settings)
+        .map(|(phase, setting)| solve_phase(&unit, phase, setting))
+        .collect();
+    for (report, phase) in phases.iter_mut().zip(&job.cycle) {
+        if let Some(f) = flow_control_starved(phase, report, &job.advice) {
+            report.findings.push(f);
+        }
+    }
+    let timed: Vec<super::ledger::TimedLedger> = phases
+        .iter()
+        .map(|p| super::ledger::TimedLedger {
+            ledger: p.ledger,
+            duration_s: p.point.duration.value,
+            motor_running: p.point.motor_running,
+        })
+        .collect();
+    let totals = super::ledger::cycle_totals(&timed, &job.site, &job.oil);
+    let mut findings = design_findings(design);
+    findings.extend(super::ledger::motor_findings(&design.motor, &totals, &timed));
+    DesignReport {
+        name: design.name.clone(),
+        phases,
+        totals,
+        findings,
+    }
 }
 
 /// What a phase asks of the power unit, in SI numbers.
@@ -351,31 +233,6 @@ struct Point {
     area: Option<f64>,
     duration: f64,
     findings: Vec<Finding>,
-}
-
-/// The limit that governs a phase with `setting` (an idle's vent path counts), and its
-/// pressure: the lower of main and a selected remote stage, or the vent pressure.
-pub(crate) fn governing_limit(
-    design: &Design,
-    setting: &PhaseSetting,
-    idle: bool,
-) -> (ActiveLimit, f64) {
-    let main = design.relief.setting.value;
-    let limit = if idle && setting.idle_path == IdlePath::Vented {
-        ActiveLimit::Vented
-    } else {
-        setting.limit
-    };
-    let governing = match limit {
-        ActiveLimit::Main => main,
-        // Validation guarantees the stage exists; `main` keeps a bad index harmless anyway.
-        ActiveLimit::Remote { stage } => design
-            .remote_stages
-            .get(stage)
-            .map_or(main, |r| r.value.min(main)),
-        ActiveLimit::Vented => design.vent_pressure.value,
-    };
-    (limit, governing)
 }
 
 /// The limit governing a phase, and a finding if a remote stage was chosen that cannot govern.
@@ -704,7 +561,7 @@ fn report(
 pub(crate) fn flow_control_starved(
     phase: &Phase,
     report: &PhaseReport,
-    policy: &super::settings::AdvicePolicy,
+    policy: &super::policy::AdvicePolicy,
 ) -> Option<Finding> {
     let PhaseKind::Move(m) = &phase.kind else {
         return None;
@@ -740,7 +597,7 @@ pub(crate) fn design_findings(design: &Design) -> Vec<Finding> {
     let unit = PreparedUnit::new(design);
     // A relief cracking at or below a compensator takes the pump's whole flow (DOMAIN.md,
     // "Pressure-compensated pumps on a fixed-speed motor").
-    if let Some(dead_head) = super::settings::compensator_dead_head(design) {
+    if let Some(dead_head) = super::power_unit::compensator_dead_head(design) {
         let main = design.relief.setting.value;
         let limits = std::iter::once((None, main)).chain(
             design

@@ -10,131 +10,17 @@
 
 use super::cycle::PhaseKind;
 use super::job::Job;
-use super::motor::EfficiencyClass;
 use super::power_unit::{Design, UnloadingStage};
 use super::pump::{Pump, PumpControl};
 use super::settings::{self, FlowNeed, UnloadingWindow};
-use super::solve_design;
+use super::solve::solve_design;
 use super::validate::InputError;
 use super::valve::{ActiveLimit, CheckValve, IdlePath, UnloadingValve};
-use super::Finding;
-use serde::{Deserialize, Serialize};
-use uom::si::f64::{AngularVelocity, Power, Pressure, Time, Volume};
+use super::finding::Finding;
+use serde::Serialize;
+use uom::si::f64::{AngularVelocity, Power, Pressure, Volume};
 
-/// Standard motor ratings to size on.
-#[derive(Clone, Copy, Debug, PartialEq, Eq, Serialize, Deserialize, Default)]
-#[serde(rename_all = "snake_case")]
-pub enum MotorSteps {
-    /// IEC 60072-1 rated outputs in kW (the series from memory).
-    #[default]
-    IecKw,
-    /// NEMA MG 1 horsepower ratings (the series from memory).
-    NemaHp,
-}
-
-/// IEC rated outputs, kW (IEC 60072-1 series, from memory).
-pub const IEC_KW: [f64; 24] = [
-    0.37, 0.55, 0.75, 1.1, 1.5, 2.2, 3.0, 4.0, 5.5, 7.5, 11.0, 15.0, 18.5, 22.0, 30.0, 37.0, 45.0,
-    55.0, 75.0, 90.0, 110.0, 132.0, 160.0, 200.0,
-];
-/// NEMA ratings, hp (NEMA MG 1 series, from memory).
-pub const NEMA_HP: [f64; 22] = [
-    0.5, 0.75, 1.0, 1.5, 2.0, 3.0, 5.0, 7.5, 10.0, 15.0, 20.0, 25.0, 30.0, 40.0, 50.0, 60.0, 75.0,
-    100.0, 125.0, 150.0, 200.0, 250.0,
-];
-
-impl MotorSteps {
-    /// The ratings in W, smallest first.
-    pub fn ratings_w(self) -> Vec<f64> {
-        match self {
-            MotorSteps::IecKw => IEC_KW.iter().map(|kw| kw * 1e3).collect(),
-            MotorSteps::NemaHp => NEMA_HP
-                .iter()
-                .map(|hp| hp * super::units::HORSEPOWER)
-                .collect(),
-        }
-    }
-
-    /// The class a new motor of these steps usually has: IE3 for IEC motors, NEMA Premium for
-    /// NEMA ones (the minimum for most new motors sold in the EU and the US; from memory).
-    pub fn usual_class(self) -> EfficiencyClass {
-        match self {
-            MotorSteps::IecKw => EfficiencyClass::Ie3,
-            MotorSteps::NemaHp => EfficiencyClass::NemaPremium,
-        }
-    }
-}
-
-impl StagingOptions {
-    /// The new motor's efficiency class: the chosen one, else the steps' usual one.
-    pub fn efficiency_class(&self) -> EfficiencyClass {
-        self.efficiency_class
-            .unwrap_or_else(|| self.motor_steps.usual_class())
-    }
-}
-
-/// What the search may choose from, and what it must meet. Stored with the job.
-#[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
-pub struct StagingOptions {
-    /// Pump displacements to choose from. Default: the R10 preferred numbers (ISO 3) from 2.5
-    /// to 160 cm^3/rev, as gear and vane pumps are commonly sized (sizes from memory).
-    #[serde(rename = "displacements_m3_per_rev")]
-    pub displacements: Vec<Volume>,
-    /// Motor full-load speeds to choose from. Default: 4- and 6-pole motors at 50 and 60 Hz,
-    /// 1450, 1750, 960 and 1160 rpm (common full-load speeds, from memory).
-    #[serde(rename = "speeds_rad_per_s")]
-    pub speeds: Vec<AngularVelocity>,
-    /// At most this many fixed pumps on the shaft (1 to 3).
-    pub max_pumps: usize,
-    /// Also try a single pressure-compensated pump of each size.
-    pub compensated: bool,
-    pub motor_steps: MotorSteps,
-    /// The efficiency class of the new motor: each candidate's motor takes the class's nominal
-    /// full-load efficiency at its own rating. Absent: [`MotorSteps::usual_class`].
-    #[serde(default, skip_serializing_if = "Option::is_none")]
-    pub efficiency_class: Option<EfficiencyClass>,
-    /// The motor's permissible continuous load over its rating: it must cover the RMS power.
-    pub service_factor: f64,
-    /// How far over its rating the motor may be loaded at the cycle's peak (common practice:
-    /// about 1.25 for short peaks; the motor's breakdown torque decides).
-    pub peak_allowance: f64,
-    /// The longest the whole cycle may take. Absent: no limit beyond the moves' own (each
-    /// move's target time, as found unless set on the move; the other phases' times are set).
-    #[serde(
-        default,
-        rename = "cycle_time_target_s",
-        skip_serializing_if = "Option::is_none"
-    )]
-    pub cycle_time_target: Option<Time>,
-}
-
-impl Default for StagingOptions {
-    fn default() -> Self {
-        const R10: [f64; 18] = [
-            2.5, 4.0, 5.0, 6.3, 8.0, 10.0, 12.5, 16.0, 20.0, 25.0, 32.0, 40.0, 50.0, 63.0, 80.0,
-            100.0, 125.0, 160.0,
-        ];
-        StagingOptions {
-            displacements: R10
-                .iter()
-                .map(|cc| Volume::new::<uom::si::volume::cubic_centimeter>(*cc))
-                .collect(),
-            speeds: [1450.0, 1750.0, 960.0, 1160.0]
-                .iter()
-                .map(|rpm| {
-                    AngularVelocity::new::<uom::si::angular_velocity::revolution_per_minute>(*rpm)
-                })
-                .collect(),
-            max_pumps: 3,
-            compensated: true,
-            motor_steps: MotorSteps::IecKw,
-            efficiency_class: None,
-            service_factor: 1.0,
-            peak_allowance: 1.25,
-            cycle_time_target: None,
-        }
-    }
-}
+pub use super::policy::{MotorSteps, StagingOptions, IEC_KW, NEMA_HP};
 
 /// What to build: pump displacements in shaft order (the unloading stages, largest first, then
 /// the base pump), the speed, and whether the single pump is compensated.

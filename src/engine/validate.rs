@@ -406,7 +406,7 @@ fn check_design(c: &mut Checker, d: &Design, job: &Job) {
     // A relief is read with the pumps' dead-head flow over it: with none (every pump losing
     // its whole flow to leakage at that pressure) the setting means nothing.
     if c.errors.len() == before {
-        let unit = super::solve::PreparedUnit::new(d);
+        let unit = super::delivery::PreparedUnit::new(d);
         if unit.dead_head_flow(d.relief.setting.value) <= 0.0 {
             c.fail(
                 "relief.setting_pa",
@@ -589,7 +589,7 @@ fn rpm(_: UnitSystem, rad_per_s: f64) -> String {
 /// (`pump_tests[0].readings[1].flow_m3_per_s`). Kept apart from [`validate`]: a test being
 /// typed in never stops the job's results.
 pub fn validate_pump_test(
-    test: &super::efficiency::PumpTest,
+    test: &super::pump_test::PumpTest,
     index: usize,
     units: UnitSystem,
 ) -> Vec<InputError> {
@@ -598,18 +598,18 @@ pub fn validate_pump_test(
 
 /// As [`validate_pump_test`], the paths within the test (`readings[1].flow_m3_per_s`).
 pub(crate) fn pump_test_errors(
-    test: &super::efficiency::PumpTest,
+    test: &super::pump_test::PumpTest,
     units: UnitSystem,
 ) -> Vec<InputError> {
     check_pump_test(test, None, units)
 }
 
 fn check_pump_test(
-    test: &super::efficiency::PumpTest,
+    test: &super::pump_test::PumpTest,
     index: Option<usize>,
     units: UnitSystem,
 ) -> Vec<InputError> {
-    use super::efficiency::{ElectricalInput, MotorEfficiency};
+    use super::pump_test::{ElectricalInput, MotorEfficiency};
     let mut c = Checker {
         units,
         errors: Vec::new(),
@@ -622,7 +622,7 @@ fn check_pump_test(
                 "say which pump was tested (tests of one pump are compared by it)",
             );
         }
-        if !test.date.trim().is_empty() && super::efficiency::day_number(&test.date).is_none() {
+        if !test.date.trim().is_empty() && super::pump_test::day_number(&test.date).is_none() {
             c.fail("date", "write the date as year-month-day, e.g. 2026-11-30");
         }
         c.plain(

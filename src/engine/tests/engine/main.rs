@@ -13,4 +13,5 @@ mod quote;
 mod scenarios;
 mod settings;
 mod staging;
+mod structure;
 mod trade_facts;

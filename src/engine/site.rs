@@ -1,0 +1,55 @@
+//! Where the machine runs and what it runs on: the site's economics and the oil. Kept in the
+//! job; below every algorithm that reads them.
+
+use serde::{Deserialize, Serialize};
+use uom::si::f64::{MassDensity, SpecificHeatCapacity, Volume};
+use uom::si::mass_density::kilogram_per_cubic_meter;
+use uom::si::specific_heat_capacity::joule_per_kilogram_kelvin;
+
+/// Where the machine is and what running it costs.
+#[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
+pub struct Site {
+    /// The customer or plant and the machine's place in it, as the user writes it.
+    #[serde(default)]
+    pub location: String,
+    /// Hours a year the machine cycles.
+    pub operating_hours_per_year: f64,
+    /// Price of a kilowatt-hour, in `currency`.
+    pub tariff_per_kwh: f64,
+    /// A label only: "EUR", "USD", "£".
+    pub currency: String,
+    /// What the retrofit from the baseline design to the others costs, in `currency`.
+    pub retrofit_price: f64,
+    /// The grid's emission factor, kg CO2 per kWh, for the yearly CO2 of each design (absent:
+    /// not shown). The user enters the figure their utility or national inventory publishes.
+    #[serde(
+        default,
+        rename = "grid_kg_co2_per_kwh",
+        skip_serializing_if = "Option::is_none"
+    )]
+    pub grid_factor: Option<f64>,
+}
+
+/// The oil, for the temperature rise with no cooler.
+#[derive(Clone, Copy, Debug, PartialEq, Serialize, Deserialize)]
+pub struct Oil {
+    /// Oil in circulation (the reservoir's working volume).
+    #[serde(rename = "volume_m3")]
+    pub volume: Volume,
+    #[serde(rename = "density_kg_per_m3")]
+    pub density: MassDensity,
+    #[serde(rename = "specific_heat_j_per_kg_k")]
+    pub specific_heat: SpecificHeatCapacity,
+}
+
+impl Oil {
+    /// Mineral oil with the working values of Esposito, *Fluid Power with Applications*
+    /// (density 895 kg/m^3, specific heat 1.8 kJ/(kg.K)).
+    pub fn mineral(volume: Volume) -> Oil {
+        Oil {
+            volume,
+            density: MassDensity::new::<kilogram_per_cubic_meter>(895.0),
+            specific_heat: SpecificHeatCapacity::new::<joule_per_kilogram_kelvin>(1800.0),
+        }
+    }
+}

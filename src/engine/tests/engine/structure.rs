@@ -1,0 +1,176 @@
+//! The engine's shape, checked from its source: no browser or UI crate among the dependencies
+//! of the engine or the formats layer, and the engine's modules a one-way stack, each using only
+//! those below it. A plain scan of the text is enough: modules name each other as
+//! `super::module` or `crate::module`.
+
+use std::path::Path;
+
+/// The engine's modules from the bottom up. A module may use only those before it; a new
+/// module takes its place here (see DEVELOPERS.md, "Layers").
+const STACK: [&str; 20] = [
+    // Quantities and the parts of a machine.
+    "units",
+    "pump",
+    "valve",
+    "cycle",
+    "site",
+    "motor",
+    "finding",
+    // What the job keeps.
+    "policy",
+    "pump_test",
+    "power_unit",
+    "delivery",
+    "job",
+    "demo",
+    // The algorithms.
+    "validate",
+    "ledger",
+    "solve",
+    "settings",
+    "staging",
+    "efficiency",
+    "quote",
+];
+
+/// Crates that would tie a layer to the browser or the UI.
+const NOT_BELOW_THE_UI: [&str; 8] = [
+    "leptos",
+    "web-sys",
+    "js-sys",
+    "wasm-bindgen",
+    "wasm-bindgen-futures",
+    "gloo-storage",
+    "gloo",
+    "console_error_panic_hook",
+];
+
+fn engine_dir() -> &'static Path {
+    Path::new(env!("CARGO_MANIFEST_DIR"))
+}
+
+/// The code of a module file without its tests (they sit at the end, after `#[cfg(test)]`)
+/// and without line comments.
+fn code_of(text: &str) -> String {
+    let text = text.split("#[cfg(test)]").next().unwrap_or_default();
+    text.lines()
+        .map(|l| l.split("//").next().unwrap_or_default())
+        .collect::<Vec<_>>()
+        .join("\n")
+}
+
+/// The first path segment after each `super::` or `crate::`, including each item of a
+/// `super::{a, b::c}` group.
+fn modules_named(code: &str) -> Vec<String> {
+    let mut named = Vec::new();
+    for prefix in ["super::", "crate::"] {
+        for (at, _) in code.match_indices(prefix) {
+            let rest = &code[at + prefix.len()..];
+            if let Some(group) = rest.strip_prefix('{') {
+                let mut depth = 0;
+                let mut item = String::new();
+                let mut items = Vec::new();
+                for c in group.chars() {
+                    match c {
+                        '{' => depth += 1,
+                        '}' if depth == 0 => break,
+                        '}' => depth -= 1,
+                        ',' if depth == 0 => items.push(std::mem::take(&mut item)),
+                        _ if depth == 0 => item.push(c),
+                        _ => {}
+                    }
+                }
+                items.push(item);
+                for item in items {
+                    let head = item.trim().split("::").next().unwrap_or_default().to_string();
+                    if !head.is_empty() {
+                        named.push(head);
+                    }
+                }
+            } else {
+                let head: String = rest
+                    .chars()
+                    .take_while(|c| c.is_alphanumeric() || *c == '_')
+                    .collect();
+                named.push(head);
+            }
+        }
+    }
+    named
+}
+
+#[test]
+fn the_scan_finds_single_and_grouped_paths() {
+    let code = "use super::job::Job;\nuse super::{pump::Pump, valve::{A, B}};\nlet x = crate::units::BAR; // super::quote\n";
+    let mut found = modules_named(&code_of(code));
+    found.sort();
+    assert_eq!(found, ["job", "pump", "units", "valve"]);
+}
+
+#[test]
+fn each_engine_module_uses_only_those_below_it() {
+    let mut problems = Vec::new();
+    let mut files = Vec::new();
+    for entry in std::fs::read_dir(engine_dir()).unwrap() {
+        let path = entry.unwrap().path();
+        let name = path.file_stem().unwrap().to_string_lossy().to_string();
+        if path.extension().is_some_and(|e| e == "rs") && name != "lib" {
+            files.push((name, path));
+        }
+    }
+    files.sort();
+    assert!(files.len() >= STACK.len(), "the scan found {} modules", files.len());
+    for (name, path) in &files {
+        let Some(rank) = STACK.iter().position(|m| m == name) else {
+            problems.push(format!("{name}: not in STACK; give it its place"));
+            continue;
+        };
+        let code = code_of(&std::fs::read_to_string(path).unwrap());
+        for used in modules_named(&code) {
+            match STACK.iter().position(|m| *m == used) {
+                Some(r) if r < rank => {}
+                Some(_) if used == *name => {}
+                Some(_) => problems.push(format!("{name} uses {used}, which sits above it")),
+                None => problems.push(format!(
+                    "{name} uses `{used}` from the crate root; name the module that holds it"
+                )),
+            }
+        }
+    }
+    assert!(problems.is_empty(), "{}", problems.join("\n"));
+}
+
+/// The `[dependencies]` names of a manifest.
+fn dependencies(manifest: &Path) -> Vec<String> {
+    let text = std::fs::read_to_string(manifest).unwrap();
+    let mut in_dependencies = false;
+    let mut names = Vec::new();
+    for line in text.lines().map(str::trim) {
+        if line.starts_with('[') {
+            in_dependencies = line == "[dependencies]";
+        } else if in_dependencies && !line.is_empty() && !line.starts_with('#') {
+            if let Some((name, _)) = line.split_once('=') {
+                names.push(name.trim().to_string());
+            }
+        }
+    }
+    names
+}
+
+#[test]
+fn the_engine_and_the_formats_depend_on_no_browser_or_ui_crate() {
+    for manifest in [
+        engine_dir().join("Cargo.toml"),
+        engine_dir().join("../formats/Cargo.toml"),
+    ] {
+        let names = dependencies(&manifest);
+        assert!(names.iter().any(|n| n == "serde"), "{names:?} read from {manifest:?}");
+        for name in &names {
+            assert!(
+                !NOT_BELOW_THE_UI.contains(&name.as_str()),
+                "{} depends on {name}",
+                manifest.display()
+            );
+        }
+    }
+}
