@@ -493,6 +493,17 @@ pub fn trend(tests: &[PumpTest], index: usize, policy: &WearPolicy) -> Option<Tr
     })
 }
 
+/// The motor efficiency a test starts from when the user switches it to a nameplate figure:
+/// the baseline motor's full-load efficiency, else 0.9 (a typical full-load figure of a
+/// mid-size induction motor; common practice), for the user to correct from the nameplate.
+pub fn nameplate_efficiency_offered(job: &super::job::Job) -> f64 {
+    job.designs
+        .first()
+        .map(|d| d.motor.full_load_efficiency)
+        .filter(|e| e.is_finite() && *e > 0.0 && *e <= 1.0)
+        .unwrap_or(0.9)
+}
+
 /// What the test puts into a design's pump: the volumetric efficiency the leakage line gives
 /// at the highest test pressure (within the readings, so no extrapolation), at that pressure,
 /// and the hydromechanical efficiency of the believable reading at the highest pressure.

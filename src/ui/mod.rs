@@ -4,22 +4,25 @@
 
 pub mod area;
 mod charts;
-mod cycle_editor;
+mod cycle;
+mod display;
 pub mod field;
 mod icons;
 pub mod jobs;
 mod offline;
-mod pump_check;
-mod quote_area;
+mod power_unit;
+mod pump_test;
+mod quote;
 mod report;
 mod results;
 mod safety;
-mod settings_area;
 mod share;
+mod shared;
 mod staging_panel;
 pub mod state;
+mod storage;
 mod undo;
-mod unit_editor;
+mod valve_settings;
 
 use area::Area;
 use icons::{area_icon, CautionIcon, Logo};
@@ -32,20 +35,23 @@ use safety::SafetyPage;
 pub fn App() -> impl IntoView {
     // The job open last, else the newest saved, else (first start) the example.
     // Storage is read once at start: for the job to open and for the library list.
-    let entries = jobs::load_all();
-    let (job, saved) = jobs::startup_job(&entries);
-    let state = state::JobState::new(job, saved, entries);
+    let entries = storage::load_all();
+    let (job, saved) = storage::startup_job(&entries);
+    let state = state::JobState::new(job);
     provide_context(state);
-    jobs::keep_saved(state);
-    keep_display(state);
+    let kept = storage::Storage::new(state, saved, entries);
+    provide_context(kept);
+    storage::keep_saved(kept);
+    let display = display::keep_display();
+    provide_context(display);
     provide_context(offline::start());
     // A job arriving by a share link is taken in first; the address then names the jobs area.
-    share::receive(&state, &window().location().hash().unwrap_or_default());
+    share::receive(&kept, &window().location().hash().unwrap_or_default());
     let area = RwSignal::new(area_in_address());
 
     let listener = window_event_listener(leptos::ev::hashchange, move |_| {
         // A share link pasted into the address bar of an open app.
-        share::receive(&state, &window().location().hash().unwrap_or_default());
+        share::receive(&kept, &window().location().hash().unwrap_or_default());
         area.set(area_in_address());
         // A new area starts at its top, as a new page would.
         window().scroll_to_with_x_and_y(0.0, 0.0);
@@ -59,8 +65,8 @@ pub fn App() -> impl IntoView {
     view! {
         <div
             class="shell"
-            class:presenter=move || state.display.with(|d| d.presenter)
-            class:contrast=move || state.display.with(|d| d.high_contrast)
+            class:presenter=move || display.with(|d| d.presenter)
+            class:contrast=move || display.with(|d| d.high_contrast)
         >
             <header class="topbar">
                 <a class="brand" href=Area::START.href() aria-label="Phasewise: back to the start">
@@ -81,7 +87,7 @@ pub fn App() -> impl IntoView {
                 {move || page(area.get())}
             </main>
             // Beside an area where figures are typed, the figures they move.
-            {move || (state.display.with(|d| d.presenter) && area.get().takes_figures())
+            {move || (display.with(|d| d.presenter) && area.get().takes_figures())
                 .then(|| view! { <results::PresenterPanel /> })}
             <nav class="areas" aria-label="Areas">
                 {Area::NAV
@@ -108,30 +114,13 @@ fn area_in_address() -> Area {
 fn page(area: Area) -> AnyView {
     match area {
         Area::Safety => view! { <SafetyPage /> }.into_any(),
-        Area::Cycle => view! { <cycle_editor::CycleArea /> }.into_any(),
-        Area::PowerUnit => view! { <unit_editor::UnitArea /> }.into_any(),
+        Area::Cycle => view! { <cycle::CycleArea /> }.into_any(),
+        Area::PowerUnit => view! { <power_unit::UnitArea /> }.into_any(),
         Area::Results => view! { <results::ResultsArea /> }.into_any(),
         Area::Jobs => view! { <jobs::JobsArea /> }.into_any(),
-        Area::Settings => view! { <settings_area::SettingsArea /> }.into_any(),
-        Area::PumpTest => view! { <pump_check::PumpCheckArea /> }.into_any(),
-        Area::Quote => view! { <quote_area::QuoteArea /> }.into_any(),
+        Area::Settings => view! { <valve_settings::SettingsArea /> }.into_any(),
+        Area::PumpTest => view! { <pump_test::PumpCheckArea /> }.into_any(),
+        Area::Quote => view! { <quote::QuoteArea /> }.into_any(),
         Area::Report => view! { <report::ReportArea /> }.into_any(),
     }
-}
-
-/// The display switches as the device last kept them, and kept again on each change.
-fn keep_display(state: state::JobState) {
-    use gloo_storage::Storage as _;
-    let stored = gloo_storage::LocalStorage::raw()
-        .get_item(state::DISPLAY_KEY)
-        .ok()
-        .flatten();
-    state.display.set(state::Display::from_stored(stored.as_deref()));
-    Effect::new(move |_| {
-        let display = state.display.get();
-        if let Ok(text) = serde_json::to_string(&display) {
-            // A full or refused storage only forgets the switch; nothing else depends on it.
-            let _ = gloo_storage::LocalStorage::raw().set_item(state::DISPLAY_KEY, &text);
-        }
-    });
 }

@@ -145,7 +145,7 @@ pub fn NewerVersionNotice() -> impl IntoView {
     let dismissed = RwSignal::new(false);
     let restart = move |_| {
         // Whatever was typed in the last moment is written before the page reloads.
-        super::jobs::flush_pending(&super::state::use_job());
+        super::storage::flush_pending(&super::storage::use_storage());
         restart_with_newer();
     };
     view! {

@@ -5,7 +5,7 @@
 //! the app's bars and keeps tables and charts whole.
 
 use super::charts::{EnergyChart, LedgerChart};
-use super::quote_area::{use_columns, ComparisonTable, CoolingList};
+use super::quote::{use_columns, ComparisonTable, CoolingList};
 use super::safety::{CAUTIONS, ESTIMATE_NOTE};
 use super::state::use_job;
 use crate::engine::pump::PumpControl;
@@ -56,7 +56,7 @@ pub fn ReportArea() -> impl IntoView {
                         <p class="empty-note" data-report-blocked="true">
                             "A quote is made only from a job whose every figure is valid. Fix the figures below, then come back."
                         </p>
-                        <super::results::StaleNotice />
+                        <super::shared::StaleNotice />
                     }
                     .into_any(),
                 }
@@ -138,7 +138,7 @@ fn Document(job: Job, report: Arc<JobReport>, columns: Vec<QuoteColumn>) -> impl
                 <h2>"Summary"</h2>
                 <ul class="report-summary">{summary}</ul>
                 <ComparisonTable columns=columns.clone() units=units currency=currency.clone() precision=Precision::ForCustomer />
-                {super::quote_area::fewer_parts_notes(&columns)}
+                {super::quote::fewer_parts_notes(&columns)}
             </section>
             <section class="report-block keep">
                 <h2>"Where the energy goes in a year"</h2>
@@ -152,7 +152,7 @@ fn Document(job: Job, report: Arc<JobReport>, columns: Vec<QuoteColumn>) -> impl
                 <section class="report-block keep" data-report-pumps="true">
                     <h2>"Pump tests"</h2>
                     <p class="hint">"A worn pump loses flow and power whatever the retrofit: its verdict from the readings taken at the machine."</p>
-                    <super::pump_check::PumpVerdicts />
+                    <super::shared::PumpVerdicts />
                 </section>
             })}
 

@@ -3,198 +3,15 @@
 
 use super::charts::{LedgerChart, TimelineChart};
 use super::field::UnitSwitch;
-use super::state::{use_job, Display};
-use super::unit_editor::DesignTabs;
+use super::display::DisplaySwitches;
+use super::state::use_job;
+use super::shared::DesignTabs;
 use crate::engine::units::{Measure, UnitSystem};
 use crate::engine::valve::ActiveLimit;
-use crate::engine::{DesignReport, Job, JobReport, PumpState};
+use crate::engine::{DesignReport, JobReport, PumpState};
 use crate::engine::ledger::LedgerItem;
+use super::shared::StaleNotice;
 use leptos::prelude::*;
-
-/// The index a field path gives right after `prefix`: 1 for `cycle[1].load.force_n` after
-/// `cycle[`.
-fn index_after(field: &str, prefix: &str) -> Option<usize> {
-    field
-        .strip_prefix(prefix)
-        .and_then(|rest| rest.split(']').next())
-        .and_then(|n| n.parse::<usize>().ok())
-}
-
-/// Where a field path points, in words: "Phase 3 (Dwell)" or "Power unit “Proposed”".
-pub fn place_of(field: &str, job: &Job) -> String {
-    let index = |prefix: &str| index_after(field, prefix);
-    if let Some(i) = index("cycle[") {
-        let name = job.cycle.get(i).map(|p| p.name.as_str()).unwrap_or("");
-        return format!("Phase {} ({name})", i + 1);
-    }
-    if let Some(i) = index("designs[") {
-        let name = job.designs.get(i).map(|d| d.name.as_str()).unwrap_or("");
-        return format!("Power unit “{name}”");
-    }
-    match field.split('.').next() {
-        Some("site") => "Site".into(),
-        Some("oil") => "Oil".into(),
-        _ => "Job".into(),
-    }
-}
-
-/// A field's name in words, from its path: `cycle[1].load.force_n` is "force",
-/// `designs[0].relief.setting_pa` is "relief setting". The unit suffix of the job file's key
-/// goes; the part it belongs to stays where it says which (relief, motor, unloading, check).
-pub fn field_words(field: &str) -> String {
-    const SUFFIXES: [&str; 13] = [
-        "_m3_per_rev",
-        "_m3_per_s",
-        "_rad_per_s",
-        "_m_per_s",
-        "_kg_per_m3",
-        "_j_per_kg_k",
-        "_per_kwh",
-        "_m3",
-        "_pa",
-        "_m",
-        "_n",
-        "_s",
-        "_w",
-    ];
-    let mut parts = field.split('.').map(|p| p.split('[').next().unwrap_or(p));
-    let last = parts.next_back().unwrap_or(field);
-    let key = SUFFIXES
-        .iter()
-        .find_map(|s| last.strip_suffix(s))
-        .unwrap_or(last);
-    let owner = parts.next_back().filter(|p| {
-        matches!(
-            *p,
-            "relief" | "motor" | "unloading" | "check" | "load" | "speed"
-        )
-    });
-    let words = key.replace('_', " ");
-    match owner {
-        Some(owner) if !words.starts_with(owner) && owner != "load" && owner != "speed" => {
-            format!("{owner} {words}")
-        }
-        _ => words,
-    }
-}
-
-/// The area that holds a field, by its path.
-pub fn area_of(field: &str) -> super::area::Area {
-    use super::area::Area;
-    match field.split(['.', '[']).next().unwrap_or_default() {
-        "cycle" => Area::Cycle,
-        "designs" => Area::PowerUnit,
-        "site" | "oil" => Area::Quote,
-        "advice" | "staging" => Area::Settings,
-        "pump_tests" | "wear" => Area::PumpTest,
-        _ => Area::Jobs,
-    }
-}
-
-/// Opens the area holding `field` (the phase or design it belongs to first) and puts the
-/// cursor in it.
-fn go_to_field(state: super::state::JobState, field: String) {
-    let index = |prefix: &str| index_after(&field, prefix);
-    if let Some(i) = index("cycle[") {
-        state.open_phase.set(Some(i));
-    }
-    if let Some(i) = index("designs[") {
-        state.design.set(i);
-    }
-    let _ = window().location().set_hash(&area_of(&field).href());
-    // Once the area has drawn, the field takes the cursor and comes into view.
-    let _ = set_timeout_with_handle(
-        move || {
-            let selector = format!("[data-path='{field}']");
-            if let Ok(Some(el)) = document().query_selector(&selector) {
-                el.scroll_into_view();
-                if let Ok(input) = wasm_bindgen::JsCast::dyn_into::<web_sys::HtmlInputElement>(el) {
-                    let _ = input.focus();
-                }
-            }
-        },
-        std::time::Duration::from_millis(150),
-    );
-}
-
-/// The display switches: presenter view and high contrast.
-#[component]
-pub fn DisplaySwitches() -> impl IntoView {
-    let state = use_job();
-    let toggle = move |name: &'static str, get: fn(&Display) -> bool, flip: fn(&mut Display)| {
-        view! {
-            <button
-                type="button"
-                class="toggle"
-                aria-pressed=move || if state.display.with(get) { "true" } else { "false" }
-                on:click=move |_| state.display.update(flip)
-            >
-                {name}
-            </button>
-        }
-    };
-    view! {
-        <div class="segmented" role="group" aria-label="Display">
-            {toggle("Presenter view", |d| d.presenter, |d| d.presenter = !d.presenter)}
-            {toggle("High contrast", |d| d.high_contrast, |d| d.high_contrast = !d.high_contrast)}
-        </div>
-    }
-}
-
-/// A strip of the key figures, shown while editing so every change shows its effect at once.
-/// Its markup stays; only its texts change, so an edit costs a solve and three text updates.
-#[component]
-pub fn LiveSummary() -> impl IntoView {
-    let state = use_job();
-    let figures = Memo::new(move |_| {
-        let units = state.units();
-        let d = state.design.get();
-        let pick = |report: &JobReport| {
-            let design = report
-                .designs
-                .get(d.min(report.designs.len().saturating_sub(1)))?;
-            let t = &design.totals;
-            Some((
-                design.name.clone(),
-                [
-                    Measure::Power.with_unit(units, t.average_electrical.value),
-                    Measure::Heat.with_unit(units, t.heat_load.value),
-                    Measure::Duration.with_unit(units, t.cycle_time.value),
-                ],
-            ))
-        };
-        match state.result.with(|r| r.as_ref().ok().and_then(|r| pick(r))) {
-            Some((name, values)) => Some((false, name, values)),
-            None => state
-                .last_good
-                .with(|g| g.as_ref().and_then(|r| pick(r)))
-                .map(|(name, values)| (true, name, values)),
-        }
-    });
-    let stale = move || figures.with(|f| f.as_ref().is_some_and(|f| f.0));
-    let name = move || {
-        figures.with(|f| {
-            f.as_ref().map(|(stale, name, _)| {
-                if *stale {
-                    format!("{name} (not up to date)")
-                } else {
-                    name.clone()
-                }
-            })
-        })
-    };
-    let value = move |i: usize| move || figures.with(|f| f.as_ref().map(|f| f.2[i].clone()));
-    view! {
-        <Show when=move || figures.with(|f| f.is_some())>
-            <a class="live-summary" class:stale=stale href="#/results" aria-live="polite">
-                <span class="live-name">{name}</span>
-                <span class="live-figure"><span class="live-label">"Average"</span><strong data-live="average">{value(0)}</strong></span>
-                <span class="live-figure"><span class="live-label">"Heat"</span><strong data-live="heat">{value(1)}</strong></span>
-                <span class="live-figure"><span class="live-label">"Cycle"</span><strong data-live="cycle-time">{value(2)}</strong></span>
-            </a>
-        </Show>
-    }
-}
 
 #[component]
 pub fn ResultsArea() -> impl IntoView {
@@ -207,7 +24,7 @@ pub fn ResultsArea() -> impl IntoView {
                 <UnitSwitch />
                 <DisplaySwitches />
             </div>
-            <super::cycle_editor::ExampleBanner />
+            <super::shared::ExampleBanner />
             <StaleNotice />
             <DesignTabs />
             {move || match report() {
@@ -218,41 +35,6 @@ pub fn ResultsArea() -> impl IntoView {
                 }.into_any(),
             }}
         </section>
-    }
-}
-
-/// Says the results are not for the job as it now stands, and why.
-#[component]
-pub fn StaleNotice() -> impl IntoView {
-    let state = use_job();
-    move || {
-        state.result.with(|r| r.as_ref().err().cloned()).map(|errors| {
-            let job = state.job.get();
-            let count = errors.len();
-            view! {
-                <div class="stale-notice" role="alert" data-stale="true">
-                    <strong>{if state.last_good.with(|g| g.is_some()) { "Not up to date. " } else { "No results yet. " }}</strong>
-                    {format!(
-                        "{count} {} to fix; the figures below are from the last valid entries.",
-                        if count == 1 { "figure" } else { "figures" }
-                    )}
-                    <ul>
-                        {errors.iter().take(5).map(|e| {
-                            let field = e.field.clone();
-                            view! {
-                                <li>
-                                    {format!("{}, {}: {} ", place_of(&e.field, &job), field_words(&e.field), e.message)}
-                                    <a href=area_of(&e.field).href() data-go-to=e.field.clone()
-                                        on:click=move |ev| { ev.prevent_default(); go_to_field(state, field.clone()); }>
-                                        "Go to it"
-                                    </a>
-                                </li>
-                            }
-                        }).collect_view()}
-                    </ul>
-                </div>
-            }
-        })
     }
 }
 
@@ -276,11 +58,11 @@ fn ReportView(
         let job_name = state.job.with_untracked(|j| j.name.clone());
         let name = format!(
             "{}-{}-ledger.csv",
-            super::jobs::file_stem(&job_name),
-            super::jobs::file_stem(&csv_design.name)
+            super::storage::file_stem(&job_name),
+            super::storage::file_stem(&csv_design.name)
         );
         let text = crate::formats::ledger_csv::ledger_csv(&csv_design, units);
-        super::jobs::download_as(&name, "text/csv", &text);
+        super::storage::download_as(&name, "text/csv", &text);
     };
     view! {
         <Totals design=design.clone() units=units currency=currency.clone() />
@@ -455,40 +237,6 @@ fn PhaseResult(i: usize, phase: crate::engine::PhaseReport, units: UnitSystem) -
                 </ul>
             })}
         </li>
-    }
-}
-
-#[cfg(test)]
-mod tests {
-    use super::{area_of, field_words};
-    use crate::ui::area::Area;
-
-    #[test]
-    fn a_field_is_named_in_words_and_found_in_its_area() {
-        assert_eq!(field_words("cycle[1].load.force_n"), "force");
-        assert_eq!(field_words("cycle[0].cylinder.bore_m"), "bore");
-        assert_eq!(
-            field_words("designs[0].relief.setting_pa"),
-            "relief setting"
-        );
-        assert_eq!(
-            field_words("designs[1].unloading_stages[0].unloading.setting_pa"),
-            "unloading setting"
-        );
-        assert_eq!(
-            field_words("designs[0].motor.rated_power_w"),
-            "motor rated power"
-        );
-        assert_eq!(field_words("site.tariff_per_kwh"), "tariff");
-        assert_eq!(field_words("name"), "name");
-        assert_eq!(area_of("cycle[3].duration_s"), Area::Cycle);
-        assert_eq!(
-            area_of("designs[0].base_pump.drag_power_w"),
-            Area::PowerUnit
-        );
-        assert_eq!(area_of("site.retrofit_price"), Area::Quote);
-        assert_eq!(area_of("advice.margin_min_pa"), Area::Settings);
-        assert_eq!(area_of("name"), Area::Jobs);
     }
 }
 

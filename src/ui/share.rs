@@ -1,8 +1,8 @@
 //! Sharing a job by link and QR code, and taking in a job that arrives by a link. The packing
 //! and the QR modules come from [`crate::formats::share`]; this only shows them and stores the job.
 
-use super::jobs::{load_all, now_ms, open, stored_ids, stored_names, strs, write};
-use super::state::{use_job, JobState};
+use super::storage::{load_all, now_ms, open, stored_ids, stored_names, strs, write, Storage};
+use super::state::use_job;
 use crate::engine::Job;
 use crate::formats::library::{self, Entry};
 use crate::formats::share;
@@ -12,12 +12,12 @@ use wasm_bindgen::JsValue;
 /// If `fragment` carries a job, adds it to the jobs on this device (or opens the stored one it
 /// equals, so opening a link twice adds it once) and says so; then takes the job out of the
 /// address, so a reload does not bring it in again. False when the fragment carries none.
-pub fn receive(state: &JobState, fragment: &str) -> bool {
+pub fn receive(storage: &Storage, fragment: &str) -> bool {
     let Some(payload) = share::payload_in(fragment) else {
         return false;
     };
     // What was typed in the open job a moment ago is written before another job opens.
-    super::jobs::flush_pending(state);
+    super::storage::flush_pending(storage);
     let notice = match share::unpack(payload, &[]) {
         Err(why) => (
             false,
@@ -25,7 +25,7 @@ pub fn receive(state: &JobState, fragment: &str) -> bool {
         ),
         Ok(job) => {
             // The same job, perhaps stored under " (2)" because its name was taken on arrival.
-            let same = state.library.with_untracked(|l| {
+            let same = storage.library.with_untracked(|l| {
                 l.iter().find_map(|e| match e {
                     Entry::Good { id, saved }
                         if library::is_name_of(&saved.job.name, &job.name)
@@ -39,10 +39,10 @@ pub fn receive(state: &JobState, fragment: &str) -> bool {
                     _ => None,
                 })
             });
-            if let Some((id, stored)) = same.and_then(|id| stored_job(state, &id).map(|j| (id, j)))
+            if let Some((id, stored)) = same.and_then(|id| stored_job(storage, &id).map(|j| (id, j)))
             {
                 let name = stored.name.clone();
-                open(state, &id, stored);
+                open(storage, &id, stored);
                 (
                     true,
                     format!(
@@ -51,13 +51,13 @@ pub fn receive(state: &JobState, fragment: &str) -> bool {
                 )
             } else {
                 let mut job = job;
-                job.name = library::unique_name(&job.name, &strs(&stored_names(state)));
-                let id = library::new_id(now_ms(), &strs(&stored_ids(state)));
+                job.name = library::unique_name(&job.name, &strs(&stored_names(storage)));
+                let id = library::new_id(now_ms(), &strs(&stored_ids(storage)));
                 match write(&library::key_of(&id), &library::write_entry(&job, now_ms())) {
                     Ok(()) => {
-                        state.library.set(load_all());
+                        storage.library.set(load_all());
                         let name = job.name.clone();
-                        open(state, &id, job);
+                        open(storage, &id, job);
                         (
                             true,
                             format!("Added “{name}” from the shared link; it is open now."),
@@ -68,7 +68,7 @@ pub fn receive(state: &JobState, fragment: &str) -> bool {
             }
         }
     };
-    state.notice.set(Some(notice));
+    storage.notice.set(Some(notice));
     if let Ok(history) = window().history() {
         let _ = history.replace_state_with_url(&JsValue::NULL, "", Some("#/jobs"));
     }
@@ -76,8 +76,8 @@ pub fn receive(state: &JobState, fragment: &str) -> bool {
 }
 
 /// The stored job under `id`, as the library last read it.
-fn stored_job(state: &JobState, id: &str) -> Option<Job> {
-    state.library.with_untracked(|l| {
+fn stored_job(storage: &Storage, id: &str) -> Option<Job> {
+    storage.library.with_untracked(|l| {
         l.iter().find_map(|e| match e {
             Entry::Good { id: this, saved } if this == id => Some(saved.job.clone()),
             _ => None,

@@ -16,29 +16,6 @@ pub type Outcome = Result<Arc<JobReport>, Arc<Vec<InputError>>>;
 pub type PumpTestOutcomes =
     Arc<Vec<Result<crate::engine::efficiency::TestReport, Vec<InputError>>>>;
 
-/// How the app is shown; not part of the job, but kept on the device (`DISPLAY_KEY`) so a
-/// workshop's projector opens in the presenter view it was left in.
-#[derive(Clone, Copy, Debug, PartialEq, Eq, Default, serde::Serialize, serde::Deserialize)]
-pub struct Display {
-    /// Type legible from the back of a room, results first, and beside an area where figures
-    /// are typed, the figures and chart they move (see DEVELOPERS.md, "Presenter view").
-    #[serde(default)]
-    pub presenter: bool,
-    /// Black, white and yellow, for glare or a dim corner.
-    #[serde(default)]
-    pub high_contrast: bool,
-}
-
-/// Where the display switches are kept on the device.
-pub const DISPLAY_KEY: &str = "phasewise.display";
-
-impl Display {
-    /// The switches as kept on the device (none kept, or unreadable: the plain view).
-    pub fn from_stored(text: Option<&str>) -> Display {
-        text.and_then(|t| serde_json::from_str(t).ok()).unwrap_or_default()
-    }
-}
-
 /// A change that threw something away (a design removed, a proposed design overwritten), kept
 /// so one tap puts the job back as it was.
 #[derive(Clone, Debug, PartialEq)]
@@ -71,26 +48,8 @@ pub struct JobState {
     pub open_phase: RwSignal<Option<usize>>,
     /// The last phase deleted, until it is restored or another goes.
     pub deleted: RwSignal<Option<RemovedPhase>>,
-    pub display: RwSignal<Display>,
-    /// The stored id of the open job; none until it is first saved.
-    pub current: RwSignal<Option<String>>,
-    pub save_note: RwSignal<super::jobs::SaveNote>,
-    /// What storage holds, as last read.
-    pub library: RwSignal<Vec<crate::formats::library::Entry>>,
-    /// The text this window last wrote for the open job: a storage event with other text
-    /// means another window changed it.
-    pub last_written: StoredValue<Option<String>>,
-    /// Set when the job is replaced by an opened one, so the autosave does not fire for it.
-    pub skip_save: StoredValue<bool>,
-    /// The last job entry deleted from the library (id, stored text), until undone.
-    pub deleted_entry: RwSignal<Option<(String, String)>>,
-    /// A one-off message for the jobs area (a job arrived by a link, or a link was unreadable):
-    /// whether it is good news, and the sentence.
-    pub notice: RwSignal<Option<(bool, String)>>,
     /// The last change that threw something away, while it can still be undone.
     pub undo: RwSignal<Option<Undo>>,
-    /// The autosave waiting for the edits to pause, if one is.
-    pub pending_save: StoredValue<Option<leptos::prelude::TimeoutHandle>>,
     /// What was typed into each number field (by path) that is not a number: the job holds NaN
     /// there, so the text itself is kept here, to be shown again when the field is (a move to
     /// another area and back must not wipe what the user is correcting).
@@ -98,13 +57,8 @@ pub struct JobState {
 }
 
 impl JobState {
-    /// The state for `job`, stored under `saved` (its id and when it was saved) if it is, with
-    /// what storage holds.
-    pub fn new(
-        job: Job,
-        saved: Option<(String, f64)>,
-        library: Vec<crate::formats::library::Entry>,
-    ) -> JobState {
+    /// The state for `job`.
+    pub fn new(job: Job) -> JobState {
         let job = RwSignal::new(job);
         // Every new answer counts as a change: comparing two reports field by field costs as
         // much as drawing them, and nearly every edit changes the report anyway.
@@ -147,18 +101,6 @@ impl JobState {
             design: RwSignal::new(0),
             open_phase: RwSignal::new(None),
             deleted: RwSignal::new(None),
-            display: RwSignal::new(Display::default()),
-            save_note: RwSignal::new(match saved {
-                Some((_, at_ms)) => super::jobs::SaveNote::Saved { at_ms },
-                None => super::jobs::SaveNote::NotSaved,
-            }),
-            current: RwSignal::new(saved.map(|(id, _)| id)),
-            library: RwSignal::new(library),
-            last_written: StoredValue::new(None),
-            skip_save: StoredValue::new(false),
-            deleted_entry: RwSignal::new(None),
-            pending_save: StoredValue::new(None),
-            notice: RwSignal::new(None),
             undo: RwSignal::new(None),
             typed_text: StoredValue::new(Default::default()),
         }
@@ -192,7 +134,6 @@ impl JobState {
     /// Puts another job in place of the open one (opened, or started new): nothing shown or
     /// kept for the job before it stays (its last good report, its undo, its typed text).
     pub fn replace_job(&self, job: Job) {
-        self.skip_save.set_value(true);
         self.typed_text.update_value(|kept| kept.clear());
         self.last_good.set(None);
         self.undo.set(None);

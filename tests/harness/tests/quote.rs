@@ -8,7 +8,7 @@
 
 use base64::Engine as _;
 use phasewise::engine::{demo, quote, Job};
-use phasewise::quote_text::{self, Precision, Row};
+use phasewise::formats::quote_text::{self, Precision, Row};
 use phasewise_harness::browser::{AppSession, Browser, Viewport};
 use serde_json::{json, Value};
 use std::path::Path;

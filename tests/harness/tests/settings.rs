@@ -245,7 +245,7 @@ async fn the_staging_search_time_on_a_ten_phase_cycle_is_printed() {
     let native = phasewise::engine::staging::search(&job, &job.staging).unwrap();
     let app = AppSession::start_at("staging_ten_phases", Viewport::LAPTOP, "#/settings").await;
     let b = &app.browser;
-    let entry = phasewise::library::write_entry(&job, 1.0);
+    let entry = phasewise::formats::library::write_entry(&job, 1.0);
     b.eval(&format!(
         "localStorage.setItem('phasewise.job.zz-ten', {}); localStorage.setItem('phasewise.last-open', 'zz-ten');",
         serde_json::to_string(&entry).unwrap()

@@ -100,7 +100,7 @@ async fn a_damaged_link_says_so_and_adds_nothing() {
     let b = &app.browser;
     let link = {
         let job = phasewise::engine::demo::scrap_baler();
-        let full = phasewise::share::link(&app.server.url(), &job);
+        let full = phasewise::formats::share::link(&app.server.url(), &job);
         full[..full.len() - 40].to_string()
     };
     b.goto(&link).await;
@@ -124,7 +124,7 @@ async fn a_link_whose_name_is_taken_is_added_beside_it_once() {
     let mut theirs = phasewise::engine::demo::scrap_baler();
     theirs.name = "Yard baler".into();
     theirs.site.location = "Their yard".into();
-    let link = phasewise::share::link(&app.server.url(), &theirs);
+    let link = phasewise::formats::share::link(&app.server.url(), &theirs);
     b.goto(&link).await;
     b.wait_for(APP_READY).await;
     b.wait_for_text("[data-share-note]", |t| {

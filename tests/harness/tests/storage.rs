@@ -200,7 +200,7 @@ async fn an_import_adds_its_jobs_beside_same_named_ones_and_a_bad_file_changes_n
     let third = phasewise::engine::demo::scrap_baler();
     let file = temp_file(
         "two.json",
-        phasewise::library::export_all(&[&second, &third]).as_bytes(),
+        phasewise::formats::library::export_all(&[&second, &third]).as_bytes(),
     );
     let stored =
         "return Object.keys(localStorage).filter(k => k.startsWith('phasewise.job.')).length;";

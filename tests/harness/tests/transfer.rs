@@ -93,7 +93,7 @@ async fn the_ledger_csv_holds_the_engines_figures() {
     let design = &report.designs[0];
     assert_eq!(
         csv,
-        phasewise::ledger_csv::ledger_csv(design, phasewise::engine::units::UnitSystem::Si)
+        phasewise::formats::ledger_csv::ledger_csv(design, phasewise::engine::units::UnitSystem::Si)
     );
     let rows: Vec<&str> = csv.trim_end().split("\r\n").collect();
     assert_eq!(rows.len(), design.phases.len() + 2);
@@ -110,7 +110,7 @@ async fn a_job_is_renamed_from_the_list_without_opening_it() {
     let mut other = scrap_baler();
     other.name = "Old name".into();
     other.example = false;
-    let text = phasewise::library::write_entry(&other, 1.0);
+    let text = phasewise::formats::library::write_entry(&other, 1.0);
     b.eval(&format!(
         "localStorage.setItem('phasewise.job.zz-other', {});",
         serde_json::to_string(&text).unwrap()

@@ -793,3 +793,19 @@ fn an_invalid_test_is_refused_not_assessed() {
     assert!(efficiency::assess(&empty, &WearPolicy::default(), UnitSystem::Si).is_err());
     assert!(validate_pump_test(&light_load_test(), 0, UnitSystem::Si).is_empty());
 }
+
+/// A test switched to a nameplate efficiency starts from the baseline motor's figure, and from
+/// a typical one (0.9, common practice) while that motor has none yet.
+#[test]
+fn a_switch_to_a_nameplate_figure_starts_from_the_baseline_motor() {
+    use phasewise_engine::efficiency::nameplate_efficiency_offered;
+    let mut job = phasewise_engine::demo::scrap_baler();
+    job.designs[0].motor.full_load_efficiency = 0.87;
+    assert_eq!(nameplate_efficiency_offered(&job), 0.87);
+    let blank = phasewise_engine::Job::blank(
+        "New job".into(),
+        phasewise_engine::units::UnitSystem::Si,
+        "EUR".into(),
+    );
+    assert_eq!(nameplate_efficiency_offered(&blank), 0.9);
+}

@@ -13,5 +13,4 @@ mod quote;
 mod scenarios;
 mod settings;
 mod staging;
-mod structure;
 mod trade_facts;

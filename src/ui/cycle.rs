@@ -5,6 +5,7 @@ use super::state::use_job;
 use crate::engine::cycle::*;
 use crate::engine::units::Measure;
 use crate::engine::Job;
+use super::shared::ExampleBanner;
 use leptos::prelude::*;
 use uom::si::f64::*;
 
@@ -101,7 +102,7 @@ pub fn CycleArea() -> impl IntoView {
                 <UnitSwitch />
             </div>
             <ExampleBanner />
-            <super::results::LiveSummary />
+            <super::shared::LiveSummary />
             <p class="purpose">"The phases the machine repeats, in order. Open a phase to change its figures."</p>
             <UndoBar />
             <ol class="phase-list">
@@ -109,21 +110,6 @@ pub fn CycleArea() -> impl IntoView {
             </ol>
             <button type="button" class="button wide" on:click=add>"Add a phase"</button>
         </section>
-    }
-}
-
-/// Says the job is invented example data, while it is.
-#[component]
-pub fn ExampleBanner() -> impl IntoView {
-    let state = use_job();
-    let example = Memo::new(move |_| state.job.with(|j| j.example));
-    view! {
-        <Show when=move || example.get()>
-            <p class="example-banner" role="note">
-                <strong>"Example data. "</strong>
-                "An invented machine to show how Phasewise works: change any figure, or describe your own."
-            </p>
-        </Show>
     }
 }
 

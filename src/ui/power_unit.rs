@@ -2,7 +2,6 @@
 //! each phase.
 
 use super::field::{ChoiceField, NumberField, OptionalNumberField, TextField, UnitSwitch};
-use super::icons::CautionIcon;
 use super::state::use_job;
 use crate::engine::cycle::PhaseKind;
 use crate::engine::power_unit::{Design, UnloadingStage, MAX_PUMPS};
@@ -10,6 +9,7 @@ use crate::engine::pump::{Pump, PumpControl};
 use crate::engine::units::Measure;
 use crate::engine::valve::{ActiveLimit, CheckValve, IdlePath, ReliefKind, UnloadingValve};
 use crate::engine::Job;
+use super::shared::{DesignTabs, OlderBaselineNotice, SettingsCaution};
 use leptos::prelude::*;
 use uom::si::f64::Pressure;
 use uom::si::pressure::{bar, pascal};
@@ -53,41 +53,6 @@ fn design_mut(j: &mut Job, d: usize) -> Option<&mut Design> {
     j.designs.get_mut(d)
 }
 
-/// Tabs choosing the design shown, shared by the unit and results areas.
-#[component]
-pub fn DesignTabs() -> impl IntoView {
-    let state = use_job();
-    let names = move || {
-        state
-            .job
-            .with(|j| j.designs.iter().map(|d| d.name.clone()).collect::<Vec<_>>())
-    };
-    view! {
-        <div class="segmented design-tabs" role="group" aria-label="Power unit shown">
-            {move || {
-                names()
-                    .into_iter()
-                    .enumerate()
-                    .map(|(i, name)| {
-                        view! {
-                            <button
-                                type="button"
-                                class="toggle"
-                                data-design=i
-                                aria-pressed=move || if state.design_index() == i { "true" } else { "false" }
-                                on:click=move |_| state.design.set(i)
-                            >
-                                {if name.trim().is_empty() { format!("Power unit {}", i + 1) } else { name }}
-                                {(i == 0).then(|| view! { <span class="role-tag">" (baseline)"</span> })}
-                            </button>
-                        }
-                    })
-                    .collect_view()
-            }}
-        </div>
-    }
-}
-
 #[component]
 pub fn UnitArea() -> impl IntoView {
     let state = use_job();
@@ -129,8 +94,8 @@ pub fn UnitArea() -> impl IntoView {
                 <h1 id="area-title">"Power unit"</h1>
                 <UnitSwitch />
             </div>
-            <super::cycle_editor::ExampleBanner />
-            <super::results::LiveSummary />
+            <super::shared::ExampleBanner />
+            <super::shared::LiveSummary />
             <DesignTabs />
             <super::undo::UndoChange place="unit" />
             <OlderBaselineNotice place="unit" />
@@ -291,20 +256,6 @@ fn DesignEditor(d: usize) -> impl IntoView {
         <h2>"Limit in each phase"</h2>
         <p class="hint">"Which pressure limit governs each phase, and where the flow goes while idle."</p>
         {move || (0..phases()).map(|i| view! { <PhaseLimit d=d i=i /> }).collect_view()}
-    }
-}
-
-/// The caution shown beside every group of pressure settings.
-#[component]
-pub(super) fn SettingsCaution() -> impl IntoView {
-    view! {
-        <p class="inline-caution">
-            <CautionIcon />
-            <span>
-                "Pressure settings are changed only by a qualified person, with the machine locked out and pressure released, and never above any component's rating. "
-                <a href="#/safety">"Safety"</a>
-            </span>
-        </p>
     }
 }
 
@@ -518,57 +469,5 @@ fn IdlePathField(d: usize, i: usize) -> impl IntoView {
                 get=move |j: &Job| match path(j) { Some(IdlePath::OpenCentre { drop }) => drop.value, _ => f64::NAN }
                 set=move |j: &mut Job, v| if let Some(s) = design_mut(j, d).and_then(|x| x.phase_settings.get_mut(i)) { s.idle_path = IdlePath::OpenCentre { drop: Pressure::new::<pascal>(v) } } />
         })}
-    }
-}
-
-/// A design's machine in one line: its motor and pumps, as the user entered them.
-pub fn machine_words(design: &Design, units: crate::engine::units::UnitSystem) -> String {
-    let pumps: Vec<String> = design
-        .pumps()
-        .map(|p| Measure::Displacement.with_unit(units, p.displacement.value))
-        .collect();
-    format!(
-        "motor {} at {}; pumps {}",
-        Measure::Power.with_unit(units, design.motor.rated_power.value),
-        Measure::ShaftSpeed.with_unit(units, design.motor.full_load_speed.value),
-        pumps.join(" + ")
-    )
-}
-
-/// Shown on a proposal made from an earlier "as found" whose machine has changed since: what
-/// the proposal still holds, what "as found" holds now, and a button that makes the proposal
-/// again from today's baseline (undoable where `place` shows its bar).
-#[component]
-pub fn OlderBaselineNotice(place: &'static str) -> impl IntoView {
-    let state = use_job();
-    let older = Memo::new(move |_| {
-        let d = state.design_index();
-        state.job.with(|j| {
-            let baseline = j.designs.first()?;
-            let design = j.designs.get(d).filter(|x| d > 0 && x.made_from_older(baseline))?;
-            Some((d, design.name.clone(), baseline.name.clone(), machine_words(design, j.units), machine_words(baseline, j.units)))
-        })
-    });
-    move || {
-        older.get().map(|(d, name, baseline, theirs, now)| {
-            let what = format!("Made “{name}” again from today's “{baseline}”");
-            let rebuild = move |_: leptos::ev::MouseEvent| {
-                let what = what.clone();
-                state.change_with_undo(place, what, |j| j.rebuild_from_baseline(d));
-            };
-            view! {
-                <div class="older-baseline" role="status" data-older-baseline="true">
-                    <p><strong>{format!("“{name}” was made from an earlier “{baseline}”.")}</strong>
-                        " The machine found has changed since, and this power unit still holds the one it was made from."</p>
-                    <ul>
-                        <li data-machine="proposal">{format!("{name}: {theirs}")}</li>
-                        <li data-machine="baseline">{format!("{baseline} now: {now}")}</li>
-                    </ul>
-                    <button type="button" class="button" data-action="rebuild-proposal" on:click=rebuild>
-                        {format!("Make “{name}” again from today's “{baseline}”")}
-                    </button>
-                </div>
-            }
-        })
     }
 }

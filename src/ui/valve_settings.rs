@@ -4,7 +4,7 @@
 
 use super::field::NumberField;
 use super::state::use_job;
-use super::unit_editor::{DesignTabs, SettingsCaution};
+use super::shared::{DesignTabs, SettingsCaution};
 use crate::engine::settings::{self, Severity};
 use crate::engine::units::Measure;
 use crate::engine::Job;
@@ -55,7 +55,7 @@ pub fn SettingsArea() -> impl IntoView {
             <DesignTabs />
             {move || applied.get().map(|t| view! { <p class="save-note" role="status" data-applied="true">{t}</p> })}
             <super::undo::UndoChange place="advice" />
-            <super::unit_editor::OlderBaselineNotice place="advice" />
+            <super::shared::OlderBaselineNotice place="advice" />
             {move || match advice.get() {
                 None => view! { <p class="empty-note">"Advice appears once every figure of the job is valid."</p> }.into_any(),
                 Some((needs, list)) => {
@@ -65,7 +65,7 @@ pub fn SettingsArea() -> impl IntoView {
                     let can_apply = state.design_index() > 0 || job.designs.len() == 1;
                     // The machine the advice is for, so it is never applied to one unseen.
                     let machine = job.designs.get(state.design_index()).map(|x| {
-                        format!("For “{}”: {}.", x.name, super::unit_editor::machine_words(x, job.units))
+                        format!("For “{}”: {}.", x.name, super::shared::machine_words(x, job.units))
                     });
                     view! {
                         <PhaseNeeds job=job.clone() needs=needs />

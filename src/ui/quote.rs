@@ -50,8 +50,8 @@ pub fn QuoteArea() -> impl IntoView {
                 <h1 id="area-title">"Retrofit quote"</h1>
                 <UnitSwitch />
             </div>
-            <super::cycle_editor::ExampleBanner />
-            <super::results::StaleNotice />
+            <super::shared::ExampleBanner />
+            <super::shared::StaleNotice />
             {move || {
                 // A quote on a proposal made from an earlier "as found" compares two machines.
                 let older: Vec<String> = state.job.with(|j| match j.designs.split_first() {
@@ -103,7 +103,7 @@ pub fn QuoteArea() -> impl IntoView {
             {move || state.job.with(|j| !j.pump_tests.is_empty()).then(|| view! {
                 <div class="card" data-quote-pumps="true">
                     <h2>"Pump tests"</h2>
-                    <super::pump_check::PumpVerdicts />
+                    <super::shared::PumpVerdicts />
                 </div>
             })}
             <SiteCosts />

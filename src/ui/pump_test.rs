@@ -7,12 +7,12 @@ use super::field::{ChoiceField, NumberField, OptionalNumberField, TextField};
 use super::icons::CautionIcon;
 use super::state::use_job;
 use crate::engine::efficiency::{
-    self, ElectricalInput, MotorEfficiency, PumpTest, Reading, SpeedFrom, TestReport, Verdict,
-    READINGS_FOR_VERDICT,
+    self, ElectricalInput, MotorEfficiency, PumpTest, Reading, SpeedFrom, TestReport,
 };
 use crate::engine::motor::EfficiencyClass;
 use crate::engine::units::{Measure, UnitSystem};
 use crate::engine::Job;
+use super::shared::{percent, verdict_words};
 use leptos::prelude::*;
 use uom::si::f64::{
     AngularVelocity, ElectricCurrent, ElectricPotential, Power, Pressure, Torque, VolumeRate,
@@ -224,10 +224,7 @@ fn set_motor_source(j: &mut Job, t: usize, v: &str) {
         "nema" => Some(EfficiencyClass::NemaPremium),
         _ => None,
     };
-    let fallback = j
-        .designs
-        .first()
-        .map_or(0.9, |d| d.motor.full_load_efficiency);
+    let fallback = crate::engine::efficiency::nameplate_efficiency_offered(j);
     if let Some(x) = test_mut(j, t) {
         x.motor_efficiency = match class {
             Some(class) => MotorEfficiency::Class { class },
@@ -368,10 +365,6 @@ fn ReadingEditor(t: usize, k: usize) -> impl IntoView {
     }
 }
 
-fn percent(v: Option<f64>) -> String {
-    v.map_or("–".into(), |v| format!("{:.1} %", v * 100.0))
-}
-
 #[component]
 fn TestResults(t: usize) -> impl IntoView {
     let state = use_job();
@@ -386,108 +379,6 @@ fn TestResults(t: usize) -> impl IntoView {
         None => view! { <p class="empty-note" data-test-result="waiting">"Results appear once every figure of the test is in and valid."</p> }.into_any(),
         Some((x, report)) => view! { <TestFindings t=t test=x report=report /> }.into_any(),
     }
-    }
-}
-
-/// A test's verdict in words, with its style class and its short name (`good`, `watch`,
-/// `worn`, `none`): the pump-check area, the quote and the report say it the same way.
-pub(super) fn verdict_words(
-    test: &PumpTest,
-    report: &TestReport,
-) -> (&'static str, String, &'static str) {
-    let (used, total) = (report.readings_used, test.readings.len());
-    let basis = match report.readings_rejected {
-        0 => format!("Judged on {used} readings."),
-        1 => format!("Judged on {used} readings; 1 left out (its note says why)."),
-        n => format!("Judged on {used} readings; {n} left out (their notes say why)."),
-    };
-    match report.verdict {
-        Verdict::Good {
-            volumetric_at_rated,
-        } => (
-            "verdict good",
-            format!(
-                "In good order: {} volumetric efficiency predicted at its rated pressure. {basis}",
-                percent(Some(volumetric_at_rated))
-            ),
-            "good",
-        ),
-        Verdict::Watch {
-            volumetric_at_rated,
-        } => (
-            "verdict watch",
-            format!(
-                "Wearing: {} predicted at its rated pressure. Test it again sooner. {basis}",
-                percent(Some(volumetric_at_rated))
-            ),
-            "watch",
-        ),
-        Verdict::Worn {
-            volumetric_at_rated,
-        } => (
-            "verdict worn",
-            format!(
-                "Worn: {} predicted at its rated pressure. Plan a repair or a replacement. {basis}",
-                percent(Some(volumetric_at_rated))
-            ),
-            "worn",
-        ),
-        Verdict::NotJudged => (
-            "verdict none",
-            if used == 0 {
-                "Not judged: no reading can be believed as it stands.".to_string()
-            } else if report.problems.iter().any(|p| p.field == "readings") {
-                "Not judged: these readings give no leakage line (the readings' notes say why)."
-                    .to_string()
-            } else {
-                format!(
-                    "Not judged: a verdict needs at least {READINGS_FOR_VERDICT} believable readings at different test pressures, and {used} of the {total} readings can be believed."
-                )
-            },
-            "none",
-        ),
-    }
-}
-
-/// Each pump test of the job with its verdict, for the quote and the report; nothing when the
-/// job has none.
-#[component]
-pub(super) fn PumpVerdicts() -> impl IntoView {
-    let state = use_job();
-    move || {
-        let lines: Vec<(String, &'static str, String)> = state.job.with(|j| {
-            state.pump_tests.with(|outcomes| {
-                j.pump_tests
-                    .iter()
-                    .zip(outcomes.iter())
-                    .map(|(test, outcome)| {
-                        let (_, words, data) = match outcome {
-                            Ok(report) => verdict_words(test, report),
-                            Err(_) => (
-                                "",
-                                "Not judged: the test has figures to fix.".to_string(),
-                                "none",
-                            ),
-                        };
-                        let when = if test.date.trim().is_empty() {
-                            String::new()
-                        } else {
-                            format!(", {}", test.date)
-                        };
-                        (format!("{}{when}", test.pump), data, words)
-                    })
-                    .collect()
-            })
-        });
-        (!lines.is_empty()).then(|| {
-            view! {
-                <ul class="pump-verdicts" data-pump-verdicts="true">
-                    {lines.into_iter().map(|(which, data, words)| view! {
-                        <li data-verdict=data><strong>{format!("{which}: ")}</strong>{words}</li>
-                    }).collect_view()}
-                </ul>
-            }
-        })
     }
 }
 

@@ -1,7 +1,7 @@
-//! The engine's shape, checked from its source: no browser or UI crate among the dependencies
-//! of the engine or the formats layer, and the engine's modules a one-way stack, each using only
-//! those below it. A plain scan of the text is enough: modules name each other as
-//! `super::module` or `crate::module`.
+//! The code's shape, checked from its source: no browser or UI crate among the dependencies of
+//! the engine or the formats layer; the engine's modules a one-way stack, each using only those
+//! below it; and no cycle among the UI's modules. A plain scan of the text is enough: modules
+//! name each other as `super::module` or `crate::module`.
 
 use std::path::Path;
 
@@ -34,7 +34,7 @@ const STACK: [&str; 20] = [
 ];
 
 /// Crates that would tie a layer to the browser or the UI.
-const NOT_BELOW_THE_UI: [&str; 8] = [
+const BROWSER_OR_UI: [&str; 8] = [
     "leptos",
     "web-sys",
     "js-sys",
@@ -45,8 +45,8 @@ const NOT_BELOW_THE_UI: [&str; 8] = [
     "console_error_panic_hook",
 ];
 
-fn engine_dir() -> &'static Path {
-    Path::new(env!("CARGO_MANIFEST_DIR"))
+fn engine_dir() -> std::path::PathBuf {
+    Path::new(env!("CARGO_MANIFEST_DIR")).join("src/engine")
 }
 
 /// The code of a module file without its tests (they sit at the end, after `#[cfg(test)]`)
@@ -169,16 +169,101 @@ fn dependencies(manifest: &Path) -> Vec<String> {
 fn the_engine_and_the_formats_depend_on_no_browser_or_ui_crate() {
     for manifest in [
         engine_dir().join("Cargo.toml"),
-        engine_dir().join("../formats/Cargo.toml"),
+        Path::new(env!("CARGO_MANIFEST_DIR")).join("src/formats/Cargo.toml"),
     ] {
         let names = dependencies(&manifest);
         assert!(names.iter().any(|n| n == "serde"), "{names:?} read from {manifest:?}");
         for name in &names {
             assert!(
-                !NOT_BELOW_THE_UI.contains(&name.as_str()),
+                !BROWSER_OR_UI.contains(&name.as_str()),
                 "{} depends on {name}",
                 manifest.display()
             );
         }
     }
+}
+
+/// The UI's modules and the sibling modules each names (`super::x` or `crate::ui::x`), from
+/// its code without tests; the frame (`mod.rs`), which declares them all, is left out.
+fn ui_graph() -> Vec<(String, Vec<String>)> {
+    let ui = Path::new(env!("CARGO_MANIFEST_DIR")).join("src/ui");
+    let mut graph = Vec::new();
+    for entry in std::fs::read_dir(ui).unwrap() {
+        let path = entry.unwrap().path();
+        let name = path.file_stem().unwrap().to_string_lossy().to_string();
+        if path.extension().is_none_or(|e| e != "rs") || name == "mod" {
+            continue;
+        }
+        let code = code_of(&std::fs::read_to_string(&path).unwrap()).replace("crate::ui::", "super::");
+        let mut uses: Vec<String> = modules_named(&code.replace("crate::", "outside::"))
+            .into_iter()
+            .filter(|m| *m != name)
+            .collect();
+        uses.sort();
+        uses.dedup();
+        graph.push((name, uses));
+    }
+    graph.sort();
+    graph
+}
+
+/// A cycle in `graph` as a path (`a -> b -> a`), if there is one.
+fn a_cycle(graph: &[(String, Vec<String>)]) -> Option<String> {
+    fn visit(
+        node: &str,
+        graph: &[(String, Vec<String>)],
+        path: &mut Vec<String>,
+        done: &mut Vec<String>,
+    ) -> Option<String> {
+        if let Some(at) = path.iter().position(|p| p == node) {
+            let mut cycle = path[at..].to_vec();
+            cycle.push(node.to_string());
+            return Some(cycle.join(" -> "));
+        }
+        if done.iter().any(|d| d == node) {
+            return None;
+        }
+        path.push(node.to_string());
+        let next = graph.iter().find(|(n, _)| n == node).map(|(_, u)| u.clone());
+        for used in next.unwrap_or_default() {
+            if let Some(cycle) = visit(&used, graph, path, done) {
+                return Some(cycle);
+            }
+        }
+        path.pop();
+        done.push(node.to_string());
+        None
+    }
+    let mut done = Vec::new();
+    graph
+        .iter()
+        .find_map(|(node, _)| visit(node, graph, &mut Vec::new(), &mut done))
+}
+
+#[test]
+fn a_cycle_is_found_and_named() {
+    let graph = |edges: &[(&str, &[&str])]| -> Vec<(String, Vec<String>)> {
+        edges
+            .iter()
+            .map(|(n, u)| (n.to_string(), u.iter().map(|x| x.to_string()).collect()))
+            .collect()
+    };
+    assert_eq!(a_cycle(&graph(&[("a", &["b"]), ("b", &["c"]), ("c", &[])])), None);
+    assert_eq!(
+        a_cycle(&graph(&[("a", &["b"]), ("b", &["c"]), ("c", &["a"])])).as_deref(),
+        Some("a -> b -> c -> a")
+    );
+}
+
+#[test]
+fn no_ui_module_depends_on_itself_through_others() {
+    let graph = ui_graph();
+    assert!(graph.len() >= 20, "the scan found {} UI modules", graph.len());
+    let names: Vec<&String> = graph.iter().map(|(n, _)| n).collect();
+    for (name, uses) in &graph {
+        for used in uses {
+            assert!(names.contains(&used), "{name} names `{used}`, which is no UI module");
+        }
+    }
+    assert_eq!(a_cycle(&graph), None, "a cycle among the UI's modules");
 }
