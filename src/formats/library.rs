@@ -208,10 +208,20 @@ pub const IMPORT_LIMIT_BYTES: usize = 2 * 1024 * 1024;
 const BUNDLE: &str = "phasewise-jobs";
 
 /// Several jobs in one file: `{"format": "phasewise-jobs", "jobs": [job file, ...]}`.
+/// Each job is written as its own job file is ([`Job::to_json`]), indented into the list: one
+/// way of writing a job, and no second copy of it in the module.
 pub fn export_all(jobs: &[&Job]) -> String {
-    let jobs: Vec<&Job> = jobs.to_vec();
-    serde_json::to_string_pretty(&serde_json::json!({ "format": BUNDLE, "jobs": jobs }))
-        .expect("jobs always serialise")
+    let mut out = format!("{{\n  \"format\": \"{BUNDLE}\",\n  \"jobs\": [");
+    for (i, job) in jobs.iter().enumerate() {
+        out.push_str(if i == 0 { "\n" } else { ",\n" });
+        // JSON strings hold no raw line breaks, so indenting each line changes no value.
+        for (k, line) in job.to_json().lines().enumerate() {
+            out.push_str(if k == 0 { "    " } else { "\n    " });
+            out.push_str(line);
+        }
+    }
+    out.push_str("\n  ]\n}");
+    out
 }
 
 /// The jobs in an imported file (a job file, or several from [`export_all`]), each checked by
@@ -430,6 +440,7 @@ mod tests {
             ("not json at all".to_string(), "not JSON"),
             ("{\"some\": \"other file\"}".to_string(), "not a Phasewise job file"),
             ("{\"format\": \"phasewise-jobs\", \"jobs\": []}".to_string(), "holds no jobs"),
+            (export_all(&[]), "holds no jobs"),
             (good.replace(&format!("\"schema_version\": {SCHEMA_VERSION}"), "\"schema_version\": 5"), "newer Phasewise"),
             (export_all(&[&scrap_baler(), &invalid]), "job 2 (“Scrap baler (example)”) has 1 problem(s), the first at designs[0].motor.full_load_efficiency"),
             ("x".repeat(IMPORT_LIMIT_BYTES + 1), "at most 2048 KB"),
