@@ -6,7 +6,7 @@
 use std::path::Path;
 
 /// The engine's modules from the bottom up. A module may use only those before it; a new
-/// module takes its place here (see DEVELOPERS.md, "Layers").
+/// module takes its place here (see DEVELOPERS.md, "Layers inside").
 const STACK: [&str; 20] = [
     // Quantities and the parts of a machine.
     "units",

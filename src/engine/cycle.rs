@@ -1,4 +1,15 @@
 //! The machine cycle: the phases a machine repeats, in order.
+//!
+//! Adding a phase kind:
+//! 1. Add the variant to [`PhaseKind`] here (serde tag `kind`, fields with unit suffixes).
+//! 2. Check its fields in `validate::check_phase`.
+//! 3. Map it to a `Demand` in `solve::demand` and solve it in `solve::solve_state` (set
+//!    pressure, actuator flow, load and line pressures, duration; push findings for any
+//!    fallback).
+//! 4. Nothing else: the ledger, totals and comparison follow from the point. Add a
+//!    hand-worked scenario test and let the properties cover it (add it to `phase()` in
+//!    `src/engine/tests/engine/properties.rs`). If old files cannot read it, raise
+//!    `SCHEMA_VERSION`.
 
 use serde::{Deserialize, Serialize};
 use uom::si::f64::{Force, Length, Pressure, Time, Velocity, VolumeRate};

@@ -10,6 +10,54 @@
 //! one measured with it, else estimated from the motor's load; and the motor's efficiency
 //! falls at part load, so the shaft power drawn from an electrical reading comes from the
 //! part-load model of [`Motor::loss`], not from the full-load figure.
+//!
+//! # How a test is read
+//!
+//! `assess(test, wear, units)` (the test's input errors if a figure is missing or out of
+//! range; the test and its readings are `pump_test::PumpTest`) works per reading:
+//! theoretical flow = displacement x the reading's speed; volumetric = flow / theoretical,
+//! hydraulic power = pressure x flow, shaft power = 2 pi n T from a measured torque or from
+//! the electrical input (kW, or sqrt(3) V I PF) through the motor's part-load model
+//! ([`shaft_for_input`]: input = shaft + `Motor::loss(shaft)`, the typical fixed-loss share,
+//! solved in closed form; an input below the no-load loss is a problem); overall = hydraulic /
+//! shaft, hydromechanical = overall / volumetric.
+//!
+//! - Speed: the reading's speed is measured (`readings[].speed_rad_per_s`), or the synchronous
+//!   speed less the full-load slip in proportion to load (from the torque, else the input,
+//!   else the hydraulic power). The synchronous speed is entered, or the lowest 120 f / poles
+//!   at 50 or 60 Hz above the test's full-load speed within 8 % slip (common practice;
+//!   otherwise the speed is used as entered). Figures, the leakage line, the verdict and
+//!   copies refer to the full-load speed.
+//! - Motor: its full-load efficiency is entered, or the class's nominal figure (IEC
+//!   60034-30-1 4-pole 50 Hz for 5.5 to 37 kW, IE3 between sizes by the published formula,
+//!   the others straight in log10 of power between table sizes; NEMA Premium 10 to 50 hp).
+//! - Leakage line and verdict: the least-squares line of flow on pressure through the
+//!   believable readings (with one reading: from the theoretical flow through it); its value
+//!   at the rated pressure gives the verdict against the job's `wear` lines, only when at least
+//!   two believable readings at different pressures carry it ([`READINGS_FOR_VERDICT`]); the
+//!   report says on how many it rests (`readings_used`, `readings_rejected`) and gives "not
+//!   judged" otherwise.
+//! - Problems: a flow above theoretical, an efficiency above 100 %, an input the motor could
+//!   not carry (over 1.5 x its rating, common practice), a torque giving more shaft power than
+//!   the motor drew, flow rising with pressure: each is a [`Problem`] with the field to look
+//!   at, and that figure is left out, never shown wrong.
+//!
+//! Input checks for a test (`validate::validate_pump_test`, paths `pump_tests[i]...`) are kept
+//! out of `validate`: a half-typed reading never stops the job's results. The UI's
+//! `JobState::error_for` answers a `pump_tests[...]` path from those checks, then from the
+//! readings' problems, so both show at the field.
+//!
+//! # Trend and copying
+//!
+//! [`trend`] compares a test with the latest earlier-dated test of the same pump label, by day
+//! number (2026-9-5 before 2026-10-01; an undated test is compared with none). "Copy the
+//! measured efficiencies" ([`measured_pump`], [`apply_to_design`]) puts into the chosen pump
+//! the volumetric efficiency the line gives at the highest test pressure (no extrapolation),
+//! that pressure and the test's full-load speed, and the hydromechanical efficiency of the
+//! highest-pressure reading that has one, with the pump's drag set to zero (the measured
+//! figure already holds it); an efficiency no pump has (at or below 0, above 1) is refused
+//! with its reason ([`NotCopied`]). It is a deliberate user action, so it may change "as
+//! found" (a measured pump is usually the as-found one).
 
 use super::motor::{Motor, TYPICAL_FIXED_LOSS_SHARE, TYPICAL_PEAK_ALLOWANCE};
 use super::power_unit::Design;

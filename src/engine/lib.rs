@@ -1,7 +1,97 @@
 //! The engine: a job in, every design's phases, ledgers and totals out.
 //!
 //! Pure Rust with no browser dependency: the UI calls [`solve`] and shows what it returns.
-//! Bad input comes back as [`InputError`]s, never a panic, a NaN or an infinity.
+//! Bad input comes back as [`InputError`]s, never a panic, a NaN or an infinity. Everything
+//! the engine says about a job in one document is [`answer`] (its JSON shape is on it).
+//!
+//! # From input to ledger
+//!
+//! 1. **Read** (`Job::from_json`, in `job`): the file's `schema_version` is read first; a
+//!    newer one is refused with "update the app"; then serde reads the rest (text in a number
+//!    field, a missing field or a truncated file is `JobFileError::Unreadable` with serde's
+//!    reason).
+//! 2. **Validate** (`validate::validate`): every number is checked for being a number, its
+//!    sign, zero where zero is impossible, and a plausible maximum (beyond which it is a typing
+//!    slip and could overflow; the message gives both figures in the field's own unit and the
+//!    job's unit system, rounded as the field shows them); the structure (rod thinner than
+//!    bore, one setting per phase, remote stage indices, a vent port for venting and remote
+//!    stages, at most four pumps). All problems are returned at once, each with the field's
+//!    path in the job file (`designs[0].unloading_stages[1].unloading.setting_pa`) so the UI
+//!    can show it at the field.
+//! 3. **Prepare** (`delivery::PreparedUnit`): per design, each pump at the motor's speed as
+//!    plain SI numbers: theoretical flow, leakage per pascal (from the volumetric efficiency at
+//!    its stated pressure and speed: leakage grows in proportion to pressure and does not
+//!    depend on speed, so a pump turned slower than its efficiency was stated at leaks a larger
+//!    share), hydromechanical efficiency, drag.
+//! 4. **Solve each phase** (`solve::solve_phase`), in these parts:
+//!
+//!    *The limit.* The active limit gives the relief's characteristic: nothing below cracking
+//!    (cracking fraction x governing setting), then a straight line to the dead-head flow at
+//!    the governing setting and on above it (override). The dead-head flow
+//!    (`PreparedUnit::dead_head_flow`) is what the pumps not unloaded at that pressure give
+//!    there, at full stroke: a setting is what the gauge reads when the technician sets it, so
+//!    a phase that dead-heads on a limit (a hold, an idle over it, a stall) sits exactly at its
+//!    setting. Governing (`delivery::governing_limit`) = main; or min(main, remote stage); or
+//!    the vent pressure when vented (an idle whose path is "vented" uses it too).
+//!
+//!    *The demand* (`solve::demand`). A move needs load pressure (force / area: bore
+//!    extending, annulus retracting) plus its line loss, and either takes all the flow left at
+//!    that pressure or a metered flow (speed x area) with the surplus over the limit; a hold
+//!    and an idle send all pump flow over the limit (an idle may go through an open centre at
+//!    its drop, or stop the motor); a direct phase is a flow at a pressure for a duration.
+//!
+//!    *The unloading state.* Every unloading state (pump `i` unloaded when bit `i` is set),
+//!    fewest unloaded first, is solved; the first whose pressure agrees with every unloading
+//!    setting (unloaded exactly when pressure >= setting) is kept. None agreeing means the
+//!    valve hunts: the nearest state is kept, with `Finding::Hunting`.
+//!
+//!    *The balance.* Within a state, supply (sum of feeding pumps' delivered flow at
+//!    pressure + check cracking) and relief flow are piecewise linear in pressure, so
+//!    `PreparedUnit::balance` walks the breakpoints and interpolates exactly, without
+//!    iteration.
+//!
+//!    *Fallbacks*, each defined and with its finding: a metered or direct demand the pumps
+//!    cannot meet takes what is left (`DemandUnmet`); a move with nothing left stalls and is
+//!    solved as a dead-head over the relief for the time the stroke would take at the feeding
+//!    pumps' theoretical flow (`Stall`); flow over a relief that cracks below the working
+//!    pressure is lost speed (`ReliefLeaks`).
+//! 5. **Ledger** (`solve::report`): each pump's outlet pressure, flow and shaft power; relief
+//!    flow is defined by the flow balance (supply - actuator - open centre), so the ledger
+//!    closes by construction. Items: motor loss (the motor's fixed share of its full-load
+//!    loss, plus the rest in proportion to load squared), pump internal loss (shaft - hydraulic
+//!    out), unloading loss (unloaded pumps' flow x drop), relief loss (relief flow x system
+//!    pressure), metering loss ((system - needed pressure) x actuator flow), line and valve
+//!    loss (line loss x actuator flow, check cracking x each feeding pump's flow, open-centre
+//!    drop x its flow), useful (load pressure x actuator flow). Heat into the oil is every item
+//!    but motor loss and useful.
+//! 6. **Totals** (`ledger::cycle_totals`, over `TimedLedger`s: ledger, duration, motor
+//!    running): cycle time, energy, average, peak and RMS of electrical and shaft power,
+//!    average heat (W and Btu_IT/h), oil temperature rise with no cooler (heat / (volume x
+//!    density x specific heat)), energy and cost per year (average power x operating hours).
+//!    The RMS shaft load counts time with the motor stopped at a third
+//!    (`motor::STOPPED_COOLING_SHARE`, common practice: a stopped fan-cooled motor cools
+//!    less): `sqrt(sum(P^2 t) / (running time + stopped time / 3))`; the electrical RMS stays
+//!    over plain time. Motor findings (`ledger::motor_findings`): RMS shaft above rating x
+//!    service factor (what it may carry continuously), peak above rating x peak allowance
+//!    (what it may carry briefly), a cycle longer than the RMS method holds for
+//!    (`motor::RMS_LONGEST_CYCLE_S`, 300 s, Machine Design "MSD 101") when its peak is above
+//!    what the motor carries continuously, and more starts an hour (each separate span of
+//!    motor-stopped phases, round the cycle, `ledger::motor_starts_per_cycle`) than NEMA MG 10
+//!    Table 2-3 allows its size and poles (`Motor::allowed_starts_per_hour`). The staging
+//!    search sizes on the first two.
+//! 7. **Compare** (`ledger::compare`): every design after the first against the first: power,
+//!    heat, RMS, cycle time, energy and cost per year saved, payback = retrofit price / saving.
+//! 8. **Design findings** (`solve::design_findings`, and `solve::flow_control_starved` per
+//!    phase): a relief rated for less than the pumps give, remote stages at or above main,
+//!    unloading valves that never unload, settings above a pump's rating, a limit (main, or a
+//!    selected remote stage) that cracks at or below a compensated pump's dead-head pressure
+//!    (with the power it burns dead-headed there), and a metered move whose limit leaves its
+//!    flow control less than the advice policy's working drop.
+//!
+//! Modelling choices: in the solve, motor speed is constant (slip neglected; the pump check
+//! does correct for it); a compensated pump destrokes linearly from its flow at the setting to
+//! none at setting x 1.03 (`pump::COMPENSATOR_BAND`); a check valve's cracking pressure is its
+//! drop at any flow; a direct phase's pressure is all useful.
 
 pub mod cycle;
 pub mod delivery;
@@ -147,6 +237,34 @@ pub enum Assessed {
 }
 
 /// Everything the engine says about `job`; its input errors if it is invalid.
+///
+/// `cargo run -p phasewise-engine --example solve -- FILE.job.json` prints it as one JSON
+/// document ([`solve_json`]); a new capability adds its part here. The golden tests compare it
+/// whole. Shape:
+///
+/// ```text
+/// {
+///   "report": {                     // engine::JobReport, as solve returns it
+///     "designs": [ { "name", "phases": [ { "name", "point", "ledger", "findings" } ],
+///                    "totals", "findings" } ],
+///     "comparisons": [ ... ]        // each design after the first against the baseline
+///   },
+///   "findings_in_words": [ { "design", "design_findings": [".."], "phase_findings": [[".."]] } ],
+///   "phases_by_energy": [ [ { "phase", "name", "energy_j", "share", "heat_j", "needed_pa",
+///                             "pump_pa" } ] ],   // per design, most energy first
+///   "advice": [ { "design", "items": [ {
+///       "severity", "rule": { "rule": "limit_above_need", ...numbers in SI },
+///       "action": { "action": "limit_phase", ... } | null, "saving_w", "annual_saving_kwh",
+///       "words": { "title", "explanation", "action", "effect" } } ] } ],
+///   "pump_tests": [ { "pump", "date",
+///       "assessment": { "assessment": { ...efficiency::TestReport } }
+///                   | { "input_errors": [ { "field", "message" } ] },
+///       "trend": { "earlier", "days", "volumetric_change" } | null } ]
+/// }
+/// ```
+///
+/// Quantities are SI, named by their key's suffix as in the job file. An invalid job prints
+/// its input errors (`[{field, message}]`) on stderr with exit status 2.
 pub fn answer(job: &Job) -> Result<JobAnswer, Vec<InputError>> {
     let report = solve(job)?;
     let units = job.units;

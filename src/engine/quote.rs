@@ -3,6 +3,31 @@
 //! year, heat, savings and simple payback against the baseline, CO2 from the site's grid
 //! factor), and the rounding that keeps false precision out of a quote while the exact values
 //! stay in the report.
+//!
+//! # The columns
+//!
+//! `columns(job, report)` gives a [`QuoteColumn`] per design from the solved report: the
+//! motor's rating, peak and RMS shaft load, cycle time and parts an hour (one part per cycle),
+//! energy per cycle and per year, running cost, heat load (kW and Btu/h) and how fast the oil
+//! would warm per hour with no cooler, CO2 from the site's grid factor when one is given, the
+//! year's energy split by ledger item ([`annual_energy_by_item`]: each item's energy over a
+//! cycle, times the cycles in the running hours; the items add up to the year), and against
+//! the baseline: energy, cost, heat and CO2 saved and the simple payback (retrofit price over
+//! the cost saved, the design's own `retrofit_price` when it has one, else the site's; none
+//! when nothing is saved). A difference below 1e-9 of the baseline's figure is rounding noise
+//! between two solves and counts as zero (`ledger::denoised`, `simple_payback`, shared with
+//! the results' comparison). The wording and rounding for the screen and the report are
+//! `formats::quote_text`'s ([`for_customer`] and [`payback_for_customer`] are the rounding).
+//!
+//! # Assumptions and formulas
+//!
+//! `assumptions(job)` lists every value the results rest on, each [`Basis::Entered`], a
+//! `Default` with its source (the helpers' common-practice figures, Esposito's oil values, the
+//! typical unloading drop and check cracking of `valve`) when it still equals that default,
+//! `FromExample` for a site figure still equal to the example job's (an edited example, or a
+//! copy of it, keeps them), or a `Model` simplification; a design's figure shared by every
+//! design is one line ("Every power unit: ..."), one that differs is a line per design.
+//! [`FORMULAS`] gives each formula's published source.
 
 use super::job::{Job, Oil};
 use super::ledger::{denoised, simple_payback, LedgerItem};

@@ -7,6 +7,55 @@
 //! efficiencies (drag scaled with displacement), its unloading settings and main relief come
 //! from the settings rules ([`super::settings`]), idles and check-held holds are vented where
 //! the relief allows. Nothing is estimated from rules of thumb.
+//!
+//! # Candidates
+//!
+//! `specs(options)` lists every candidate: at each speed, every multiset of one to
+//! `max_pumps` sizes (the larger sizes on the unloading stages, the smallest as the base
+//! pump), then one compensated pump of each size. The defaults (18 R10 sizes, 4 speeds, up to
+//! three pumps, compensated on) give 5,388. [`build`] makes each a design from the baseline:
+//! pumps with the baseline's efficiencies and rating (drag in proportion to displacement), the
+//! baseline's first stage's unloading drop and check, the relief's main setting at the cycle's
+//! lowest serving limit (`settings::cycle_lowest_limit`), each unloading valve at its window's
+//! low end, idles and check-held holds vented where the relief has a vent port; a compensated
+//! pump governs at that limit with the relief at the advice's compensator floor. Each pump
+//! keeps the baseline's leakage flow (its volumetric efficiency is stated at the baseline's
+//! motor speed, `Pump::efficiency_speed`), so a slower candidate leaks a larger share.
+//!
+//! Which moves a staged pump must feed is judged by the move times, not by a motor (the motor
+//! is what the search chooses): `settings::unloading_window_by(.., FlowNeed::MoveTimes(times))`
+//! counts a move at all pump flow as needing pump `k` when the pumps after it alone would take
+//! longer than the move's target ([`targets`]: the move's `target_time`, or its time as
+//! found). A move that could do without the pump but sits within a margin of the pressure
+//! where the others need it keeps it (it runs faster than it must), so the window is never
+//! empty for a choice the search could make. The advice uses `FlowNeed::MotorCarries` (the
+//! unit's own motor). A spec is dropped when a staged pump would never feed (the spec without
+//! it is also tried), never unload, sit at or below its unloaded drop, or see more than its
+//! rating, or when the main setting is above the pump rating.
+//!
+//! # Evaluation and ranking
+//!
+//! [`evaluate`] solves it, drops it if any phase stalls, hunts, misses its hold or its metered
+//! flow, a move takes longer than its target, or the cycle longer than the options'
+//! `cycle_time_target` (none by default: the moves' targets and the set times bound it), then
+//! picks the smallest standard motor (IEC kW or NEMA hp steps) whose rating x service factor
+//! covers the RMS shaft power and rating x peak allowance the peak, gives it the nominal
+//! full-load efficiency of the options' `efficiency_class` at that size (IE3 for IEC steps and
+//! NEMA Premium for NEMA steps when absent; a size outside the class's table takes the nearer
+//! end's figure), and recomputes the energy with that motor's losses. The candidate's motor
+//! carries those two factors, so the engine's motor findings on the applied design agree with
+//! the search. Ranking: motor, then energy per cycle, then cycle time.
+//!
+//! [`Search`] keeps the best five ([`KEPT`]) and, per motor size, the shortest cycle (the
+//! trade-off chart). The UI runs it in slices of about 16 ms (batches of 50 candidates until
+//! the slice is used), handing the thread back between slices, with a progress bar.
+//! `cargo run --release -p phasewise-engine --example staging -- [job.json]` prints a search's
+//! counts, best candidates and trade-off.
+//!
+//! Modelling choices to know: every candidate motor keeps the baseline's fixed-loss share, and
+//! the 4-pole efficiency tables serve every speed; stages unload in shaft order; the relief's
+//! rated flow is the baseline's. [`search`] and [`Search::new`] return the job's (or the
+//! options') input errors instead of assuming a valid job.
 
 use super::cycle::PhaseKind;
 use super::job::Job;

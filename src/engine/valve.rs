@@ -1,5 +1,12 @@
 //! Valves: the relief valve and its pilot stages, unloading valves and check valves, and
 //! which pressure limit governs each phase.
+//!
+//! Adding a valve type. A new relief kind: a [`ReliefKind`] variant with its
+//! `typical_cracking_fraction` and `has_vent_port`. A new valve in the circuit: its data here,
+//! its place in `Design` (`power_unit`), its checks in `validate`, its effect on supply or
+//! relief flow in `delivery::PreparedUnit` (keep flows piecewise linear in pressure and add its
+//! breakpoints to `balance`), its loss in one ledger item in `solve::report` (so the ledger
+//! still closes), and a `Finding` for any misuse.
 
 use serde::{Deserialize, Serialize};
 use uom::si::f64::{Pressure, VolumeRate};

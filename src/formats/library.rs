@@ -1,9 +1,45 @@
 //! The job library's stored form, with no browser in it: how a job is written to one storage
 //! entry and read back, how damaged entries are recognised (and kept, never dropped), and how
-//! names and ids are chosen. The UI (`ui::jobs`) does the storage I/O around these functions.
+//! names and ids are chosen. The UI (`ui::storage`) does the storage I/O around these
+//! functions.
 //!
 //! Each job is one local-storage entry, `phasewise.job.<id>`, holding a [`SavedJob`] envelope
 //! as JSON. There is no index entry to go stale: the list is the entries themselves.
+//!
+//! # Keys and store versions
+//!
+//! An entry holds
+//! `{"format": "phasewise-saved-job", "store_version": 1, "changed_ms": ..., "job": {job file}}`;
+//! [`LAST_OPEN_KEY`] (`phasewise.last-open`) holds the id opened last. Store format 1 is kept
+//! as `src/formats/tests/fixtures/saved-job-v1.json`. `upgrade` brings an entry of any earlier
+//! format up one step at a time; a new format bumps [`STORE_VERSION`], adds its step there and
+//! keeps a fixture of the format before it (the unit test
+//! `every_store_format_has_a_fixture_that_reads` fails until it exists). A newer format than
+//! this build knows is kept aside as damaged, never rewritten.
+//!
+//! # Damaged entries
+//!
+//! An entry that does not read (not JSON, not a saved job, a newer format, a job that fails
+//! the job-file reader) is `Damaged` ([`read_entry`]): listed with its reason, offered as a
+//! download, never written over (only the open job's key is ever written) and never removed
+//! unless the user deletes it.
+//!
+//! # Saving, export and import
+//!
+//! The autosave stores only an entry that reads back equal ([`entry_to_store`]): a field left
+//! empty or holding text is NaN in the job, which JSON would write as `null` and never read
+//! back, so while one is marked the copy saved before is kept and the jobs area says why.
+//!
+//! Export: the open job as a job file, or all jobs as
+//! `{"format": "phasewise-jobs", "jobs": [...]}` ([`export_all`]). The open job is exported,
+//! and a share link made, only when its file reads back equal ([`job_file`]): while a number
+//! field is empty or holds text the job holds NaN, which JSON would write as `null`; the user
+//! is told which field to fill instead.
+//! Import ([`parse_import`]) takes either, at most 2 MB ([`IMPORT_LIMIT_BYTES`]), reads each
+//! job with the job-file reader and checks it with the engine's validation; any problem
+//! refuses the whole file with a sentence, so an import adds everything or changes nothing. A
+//! name already in the list gets " (2)", " (3)" ([`unique_name`]): an import never writes over
+//! a job.
 
 use phasewise_engine::job::{Job, JobFileError};
 use serde::{Deserialize, Serialize};

@@ -1,6 +1,15 @@
 //! The retrofit comparison in words and figures, as the quote area and the printed report
 //! show it: which rows the table has, and each cell's text, rounded for a customer or exact.
 //! Pure (no browser), so the browser tests can work out what the screen must say.
+//!
+//! [`Precision::ForCustomer`] gives three significant figures (the engine's `for_customer`),
+//! the payback to a tenth of a year under ten years, whole years above, "under a month",
+//! "over 100 years", "at once (no retrofit price entered)" ([`payback_text`]);
+//! [`Precision::Exact`] gives six significant figures, on the quote area's "Exact" switch and
+//! in the report's "Exact figures". Digits are grouped by a narrow space ([`grouped`]). A
+//! design that makes fewer parts an hour than the baseline gets a note: part of its saving is
+//! output not made ([`fewer_parts_note`]). What each heat load asks of a cooler is one
+//! sentence ([`cooling`]).
 
 use phasewise_engine::quote::{for_customer, payback_for_customer, QuoteColumn};
 use phasewise_engine::units::{Measure, UnitSystem};

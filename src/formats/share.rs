@@ -5,6 +5,12 @@
 //! (miniz_oxide) and written in URL-safe base64 without padding. The fragment never reaches
 //! a server, so sharing sends the job to nobody but the person who opens the link. Opening it
 //! reads the job through the same checks as a file import ([`crate::library::parse_import`]).
+//!
+//! The fragment is `#share=1.<payload>`: `1.` is the packing's own version, and the deflate
+//! runs at its best level. The demo job makes a link of about 1,300 characters, a version-26
+//! QR code (121 modules, level L). [`unpack`] inflates to at most the import limit
+//! ([`crate::library::IMPORT_LIMIT_BYTES`]) before the import checks. [`qr`] draws the code as
+//! one SVG path from the `qrcode` crate's modules, with the four-module quiet zone.
 
 use phasewise_engine::Job;
 use crate::library;

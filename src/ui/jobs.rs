@@ -1,5 +1,15 @@
 //! The jobs area: the jobs kept on this device ([`super::storage`]), opened, copied, renamed,
 //! deleted, exported and imported, and the line saying whether the open job is saved.
+//!
+//! "Start a new job" asks where from: nothing (`Job::blank`: no phases, one power unit whose
+//! machine figures are empty, the units and currency carried over; it is saved once every
+//! field holds a number, and says so) or a copy of the open job. Nothing comes from the example
+//! unseen.
+//!
+//! A job is renamed from the list without opening it (the engine's validation judges the name;
+//! a taken name gets " (2)"). Damaged entries are listed with their reason and offered as
+//! downloads; export and import follow `formats::library`. When another window has saved the
+//! open job, the choice between its version and this one is offered here.
 
 use super::field::TextField;
 use super::state::use_job;

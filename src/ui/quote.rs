@@ -1,6 +1,10 @@
 //! The quote area: every design of the job side by side as a customer reads a retrofit quote
 //! (engine `quote`, worded by `quote_text`), the site's costs that drive it, where each
 //! design's energy goes, what its heat means for cooling, and the way to the printable report.
+//!
+//! While any figure is invalid the quote area keeps the last comparison, dimmed and titled
+//! "not up to date" (so the page does not jump while a figure is retyped), under the stale
+//! notice; the report (`ui::report`) shows no figures at all then.
 
 use super::charts::EnergyChart;
 use super::field::{NumberField, OptionalNumberField, TextField, UnitSwitch};

@@ -3,6 +3,27 @@
 //! ledger and the settings advice, the exact figures, every assumption and its source, the
 //! formulas' sources, and the cautions. The print stylesheet (style/main.css, "print") drops
 //! the app's bars and keeps tables and charts whole.
+//!
+//! While any figure is invalid the report shows no figures at all, only what to fix (a quote
+//! document is never made from stale figures). Its assumptions and formulas' sources are the
+//! engine's (`quote::assumptions`, `quote::FORMULAS`); the cautions come from
+//! `safety::CAUTIONS`.
+//!
+//! Print (`@media print` in style/main.css): the top bar, navigation, live strip and buttons
+//! are hidden; the page is white with black text whatever the display mode (high contrast
+//! included); no `@page size`, so the printer's paper (A4 or US Letter) decides and the layout
+//! follows; tables, charts, lists and the small sections are never cut across a page
+//! (`break-inside: avoid`), headings stay with what follows, each design starts a page. The
+//! summary is the exception: its sentences come first and its table may run on to page two
+//! (rows whole, head repeated), so page one always holds the summary; the test reads page one
+//! alone for the job, the payback and each design's energy.
+//!
+//! The browser test (`tests/harness/tests/quote.rs`) prints the demo job's report with
+//! `Page.printToPDF` on both papers, checks its text with poppler's `pdftotext` (the job's
+//! name, each design's energy a year, the payback as the screen shows it, no buttons), renders
+//! the pages to PNG (`pdftoppm`, in `target/screenshots/quote_report/`) and prints the page
+//! counts: 10 pages on A4, 11 on Letter (2026-12-02). The set-up installs Debian's
+//! `poppler-utils` when `pdftotext` is missing.
 
 use super::charts::{EnergyChart, LedgerChart};
 use super::quote::{use_columns, ComparisonTable, CoolingList};

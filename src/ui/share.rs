@@ -1,5 +1,14 @@
 //! Sharing a job by link and QR code, and taking in a job that arrives by a link. The packing
 //! and the QR modules come from [`crate::formats::share`]; this only shows them and stores the job.
+//!
+//! On start, and on a `hashchange`, [`receive`] reads a `#share=` fragment with
+//! `share::unpack` (inflated to at most the import limit, then `library::parse_import`, so the
+//! same checks as a file), stores the job (or opens the stored one it equals, its name aside
+//! from a " (2)" given on arrival, so a link opened twice adds one job), says so in the jobs
+//! area, and replaces the address with `#/jobs` so a reload does not add it again.
+//!
+//! The QR code stays black on white in every display mode, and "Show the code large" fills
+//! the screen for a projector.
 
 use super::storage::{load_all, now_ms, open, stored_ids, stored_names, strs, write, Storage};
 use super::state::use_job;

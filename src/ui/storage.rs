@@ -1,6 +1,23 @@
 //! Jobs kept on this device: the storage I/O around [`crate::formats::library`], the autosave,
 //! the watch on other windows, and files offered for download. Its own context ([`Storage`]),
 //! apart from the open job's ([`JobState`]) and from the jobs area that shows it.
+//!
+//! - Opening or starting a job goes through `JobState::replace_job` (here through
+//!   [`Storage::replace_job`], with no autosave for the change itself), which drops everything
+//!   kept for the job before (its last good report, undo, typed text).
+//! - The autosave ([`keep_saved`]) writes 400 ms after the last edit, only an entry that reads
+//!   back equal (`library::entry_to_store`); while a field is left empty or holds text the
+//!   copy saved before is kept and the jobs area says why.
+//! - A write that fails because storage is full says so at the save status and leaves the old
+//!   value in place (a failed `setItem` changes nothing), so the last good copy is what
+//!   reloads.
+//! - A `storage` event for the open job's key with text this window did not write means
+//!   another window saved it: autosave stops and the user chooses "load the other window's
+//!   version" or "keep mine and save it" (in the jobs area).
+//! - Downloads are offered from here: a job file, all jobs, a damaged entry as found; the
+//!   ledger of the design shown downloads as CSV from the results area
+//!   (`formats::ledger_csv`): a row per phase and a whole-cycle row of time-weighted averages,
+//!   in the units shown.
 
 use super::state::JobState;
 use crate::engine::Job;

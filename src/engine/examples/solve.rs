@@ -1,7 +1,7 @@
 //! Says everything the engine says about a job file, as one JSON document (or why it cannot):
 //! each design's report, the findings in words, the settings advice with its actions and
-//! solved figures, and each pump test's assessment and trend (DEVELOPERS.md, "Everything the
-//! engine says"):
+//! solved figures, and each pump test's assessment and trend (its shape: the doc of
+//! `phasewise_engine::answer`):
 //!
 //!     cargo run -p phasewise-engine --example solve -- job.json
 //!

@@ -7,6 +7,69 @@
 //!
 //! The rules are common practice, not a standard (DOMAIN.md, "Relief valves and pressure
 //! settings per phase"); their margins are the user's, in [`AdvicePolicy`].
+//!
+//! # What a phase needs (`needs`)
+//!
+//! `advise(job, design)` (the job's input errors if it is invalid) works from what each
+//! phase needs at the system line: a move's load pressure plus its line loss (plus the flow
+//! control's drop when metered), a hold's pressure when the pump holds it, a direct demand's
+//! pressure; nothing for an idle or a check-held hold. The lowest limit that serves a need
+//! ([`lowest_limit_for`]) is the larger of need + margin (the policy's share, or its minimum,
+//! whichever is more) and need / cracking fraction (so the valve stays shut while working);
+//! for a hold the pump keeps, the need itself (it sits at its limit, the pump's flow over the
+//! relief, which is how the limit is read). On a unit with a compensated pump, never below
+//! [`compensator_floor`]: cracking above the highest compensator's dead-head pressure (setting
+//! x 1.03) and the compensator margin above it (the policy's share, or
+//! `compensator_margin_min`, 15 bar by default, whichever is more).
+//!
+//! # The rules (`rules`)
+//!
+//! All common practice (DOMAIN.md):
+//!
+//! | rule | severity | action |
+//! |---|---|---|
+//! | a phase's limit above its lowest serving limit, saving at least the policy's threshold | saving | govern the phase by a remote stage at that limit (pilot-operated reliefs) |
+//! | the limit's cracking pressure below the need (leaks or stalls) | caution | a remote stage at the lowest serving limit, if main allows |
+//! | the limit above cracking but inside the margin | note | as above (it costs power: shown as such) |
+//! | a hold the pump keeps on a limit below its pressure | caution | a remote stage at the hold's pressure, if main allows |
+//! | a phase's remote stage, or main, below the compensator floor | caution when it cracks at or below the dead-head pressure, else note | main: set it to the floor (or the cycle's lowest limit, if higher); phases on main are not repeated |
+//! | a phase that needs no pressure, not vented | saving | vent it (a note with no action on a direct-acting relief) |
+//! | the lowest serving limit above the base pump's rating | caution | none: the machine must change |
+//! | main above (saving or note) or below (caution) the cycle's highest lowest limit | | set main to it, rounded up to 1 bar or 10 psi |
+//! | main above the base pump's rating | caution (replaces "main above") | set main to the cycle's lowest limit, if that is within the rating |
+//! | an unloading setting outside its window, or no window | saving / caution | set it to the window's low end |
+//! | a staged pump's unloading setting plus its check valve's cracking above its rating | caution (replaces the window advice) | set it to the window's low end, if that fits |
+//! | a remote stage at or above main, or that no phase selects | note | remove it (selections renumbered) |
+//!
+//! # Unloading windows (`windows`)
+//!
+//! The unloading window of pump `k` runs from the highest need of the phases that need its
+//! flow (plus the margin) to the lowest need of those that should run without it (less the
+//! margin). A move at all pump flow needs it while the motor (rating x service factor) can
+//! carry pumps `k` onward at that pressure; a metered move or direct demand needs it when the
+//! pumps after it cannot give the flow, and counts at the pressure it runs at (its limit, when
+//! the pumps give more than it takes and the rest crosses the relief); holds never do. With no
+//! phase needing the pump, the window starts at the vent pressure. A setting above the window
+//! because of a move at all pump flow is a caution (the motor carries that move with the pump
+//! feeding). Stages are taken to unload in shaft order. No action sets an unloading valve at
+//! or below its unloaded drop, or where the pump would see more than its rating
+//! (`unloading_fits`). This is [`FlowNeed::MotorCarries`]; the staging search judges by move
+//! times instead ([`FlowNeed::MoveTimes`], see `staging`).
+//!
+//! # Applying advice (`apply`, `words`)
+//!
+//! On the baseline ("as found"), advice is shown with what it would do but applied only when
+//! the baseline is the job's only design (a "Proposed" copy is made); with a proposed design,
+//! that design's own advice is applied to it, so an action never lands on a design it was not
+//! worked out for.
+//!
+//! Every action goes through [`apply_to_proposed`]: the design shown if it is not the
+//! baseline, else the second design, else a new copy named "Proposed". The saving shown is
+//! the difference between two solves, never an estimate, worded once in the engine
+//! (`Advice::effect`, in [`Described::effect`]): a rise is "draws ... more" / "costs ...
+//! more", never "saves", and a cycle-wide action (main, unloading, removing a stage) says
+//! nothing of one phase. No action ever proposes a limit below the compensator floor. The
+//! demo's proposed design follows every rule (its advice is empty: a unit test).
 
 mod apply;
 mod needs;
