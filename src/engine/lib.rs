@@ -182,7 +182,7 @@ pub fn phases_by_energy(job: &Job, report: &JobReport, d: usize) -> Vec<PhaseEne
 }
 
 /// Everything the engine says about a job, in one document: what `cargo run -p phasewise-engine --example solve`
-/// prints (its shape is in DEVELOPERS.md, "Everything the engine says").
+/// prints (its shape is on [`answer`]).
 #[derive(Clone, Debug, PartialEq, Serialize)]
 pub struct JobAnswer {
     /// Every design's phases, ledgers, totals and findings, and the comparisons.

@@ -1,5 +1,14 @@
 //! How the app is shown, apart from the job: the presenter view and high contrast, kept on
 //! the device, and the switches that change them. Its own context (`RwSignal<Display>`).
+//!
+//! The presenter view (kept under `phasewise.display`): large type, results first, and beside
+//! the cycle, power-unit and valve-settings areas a panel (`results::PresenterPanel`) with the
+//! shown power unit's headline figures, each with the value it had when the field now being
+//! changed was entered (a struck-through ghost: typing "250" compares with the figure before
+//! the "2"), and its ledger chart, so a change and what it moves share one 1920x1080 screen.
+//! Size rule (style/main.css): farthest seat at 6 image heights (common practice), a capital
+//! there at least 10 arcminutes (twice the acuity-1.0 letter of ISO 8596): a cap height of
+//! 18.9 px on a 1080-line image, about 0.7 of the font size, so no text under 27 px.
 
 use leptos::prelude::*;
 
@@ -8,7 +17,7 @@ use leptos::prelude::*;
 #[derive(Clone, Copy, Debug, PartialEq, Eq, Default, serde::Serialize, serde::Deserialize)]
 pub struct Display {
     /// Type legible from the back of a room, results first, and beside an area where figures
-    /// are typed, the figures and chart they move (see DEVELOPERS.md, "Presenter view").
+    /// are typed, the figures and chart they move (see the module doc).
     #[serde(default)]
     pub presenter: bool,
     /// Black, white and yellow, for glare or a dim corner.

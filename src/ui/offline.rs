@@ -1,5 +1,5 @@
 //! The app kept on the device: registers the service worker that the release build carries
-//! (`service-worker.js`, written at build time, see DEVELOPERS.md "Offline"), and tells the
+//! (`service-worker.js`, written at build time by `cargo xtask seal`, tests/harness/src/offline.rs), and tells the
 //! user when a newer version has been fetched and is waiting.
 
 use leptos::prelude::*;

@@ -2,7 +2,7 @@
 //!
 //! Everything comes from a package registry (crates.io, npm, Debian), never a downloaded
 //! binary. Each check is a `--version` call, so a machine that has everything pays well under
-//! a second. What the versions are, and why, is in DEVELOPERS.md ("Toolchain").
+//! a second. Each version, and why it is that one, is on its constant or install step below.
 
 use std::ffi::OsString;
 use std::path::{Path, PathBuf};
