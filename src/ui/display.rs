@@ -1,14 +1,17 @@
 //! How the app is shown, apart from the job: the presenter view and high contrast, kept on
 //! the device, and the switches that change them. Its own context (`RwSignal<Display>`).
 //!
-//! The presenter view (kept under `phasewise.display`): large type, results first, and beside
+//! The presenter view (one switch in the results area, "Presenter view"; kept under
+//! `phasewise.display`, read at start): large type, results first, and beside
 //! the cycle, power-unit and valve-settings areas a panel (`results::PresenterPanel`) with the
 //! shown power unit's headline figures, each with the value it had when the field now being
 //! changed was entered (a struck-through ghost: typing "250" compares with the figure before
-//! the "2"), and its ledger chart, so a change and what it moves share one 1920x1080 screen.
+//! the "2", not after the "25"), and its ledger chart, so a change and what it moves share one
+//! 1920x1080 screen; the floating figures strip steps aside there.
 //! Size rule (style/main.css): farthest seat at 6 image heights (common practice), a capital
 //! there at least 10 arcminutes (twice the acuity-1.0 letter of ISO 8596): a cap height of
-//! 18.9 px on a 1080-line image, about 0.7 of the font size, so no text under 27 px.
+//! 18.9 px on a 1080-line image, about 0.7 of the font size, so no text under 27 px. The
+//! browser test measures every visible text, chart text scaled as drawn.
 
 use leptos::prelude::*;
 

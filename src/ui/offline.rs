@@ -1,6 +1,28 @@
 //! The app kept on the device: registers the service worker that the release build carries
-//! (`service-worker.js`, written at build time by `cargo xtask seal`, tests/harness/src/offline.rs), and tells the
-//! user when a newer version has been fetched and is waiting.
+//! (`service-worker.js`, written at build time by `cargo xtask seal`,
+//! tests/harness/src/offline.rs), and tells the user when a newer version has been fetched and
+//! is waiting.
+//!
+//! A newer build's worker installs beside the running one and waits; this module notices
+//! (`updatefound`, then `installed` while a worker controls the page) and shows "A newer
+//! version of Phasewise is ready on this device."; "Restart with it" writes any pending
+//! autosave, asks the waiting worker to take over (`skipWaiting` on a message), and reloads on
+//! `controllerchange` (or at once, if another window has already handed over). A worker that
+//! started installing before the app registered (the browser checks as the page loads) is
+//! watched too. The jobs area says whether the app is kept on the device
+//! (`navigator.serviceWorker.ready`).
+//!
+//! Only release builds register the worker. A development build (`trunk serve`, on the same
+//! address as `cargo xtask serve`) unregisters any worker a release build left there, so after
+//! one reload it is never served a cached copy. Service workers need a secure page:
+//! `https://`, or `http://127.0.0.1`/`localhost` as `cargo xtask serve` gives. On plain
+//! `http://` from another machine the app runs but is not kept for offline use, and the jobs
+//! area says so.
+//!
+//! The manifest (`public/manifest.webmanifest`) names the app, its colours (ink `#16222c`),
+//! standalone display, and its icons: the SVG, 192 and 512 px PNGs and a 512 px maskable one
+//! (the logo inside the safe zone), rendered from SVG by headless Chromium:
+//! `chromium --headless=new --screenshot=icon-512.png --window-size=512,512 icon.html`.
 
 use leptos::prelude::*;
 use wasm_bindgen::prelude::*;

@@ -18,6 +18,49 @@
 //! app.finish().await; // fails on any console error
 //! # }
 //! ```
+//!
+//! The same as a whole test in `tests/harness/tests/*.rs`, started at an address:
+//!
+//! ```rust,ignore
+//! #[tokio::test]
+//! async fn results_show_the_demo_job() {
+//!     let app = AppSession::start_at("results_demo", Viewport::PHONE, "#/results").await;
+//!     assert_eq!(app.browser.text("main h1").await, "Results");
+//!     app.browser.screenshot("results").await;
+//!     app.finish().await;
+//! }
+//! ```
+//!
+//! # What each test gets
+//!
+//! The tests run in Debian's headless Chromium, driven by chromedriver over WebDriver with the
+//! fantoccini crate. Each test:
+//! - serves the release build (`dist/`) itself on a free port of 127.0.0.1
+//!   ([`StaticServer`], stopped when dropped, or earlier with `stop()` to take the network
+//!   away);
+//! - gets its own chromedriver, Chromium and empty profile (above);
+//! - runs at an exact viewport ([`Viewport::PHONE`] is 390x844; also `SMALL_PHONE`, `TABLET`,
+//!   `LAPTOP`, `PROJECTOR`), emulated through Chromium's device metrics;
+//! - writes screenshots to `target/screenshots/<test name>/`, beside chromedriver's log;
+//! - ends with `app.finish()`, which fails on any console error (chromedriver's `se/log`) and
+//!   on any request to an origin other than the test server's (every request the page sends
+//!   is read from chromedriver's performance log: `Network.requestWillBeSent`).
+//!
+//! Helpers on [`Browser`]: `click` (scrolls the element clear of the sticky bars first), `fill`
+//! (select all, delete, type: real key events, so a field sees what a user's typing gives it),
+//! `choose`, `value`, `text`, `count`, `wait_for_text`, `eval`, `eval_async`, `devtools` (a
+//! DevTools Protocol command), `screenshot`, `screenshot_of` (one element), `requests`,
+//! `allow_downloads` and `downloaded` (a download's name and text, through
+//! `Browser.setDownloadBehavior`), `contrast_failures` (WCAG AA contrast of what is shown).
+//! Expected figures are the engine's own, run natively on the same job (`phasewise` is a
+//! dev-dependency of the harness) and formatted with the same `Measure`.
+//!
+//! The tests need a current `dist/`: `cargo xtask test` builds it first. Run one browser test
+//! alone with `cargo xtask test -- the_frame_renders` (or, with `dist/` current,
+//! `cargo test -p phasewise-harness --test shell`). A chromedriver whose port was taken by
+//! another test's server before it bound it is started again on a new port (three tries, each
+//! said in the test's output). Chromium's path can be changed with `PHASEWISE_CHROMIUM` and
+//! `PHASEWISE_CHROMEDRIVER`.
 
 use crate::server::StaticServer;
 use crate::tools::{CHROMEDRIVER, CHROMIUM};

@@ -8,6 +8,20 @@
 //! - puts the page's Content Security Policy into `index.html`: only the page's own files, the
 //!   one inline loader script Trunk writes (by its SHA-256, so no other inline script runs),
 //!   and what WebAssembly needs; no other origin for anything.
+//!
+//! The list names the page itself as `./`; the version is the first 16 hex digits of a
+//! SHA-256 over every file's name and bytes and the template, and the cache is
+//! `phasewise-<version>`. The worker precaches the list on install, serves
+//! every same-origin GET from its cache first (file names are content-hashed, so that is
+//! always right; a navigation gets the cached page), and on activation deletes every other
+//! `phasewise-` cache.
+//!
+//! The policy, put first in the head: `default-src 'none'`; scripts only from the page's
+//! origin, plus Trunk's one inline loader by its SHA-256, plus `'wasm-unsafe-eval'`
+//! (WebAssembly compilation); styles, images, fetches, the manifest and the worker only from
+//! the page's origin; no base URI, forms or plugins (downloads are navigations to `blob:`
+//! addresses, which the policy does not govern). The app sets no style attributes, so styles
+//! need no inline allowance.
 
 use base64::Engine as _;
 use sha2::{Digest, Sha256};

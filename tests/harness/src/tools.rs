@@ -3,6 +3,30 @@
 //! Everything comes from a package registry (crates.io, npm, Debian), never a downloaded
 //! binary. Each check is a `--version` call, so a machine that has everything pays well under
 //! a second. Each version, and why it is that one, is on its constant or install step below.
+//!
+//! # wasm-opt
+//!
+//! Debian's binaryen (wasm-opt 108) runs without error but re-points wasm-bindgen's externref
+//! table export, and the module dies at start-up in Chromium
+//! (`WebAssembly.Table.set(): Argument 1 is invalid for table`). Checked on this app on
+//! 2026-12-01: its `wasm-opt -Oz` output (101,795 bytes), served in place of ours, fails
+//! `cargo xtask smoke` with exactly that console error. Two alternatives produce a working
+//! module: the npm package `binaryen@132`, which installs in seconds, and the `wasm-opt` crate
+//! 0.116.1, which takes about ten minutes to build. We use the npm package. `Trunk.toml` pins `wasm_opt = "version_132"`, so Trunk
+//! refuses any other wasm-opt it might find on PATH. Do not set `strip = true` in the release
+//! profile: it removes the module's target-features section and wasm-opt then misreads newer
+//! instructions. The browser test `a_broken_wasm_module_is_caught` proves the smoke tests fail
+//! on a module that does not start.
+//!
+//! Measured on the app shell (2026-12-01, the release profile in `size`), bytes:
+//!
+//! | wasm module | raw | gzip |
+//! |---|---|---|
+//! | as wasm-bindgen writes it | 186,296 | 64,755 |
+//! | after wasm-opt 132 `-Oz` | 100,706 | 43,243 |
+//!
+//! wasm-opt takes 46 % off the raw module and 33 % off what is sent. `cargo xtask size`
+//! prints both on every build.
 
 use std::ffi::OsString;
 use std::path::{Path, PathBuf};
