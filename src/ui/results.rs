@@ -253,7 +253,7 @@ pub fn PresenterPanel() -> impl IntoView {
         let currency = state.job.with(|j| j.site.currency.clone());
         state.result.with(|r| {
             let report = r.as_ref().ok()?;
-            let design = report.designs.get(d.min(report.designs.len().saturating_sub(1)))?;
+            let design = super::shared::shown_design(report, d)?;
             let t = &design.totals;
             Some((
                 design.name.clone(),
@@ -301,7 +301,7 @@ pub fn PresenterPanel() -> impl IntoView {
         let d = state.design.get();
         state.result.with(|r| {
             let report = r.as_ref().ok()?;
-            let design = report.designs.get(d.min(report.designs.len().saturating_sub(1)))?.clone();
+            let design = super::shared::shown_design(report, d)?.clone();
             Some((design, super::charts::ledger_scale_w(report)))
         })
     });

@@ -11,6 +11,12 @@ use crate::engine::units::Measure;
 use crate::engine::{Job, JobReport};
 use leptos::prelude::*;
 
+/// The power unit `d` of a report, or its last one when `d` is past the end (a power unit just
+/// removed): what every view of "the power unit shown" reads.
+pub(super) fn shown_design(report: &JobReport, d: usize) -> Option<&crate::engine::DesignReport> {
+    report.designs.get(d.min(report.designs.len().saturating_sub(1)))
+}
+
 /// Says the job is invented example data, while it is.
 #[component]
 pub fn ExampleBanner() -> impl IntoView {
@@ -141,9 +147,7 @@ pub fn LiveSummary() -> impl IntoView {
         let units = state.units();
         let d = state.design.get();
         let pick = |report: &JobReport| {
-            let design = report
-                .designs
-                .get(d.min(report.designs.len().saturating_sub(1)))?;
+            let design = shown_design(report, d)?;
             let t = &design.totals;
             Some((
                 design.name.clone(),
