@@ -82,7 +82,12 @@ fn modules_named(code: &str) -> Vec<String> {
                 }
                 items.push(item);
                 for item in items {
-                    let head = item.trim().split("::").next().unwrap_or_default().to_string();
+                    let head = item
+                        .trim()
+                        .split("::")
+                        .next()
+                        .unwrap_or_default()
+                        .to_string();
                     if !head.is_empty() {
                         named.push(head);
                     }
@@ -126,14 +131,22 @@ fn each_engine_module_uses_only_those_below_it() {
             }
         }
     }
-    assert!(files.len() > STACK.len(), "the scan found {} files", files.len());
+    assert!(
+        files.len() > STACK.len(),
+        "the scan found {} files",
+        files.len()
+    );
     for (name, path, super_is_crate) in &files {
         let Some(rank) = STACK.iter().position(|m| m == name) else {
             problems.push(format!("{name}: not in STACK; give it its place"));
             continue;
         };
         let code = code_of(&std::fs::read_to_string(path).unwrap());
-        let code = if *super_is_crate { code } else { code.replace("super::", "") };
+        let code = if *super_is_crate {
+            code
+        } else {
+            code.replace("super::", "")
+        };
         for used in modules_named(&code) {
             match STACK.iter().position(|m| *m == used) {
                 Some(r) if r < rank => {}
@@ -172,7 +185,10 @@ fn the_engine_and_the_formats_depend_on_no_browser_or_ui_crate() {
         Path::new(env!("CARGO_MANIFEST_DIR")).join("src/formats/Cargo.toml"),
     ] {
         let names = dependencies(&manifest);
-        assert!(names.iter().any(|n| n == "serde"), "{names:?} read from {manifest:?}");
+        assert!(
+            names.iter().any(|n| n == "serde"),
+            "{names:?} read from {manifest:?}"
+        );
         for name in &names {
             assert!(
                 !BROWSER_OR_UI.contains(&name.as_str()),
@@ -194,7 +210,8 @@ fn ui_graph() -> Vec<(String, Vec<String>)> {
         if path.extension().is_none_or(|e| e != "rs") || name == "mod" {
             continue;
         }
-        let code = code_of(&std::fs::read_to_string(&path).unwrap()).replace("crate::ui::", "super::");
+        let code =
+            code_of(&std::fs::read_to_string(&path).unwrap()).replace("crate::ui::", "super::");
         let mut uses: Vec<String> = modules_named(&code.replace("crate::", "outside::"))
             .into_iter()
             .filter(|m| *m != name)
@@ -224,7 +241,10 @@ fn a_cycle(graph: &[(String, Vec<String>)]) -> Option<String> {
             return None;
         }
         path.push(node.to_string());
-        let next = graph.iter().find(|(n, _)| n == node).map(|(_, u)| u.clone());
+        let next = graph
+            .iter()
+            .find(|(n, _)| n == node)
+            .map(|(_, u)| u.clone());
         for used in next.unwrap_or_default() {
             if let Some(cycle) = visit(&used, graph, path, done) {
                 return Some(cycle);
@@ -248,7 +268,10 @@ fn a_cycle_is_found_and_named() {
             .map(|(n, u)| (n.to_string(), u.iter().map(|x| x.to_string()).collect()))
             .collect()
     };
-    assert_eq!(a_cycle(&graph(&[("a", &["b"]), ("b", &["c"]), ("c", &[])])), None);
+    assert_eq!(
+        a_cycle(&graph(&[("a", &["b"]), ("b", &["c"]), ("c", &[])])),
+        None
+    );
     assert_eq!(
         a_cycle(&graph(&[("a", &["b"]), ("b", &["c"]), ("c", &["a"])])).as_deref(),
         Some("a -> b -> c -> a")
@@ -258,11 +281,18 @@ fn a_cycle_is_found_and_named() {
 #[test]
 fn no_ui_module_depends_on_itself_through_others() {
     let graph = ui_graph();
-    assert!(graph.len() >= 20, "the scan found {} UI modules", graph.len());
+    assert!(
+        graph.len() >= 20,
+        "the scan found {} UI modules",
+        graph.len()
+    );
     let names: Vec<&String> = graph.iter().map(|(n, _)| n).collect();
     for (name, uses) in &graph {
         for used in uses {
-            assert!(names.contains(&used), "{name} names `{used}`, which is no UI module");
+            assert!(
+                names.contains(&used),
+                "{name} names `{used}`, which is no UI module"
+            );
         }
     }
     assert_eq!(a_cycle(&graph), None, "a cycle among the UI's modules");

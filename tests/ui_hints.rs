@@ -98,7 +98,10 @@ fn every_thing_has_one_name_wherever_it_is_shown() {
             let text = text.replace("Machine Design", "");
             for (old, new) in RETIRED {
                 if text.contains(old) {
-                    found.push(format!("{}: “{old}” in {text:?}: say “{new}”", path.display()));
+                    found.push(format!(
+                        "{}: “{old}” in {text:?}: say “{new}”",
+                        path.display()
+                    ));
                 }
             }
             // Words, where a path (`designs[0]`), a class (`design-tabs`) or a key stays whole;
@@ -110,7 +113,10 @@ fn every_thing_has_one_name_wherever_it_is_shown() {
             for word in words {
                 let word = word.trim_end_matches('.');
                 if NOT_A_POWER_UNIT.contains(&word) {
-                    found.push(format!("{}: “{word}” in {text:?}: say “power unit”", path.display()));
+                    found.push(format!(
+                        "{}: “{word}” in {text:?}: say “power unit”",
+                        path.display()
+                    ));
                 }
             }
         }

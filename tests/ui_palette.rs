@@ -11,7 +11,10 @@ use std::path::Path;
 
 /// Machado et al. (2009), severity 1.0, rows applied to linear RGB.
 const SIMULATIONS: [(&str, [[f64; 3]; 3]); 4] = [
-    ("normal vision", [[1.0, 0.0, 0.0], [0.0, 1.0, 0.0], [0.0, 0.0, 1.0]]),
+    (
+        "normal vision",
+        [[1.0, 0.0, 0.0], [0.0, 1.0, 0.0], [0.0, 0.0, 1.0]],
+    ),
     (
         "protanopia",
         [
@@ -125,8 +128,9 @@ fn ciede2000(a: [f64; 3], b: [f64; 3]) -> f64 {
         (h1p + h2p - 360.0) / 2.0
     };
     let cos = |deg: f64| deg.to_radians().cos();
-    let t = 1.0 - 0.17 * cos(h_bar - 30.0) + 0.24 * cos(2.0 * h_bar) + 0.32 * cos(3.0 * h_bar + 6.0)
-        - 0.20 * cos(4.0 * h_bar - 63.0);
+    let t =
+        1.0 - 0.17 * cos(h_bar - 30.0) + 0.24 * cos(2.0 * h_bar) + 0.32 * cos(3.0 * h_bar + 6.0)
+            - 0.20 * cos(4.0 * h_bar - 63.0);
     let d_theta = 30.0 * (-((h_bar - 275.0) / 25.0).powi(2)).exp();
     let r_c = 2.0 * (c_bar_p.powi(7) / (c_bar_p.powi(7) + 25f64.powi(7))).sqrt();
     let s_l = 1.0 + 0.015 * (l_bar - 50.0).powi(2) / (20.0 + (l_bar - 50.0).powi(2)).sqrt();
@@ -149,7 +153,10 @@ fn ciede2000_gives_the_published_test_differences() {
         ([50.0, 2.5, 0.0], [73.0, 25.0, -18.0], 27.1492),
     ] {
         let got = ciede2000(a, b);
-        assert!((got - expected).abs() < 5e-4, "{a:?} {b:?}: {got} for {expected}");
+        assert!(
+            (got - expected).abs() < 5e-4,
+            "{a:?} {b:?}: {got} for {expected}"
+        );
     }
 }
 
@@ -169,7 +176,15 @@ fn the_simulation_turns_pure_red_and_green_alike_for_a_deuteranope() {
 fn every_ledger_colour_stays_apart_under_each_colour_vision_deficiency() {
     let colours = segment_colours();
     // One colour per ledger item (src/ui/charts.rs LEDGER_ITEMS).
-    for class in ["useful", "relief", "metering", "unloading", "line", "pump", "motor"] {
+    for class in [
+        "useful",
+        "relief",
+        "metering",
+        "unloading",
+        "line",
+        "pump",
+        "motor",
+    ] {
         assert!(
             colours.iter().any(|(name, _)| name == class),
             "no .seg-{class} fill in style/main.css"

@@ -96,7 +96,13 @@ impl<'a> PreparedUnit<'a> {
 
     /// The system pressure at or above `low` where supply = relief flow + `demand`. If even
     /// at `low` the supply falls short, `low` itself.
-    pub(crate) fn balance(&self, relief: &ReliefCharacteristic, demand: f64, low: f64, unloaded: u32) -> f64 {
+    pub(crate) fn balance(
+        &self,
+        relief: &ReliefCharacteristic,
+        demand: f64,
+        low: f64,
+        unloaded: u32,
+    ) -> f64 {
         let h = |p: f64| self.supply(p, unloaded) - relief.flow(p) - demand;
         let mut a = low;
         let mut ha = h(a);

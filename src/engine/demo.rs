@@ -199,7 +199,9 @@ mod tests {
     fn the_demo_job_solves_and_its_proposal_saves_energy() {
         let report = super::super::solve(&super::scrap_baler()).expect("the demo job is valid");
         assert_eq!(report.designs.len(), 2);
-        let saved = report.comparisons[0].annual_energy_saved_kwh;
+        let saved = report.comparisons[0]
+            .annual_energy_saved
+            .get::<uom::si::energy::kilowatt_hour>();
         assert!(saved > 0.0, "{saved}");
         for design in &report.designs {
             assert!(

@@ -61,16 +61,14 @@
 
 use super::motor::{Motor, TYPICAL_FIXED_LOSS_SHARE, TYPICAL_PEAK_ALLOWANCE};
 use super::power_unit::Design;
-use super::units::{Measure, UnitSystem};
+use super::units::{cubic_metres_per_second, pascals, watts, Measure, UnitSystem};
 use super::validate::InputError;
 use serde::Serialize;
 
 pub use super::policy::WearPolicy;
 pub use super::pump_test::{day_number, ElectricalInput, MotorEfficiency, PumpTest, Reading};
 use std::f64::consts::TAU;
-use uom::si::f64::{
-    AngularVelocity, Power, Pressure,
-};
+use uom::si::f64::{AngularVelocity, Power, Pressure};
 
 /// How far a motor is let carry a reading before the current is taken for a misreading
 /// (common practice: induction motors do not run long above about 1.5 x rated).
@@ -295,9 +293,9 @@ pub fn assess(
                     field: "motor_efficiency".into(),
                     message: format!(
                         "The class's table here covers {} to {}: enter the nameplate efficiency for a {} motor.",
-                        units.power(range.lowest_w),
-                        units.power(range.highest_w),
-                        units.power(rated_motor)
+                        units.power(range.lowest),
+                        units.power(range.highest),
+                        units.power(watts(rated_motor))
                     ),
                 });
                     None
@@ -328,7 +326,7 @@ pub fn assess(
                     field: at("electrical"),
                     message: format!(
                         "This input would load the {} motor to {:.0} % of its rating: check the clamp meter's range, that it is on one line conductor, and the voltage.",
-                        units.power(rated_motor),
+                        units.power(watts(rated_motor)),
                         shaft / rated_motor * 100.0
                     ),
                 });
@@ -340,8 +338,8 @@ pub fn assess(
                         field: at("electrical"),
                         message: format!(
                             "This input is no more than the {} motor draws running with no load (about {}): check the meter, the motor's rating and its efficiency.",
-                            units.power(rated_motor),
-                            units.power(m.loss(0.0))
+                            units.power(watts(rated_motor)),
+                            units.power(watts(m.loss(0.0)))
                         ),
                     }),
                     None => {}
@@ -381,9 +379,9 @@ pub fn assess(
                 field: at("flow_m3_per_s"),
                 message: format!(
                     "{} is more than the pump sweeps at {} ({}): check the meter range or the displacement and speed.",
-                    units.flow(q),
+                    units.flow(cubic_metres_per_second(q)),
                     Measure::ShaftSpeed.with_unit(units, speed),
-                    units.flow(swept)
+                    units.flow(cubic_metres_per_second(swept))
                 ),
             });
         } else if swept > 0.0 {
@@ -596,7 +594,7 @@ impl NotCopied {
             } => format!(
                 "Not copied: the readings put the volumetric efficiency at {:.1} % at {}, which no working pump has. Check the flow readings at the highest pressures.",
                 volumetric * 100.0,
-                units.pressure(at_pressure_pa)
+                units.pressure(pascals(at_pressure_pa))
             ),
             NotCopied::Hydromechanical { hydromechanical } => format!(
                 "Not copied: the readings put the hydromechanical efficiency at {:.1} %, which no working pump has. Check the power or torque readings.",
@@ -709,8 +707,8 @@ pub fn apply_to_design(
 mod tests {
     use super::*;
     use crate::pump::PumpAtSpeed;
-    use uom::si::f64::{Torque, Volume, VolumeRate};
     use uom::si::angular_velocity::revolution_per_minute;
+    use uom::si::f64::{Torque, Volume, VolumeRate};
     use uom::si::pressure::bar;
     use uom::si::volume::cubic_centimeter;
     use uom::si::volume_rate::cubic_meter_per_second;

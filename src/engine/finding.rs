@@ -3,6 +3,7 @@
 
 use super::units::{seconds, UnitSystem};
 use serde::Serialize;
+use uom::si::f64::{Power, Pressure, Time, VolumeRate};
 
 /// Pumps are numbered from 1 in shaft order (unloading stages first, the base pump last).
 #[derive(Clone, Debug, PartialEq, Serialize)]
@@ -12,65 +13,103 @@ pub enum Finding {
     /// The phase is solved in the state nearest to consistent (named by `solved_unloaded`).
     Hunting {
         pump: usize,
-        setting_pa: f64,
-        pressure_pa: f64,
+        #[serde(rename = "setting_pa")]
+        setting: Pressure,
+        #[serde(rename = "pressure_pa")]
+        pressure: Pressure,
         solved_unloaded: bool,
     },
     /// The load needs more pressure than the active limit gives: the cylinder does not move.
     /// Solved as a dead-head over the relief, for the time the stroke would take at the
     /// feeding pumps' theoretical flow.
     Stall {
-        needed_pa: f64,
-        limit_pa: f64,
-        duration_s: f64,
+        #[serde(rename = "needed_pa")]
+        needed: Pressure,
+        #[serde(rename = "limit_pa")]
+        limit: Pressure,
+        #[serde(rename = "duration_s")]
+        duration: Time,
     },
     /// The relief cracks below the working pressure, so flow leaks over it while working.
     ReliefLeaks {
-        working_pa: f64,
-        cracking_pa: f64,
-        leak_m3_per_s: f64,
+        #[serde(rename = "working_pa")]
+        working: Pressure,
+        #[serde(rename = "cracking_pa")]
+        cracking: Pressure,
+        #[serde(rename = "leak_m3_per_s")]
+        leak: VolumeRate,
     },
     /// A metered speed or a direct demand the pumps cannot supply at that pressure; the
     /// actuator takes what is left.
     DemandUnmet {
-        wanted_m3_per_s: f64,
-        available_m3_per_s: f64,
+        #[serde(rename = "wanted_m3_per_s")]
+        wanted: VolumeRate,
+        #[serde(rename = "available_m3_per_s")]
+        available: VolumeRate,
     },
     /// A held pressure the active limit cannot reach.
-    HoldBelowRequired { required_pa: f64, reached_pa: f64 },
+    HoldBelowRequired {
+        #[serde(rename = "required_pa")]
+        required: Pressure,
+        #[serde(rename = "reached_pa")]
+        reached: Pressure,
+    },
     /// A remote stage set at or above the main setting never governs.
     RemoteAboveMain {
         stage: usize,
-        remote_pa: f64,
-        main_pa: f64,
+        #[serde(rename = "remote_pa")]
+        remote: Pressure,
+        #[serde(rename = "main_pa")]
+        main: Pressure,
     },
     /// A pressure a pump can see is above the pump's rating.
     AboveRating {
         pump: usize,
         what: &'static str,
-        setting_pa: f64,
-        rating_pa: f64,
+        #[serde(rename = "setting_pa")]
+        setting: Pressure,
+        #[serde(rename = "rating_pa")]
+        rating: Pressure,
     },
     /// An unloading valve set at or above the relief: its pump never unloads.
     NeverUnloads {
         pump: usize,
-        setting_pa: f64,
-        relief_pa: f64,
+        #[serde(rename = "setting_pa")]
+        setting: Pressure,
+        #[serde(rename = "relief_pa")]
+        relief: Pressure,
     },
     /// The relief is rated for less flow than the pumps can give together: at full flow its
     /// pressure rises far above the setting.
     ReliefUndersized {
-        rated_m3_per_s: f64,
-        pumps_m3_per_s: f64,
+        #[serde(rename = "rated_m3_per_s")]
+        rated: VolumeRate,
+        #[serde(rename = "pumps_m3_per_s")]
+        pumps: VolumeRate,
     },
     /// The motor's RMS load over the cycle is above what it may carry continuously (rating x
     /// service factor): it will overheat.
-    MotorRmsOverload { rms_w: f64, limit_w: f64 },
+    MotorRmsOverload {
+        #[serde(rename = "rms_w")]
+        rms: Power,
+        #[serde(rename = "limit_w")]
+        limit: Power,
+    },
     /// The cycle's peak is above what the motor may carry briefly (rating x peak allowance).
-    MotorPeakOverload { peak_w: f64, limit_w: f64 },
+    MotorPeakOverload {
+        #[serde(rename = "peak_w")]
+        peak: Power,
+        #[serde(rename = "limit_w")]
+        limit: Power,
+    },
     /// The cycle is too long for the RMS sizing method (the motor heats up to each long
     /// phase's load), and its peak is above what the motor may carry continuously.
-    RmsCycleTooLong { cycle_s: f64, longest_s: f64 },
+    RmsCycleTooLong {
+        #[serde(rename = "cycle_s")]
+        cycle: Time,
+        #[serde(rename = "longest_s")]
+        longest: Time,
+    },
     /// Idles that stop the motor start it more often an hour than a motor of its size and
     /// speed may be started.
     MotorStartsTooOften {
@@ -83,98 +122,106 @@ pub enum Finding {
     ReliefAtCompensator {
         /// `None` for the main relief, else the remote stage (from 0).
         remote_stage: Option<usize>,
-        cracking_pa: f64,
-        dead_head_pa: f64,
-        burns_w: f64,
+        #[serde(rename = "cracking_pa")]
+        cracking: Pressure,
+        #[serde(rename = "dead_head_pa")]
+        dead_head: Pressure,
+        #[serde(rename = "burns_w")]
+        burns: Power,
     },
     /// A metered move whose limit leaves its pressure-compensated flow control less than the
     /// drop it needs to hold its flow: the move runs slower than metered.
-    FlowControlStarved { available_pa: f64, needed_pa: f64 },
+    FlowControlStarved {
+        #[serde(rename = "available_pa")]
+        available: Pressure,
+        #[serde(rename = "needed_pa")]
+        needed: Pressure,
+    },
 }
 
 impl Finding {
     /// The finding in one or two plain sentences.
     pub fn describe(&self, u: UnitSystem) -> String {
-        let p = |pa: f64| u.pressure(pa);
+        let p = |pa: Pressure| u.pressure(pa);
         match *self {
-            Finding::Hunting { pump, setting_pa, pressure_pa, solved_unloaded } => format!(
+            Finding::Hunting { pump, setting, pressure, solved_unloaded } => format!(
                 "Pump {pump}'s unloading valve, set at {}, sits inside this phase's pressure range ({} here): it unloads, pressure falls, it reloads, and the valve hunts. Figures are for the pump {}.",
-                p(setting_pa),
-                p(pressure_pa),
+                p(setting),
+                p(pressure),
                 if solved_unloaded { "unloaded" } else { "feeding" }
             ),
-            Finding::Stall { needed_pa, limit_pa, duration_s } => format!(
+            Finding::Stall { needed, limit, duration } => format!(
                 "The load needs {} but the active limit gives {}: the cylinder stalls and all the flow goes over the relief. Figures assume it stalls for {}.",
-                p(needed_pa),
-                p(limit_pa),
-                seconds(duration_s)
+                p(needed),
+                p(limit),
+                seconds(duration)
             ),
-            Finding::ReliefLeaks { working_pa, cracking_pa, leak_m3_per_s } => format!(
+            Finding::ReliefLeaks { working, cracking, leak } => format!(
                 "The relief starts to open at {}, below the {} this phase works at: {} leaks over it as heat and lost speed.",
-                p(cracking_pa),
-                p(working_pa),
-                u.flow(leak_m3_per_s)
+                p(cracking),
+                p(working),
+                u.flow(leak)
             ),
-            Finding::DemandUnmet { wanted_m3_per_s, available_m3_per_s } => format!(
+            Finding::DemandUnmet { wanted, available } => format!(
                 "The phase wants {} but the pumps can give only {} at its pressure: it runs slower.",
-                u.flow(wanted_m3_per_s),
-                u.flow(available_m3_per_s)
+                u.flow(wanted),
+                u.flow(available)
             ),
-            Finding::HoldBelowRequired { required_pa, reached_pa } => format!(
+            Finding::HoldBelowRequired { required, reached } => format!(
                 "The hold needs {} but the active limit holds only {}.",
-                p(required_pa),
-                p(reached_pa)
+                p(required),
+                p(reached)
             ),
-            Finding::RemoteAboveMain { stage, remote_pa, main_pa } => format!(
+            Finding::RemoteAboveMain { stage, remote, main } => format!(
                 "Remote stage {} is set at {}, not below the main setting of {}: it never governs.",
                 stage + 1,
-                p(remote_pa),
-                p(main_pa)
+                p(remote),
+                p(main)
             ),
-            Finding::ReliefAtCompensator { remote_stage, cracking_pa, dead_head_pa, burns_w } => format!(
+            Finding::ReliefAtCompensator { remote_stage, cracking, dead_head, burns } => format!(
                 "The {} starts to open at {}, at or below the {} where the compensated pump destrokes: the pump never destrokes, and its whole flow crosses the relief, about {} of heat whenever it is dead-headed there. Set the relief clearly above the compensator.",
                 match remote_stage {
                     Some(stage) => format!("remote stage {}", stage + 1),
                     None => "main relief".to_string(),
                 },
-                p(cracking_pa),
-                p(dead_head_pa),
-                u.power(burns_w)
+                p(cracking),
+                p(dead_head),
+                u.power(burns)
             ),
-            Finding::FlowControlStarved { available_pa, needed_pa } => format!(
+            Finding::FlowControlStarved { available, needed } => format!(
                 "The limit leaves the flow control {} across it, less than the {} it needs to hold its flow: the move runs slower than metered, or the flow control hunts. Raise the limit or check the flow control's rating.",
-                p(available_pa),
-                p(needed_pa)
+                p(available),
+                p(needed)
             ),
-            Finding::AboveRating { pump, what, setting_pa, rating_pa } => format!(
+            Finding::AboveRating { pump, what, setting, rating } => format!(
                 "Pump {pump} can see {} (the {what}), above its rating of {}. Never run above a component's rating.",
-                p(setting_pa),
-                p(rating_pa)
+                p(setting),
+                p(rating)
             ),
-            Finding::NeverUnloads { pump, setting_pa, relief_pa } => format!(
+            Finding::NeverUnloads { pump, setting, relief } => format!(
                 "Pump {pump}'s unloading valve is set at {}, not below the relief's {}: the pump never unloads.",
-                p(setting_pa),
-                p(relief_pa)
+                p(setting),
+                p(relief)
             ),
-            Finding::ReliefUndersized { rated_m3_per_s, pumps_m3_per_s } => format!(
+            Finding::ReliefUndersized { rated, pumps } => format!(
                 "The relief is rated for {} but the pumps give up to {}: it cannot pass full flow near its setting.",
-                u.flow(rated_m3_per_s),
-                u.flow(pumps_m3_per_s)
+                u.flow(rated),
+                u.flow(pumps)
             ),
-            Finding::MotorRmsOverload { rms_w, limit_w } => format!(
+            Finding::MotorRmsOverload { rms, limit } => format!(
                 "The motor's RMS load over the cycle is {}, above the {} it may carry continuously (rating times service factor): it will run hot.",
-                u.power(rms_w),
-                u.power(limit_w)
+                u.power(rms),
+                u.power(limit)
             ),
-            Finding::MotorPeakOverload { peak_w, limit_w } => format!(
+            Finding::MotorPeakOverload { peak, limit } => format!(
                 "The cycle's peak of {} is above the {} the motor may carry briefly (rating times peak allowance): it may stall or trip.",
-                u.power(peak_w),
-                u.power(limit_w)
+                u.power(peak),
+                u.power(limit)
             ),
-            Finding::RmsCycleTooLong { cycle_s, longest_s } => format!(
+            Finding::RmsCycleTooLong { cycle, longest } => format!(
                 "The cycle takes {}, longer than the {} the RMS sizing holds for: the motor heats up to each long phase's load in turn, so its RMS load does not show how hot it runs. Check the heaviest long phase against what the motor carries continuously, or ask the motor's maker.",
-                seconds(cycle_s),
-                seconds(longest_s)
+                seconds(cycle),
+                seconds(longest)
             ),
             Finding::MotorStartsTooOften { starts_per_hour, allowed_per_hour } => format!(
                 "The motor is stopped in idles and started again {starts_per_hour:.1} times an hour, more than the {allowed_per_hour:.1} a motor of its size and speed may take (NEMA MG 10): each start heats its windings. Keep it running, vented, through short idles, or ask the motor's maker.",

@@ -62,8 +62,14 @@ impl Job {
         let design = Design {
             name: "As found".into(),
             motor: Motor {
-                rated_power: Power { value: empty, ..Default::default() },
-                full_load_speed: AngularVelocity { value: empty, ..Default::default() },
+                rated_power: Power {
+                    value: empty,
+                    ..Default::default()
+                },
+                full_load_speed: AngularVelocity {
+                    value: empty,
+                    ..Default::default()
+                },
                 full_load_efficiency: empty,
                 fixed_loss_share: TYPICAL_FIXED_LOSS_SHARE,
                 service_factor: 1.0,
@@ -71,23 +77,44 @@ impl Job {
             },
             unloading_stages: Vec::new(),
             base_pump: Pump {
-                displacement: Volume { value: empty, ..Default::default() },
+                displacement: Volume {
+                    value: empty,
+                    ..Default::default()
+                },
                 volumetric_efficiency: empty,
-                efficiency_pressure: Pressure { value: empty, ..Default::default() },
+                efficiency_pressure: Pressure {
+                    value: empty,
+                    ..Default::default()
+                },
                 efficiency_speed: None,
                 hydromechanical_efficiency: empty,
-                drag_power: Power { value: empty, ..Default::default() },
-                rated_pressure: Pressure { value: empty, ..Default::default() },
+                drag_power: Power {
+                    value: empty,
+                    ..Default::default()
+                },
+                rated_pressure: Pressure {
+                    value: empty,
+                    ..Default::default()
+                },
                 control: PumpControl::Fixed,
             },
             relief: ReliefValve {
                 kind: ReliefKind::PilotOperated,
-                setting: Pressure { value: empty, ..Default::default() },
-                rated_flow: VolumeRate { value: empty, ..Default::default() },
+                setting: Pressure {
+                    value: empty,
+                    ..Default::default()
+                },
+                rated_flow: VolumeRate {
+                    value: empty,
+                    ..Default::default()
+                },
                 cracking_fraction: ReliefKind::PilotOperated.typical_cracking_fraction(),
             },
             remote_stages: Vec::new(),
-            vent_pressure: Pressure { value: empty, ..Default::default() },
+            vent_pressure: Pressure {
+                value: empty,
+                ..Default::default()
+            },
             phase_settings: Vec::new(),
             retrofit_price: None,
             made_from: None,
@@ -108,7 +135,10 @@ impl Job {
                 retrofit_price: empty,
                 grid_factor: None,
             },
-            oil: Oil::mineral(Volume { value: empty, ..Default::default() }),
+            oil: Oil::mineral(Volume {
+                value: empty,
+                ..Default::default()
+            }),
             advice: Default::default(),
             staging: Default::default(),
             pump_tests: Vec::new(),
@@ -139,7 +169,13 @@ impl Job {
     /// first no design of the job has.
     pub fn next_proposal_name(&self) -> String {
         (1..)
-            .map(|n| if n == 1 { "Proposed".to_string() } else { format!("Proposed {n}") })
+            .map(|n| {
+                if n == 1 {
+                    "Proposed".to_string()
+                } else {
+                    format!("Proposed {n}")
+                }
+            })
             .find(|name| self.designs.iter().all(|d| d.name != *name))
             .unwrap_or_default()
     }
@@ -371,6 +407,9 @@ mod blank_tests {
             assert!(fields.contains(&field), "{field} not asked for: {fields:?}");
         }
         assert!(job.cycle.is_empty() && job.pump_tests.is_empty() && !job.example);
-        assert_eq!((job.site.currency.as_str(), job.notes.as_str()), ("GBP", ""));
+        assert_eq!(
+            (job.site.currency.as_str(), job.notes.as_str()),
+            ("GBP", "")
+        );
     }
 }

@@ -1,10 +1,12 @@
 //! The power ledger: where every watt of a phase goes, and the cycle's totals built from it.
 
 use super::finding::Finding;
-use super::site::{Oil, Site};
 use super::motor::{Motor, RMS_LONGEST_CYCLE_S, STOPPED_COOLING_SHARE};
+use super::site::{Oil, Site};
+use super::units::{kilowatt_hours, seconds_of};
 use super::units::{BTU_IT, KILOWATT_HOUR};
 use serde::Serialize;
+use uom::si::energy::kilowatt_hour;
 use uom::si::f64::{Energy, Power, Time};
 
 /// One phase's power, from the electrical input down to useful work. The items add up to
@@ -147,7 +149,11 @@ pub struct CycleTotals {
     pub heat_load_btu_per_hour: f64,
     /// How fast the oil warms with no cooler.
     pub oil_rise_k_per_minute: f64,
-    pub annual_energy_kwh: f64,
+    #[serde(
+        rename = "annual_energy_kwh",
+        serialize_with = "super::units::as_kilowatt_hours"
+    )]
+    pub annual_energy: Energy,
     /// In the site's currency.
     pub annual_cost: f64,
 }
@@ -210,7 +216,7 @@ pub fn cycle_totals(phases: &[TimedLedger], site: &Site, oil: &Oil) -> CycleTota
         heat_load: watts(heat),
         heat_load_btu_per_hour: heat * 3600.0 / BTU_IT,
         oil_rise_k_per_minute: heat * 60.0 / heat_capacity,
-        annual_energy_kwh,
+        annual_energy: kilowatt_hours(annual_energy_kwh),
         annual_cost: annual_energy_kwh * site.tariff_per_kwh,
     }
 }
@@ -236,22 +242,22 @@ pub fn motor_findings(motor: &Motor, totals: &CycleTotals, phases: &[TimedLedger
     let continuous = rated * motor.service_factor;
     if totals.rms_shaft.value > continuous * (1.0 + 1e-9) {
         findings.push(Finding::MotorRmsOverload {
-            rms_w: totals.rms_shaft.value,
-            limit_w: continuous,
+            rms: watts(totals.rms_shaft.value),
+            limit: watts(continuous),
         });
     }
     let limit = rated * motor.peak_allowance;
     if totals.peak_shaft.value > limit * (1.0 + 1e-9) {
         findings.push(Finding::MotorPeakOverload {
-            peak_w: totals.peak_shaft.value,
-            limit_w: limit,
+            peak: watts(totals.peak_shaft.value),
+            limit: watts(limit),
         });
     }
     let cycle = totals.cycle_time.value;
     if cycle > RMS_LONGEST_CYCLE_S && totals.peak_shaft.value > continuous * (1.0 + 1e-9) {
         findings.push(Finding::RmsCycleTooLong {
-            cycle_s: cycle,
-            longest_s: RMS_LONGEST_CYCLE_S,
+            cycle: seconds_of(cycle),
+            longest: seconds_of(RMS_LONGEST_CYCLE_S),
         });
     }
     let starts = motor_starts_per_cycle(phases);
@@ -284,7 +290,11 @@ pub struct Comparison {
     /// Positive when the proposal's cycle is longer.
     #[serde(rename = "cycle_time_change_s")]
     pub cycle_time_change: Time,
-    pub annual_energy_saved_kwh: f64,
+    #[serde(
+        rename = "annual_energy_saved_kwh",
+        serialize_with = "super::units::as_kilowatt_hours"
+    )]
+    pub annual_energy_saved: Energy,
     pub annual_cost_saved: f64,
     /// The retrofit price over the yearly saving; none when nothing is saved.
     pub payback_years: Option<f64>,
@@ -323,7 +333,9 @@ pub fn compare(
         heat_load_saved: b.heat_load - p.heat_load,
         rms_shaft_saved: b.rms_shaft - p.rms_shaft,
         cycle_time_change: p.cycle_time - b.cycle_time,
-        annual_energy_saved_kwh: b.annual_energy_kwh - p.annual_energy_kwh,
+        annual_energy_saved: kilowatt_hours(
+            b.annual_energy.get::<kilowatt_hour>() - p.annual_energy.get::<kilowatt_hour>(),
+        ),
         annual_cost_saved: saved,
         payback_years: simple_payback(retrofit_price, saved, b.annual_cost),
     }
@@ -352,7 +364,7 @@ mod tests {
             heat_load: w(0.0),
             heat_load_btu_per_hour: 0.0,
             oil_rise_k_per_minute: 0.0,
-            annual_energy_kwh: 0.0,
+            annual_energy: kilowatt_hours(0.0),
             annual_cost: 0.0,
         }
     }

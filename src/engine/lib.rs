@@ -93,6 +93,9 @@
 //! none at setting x 1.03 (`pump::COMPENSATOR_BAND`); a check valve's cracking pressure is its
 //! drop at any flow; a direct phase's pressure is all useful.
 
+#[macro_use]
+extern crate uom;
+
 pub mod cycle;
 pub mod delivery;
 pub mod demo;
@@ -103,8 +106,8 @@ pub mod ledger;
 pub mod motor;
 pub mod policy;
 pub mod power_unit;
-pub mod pump_test;
 pub mod pump;
+pub mod pump_test;
 pub mod quote;
 pub mod settings;
 pub mod site;
@@ -117,10 +120,14 @@ pub mod valve;
 pub use finding::Finding;
 pub use job::{Job, JobFileError, Oil, Site, SCHEMA_VERSION};
 pub use ledger::{Comparison, CycleTotals, PowerLedger};
-pub use solve::{solve, DesignReport, JobReport, OperatingPoint, PhaseReport, PumpPoint, PumpState};
+pub use solve::{
+    solve, DesignReport, JobReport, OperatingPoint, PhaseReport, PumpPoint, PumpState,
+};
 pub use validate::InputError;
 
 use serde::Serialize;
+use units::{joules, pascals};
+use uom::si::f64::{Energy, Pressure};
 
 /// One phase's part of a cycle's energy: what "which phase wastes most" is answered by, since
 /// a long idle at a few kilowatts can cost more than a short dwell at many.
@@ -130,15 +137,19 @@ pub struct PhaseEnergy {
     pub phase: usize,
     pub name: String,
     /// Electrical energy over the phase, once per cycle (J).
-    pub energy_j: f64,
+    #[serde(rename = "energy_j")]
+    pub energy: Energy,
     /// Its share of the cycle's electrical energy (0 when the cycle draws none).
     pub share: f64,
     /// Of it, what ends as heat in the oil (J).
-    pub heat_j: f64,
+    #[serde(rename = "heat_j")]
+    pub heat: Energy,
     /// The pressure the phase needs (the advice's reading of it), if it needs any (Pa).
-    pub needed_pa: Option<f64>,
+    #[serde(rename = "needed_pa")]
+    pub needed: Option<Pressure>,
     /// The pressure the pump works at in the phase (Pa).
-    pub pump_pa: f64,
+    #[serde(rename = "pump_pa")]
+    pub pump: Pressure,
 }
 
 /// Each phase of design `d`'s report by its energy over one cycle, most first (ties in cycle
@@ -162,20 +173,22 @@ pub fn phases_by_energy(job: &Job, report: &JobReport, d: usize) -> Vec<PhaseEne
             PhaseEnergy {
                 phase: i,
                 name: p.name.clone(),
-                energy_j: energy,
+                energy: joules(energy),
                 share: if total > 0.0 { energy / total } else { 0.0 },
-                heat_j: p.ledger.heat_into_oil().value * t,
-                needed_pa: job
+                heat: joules(p.ledger.heat_into_oil().value * t),
+                needed: job
                     .cycle
                     .get(i)
-                    .and_then(|ph| settings::needed_pressure(&ph.kind, &job.advice)),
-                pump_pa: p.point.system_pressure.value,
+                    .and_then(|ph| settings::needed_pressure(&ph.kind, &job.advice))
+                    .map(pascals),
+                pump: pascals(p.point.system_pressure.value),
             }
         })
         .collect();
     phases.sort_by(|a, b| {
-        b.energy_j
-            .total_cmp(&a.energy_j)
+        b.energy
+            .value
+            .total_cmp(&a.energy.value)
             .then(a.phase.cmp(&b.phase))
     });
     phases
@@ -338,4 +351,3 @@ pub fn solve_json(text: &str) -> Result<String, String> {
 fn pretty<T: Serialize>(value: &T) -> String {
     serde_json::to_string_pretty(value).unwrap_or_else(|e| format!("{{\"error\": \"{e}\"}}"))
 }
-

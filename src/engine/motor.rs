@@ -1,5 +1,6 @@
 //! The electric motor that drives the pumps.
 
+use super::units::watts;
 use serde::{Deserialize, Serialize};
 use uom::si::f64::{AngularVelocity, Power};
 
@@ -95,8 +96,8 @@ const IE3_4_POLE: [f64; 4] = [0.0773, -1.8951, 9.2984, 83.7025];
 /// A rating outside the sizes the class's table covers here: the nameplate figure is needed.
 #[derive(Clone, Copy, Debug, PartialEq)]
 pub struct OutsideTable {
-    pub lowest_w: f64,
-    pub highest_w: f64,
+    pub lowest: Power,
+    pub highest: Power,
 }
 
 impl EfficiencyClass {
@@ -119,12 +120,12 @@ impl EfficiencyClass {
             ),
         };
         let outside = OutsideTable {
-            lowest_w: sizes_w[0],
-            highest_w: sizes_w[sizes_w.len() - 1],
+            lowest: watts(sizes_w[0]),
+            highest: watts(sizes_w[sizes_w.len() - 1]),
         };
         if !w.is_finite()
-            || w < outside.lowest_w * (1.0 - 1e-9)
-            || w > outside.highest_w * (1.0 + 1e-9)
+            || w < outside.lowest.value * (1.0 - 1e-9)
+            || w > outside.highest.value * (1.0 + 1e-9)
         {
             return Err(outside);
         }
@@ -160,7 +161,7 @@ impl EfficiencyClass {
                     EfficiencyClass::Ie4 => (IE4[0], IE4[6]),
                     EfficiencyClass::NemaPremium => (NEMA_PREMIUM[0], NEMA_PREMIUM[6]),
                 };
-                if rated.value > range.highest_w {
+                if rated.value > range.highest.value {
                     last / 100.0
                 } else {
                     first / 100.0

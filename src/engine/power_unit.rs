@@ -96,9 +96,12 @@ impl Design {
             self.relief.rated_flow,
         ]);
         // FNV-1a, 64 bits: stable across builds and platforms, unlike std's hasher.
-        let hash = machine.to_string().bytes().fold(0xcbf2_9ce4_8422_2325_u64, |h, b| {
-            (h ^ u64::from(b)).wrapping_mul(0x0100_0000_01b3)
-        });
+        let hash = machine
+            .to_string()
+            .bytes()
+            .fold(0xcbf2_9ce4_8422_2325_u64, |h, b| {
+                (h ^ u64::from(b)).wrapping_mul(0x0100_0000_01b3)
+            });
         format!("{hash:016x}")
     }
 
@@ -155,7 +158,10 @@ mod tests {
         let rebuilt = &job.designs[1];
         assert!(!rebuilt.made_from_older(&job.designs[0]));
         assert_eq!(rebuilt.motor, job.designs[0].motor);
-        assert_eq!((rebuilt.name.as_str(), rebuilt.retrofit_price), ("Proposed", Some(1800.0)));
+        assert_eq!(
+            (rebuilt.name.as_str(), rebuilt.retrofit_price),
+            ("Proposed", Some(1800.0))
+        );
         // The baseline has no proposal to rebuild; an index past the end changes nothing.
         let before = job.clone();
         job.rebuild_from_baseline(0);

@@ -32,10 +32,11 @@
 use super::job::{Job, Oil};
 use super::ledger::{denoised, simple_payback, LedgerItem};
 use super::motor::{TYPICAL_FIXED_LOSS_SHARE, TYPICAL_PEAK_ALLOWANCE};
+use super::solve::{DesignReport, JobReport};
 use super::units::{Measure, KILOWATT_HOUR};
 use super::valve::{TYPICAL_CHECK_CRACKING_PA, TYPICAL_UNLOADED_DROP_PA};
-use super::solve::{DesignReport, JobReport};
 use serde::Serialize;
+use uom::si::energy::kilowatt_hour;
 use uom::si::f64::Volume;
 
 /// One design's column of the comparison. Exact values; round with [`for_customer`] to show.
@@ -91,8 +92,8 @@ pub fn columns(job: &Job, report: &JobReport) -> Vec<QuoteColumn> {
             let against_baseline = baseline.filter(|_| i > 0).map(|b| {
                 // Two solves of nearly the same unit differ in the last digits: that is no saving.
                 let energy = denoised(
-                    b.annual_energy_kwh - t.annual_energy_kwh,
-                    b.annual_energy_kwh,
+                    b.annual_energy.get::<kilowatt_hour>() - t.annual_energy.get::<kilowatt_hour>(),
+                    b.annual_energy.get::<kilowatt_hour>(),
                 );
                 let cost = denoised(b.annual_cost - t.annual_cost, b.annual_cost);
                 Saving {
@@ -116,7 +117,7 @@ pub fn columns(job: &Job, report: &JobReport) -> Vec<QuoteColumn> {
                 cycle_time_s: cycle,
                 parts_per_hour: if cycle > 0.0 { 3600.0 / cycle } else { 0.0 },
                 energy_per_cycle_j: t.energy_per_cycle.value,
-                annual_energy_kwh: t.annual_energy_kwh,
+                annual_energy_kwh: t.annual_energy.get::<kilowatt_hour>(),
                 heat_load_w: t.heat_load.value,
                 heat_load_btu_per_hour: t.heat_load_btu_per_hour,
                 oil_rise_k_per_hour: t.oil_rise_k_per_minute * 60.0,
@@ -125,7 +126,7 @@ pub fn columns(job: &Job, report: &JobReport) -> Vec<QuoteColumn> {
                     r,
                     job.site.operating_hours_per_year,
                 ),
-                co2_kg_per_year: grid.map(|g| t.annual_energy_kwh * g),
+                co2_kg_per_year: grid.map(|g| t.annual_energy.get::<kilowatt_hour>() * g),
                 against_baseline,
             }
         })

@@ -10,13 +10,14 @@
 
 use super::cycle::{HoldMode, Phase, PhaseKind, SpeedRule};
 use super::finding::Finding;
+use super::job::Job;
 use super::ledger::{watts, PowerLedger};
+use super::ledger::{Comparison, CycleTotals};
 use super::power_unit::{Design, PhaseSetting};
 use super::pump::PumpControl;
-use super::valve::{ActiveLimit, IdlePath, ReliefCharacteristic};
-use super::job::Job;
-use super::ledger::{Comparison, CycleTotals};
+use super::units::{cubic_metres_per_second, seconds_of};
 use super::validate::InputError;
+use super::valve::{ActiveLimit, IdlePath, ReliefCharacteristic};
 use serde::Serialize;
 use uom::si::f64::{Pressure, Time, Velocity, VolumeRate};
 
@@ -152,7 +153,11 @@ pub(crate) fn solve_design(job: &Job, design: &Design) -> DesignReport {
         .collect();
     let totals = super::ledger::cycle_totals(&timed, &job.site, &job.oil);
     let mut findings = design_findings(design);
-    findings.extend(super::ledger::motor_findings(&design.motor, &totals, &timed));
+    findings.extend(super::ledger::motor_findings(
+        &design.motor,
+        &totals,
+        &timed,
+    ));
     DesignReport {
         name: design.name.clone(),
         phases,
@@ -304,8 +309,8 @@ pub(crate) fn solve_phase(
             if unloaded != (point.pressure >= setting) {
                 point.findings.push(Finding::Hunting {
                     pump: i + 1,
-                    setting_pa: setting,
-                    pressure_pa: point.pressure,
+                    setting: pascals(setting),
+                    pressure: pascals(point.pressure),
                     solved_unloaded: unloaded,
                 });
             }
@@ -357,8 +362,8 @@ fn solve_state(
                     return point;
                 }
                 point.findings.push(Finding::DemandUnmet {
-                    wanted_m3_per_s: wanted,
-                    available_m3_per_s: available.max(0.0),
+                    wanted: cubic_metres_per_second(wanted),
+                    available: cubic_metres_per_second(available.max(0.0)),
                 });
             }
             take_all_flow(
@@ -388,8 +393,8 @@ fn solve_state(
                 return point;
             }
             point.findings.push(Finding::DemandUnmet {
-                wanted_m3_per_s: flow,
-                available_m3_per_s: available.max(0.0),
+                wanted: cubic_metres_per_second(flow),
+                available: cubic_metres_per_second(available.max(0.0)),
             });
             take_all_flow(unit, relief, point, pressure, mask, |_| duration, None)
         }
@@ -406,8 +411,8 @@ fn solve_state(
             };
             if mode == HoldMode::HeldByPump && pressure < required * (1.0 - 1e-9) {
                 point.findings.push(Finding::HoldBelowRequired {
-                    required_pa: required,
-                    reached_pa: pressure,
+                    required: pascals(required),
+                    reached: pascals(pressure),
                 });
             }
             point
@@ -453,9 +458,9 @@ fn take_all_flow(
         point.duration = duration_at(flow);
         if leak > 0.0 {
             point.findings.push(Finding::ReliefLeaks {
-                working_pa: need,
-                cracking_pa: relief.cracking,
-                leak_m3_per_s: leak,
+                working: pascals(need),
+                cracking: pascals(relief.cracking),
+                leak: cubic_metres_per_second(leak),
             });
         }
         return point;
@@ -465,9 +470,9 @@ fn take_all_flow(
     if let Some(volume) = stall_volume {
         point.duration = volume / unit.swept(mask);
         point.findings.push(Finding::Stall {
-            needed_pa: need,
-            limit_pa: point.pressure,
-            duration_s: point.duration,
+            needed: pascals(need),
+            limit: pascals(point.pressure),
+            duration: seconds_of(point.duration),
         });
     } else {
         point.duration = duration_at(0.0);
@@ -572,8 +577,8 @@ pub(crate) fn flow_control_starved(
     let available = report.point.system_pressure.value - m.load_pressure() - m.line_loss.value;
     let needed = policy.flow_control_drop.value;
     (available < needed * (1.0 - 1e-9)).then_some(Finding::FlowControlStarved {
-        available_pa: available.max(0.0),
-        needed_pa: needed,
+        available: pascals(available.max(0.0)),
+        needed: pascals(needed),
     })
 }
 
@@ -618,9 +623,9 @@ pub(crate) fn design_findings(design: &Design) -> Vec<Finding> {
                 let (p, flow) = dead_headed(&unit, governing);
                 findings.push(Finding::ReliefAtCompensator {
                     remote_stage,
-                    cracking_pa: cracking,
-                    dead_head_pa: dead_head,
-                    burns_w: p * flow,
+                    cracking: pascals(cracking),
+                    dead_head: pascals(dead_head),
+                    burns: watts(p * flow),
                 });
             }
         }
@@ -628,8 +633,8 @@ pub(crate) fn design_findings(design: &Design) -> Vec<Finding> {
     let all_pumps = unit.swept(0);
     if design.relief.rated_flow.value < all_pumps * (1.0 - 1e-9) {
         findings.push(Finding::ReliefUndersized {
-            rated_m3_per_s: design.relief.rated_flow.value,
-            pumps_m3_per_s: all_pumps,
+            rated: cubic_metres_per_second(design.relief.rated_flow.value),
+            pumps: cubic_metres_per_second(all_pumps),
         });
     }
     let main = design.relief.setting.value;
@@ -637,8 +642,8 @@ pub(crate) fn design_findings(design: &Design) -> Vec<Finding> {
         if remote.value >= main {
             findings.push(Finding::RemoteAboveMain {
                 stage,
-                remote_pa: remote.value,
-                main_pa: main,
+                remote: pascals(remote.value),
+                main: pascals(main),
             });
         }
     }
@@ -648,8 +653,8 @@ pub(crate) fn design_findings(design: &Design) -> Vec<Finding> {
         if setting >= main {
             findings.push(Finding::NeverUnloads {
                 pump: i + 1,
-                setting_pa: setting,
-                relief_pa: main,
+                setting: pascals(setting),
+                relief: pascals(main),
             });
         }
         let seen = setting.min(main) + s.check.cracking.value;
@@ -657,8 +662,8 @@ pub(crate) fn design_findings(design: &Design) -> Vec<Finding> {
             findings.push(Finding::AboveRating {
                 pump: i + 1,
                 what: "unloading setting",
-                setting_pa: seen,
-                rating_pa: s.pump.rated_pressure.value,
+                setting: pascals(seen),
+                rating: pascals(s.pump.rated_pressure.value),
             });
         }
     }
@@ -666,8 +671,8 @@ pub(crate) fn design_findings(design: &Design) -> Vec<Finding> {
         findings.push(Finding::AboveRating {
             pump: count,
             what: "main relief setting",
-            setting_pa: main,
-            rating_pa: design.base_pump.rated_pressure.value,
+            setting: pascals(main),
+            rating: pascals(design.base_pump.rated_pressure.value),
         });
     }
     for (i, pump) in design.pumps().enumerate() {
@@ -676,8 +681,8 @@ pub(crate) fn design_findings(design: &Design) -> Vec<Finding> {
                 findings.push(Finding::AboveRating {
                     pump: i + 1,
                     what: "compensator setting",
-                    setting_pa: setting.value,
-                    rating_pa: pump.rated_pressure.value,
+                    setting: pascals(setting.value),
+                    rating: pascals(pump.rated_pressure.value),
                 });
             }
         }

@@ -58,6 +58,7 @@
 //! options') input errors instead of assuming a valid job.
 
 use super::cycle::PhaseKind;
+use super::finding::Finding;
 use super::job::Job;
 use super::power_unit::{Design, UnloadingStage};
 use super::pump::{Pump, PumpControl};
@@ -65,7 +66,6 @@ use super::settings::{self, FlowNeed, UnloadingWindow};
 use super::solve::solve_design;
 use super::validate::InputError;
 use super::valve::{ActiveLimit, CheckValve, IdlePath, UnloadingValve};
-use super::finding::Finding;
 use serde::Serialize;
 use uom::si::f64::{AngularVelocity, Power, Pressure, Volume};
 

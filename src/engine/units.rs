@@ -6,6 +6,12 @@
 //! thermochemical one).
 
 use serde::{Deserialize, Serialize};
+use uom::si::energy::kilowatt_hour;
+use uom::si::f64::{AngularVelocity, Energy, Power, Pressure, Time, VolumeRate};
+use uom::si::power::kilowatt;
+use uom::si::pressure::bar;
+use uom::si::time::second;
+use uom::si::volume_rate::liter_per_minute;
 
 /// One inch in metres (exact).
 pub const INCH: f64 = 0.0254;
@@ -28,6 +34,57 @@ pub const GALLON_PER_MINUTE: f64 = US_GALLON / 60.0;
 /// One kilowatt-hour in joules (exact).
 pub const KILOWATT_HOUR: f64 = 3.6e6;
 
+/// The trade's US customary units as uom units at NIST SP 811's exact definitions (uom's own
+/// are rounded, see the module doc). Each is defined once, from the constants above, so no
+/// other file repeats a conversion factor: `Pressure::new::<psi>(3000.0)`.
+pub mod us {
+    /// psi, a pound-force per square inch.
+    pub mod pressure {
+        unit! {
+            system: uom::si;
+            quantity: uom::si::pressure;
+            @psi: crate::units::PSI; "psi", "pound-force per square inch",
+                "pounds-force per square inch";
+        }
+    }
+    /// The US gallon of 231 cubic inches.
+    pub mod volume {
+        unit! {
+            system: uom::si;
+            quantity: uom::si::volume;
+            @us_gallon: crate::units::US_GALLON; "gal", "US gallon", "US gallons";
+        }
+    }
+    /// US gallons per minute.
+    pub mod volume_rate {
+        unit! {
+            system: uom::si;
+            quantity: uom::si::volume_rate;
+            @gallon_per_minute: crate::units::GALLON_PER_MINUTE; "gpm", "US gallon per minute",
+                "US gallons per minute";
+        }
+    }
+    /// Mechanical horsepower, and the Btu_IT per hour heat loads are quoted in.
+    pub mod power {
+        unit! {
+            system: uom::si;
+            quantity: uom::si::power;
+            @horsepower: crate::units::HORSEPOWER; "hp", "horsepower", "horsepower";
+            @btu_it_per_hour: crate::units::BTU_IT / 3600.0; "Btu/h",
+                "British thermal unit (IT) per hour", "British thermal units (IT) per hour";
+        }
+    }
+    /// The International Table Btu.
+    pub mod energy {
+        unit! {
+            system: uom::si;
+            quantity: uom::si::energy;
+            @btu_it: crate::units::BTU_IT; "Btu", "British thermal unit (IT)",
+                "British thermal units (IT)";
+        }
+    }
+}
+
 /// The units a job is shown in. It changes what is displayed, never the physics.
 #[derive(Clone, Copy, Debug, PartialEq, Eq, Serialize, Deserialize, Default)]
 #[serde(rename_all = "snake_case")]
@@ -40,29 +97,66 @@ pub enum UnitSystem {
 }
 
 impl UnitSystem {
-    /// A pressure (Pa) in this system's unit, e.g. "210.0 bar" or "3046 psi".
-    pub fn pressure(self, pa: f64) -> String {
+    /// A pressure in this system's unit, e.g. "210.0 bar" or "3046 psi".
+    pub fn pressure(self, p: Pressure) -> String {
         match self {
-            UnitSystem::Si => format!("{:.1} bar", pa / BAR),
-            UnitSystem::UsCustomary => format!("{:.0} psi", pa / PSI),
+            UnitSystem::Si => format!("{:.1} bar", p.get::<bar>()),
+            UnitSystem::UsCustomary => format!("{:.0} psi", p.get::<us::pressure::psi>()),
         }
     }
 
-    /// A flow (m^3/s), e.g. "45.0 L/min" or "11.9 gpm".
-    pub fn flow(self, m3_per_s: f64) -> String {
+    /// A flow, e.g. "45.0 L/min" or "11.9 gpm".
+    pub fn flow(self, q: VolumeRate) -> String {
         match self {
-            UnitSystem::Si => format!("{:.1} L/min", m3_per_s / LITRE_PER_MINUTE),
-            UnitSystem::UsCustomary => format!("{:.1} gpm", m3_per_s / GALLON_PER_MINUTE),
+            UnitSystem::Si => format!("{:.1} L/min", q.get::<liter_per_minute>()),
+            UnitSystem::UsCustomary => {
+                format!("{:.1} gpm", q.get::<us::volume_rate::gallon_per_minute>())
+            }
         }
     }
 
-    /// A power (W), e.g. "7.50 kW" or "10.06 hp".
-    pub fn power(self, w: f64) -> String {
+    /// A power, e.g. "7.50 kW" or "10.06 hp".
+    pub fn power(self, p: Power) -> String {
         match self {
-            UnitSystem::Si => format!("{:.2} kW", w / 1e3),
-            UnitSystem::UsCustomary => format!("{:.2} hp", w / HORSEPOWER),
+            UnitSystem::Si => format!("{:.2} kW", p.get::<kilowatt>()),
+            UnitSystem::UsCustomary => format!("{:.2} hp", p.get::<us::power::horsepower>()),
         }
     }
+}
+
+/// Quantities from the plain SI numbers the inner solve works in.
+pub fn pascals(v: f64) -> Pressure {
+    Pressure::new::<uom::si::pressure::pascal>(v)
+}
+
+pub fn watts(v: f64) -> Power {
+    Power::new::<uom::si::power::watt>(v)
+}
+
+pub fn seconds_of(v: f64) -> Time {
+    Time::new::<second>(v)
+}
+
+pub fn joules(v: f64) -> Energy {
+    Energy::new::<uom::si::energy::joule>(v)
+}
+
+pub fn cubic_metres_per_second(v: f64) -> VolumeRate {
+    VolumeRate::new::<uom::si::volume_rate::cubic_meter_per_second>(v)
+}
+
+pub fn radians_per_second(v: f64) -> AngularVelocity {
+    AngularVelocity::new::<uom::si::angular_velocity::radian_per_second>(v)
+}
+
+pub fn kilowatt_hours(v: f64) -> Energy {
+    Energy::new::<kilowatt_hour>(v)
+}
+
+/// Writes an energy as kilowatt-hours in a job's report, where yearly figures have always been
+/// kept in kWh (`#[serde(serialize_with = "...")]`).
+pub fn as_kilowatt_hours<S: serde::Serializer>(e: &Energy, s: S) -> Result<S::Ok, S::Error> {
+    s.serialize_f64(e.get::<kilowatt_hour>())
 }
 
 /// What a number on screen measures: it decides the unit shown beside it in each system, the
@@ -217,7 +311,6 @@ pub fn parse_number(text: &str) -> Option<f64> {
         .filter(|v| v.is_finite())
 }
 
-/// Seconds, shown to a tenth: durations in a machine cycle.
 /// A list of numbers typed in a measure's shown unit ("8, 16, 25", "8 16 25" or "8; 16; 25";
 /// "6,3" is a decimal comma), as SI values; or what is wrong with it.
 pub fn parse_list(text: &str, measure: Measure, system: UnitSystem) -> Result<Vec<f64>, String> {
@@ -260,8 +353,9 @@ pub fn format_list(values: &[f64], measure: Measure, system: UnitSystem) -> Stri
         .join(", ")
 }
 
-pub fn seconds(s: f64) -> String {
-    format!("{s:.1} s")
+/// Seconds, shown to a tenth: durations in a machine cycle.
+pub fn seconds(t: Time) -> String {
+    format!("{:.1} s", t.get::<second>())
 }
 
 #[cfg(test)]
@@ -320,6 +414,29 @@ mod tests {
         assert!(close(hp, 7.0 / 12_000.0, 1e-12));
         // 1 hp = 2544.4336 Btu_IT/h (REFERENCES: derived from SP 811), to the printed digits.
         assert!(close(HORSEPOWER / (BTU_IT / 3600.0), 2544.4336, 1e-8));
+    }
+
+    #[test]
+    fn the_projects_uom_units_are_the_exact_definitions() {
+        use super::us;
+        use uom::si::f64::{Energy, Volume};
+        // NIST SP 811 (2008), Appendix B.8 and B.9, as above: each unit is its constant.
+        assert_eq!(Pressure::new::<us::pressure::psi>(1.0).value, PSI);
+        assert_eq!(Volume::new::<us::volume::us_gallon>(1.0).value, US_GALLON);
+        assert_eq!(
+            VolumeRate::new::<us::volume_rate::gallon_per_minute>(1.0).value,
+            GALLON_PER_MINUTE
+        );
+        assert_eq!(Power::new::<us::power::horsepower>(1.0).value, HORSEPOWER);
+        assert_eq!(Energy::new::<us::energy::btu_it>(1.0).value, BTU_IT);
+        assert!(close(
+            Power::new::<us::power::btu_it_per_hour>(1.0).value,
+            0.293_071_070_172_2,
+            1e-12
+        ));
+        // Read back in the unit, a figure is the figure typed.
+        let p = Pressure::new::<us::pressure::psi>(3000.0);
+        assert!(close(p.get::<us::pressure::psi>(), 3000.0, 1e-15));
     }
 
     #[test]
@@ -401,9 +518,20 @@ mod tests {
 
     #[test]
     fn display_in_either_system() {
-        assert_eq!(UnitSystem::Si.pressure(210e5), "210.0 bar");
-        assert_eq!(UnitSystem::UsCustomary.pressure(1000.0 * PSI), "1000 psi");
-        assert_eq!(UnitSystem::Si.flow(45.0 * LITRE_PER_MINUTE), "45.0 L/min");
-        assert_eq!(UnitSystem::UsCustomary.power(10.0 * HORSEPOWER), "10.00 hp");
+        use super::us::{power::horsepower, pressure::psi};
+        assert_eq!(
+            UnitSystem::Si.pressure(Pressure::new::<bar>(210.0)),
+            "210.0 bar"
+        );
+        assert_eq!(
+            UnitSystem::UsCustomary.pressure(Pressure::new::<psi>(1000.0)),
+            "1000 psi"
+        );
+        let q = VolumeRate::new::<liter_per_minute>(45.0);
+        assert_eq!(UnitSystem::Si.flow(q), "45.0 L/min");
+        assert_eq!(
+            UnitSystem::UsCustomary.power(Power::new::<horsepower>(10.0)),
+            "10.00 hp"
+        );
     }
 }

@@ -7,7 +7,9 @@ use super::cycle::{Load, PhaseKind, SpeedRule};
 use super::job::{Job, SCHEMA_VERSION};
 use super::power_unit::{Design, MAX_PUMPS};
 use super::pump::{Pump, PumpControl};
-use super::units::{Measure, UnitSystem, BAR, LITRE_PER_MINUTE};
+use super::units::{
+    cubic_metres_per_second, pascals, watts, Measure, UnitSystem, BAR, LITRE_PER_MINUTE,
+};
 use super::valve::{ActiveLimit, IdlePath};
 use serde::Serialize;
 
@@ -103,15 +105,19 @@ impl Checker {
     }
 
     fn pressure(&mut self, field: &str, value: f64, zero_ok: bool) -> bool {
-        self.amount(field, value, zero_ok, MAX_PRESSURE, UnitSystem::pressure)
+        self.amount(field, value, zero_ok, MAX_PRESSURE, |u, v| {
+            u.pressure(pascals(v))
+        })
     }
 
     fn flow(&mut self, field: &str, value: f64, zero_ok: bool) -> bool {
-        self.amount(field, value, zero_ok, MAX_FLOW, UnitSystem::flow)
+        self.amount(field, value, zero_ok, MAX_FLOW, |u, v| {
+            u.flow(cubic_metres_per_second(v))
+        })
     }
 
     fn power(&mut self, field: &str, value: f64, zero_ok: bool) -> bool {
-        self.amount(field, value, zero_ok, MAX_POWER, UnitSystem::power)
+        self.amount(field, value, zero_ok, MAX_POWER, |u, v| u.power(watts(v)))
     }
 
     /// As `amount`, with the figures in the field's own unit and the job's unit system, rounded

@@ -6,9 +6,9 @@
 //! that a spreadsheet would take for a formula gets a leading apostrophe (common practice
 //! against formula injection).
 
+use phasewise_engine::ledger::LedgerItem;
 use phasewise_engine::units::{Measure, UnitSystem};
 use phasewise_engine::{DesignReport, PowerLedger};
-use phasewise_engine::ledger::LedgerItem;
 
 /// The ledger's items, in the order of the columns.
 fn ledger_items(l: &PowerLedger) -> [f64; 9] {

@@ -329,7 +329,11 @@ mod tests {
     /// than write it.
     #[test]
     fn a_blank_job_is_refused_rather_than_written_half_typed() {
-        let job = Job::blank("New job".into(), phasewise_engine::units::UnitSystem::Si, "GBP".into());
+        let job = Job::blank(
+            "New job".into(),
+            phasewise_engine::units::UnitSystem::Si,
+            "GBP".into(),
+        );
         assert!(job_file(&job).is_err());
     }
     use phasewise_engine::demo::scrap_baler;

@@ -12,9 +12,9 @@
 //! ([`crate::library::IMPORT_LIMIT_BYTES`]) before the import checks. [`qr`] draws the code as
 //! one SVG path from the `qrcode` crate's modules, with the four-module quiet zone.
 
-use phasewise_engine::Job;
 use crate::library;
 use base64::Engine as _;
+use phasewise_engine::Job;
 
 /// What starts a fragment that carries a job.
 pub const FRAGMENT_PREFIX: &str = "#share=";

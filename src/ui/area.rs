@@ -228,7 +228,10 @@ mod tests {
                 "{area:?}: “{label}” is not in “{}”",
                 area.title()
             );
-            assert!(!["Settings", "Options", "Preferences", "Pump"].contains(&label), "{area:?}");
+            assert!(
+                !["Settings", "Options", "Preferences", "Pump"].contains(&label),
+                "{area:?}"
+            );
         }
     }
 }

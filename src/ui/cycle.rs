@@ -1,11 +1,11 @@
 //! The cycle area: the machine's phases in order, each opened to edit its figures.
 
 use super::field::{ChoiceField, NumberField, TextField, UnitSwitch};
+use super::shared::ExampleBanner;
 use super::state::use_job;
 use crate::engine::cycle::*;
 use crate::engine::units::Measure;
 use crate::engine::Job;
-use super::shared::ExampleBanner;
 use leptos::prelude::*;
 use uom::si::f64::*;
 

@@ -34,7 +34,8 @@ pub const DISPLAY_KEY: &str = "phasewise.display";
 impl Display {
     /// The switches as kept on the device (none kept, or unreadable: the plain view).
     pub fn from_stored(text: Option<&str>) -> Display {
-        text.and_then(|t| serde_json::from_str(t).ok()).unwrap_or_default()
+        text.and_then(|t| serde_json::from_str(t).ok())
+            .unwrap_or_default()
     }
 }
 

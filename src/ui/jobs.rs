@@ -14,8 +14,8 @@
 use super::field::TextField;
 use super::state::use_job;
 use super::storage::{
-    download, file_stem, flush_pending, local_storage, load_all, now_ms, open, save_now, stored_ids, stored_names,
-    strs, use_storage, write, SaveNote,
+    download, file_stem, flush_pending, load_all, local_storage, now_ms, open, save_now,
+    stored_ids, stored_names, strs, use_storage, write, SaveNote,
 };
 use crate::engine::Job;
 use crate::formats::library::{self, Entry};
@@ -75,8 +75,14 @@ pub fn JobsArea() -> impl IntoView {
     };
     let new_blank = move |_: leptos::ev::MouseEvent| {
         let taken = stored_names(&storage);
-        let (units, currency) = state.job.with_untracked(|j| (j.units, j.site.currency.clone()));
-        start(Job::blank(library::unique_name("New job", &strs(&taken)), units, currency));
+        let (units, currency) = state
+            .job
+            .with_untracked(|j| (j.units, j.site.currency.clone()));
+        start(Job::blank(
+            library::unique_name("New job", &strs(&taken)),
+            units,
+            currency,
+        ));
     };
     let new_copy = move |_: leptos::ev::MouseEvent| {
         let taken = stored_names(&storage);

@@ -2,6 +2,7 @@
 //! each phase.
 
 use super::field::{ChoiceField, NumberField, OptionalNumberField, TextField, UnitSwitch};
+use super::shared::{DesignTabs, OlderBaselineNotice, SettingsCaution};
 use super::state::use_job;
 use crate::engine::cycle::PhaseKind;
 use crate::engine::power_unit::{Design, UnloadingStage, MAX_PUMPS};
@@ -9,7 +10,6 @@ use crate::engine::pump::{Pump, PumpControl};
 use crate::engine::units::Measure;
 use crate::engine::valve::{ActiveLimit, CheckValve, IdlePath, ReliefKind, UnloadingValve};
 use crate::engine::Job;
-use super::shared::{DesignTabs, OlderBaselineNotice, SettingsCaution};
 use leptos::prelude::*;
 use uom::si::f64::Pressure;
 use uom::si::pressure::{bar, pascal};
@@ -63,7 +63,10 @@ pub fn UnitArea() -> impl IntoView {
             let copy = match j.designs.get(from) {
                 // A copy of the baseline remembers which "as found" it was made from.
                 Some(baseline) if from == 0 => Design::proposal_from(baseline, name),
-                Some(other) => Design { name, ..other.clone() },
+                Some(other) => Design {
+                    name,
+                    ..other.clone()
+                },
                 None => return,
             };
             j.designs.push(copy);

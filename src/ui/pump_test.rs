@@ -5,6 +5,7 @@
 
 use super::field::{ChoiceField, NumberField, OptionalNumberField, TextField};
 use super::icons::CautionIcon;
+use super::shared::{percent, verdict_words};
 use super::state::use_job;
 use crate::engine::efficiency::{
     self, ElectricalInput, MotorEfficiency, PumpTest, Reading, SpeedFrom, TestReport,
@@ -12,7 +13,6 @@ use crate::engine::efficiency::{
 use crate::engine::motor::EfficiencyClass;
 use crate::engine::units::{Measure, UnitSystem};
 use crate::engine::Job;
-use super::shared::{percent, verdict_words};
 use leptos::prelude::*;
 use uom::si::f64::{
     AngularVelocity, ElectricCurrent, ElectricPotential, Power, Pressure, Torque, VolumeRate,

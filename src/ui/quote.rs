@@ -174,11 +174,13 @@ pub fn ComparisonTable(
     let head = columns
         .iter()
         .enumerate()
-        .map(|(i, c)| view! {
-            <th scope="col" data-design=i>
-                {c.name.clone()}
-                {(i == 0).then(|| view! { <span class="role-tag">" (baseline)"</span> })}
-            </th>
+        .map(|(i, c)| {
+            view! {
+                <th scope="col" data-design=i>
+                    {c.name.clone()}
+                    {(i == 0).then(|| view! { <span class="role-tag">" (baseline)"</span> })}
+                </th>
+            }
         })
         .collect_view();
     let body = |rows: &[Row]| {

@@ -219,11 +219,11 @@ fn DesignSection(
             let control = match pump.control {
                 PumpControl::Fixed => "fixed".to_string(),
                 PumpControl::Compensated { setting } => {
-                    format!("pressure-compensated at {}", units.pressure(setting.value))
+                    format!("pressure-compensated at {}", units.pressure(setting))
                 }
             };
             let unloads = stage.map_or(String::new(), |s| {
-                format!("; unloads at {}", units.pressure(s.unloading.setting.value))
+                format!("; unloads at {}", units.pressure(s.unloading.setting))
             });
             format!(
                 "Pump {}: {}, {control}{unloads}",
@@ -238,7 +238,7 @@ fn DesignSection(
             ReliefKind::DirectActing => "direct-acting",
             ReliefKind::PilotOperated => "pilot-operated",
         },
-        units.pressure(design.relief.setting.value),
+        units.pressure(design.relief.setting),
         if design.remote_stages.is_empty() {
             String::new()
         } else {
@@ -247,7 +247,7 @@ fn DesignSection(
                 design
                     .remote_stages
                     .iter()
-                    .map(|p| units.pressure(p.value))
+                    .map(|p| units.pressure(*p))
                     .collect::<Vec<_>>()
                     .join(", ")
             )

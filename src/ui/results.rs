@@ -2,16 +2,17 @@
 //! job has an error, the last good results stay, marked stale, with what to fix.
 
 use super::charts::{LedgerChart, TimelineChart};
-use super::field::UnitSwitch;
 use super::display::DisplaySwitches;
-use super::state::use_job;
+use super::field::UnitSwitch;
 use super::shared::DesignTabs;
+use super::shared::StaleNotice;
+use super::state::use_job;
+use crate::engine::ledger::LedgerItem;
 use crate::engine::units::{Measure, UnitSystem};
 use crate::engine::valve::ActiveLimit;
 use crate::engine::{DesignReport, JobReport, PumpState};
-use crate::engine::ledger::LedgerItem;
-use super::shared::StaleNotice;
 use leptos::prelude::*;
+use uom::si::energy::kilowatt_hour;
 
 #[component]
 pub fn ResultsArea() -> impl IntoView {
@@ -73,7 +74,7 @@ fn ReportView(
                     <Figure label="Average power saved" value=Measure::Power.with_unit(units, c.average_power_saved.value) key="saved-power" />
                     <Figure label="Less heat into the oil" value=Measure::Heat.with_unit(units, c.heat_load_saved.value) key="saved-heat" />
                     <Figure label="Motor RMS load saved" value=Measure::Power.with_unit(units, c.rms_shaft_saved.value) key="saved-rms" />
-                    <Figure label="Energy saved a year" value=format!("{:.0} kWh", c.annual_energy_saved_kwh) key="saved-energy" />
+                    <Figure label="Energy saved a year" value=format!("{:.0} kWh", c.annual_energy_saved.get::<kilowatt_hour>()) key="saved-energy" />
                     <Figure label="Cost saved a year" value=format!("{:.0} {currency}", c.annual_cost_saved) key="saved-cost" />
                     <Figure label="Simple payback" value=crate::formats::quote_text::payback_text(c.payback_years, crate::formats::quote_text::Precision::ForCustomer) key="payback" />
                 </dl>
@@ -117,21 +118,21 @@ fn PhasesByEnergy(report: std::sync::Arc<JobReport>, d: usize, units: UnitSystem
         <h2>"Where each cycle's energy goes"</h2>
         <ol class="card energy-rank" data-energy-rank="true">
             {ranked.into_iter().map(|e| {
-                let pressures = match e.needed_pa {
-                    Some(need) if (e.pump_pa - need).abs() > need.abs() * 0.01 + 1e3 => format!(
+                let pressures = match e.needed.map(|q| q.value) {
+                    Some(need) if (e.pump.value - need).abs() > need.abs() * 0.01 + 1e3 => format!(
                         "needs {}, pump at {}",
                         Measure::Pressure.with_unit(units, need),
-                        Measure::Pressure.with_unit(units, e.pump_pa)
+                        Measure::Pressure.with_unit(units, e.pump.value)
                     ),
                     Some(need) => format!("at {}", Measure::Pressure.with_unit(units, need)),
-                    None => format!("needs no pressure, pump at {}", Measure::Pressure.with_unit(units, e.pump_pa)),
+                    None => format!("needs no pressure, pump at {}", Measure::Pressure.with_unit(units, e.pump.value)),
                 };
                 view! {
                     <li data-phase=e.phase>
                         <span class="rank-name">{format!("{}. {}", e.phase + 1, e.name)}</span>
                         <span class="rank-energy" data-value="energy">{format!(
                             "{} per cycle, {:.0} % of it",
-                            Measure::Energy.with_unit(units, e.energy_j),
+                            Measure::Energy.with_unit(units, e.energy.value),
                             e.share * 100.0
                         )}</span>
                         <span class="rank-pressure" data-value="pressures">{pressures}</span>
@@ -167,7 +168,7 @@ fn Totals(design: DesignReport, units: UnitSystem, currency: String) -> impl Int
                 <Figure label="Motor load, peak" value=Measure::Power.with_unit(units, t.peak_shaft.value) key="peak-shaft" />
                 <Figure label="Heat into the oil" value=Measure::Heat.with_unit(units, t.heat_load.value) key="heat" />
                 <Figure label="Oil warms, no cooler" value=Measure::RiseRate.with_unit(units, t.oil_rise_k_per_minute) key="oil-rise" />
-                <Figure label="Energy a year" value=format!("{:.0} kWh", t.annual_energy_kwh) key="annual-energy" />
+                <Figure label="Energy a year" value=format!("{:.0} kWh", t.annual_energy.get::<kilowatt_hour>()) key="annual-energy" />
                 <Figure label="Running cost a year" value=format!("{:.0} {currency}", t.annual_cost) key="annual-cost" />
             </dl>
         </div>
@@ -260,7 +261,7 @@ pub fn PresenterPanel() -> impl IntoView {
                 [
                     Measure::Power.with_unit(units, t.average_electrical.value),
                     Measure::Heat.with_unit(units, t.heat_load.value),
-                    format!("{:.0} kWh", t.annual_energy_kwh),
+                    format!("{:.0} kWh", t.annual_energy.get::<kilowatt_hour>()),
                     format!("{:.0} {currency}", t.annual_cost),
                     Measure::Duration.with_unit(units, t.cycle_time.value),
                 ],
@@ -278,7 +279,9 @@ pub fn PresenterPanel() -> impl IntoView {
     });
     on_cleanup(move || entered.remove());
     Effect::new(move |_| {
-        let Some((name, now)) = figures.get() else { return };
+        let Some((name, now)) = figures.get() else {
+            return;
+        };
         match anchor.get_value() {
             Some((anchor_name, was)) if anchor_name == name => {
                 before.set((was != now).then_some(was));

@@ -10,8 +10,8 @@
 //! The QR code stays black on white in every display mode, and "Show the code large" fills
 //! the screen for a projector.
 
-use super::storage::{load_all, now_ms, open, stored_ids, stored_names, strs, write, Storage};
 use super::state::use_job;
+use super::storage::{load_all, now_ms, open, stored_ids, stored_names, strs, write, Storage};
 use crate::engine::Job;
 use crate::formats::library::{self, Entry};
 use crate::formats::share;
@@ -48,7 +48,8 @@ pub fn receive(storage: &Storage, fragment: &str) -> bool {
                     _ => None,
                 })
             });
-            if let Some((id, stored)) = same.and_then(|id| stored_job(storage, &id).map(|j| (id, j)))
+            if let Some((id, stored)) =
+                same.and_then(|id| stored_job(storage, &id).map(|j| (id, j)))
             {
                 let name = stored.name.clone();
                 open(storage, &id, stored);
@@ -133,7 +134,8 @@ pub fn SharePanel() -> impl IntoView {
     let made = Memo::new(move |_| {
         shown.get().then(|| {
             state.job.with(|job| {
-                crate::formats::library::job_file(job).map(|_| share::link(&address.get_value(), job))
+                crate::formats::library::job_file(job)
+                    .map(|_| share::link(&address.get_value(), job))
             })
         })
     });

@@ -14,7 +14,9 @@ use leptos::prelude::*;
 /// The power unit `d` of a report, or its last one when `d` is past the end (a power unit just
 /// removed): what every view of "the power unit shown" reads.
 pub(super) fn shown_design(report: &JobReport, d: usize) -> Option<&crate::engine::DesignReport> {
-    report.designs.get(d.min(report.designs.len().saturating_sub(1)))
+    report
+        .designs
+        .get(d.min(report.designs.len().saturating_sub(1)))
 }
 
 /// Says the job is invented example data, while it is.
@@ -299,8 +301,17 @@ pub fn OlderBaselineNotice(place: &'static str) -> impl IntoView {
         let d = state.design_index();
         state.job.with(|j| {
             let baseline = j.designs.first()?;
-            let design = j.designs.get(d).filter(|x| d > 0 && x.made_from_older(baseline))?;
-            Some((d, design.name.clone(), baseline.name.clone(), machine_words(design, j.units), machine_words(baseline, j.units)))
+            let design = j
+                .designs
+                .get(d)
+                .filter(|x| d > 0 && x.made_from_older(baseline))?;
+            Some((
+                d,
+                design.name.clone(),
+                baseline.name.clone(),
+                machine_words(design, j.units),
+                machine_words(baseline, j.units),
+            ))
         })
     });
     move || {

@@ -191,15 +191,21 @@ pub fn save_now(storage: &Storage) {
         library::new_id(now_ms(), &strs(&taken))
     });
     let at = now_ms();
-    let text = match storage.state.job.with_untracked(|j| library::entry_to_store(j, at)) {
+    let text = match storage
+        .state
+        .job
+        .with_untracked(|j| library::entry_to_store(j, at))
+    {
         Ok(text) => text,
         Err(why) => {
             // A job never saved yet (a new, empty one) waits for its numbers: nothing is lost.
-            storage.save_note.set(if storage.current.get_untracked().is_some() {
-                SaveNote::Failed(why)
-            } else {
-                SaveNote::NotSaved
-            });
+            storage
+                .save_note
+                .set(if storage.current.get_untracked().is_some() {
+                    SaveNote::Failed(why)
+                } else {
+                    SaveNote::NotSaved
+                });
             return;
         }
     };

@@ -3,8 +3,8 @@
 //! design, never the baseline. The margins the advice uses are edited here too.
 
 use super::field::NumberField;
-use super::state::use_job;
 use super::shared::{DesignTabs, SettingsCaution};
+use super::state::use_job;
 use crate::engine::settings::{self, Severity};
 use crate::engine::units::Measure;
 use crate::engine::Job;
@@ -108,9 +108,9 @@ fn PhaseNeeds(job: Job, needs: Vec<settings::PhaseNeed>) -> impl IntoView {
                     {needs.iter().zip(&job.cycle).map(|(n, phase)| view! {
                         <tr>
                             <th scope="row">{phase.name.clone()}</th>
-                            <td>{p(n.need_pa)}</td>
-                            <td>{p(Some(n.limit_pa))}</td>
-                            <td>{p(n.lowest_pa)}</td>
+                            <td>{p(n.need.map(|q| q.value))}</td>
+                            <td>{p(Some(n.limit.value))}</td>
+                            <td>{p(n.lowest.map(|q| q.value))}</td>
                         </tr>
                     }).collect_view()}
                 </tbody>

@@ -6,7 +6,9 @@
 //! 20 microseconds, so a staging search over tens of thousands of designs stays interactive.
 //! Then the time of a whole staging search with the default lists.
 
-#[path = "../tests/common/mod.rs"]
+// The engine tests' builders; the bench uses a few of them.
+#[path = "../tests/engine/common.rs"]
+#[allow(dead_code)]
 mod common;
 
 use common::*;

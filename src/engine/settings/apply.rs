@@ -5,6 +5,7 @@ use crate::job::Job;
 use crate::power_unit::Design;
 use crate::solve::{solve_design, DesignReport};
 use crate::valve::{ActiveLimit, IdlePath};
+use uom::si::energy::kilowatt_hour;
 
 /// The design with `action` applied. Indices out of range change nothing.
 pub fn apply(design: &Design, action: &Action) -> Design {
@@ -89,7 +90,7 @@ pub(super) fn saving(
     before: &DesignReport,
     action: &Action,
     phase: Option<usize>,
-) -> (f64, f64) {
+) -> (Power, f64) {
     let after = solve_design(job, &apply(design, action));
     let in_phase = phase
         .and_then(|i| {
@@ -100,7 +101,8 @@ pub(super) fn saving(
         })
         .unwrap_or(0.0);
     (
-        in_phase,
-        before.totals.annual_energy_kwh - after.totals.annual_energy_kwh,
+        crate::units::watts(in_phase),
+        before.totals.annual_energy.get::<kilowatt_hour>()
+            - after.totals.annual_energy.get::<kilowatt_hour>(),
     )
 }

@@ -92,7 +92,7 @@ pub use windows::{
 pub use words::Described;
 
 use serde::{Deserialize, Serialize};
-use uom::si::f64::Pressure;
+use uom::si::f64::{Power, Pressure};
 
 pub use crate::policy::AdvicePolicy;
 pub use crate::power_unit::compensator_dead_head;
@@ -150,77 +150,115 @@ pub enum Rule {
     /// flow goes over the relief (or the flow control) at the higher pressure.
     LimitAboveNeed {
         phase: usize,
-        need_pa: f64,
-        limit_pa: f64,
-        lowest_pa: f64,
+        #[serde(rename = "need_pa")]
+        need: Pressure,
+        #[serde(rename = "limit_pa")]
+        limit: Pressure,
+        #[serde(rename = "lowest_pa")]
+        lowest: Pressure,
     },
     /// The valve's cracking pressure at the phase's limit is below what it needs: flow leaks
     /// over the relief while working, or the work stalls.
     LimitBelowNeed {
         phase: usize,
-        need_pa: f64,
-        limit_pa: f64,
-        lowest_pa: f64,
+        #[serde(rename = "need_pa")]
+        need: Pressure,
+        #[serde(rename = "limit_pa")]
+        limit: Pressure,
+        #[serde(rename = "lowest_pa")]
+        lowest: Pressure,
     },
     /// The limit is above the need and the valve stays shut while working, but with less
     /// margin than the rule asks.
     MarginThin {
         phase: usize,
-        need_pa: f64,
-        limit_pa: f64,
-        lowest_pa: f64,
+        #[serde(rename = "need_pa")]
+        need: Pressure,
+        #[serde(rename = "limit_pa")]
+        limit: Pressure,
+        #[serde(rename = "lowest_pa")]
+        lowest: Pressure,
     },
     /// A hold the pump keeps sits at its limit, with the pump's flow over the relief: a limit
     /// below the pressure it must hold falls short.
     HoldBelowNeed {
         phase: usize,
-        need_pa: f64,
-        limit_pa: f64,
+        #[serde(rename = "need_pa")]
+        need: Pressure,
+        #[serde(rename = "limit_pa")]
+        limit: Pressure,
     },
     /// A limit (main, or a phase's remote stage) that cracks at or below a compensated pump's
     /// dead-head pressure: the pump never destrokes and its whole flow crosses the relief.
     BelowCompensator {
         /// The phase on that limit; `None` for the main relief.
         phase: Option<usize>,
-        limit_pa: f64,
-        cracking_pa: f64,
-        dead_head_pa: f64,
-        lowest_pa: f64,
+        #[serde(rename = "limit_pa")]
+        limit: Pressure,
+        #[serde(rename = "cracking_pa")]
+        cracking: Pressure,
+        #[serde(rename = "dead_head_pa")]
+        dead_head: Pressure,
+        #[serde(rename = "lowest_pa")]
+        lowest: Pressure,
     },
     /// The phase needs no pressure but the pump pushes its flow over a limit.
     NeedsNoPressure {
         phase: usize,
-        limit_pa: f64,
-        vent_pa: f64,
+        #[serde(rename = "limit_pa")]
+        limit: Pressure,
+        #[serde(rename = "vent_pa")]
+        vent: Pressure,
     },
     /// As `NeedsNoPressure`, but the relief has no vent port to use.
     NoVentPort { phase: usize },
     /// The lowest limit that serves the phase is above a component's rating.
     BeyondRating {
         phase: usize,
-        lowest_pa: f64,
-        rating_pa: f64,
+        #[serde(rename = "lowest_pa")]
+        lowest: Pressure,
+        #[serde(rename = "rating_pa")]
+        rating: Pressure,
     },
     /// The main relief is further above the highest need of the cycle than the margin asks.
-    MainAboveNeed { main_pa: f64, lowest_pa: f64 },
+    MainAboveNeed {
+        #[serde(rename = "main_pa")]
+        main: Pressure,
+        #[serde(rename = "lowest_pa")]
+        lowest: Pressure,
+    },
     /// The main relief is below what the most demanding phase needs.
-    MainBelowNeed { main_pa: f64, lowest_pa: f64 },
+    MainBelowNeed {
+        #[serde(rename = "main_pa")]
+        main: Pressure,
+        #[serde(rename = "lowest_pa")]
+        lowest: Pressure,
+    },
     /// The main relief lets the system line rise above the rating of the pump on it.
-    MainAboveRating { main_pa: f64, rating_pa: f64 },
+    MainAboveRating {
+        #[serde(rename = "main_pa")]
+        main: Pressure,
+        #[serde(rename = "rating_pa")]
+        rating: Pressure,
+    },
     /// Before it unloads, a staged pump's outlet reaches its unloading setting plus its check
     /// valve's cracking pressure: above the pump's rating.
     UnloadingAboveRating {
         pump: usize,
-        setting_pa: f64,
-        cracking_pa: f64,
-        rating_pa: f64,
+        #[serde(rename = "setting_pa")]
+        setting: Pressure,
+        #[serde(rename = "cracking_pa")]
+        cracking: Pressure,
+        #[serde(rename = "rating_pa")]
+        rating: Pressure,
     },
     /// An unloading setting outside the window its phases allow; `window` is (lowest,
     /// highest) setting that keeps the pump feeding where its flow is needed and unloads it
     /// where it is not.
     UnloadingOutside {
         pump: usize,
-        setting_pa: f64,
+        #[serde(rename = "setting_pa")]
+        setting: Pressure,
         window: (f64, f64),
     },
     /// No unloading setting can serve both: `with_phase` needs the pump's flow up to
@@ -228,18 +266,26 @@ pub enum Rule {
     UnloadingImpossible {
         pump: usize,
         with_phase: usize,
-        with_pa: f64,
+        #[serde(rename = "with_pa")]
+        with: Pressure,
         without_phase: usize,
-        without_pa: f64,
+        #[serde(rename = "without_pa")]
+        without: Pressure,
     },
     /// A remote stage at or above the main setting never governs.
     RemoteRedundant {
         stage: usize,
-        remote_pa: f64,
-        main_pa: f64,
+        #[serde(rename = "remote_pa")]
+        remote: Pressure,
+        #[serde(rename = "main_pa")]
+        main: Pressure,
     },
     /// A remote stage no phase selects.
-    RemoteUnused { stage: usize, remote_pa: f64 },
+    RemoteUnused {
+        stage: usize,
+        #[serde(rename = "remote_pa")]
+        remote: Pressure,
+    },
 }
 
 /// One piece of advice for a design.
@@ -250,6 +296,9 @@ pub struct Advice {
     pub action: Option<Action>,
     /// What the action saves, found by solving the design again with it: in the phase it
     /// concerns (W, zero for cycle-wide changes) and per year (kWh).
-    pub saving_w: f64,
+    #[serde(rename = "saving_w")]
+    pub saving: Power,
+    /// Kept in kWh, the unit the site is billed in: it is the difference of the two yearly
+    /// figures as billed (a round trip through joules would move its last digit).
     pub annual_saving_kwh: f64,
 }

@@ -9,11 +9,14 @@ use crate::power_unit::Design;
 #[derive(Clone, Copy, Debug, PartialEq, Serialize)]
 pub struct PhaseNeed {
     /// The system pressure the phase needs; `None` for an idle, or a hold a check valve keeps.
-    pub need_pa: Option<f64>,
+    #[serde(rename = "need_pa")]
+    pub need: Option<Pressure>,
     /// The governing limit now.
-    pub limit_pa: f64,
+    #[serde(rename = "limit_pa")]
+    pub limit: Pressure,
     /// The lowest limit that serves the need with the margin and above the valve's cracking.
-    pub lowest_pa: Option<f64>,
+    #[serde(rename = "lowest_pa")]
+    pub lowest: Option<Pressure>,
 }
 
 /// The system pressure a phase needs (Pa), or `None` when it needs none.
@@ -102,9 +105,15 @@ pub fn phase_needs(job: &Job, design: &Design) -> Vec<PhaseNeed> {
         .map(|(i, phase)| {
             let need = needed_pressure(&phase.kind, policy);
             PhaseNeed {
-                need_pa: need,
-                limit_pa: governing(design, i, matches!(phase.kind, PhaseKind::Idle(_))),
-                lowest_pa: need.map(|n| lowest_limit_for(&phase.kind, n, policy, design)),
+                need: need.map(pascals),
+                limit: pascals(governing(
+                    design,
+                    i,
+                    matches!(phase.kind, PhaseKind::Idle(_)),
+                )),
+                lowest: need
+                    .map(|n| lowest_limit_for(&phase.kind, n, policy, design))
+                    .map(pascals),
             }
         })
         .collect()
@@ -113,7 +122,10 @@ pub fn phase_needs(job: &Job, design: &Design) -> Vec<PhaseNeed> {
 /// The lowest limit that serves the cycle's most demanding phase (Pa): what the main relief
 /// must give. `None` when no phase needs pressure.
 pub fn cycle_lowest_limit(needs: &[PhaseNeed]) -> Option<f64> {
-    needs.iter().filter_map(|n| n.lowest_pa).reduce(f64::max)
+    needs
+        .iter()
+        .filter_map(|n| n.lowest.map(|p| p.value))
+        .reduce(f64::max)
 }
 
 /// The lowest pressure rating on the system line: the base pump sees system pressure.

@@ -5,6 +5,7 @@ use crate::cycle::{PhaseKind, SpeedRule};
 use crate::job::Job;
 use crate::power_unit::Design;
 use crate::solve::solve_design;
+use crate::units::watts;
 use crate::validate::InputError;
 use crate::valve::{ActiveLimit, IdlePath};
 
@@ -37,29 +38,29 @@ pub fn advise(job: &Job, index: usize) -> Result<Vec<Advice>, Vec<InputError>> {
     let below_compensator = |limit: f64| floor.is_some_and(|f| limit < f * (1.0 - 1e-9));
     let mut advice = Vec::new();
     let mut push = |severity, rule, action: Option<Action>, phase: Option<usize>| {
-        let (saving_w, annual_saving_kwh) = action
+        let (saving, annual_saving_kwh) = action
             .map(|a| saving(job, design, &before, &a, phase))
-            .unwrap_or((0.0, 0.0));
+            .unwrap_or((watts(0.0), 0.0));
         advice.push(Advice {
             severity,
             rule,
             action,
-            saving_w,
+            saving,
             annual_saving_kwh,
         });
     };
 
     for (i, need) in needs.iter().enumerate() {
-        let limit = need.limit_pa;
-        match (need.need_pa, need.lowest_pa) {
+        let limit = need.limit.value;
+        match (need.need.map(|p| p.value), need.lowest.map(|p| p.value)) {
             (Some(n), Some(lowest)) => {
                 if lowest > rating {
                     push(
                         Severity::Caution,
                         Rule::BeyondRating {
                             phase: i,
-                            lowest_pa: lowest,
-                            rating_pa: rating,
+                            lowest: pascals(lowest),
+                            rating: pascals(rating),
                         },
                         None,
                         None,
@@ -97,10 +98,10 @@ pub fn advise(job: &Job, index: usize) -> Result<Vec<Advice>, Vec<InputError>> {
                                 severity,
                                 Rule::BelowCompensator {
                                     phase: Some(i),
-                                    limit_pa,
-                                    cracking_pa: cracking,
-                                    dead_head_pa,
-                                    lowest_pa,
+                                    limit: pascals(limit_pa),
+                                    cracking: pascals(cracking),
+                                    dead_head: pascals(dead_head_pa),
+                                    lowest: pascals(lowest_pa),
                                 },
                             )
                         } else if held {
@@ -108,8 +109,8 @@ pub fn advise(job: &Job, index: usize) -> Result<Vec<Advice>, Vec<InputError>> {
                                 Severity::Caution,
                                 Rule::HoldBelowNeed {
                                     phase: i,
-                                    need_pa,
-                                    limit_pa,
+                                    need: pascals(need_pa),
+                                    limit: pascals(limit_pa),
                                 },
                             )
                         } else if cracking < n {
@@ -117,9 +118,9 @@ pub fn advise(job: &Job, index: usize) -> Result<Vec<Advice>, Vec<InputError>> {
                                 Severity::Caution,
                                 Rule::LimitBelowNeed {
                                     phase: i,
-                                    need_pa,
-                                    limit_pa,
-                                    lowest_pa,
+                                    need: pascals(need_pa),
+                                    limit: pascals(limit_pa),
+                                    lowest: pascals(lowest_pa),
                                 },
                             )
                         } else {
@@ -127,9 +128,9 @@ pub fn advise(job: &Job, index: usize) -> Result<Vec<Advice>, Vec<InputError>> {
                                 Severity::Note,
                                 Rule::MarginThin {
                                     phase: i,
-                                    need_pa,
-                                    limit_pa,
-                                    lowest_pa,
+                                    need: pascals(need_pa),
+                                    limit: pascals(limit_pa),
+                                    lowest: pascals(lowest_pa),
                                 },
                             )
                         };
@@ -140,14 +141,14 @@ pub fn advise(job: &Job, index: usize) -> Result<Vec<Advice>, Vec<InputError>> {
                         pressure: pascals(target),
                     };
                     let (w, _) = saving(job, design, &before, &action, Some(i));
-                    if w >= policy.least_saving_w {
+                    if w.value >= policy.least_saving_w {
                         push(
                             Severity::Saving,
                             Rule::LimitAboveNeed {
                                 phase: i,
-                                need_pa: n,
-                                limit_pa: limit,
-                                lowest_pa: lowest,
+                                need: pascals(n),
+                                limit: pascals(limit),
+                                lowest: pascals(lowest),
                             },
                             Some(action),
                             Some(i),
@@ -172,13 +173,13 @@ pub fn advise(job: &Job, index: usize) -> Result<Vec<Advice>, Vec<InputError>> {
                 if vent_port {
                     let action = Action::VentPhase { phase: i };
                     let (w, _) = saving(job, design, &before, &action, Some(i));
-                    if w >= policy.least_saving_w {
+                    if w.value >= policy.least_saving_w {
                         push(
                             Severity::Saving,
                             Rule::NeedsNoPressure {
                                 phase: i,
-                                limit_pa: limit,
-                                vent_pa: design.vent_pressure.value,
+                                limit: pascals(limit),
+                                vent: pascals(design.vent_pressure.value),
                             },
                             Some(action),
                             Some(i),
@@ -209,10 +210,10 @@ pub fn advise(job: &Job, index: usize) -> Result<Vec<Advice>, Vec<InputError>> {
             },
             Rule::BelowCompensator {
                 phase: None,
-                limit_pa: main,
-                cracking_pa: cracking,
-                dead_head_pa,
-                lowest_pa: lowest,
+                limit: pascals(main),
+                cracking: pascals(cracking),
+                dead_head: pascals(dead_head_pa),
+                lowest: pascals(lowest),
             },
             action,
             None,
@@ -228,8 +229,8 @@ pub fn advise(job: &Job, index: usize) -> Result<Vec<Advice>, Vec<InputError>> {
         push(
             Severity::Caution,
             Rule::MainAboveRating {
-                main_pa: main,
-                rating_pa: rating,
+                main: pascals(main),
+                rating: pascals(rating),
             },
             action,
             None,
@@ -241,8 +242,8 @@ pub fn advise(job: &Job, index: usize) -> Result<Vec<Advice>, Vec<InputError>> {
                 push(
                     Severity::Caution,
                     Rule::MainBelowNeed {
-                        main_pa: main,
-                        lowest_pa: highest,
+                        main: pascals(main),
+                        lowest: pascals(highest),
                     },
                     Some(Action::SetMain {
                         pressure: pascals(target),
@@ -264,8 +265,8 @@ pub fn advise(job: &Job, index: usize) -> Result<Vec<Advice>, Vec<InputError>> {
                 push(
                     severity,
                     Rule::MainAboveNeed {
-                        main_pa: main,
-                        lowest_pa: highest,
+                        main: pascals(main),
+                        lowest: pascals(highest),
                     },
                     Some(action),
                     None,
@@ -283,8 +284,8 @@ pub fn advise(job: &Job, index: usize) -> Result<Vec<Advice>, Vec<InputError>> {
                 Severity::Note,
                 Rule::RemoteRedundant {
                     stage,
-                    remote_pa: remote.value,
-                    main_pa: main,
+                    remote: pascals(remote.value),
+                    main: pascals(main),
                 },
                 action,
                 None,
@@ -298,7 +299,7 @@ pub fn advise(job: &Job, index: usize) -> Result<Vec<Advice>, Vec<InputError>> {
                 Severity::Note,
                 Rule::RemoteUnused {
                     stage,
-                    remote_pa: remote.value,
+                    remote: pascals(remote.value),
                 },
                 action,
                 None,
@@ -342,9 +343,9 @@ pub(super) fn unloading_advice(
                 Severity::Caution,
                 Rule::UnloadingAboveRating {
                     pump,
-                    setting_pa: setting,
-                    cracking_pa: cracking,
-                    rating_pa: rating,
+                    setting: pascals(setting),
+                    cracking: pascals(cracking),
+                    rating: pascals(rating),
                 },
                 action,
                 None,
@@ -362,9 +363,9 @@ pub(super) fn unloading_advice(
                 Rule::UnloadingImpossible {
                     pump,
                     with_phase,
-                    with_pa,
+                    with: pascals(with_pa),
                     without_phase,
-                    without_pa,
+                    without: pascals(without_pa),
                 },
                 None,
                 None,
@@ -395,7 +396,7 @@ pub(super) fn unloading_advice(
                     severity,
                     Rule::UnloadingOutside {
                         pump,
-                        setting_pa: setting,
+                        setting: pascals(setting),
                         window: (low, high),
                     },
                     action,

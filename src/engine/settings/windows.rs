@@ -77,7 +77,7 @@ pub fn unloading_window_by(
     // (phase, needs the flow, its pressure without the pump, its pressure with it)
     let mut judged: Vec<(usize, bool, f64, f64)> = Vec::new();
     for (i, phase) in job.cycle.iter().enumerate() {
-        let Some(need) = needs.get(i).and_then(|n| n.need_pa) else {
+        let Some(need) = needs.get(i).and_then(|n| n.need.map(|p| p.value)) else {
             continue;
         };
         // A metered move or a direct demand that takes less than the feeding pumps give
@@ -124,7 +124,7 @@ pub fn unloading_window_by(
             PhaseKind::Hold(_) | PhaseKind::Idle(_) => false,
         };
         let with_pressure = if runs_at_limit {
-            need.max(needs.get(i).map_or(need, |n| n.limit_pa))
+            need.max(needs.get(i).map_or(need, |n| n.limit.value))
         } else {
             need
         };

@@ -428,7 +428,10 @@ async fn an_empty_field_says_it_needs_a_value() {
 async fn charts_name_phases_whole_keep_the_time_axis_clear_and_give_figures_by_touch() {
     let job = scrap_baler();
     let report = solve(&job).unwrap();
-    for (name, viewport) in [("phone", Viewport::PHONE), ("projector", Viewport::PROJECTOR)] {
+    for (name, viewport) in [
+        ("phone", Viewport::PHONE),
+        ("projector", Viewport::PROJECTOR),
+    ] {
         let app = AppSession::start_at(&format!("charts_{name}"), viewport, "#/results").await;
         let b = &app.browser;
         b.wait_for(".chart rect").await;
@@ -462,11 +465,20 @@ async fn charts_name_phases_whole_keep_the_time_axis_clear_and_give_figures_by_t
             .await;
         let said = said.as_str().unwrap_or_default().to_string();
         assert!(said.starts_with(&format!("{first}: ")), "{said}");
-        b.wait_for_text(".results .chart-readout", |t| t == said).await;
+        b.wait_for_text(".results .chart-readout", |t| t == said)
+            .await;
         // The table holds a row for every drawn segment and one per bar.
-        let segments = b.count(".results .chart:first-of-type rect[tabindex]").await;
-        let table_rows = b.count(".results .chart:first-of-type .chart-figures tr").await;
-        assert_eq!(table_rows, segments + report.designs[0].phases.len(), "{name}");
+        let segments = b
+            .count(".results .chart:first-of-type rect[tabindex]")
+            .await;
+        let table_rows = b
+            .count(".results .chart:first-of-type .chart-figures tr")
+            .await;
+        assert_eq!(
+            table_rows,
+            segments + report.designs[0].phases.len(),
+            "{name}"
+        );
         b.screenshot(&format!("charts-{name}")).await;
         app.finish().await;
     }
@@ -493,7 +505,10 @@ async fn text_left_invalid_survives_a_move_to_another_area() {
     b.click("nav.areas a[href='#/results']").await;
     b.click("nav.areas a[href='#/cycle']").await;
     open_phase(b, 1).await;
-    assert_eq!(b.value(&bore).await, Measure::Length.format(UnitSystem::Si, 0.125));
+    assert_eq!(
+        b.value(&bore).await,
+        Measure::Length.format(UnitSystem::Si, 0.125)
+    );
     app.finish().await;
 }
 
@@ -505,20 +520,28 @@ async fn text_left_invalid_survives_a_move_to_another_area() {
 async fn the_presenter_view_shows_a_change_beside_what_it_moves_legibly_and_is_remembered() {
     let app = AppSession::start_at("presenter", Viewport::PROJECTOR, "#/results").await;
     let b = &app.browser;
-    b.click(".segmented[aria-label='Display'] button:nth-child(1)").await;
+    b.click(".segmented[aria-label='Display'] button:nth-child(1)")
+        .await;
     b.wait_for(".shell.presenter").await;
     b.client().refresh().await.unwrap();
     b.wait_for(phasewise_harness::browser::APP_READY).await;
     b.wait_for(".shell.presenter").await;
 
     b.click("nav.areas a[href='#/cycle']").await;
-    b.wait_for("[data-presenter-panel] [data-presenter='average']").await;
+    b.wait_for("[data-presenter-panel] [data-presenter='average']")
+        .await;
     open_phase(b, 1).await;
     let before = b.text("[data-presenter='average']").await;
     let force = field("cycle[1].load.force_n");
     b.fill(&force, "250").await;
-    let after = b.wait_for_text("[data-presenter='average']", |t| t != before).await;
-    assert_eq!(b.text("[data-ghost='average']").await, format!("before: {before}"), "now {after}");
+    let after = b
+        .wait_for_text("[data-presenter='average']", |t| t != before)
+        .await;
+    assert_eq!(
+        b.text("[data-ghost='average']").await,
+        format!("before: {before}"),
+        "now {after}"
+    );
 
     let layout = b
         .eval(&format!(

@@ -79,11 +79,13 @@ async fn the_demo_comparison_on_a_phone_is_the_engines() {
     // The baseline is marked as such where power units stand side by side.
     let baseline = format!("{} (baseline)", job.designs[0].name);
     assert_eq!(
-        b.text("[data-quote-table='customer'] thead th[data-design='0']").await,
+        b.text("[data-quote-table='customer'] thead th[data-design='0']")
+            .await,
         baseline
     );
     assert_eq!(
-        b.text("[data-quote-table='customer'] thead th[data-design='1']").await,
+        b.text("[data-quote-table='customer'] thead th[data-design='1']")
+            .await,
         job.designs[1].name
     );
     assert_eq!(
@@ -240,14 +242,9 @@ async fn the_report_prints_to_a_clean_pdf_on_a4_and_letter() {
         println!("demo report, {paper}: {pages} pages, {} bytes", bytes.len());
 
         let text = squeezed(&poppler("pdftotext", &[pdf.to_str().unwrap(), "-"]));
-        for wanted in [
-            job.name.as_str(),
-            payback.as_str(),
-            "Assumptions",
-            "Safety",
-        ]
-        .into_iter()
-        .chain(energy.iter().map(String::as_str))
+        for wanted in [job.name.as_str(), payback.as_str(), "Assumptions", "Safety"]
+            .into_iter()
+            .chain(energy.iter().map(String::as_str))
         {
             assert!(
                 text.contains(&squeezed(wanted)),

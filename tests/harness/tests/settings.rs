@@ -267,20 +267,39 @@ async fn a_proposal_from_an_earlier_as_found_says_so_and_is_made_again_on_reques
     let b = &app.browser;
     let kw = |w: f64| Measure::Power.with_unit(UnitSystem::Si, w);
     assert_eq!(b.count("[data-older-baseline]").await, 0);
-    b.fill("input[data-path='designs[0].motor.rated_power_w']", "30").await;
+    b.fill("input[data-path='designs[0].motor.rated_power_w']", "30")
+        .await;
     b.click("button[data-design='1']").await;
-    let theirs = b.text("[data-older-baseline] [data-machine='proposal']").await;
-    let now = b.text("[data-older-baseline] [data-machine='baseline']").await;
-    assert!(theirs.starts_with(&format!("Proposed: motor {}", kw(22_000.0))), "{theirs}");
-    assert!(now.starts_with(&format!("As found now: motor {}", kw(30_000.0))), "{now}");
+    let theirs = b
+        .text("[data-older-baseline] [data-machine='proposal']")
+        .await;
+    let now = b
+        .text("[data-older-baseline] [data-machine='baseline']")
+        .await;
+    assert!(
+        theirs.starts_with(&format!("Proposed: motor {}", kw(22_000.0))),
+        "{theirs}"
+    );
+    assert!(
+        now.starts_with(&format!("As found now: motor {}", kw(30_000.0))),
+        "{now}"
+    );
     // Beside the advice: the notice, and the machine the advice is for.
     b.click("nav.areas a[href='#/settings']").await;
     b.wait_for("[data-older-baseline]").await;
-    let machine = b.wait_for_text("[data-advice-machine]", |t| !t.is_empty()).await;
-    assert!(machine.starts_with(&format!("For “Proposed”: motor {}", kw(22_000.0))), "{machine}");
+    let machine = b
+        .wait_for_text("[data-advice-machine]", |t| !t.is_empty())
+        .await;
+    assert!(
+        machine.starts_with(&format!("For “Proposed”: motor {}", kw(22_000.0))),
+        "{machine}"
+    );
     b.click("nav.areas a[href='#/quote']").await;
     let quote = b.text("[data-older-baseline]").await;
-    assert!(quote.starts_with("“Proposed” was made from an earlier “as found”"), "{quote}");
+    assert!(
+        quote.starts_with("“Proposed” was made from an earlier “as found”"),
+        "{quote}"
+    );
     // Made again: today's machine, the notice gone; the undo puts the old proposal back.
     b.click("nav.areas a[href='#/unit']").await;
     b.click("button[data-design='1']").await;
@@ -288,7 +307,8 @@ async fn a_proposal_from_an_earlier_as_found_says_so_and_is_made_again_on_reques
     b.wait_for("[data-undo]").await;
     assert_eq!(b.count("[data-older-baseline]").await, 0);
     assert_eq!(
-        b.value("input[data-path='designs[1].motor.rated_power_w']").await,
+        b.value("input[data-path='designs[1].motor.rated_power_w']")
+            .await,
         Measure::Power.format(UnitSystem::Si, 30_000.0)
     );
     b.click("[data-undo] button").await;

@@ -93,7 +93,10 @@ async fn the_ledger_csv_holds_the_engines_figures() {
     let design = &report.designs[0];
     assert_eq!(
         csv,
-        phasewise::formats::ledger_csv::ledger_csv(design, phasewise::engine::units::UnitSystem::Si)
+        phasewise::formats::ledger_csv::ledger_csv(
+            design,
+            phasewise::engine::units::UnitSystem::Si
+        )
     );
     let rows: Vec<&str> = csv.trim_end().split("\r\n").collect();
     assert_eq!(rows.len(), design.phases.len() + 2);
@@ -183,7 +186,10 @@ async fn a_new_job_starts_empty_or_as_a_copy_the_user_chose() {
     b.click("button[data-action='new-job']").await;
     b.click("button[data-new='copy']").await;
     b.wait_for_text("h1", |t| t == "Jobs on this device").await;
-    assert_eq!(b.value("input[data-path='name']").await, "Scrap baler (example) (copy)");
+    assert_eq!(
+        b.value("input[data-path='name']").await,
+        "Scrap baler (example) (copy)"
+    );
     // A copy of the example is still the example, and says so.
     b.click("nav.areas a[href='#/cycle']").await;
     b.wait_for(".example-banner").await;
@@ -214,15 +220,24 @@ async fn a_new_job_starts_empty_or_as_a_copy_the_user_chose() {
     // Every area shows an empty job without a fault or a figure from nowhere.
     for area in phasewise::ui::area::Area::ALL {
         // Moved by the address's fragment, as a link does: the page is not reloaded.
-        b.eval(&format!("window.location.hash = '{}';", area.href())).await;
-        b.wait_for(&format!("main[data-area='{}']", area.slug())).await;
+        b.eval(&format!("window.location.hash = '{}';", area.href()))
+            .await;
+        b.wait_for(&format!("main[data-area='{}']", area.slug()))
+            .await;
         let text = b.eval("return document.body.innerText;").await;
         let text = text.as_str().unwrap_or_default().to_string();
-        assert!(!text.contains("NaN") && !text.contains("Infinity"), "{area:?}: {text}");
+        assert!(
+            !text.contains("NaN") && !text.contains("Infinity"),
+            "{area:?}: {text}"
+        );
     }
     b.eval("window.location.hash = '#/jobs';").await;
     b.wait_for("main[data-area='jobs']").await;
-    assert_eq!(b.value("input[data-path='name']").await, "New job", "the empty job is still open");
+    assert_eq!(
+        b.value("input[data-path='name']").await,
+        "New job",
+        "the empty job is still open"
+    );
     assert_eq!(b.console_errors().await, Vec::<String>::new());
     app.finish().await;
 }

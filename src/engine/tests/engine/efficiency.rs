@@ -5,7 +5,6 @@
 //! from the motor's slip and its shaft power from the motor's part-load model; what is copied
 //! into a design; how many readings a verdict needs; tests in date order.
 
-
 use crate::common::*;
 use phasewise_engine::efficiency::{
     self, ElectricalInput, MeasuredPump, MotorEfficiency, NotCopied, PumpTest, Reading, SpeedFrom,

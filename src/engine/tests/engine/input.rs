@@ -1,7 +1,6 @@
 //! Bad input: every problem is a typed error naming its field, in words a technician
 //! understands; job files are read back unchanged or refused with a reason.
 
-
 use crate::common::*;
 use phasewise_engine::cycle::{Direction, PhaseKind, SpeedRule};
 use phasewise_engine::valve::{ActiveLimit, IdlePath, ReliefKind};

@@ -6,7 +6,6 @@
 //! the relief is rated for the pumps' full flow, and the vent pressure plus a check valve's
 //! cracking stays under the unloading drop, as on an ordinary unit.
 
-
 use crate::common::*;
 use phasewise_engine::cycle::*;
 use phasewise_engine::job::Job;
@@ -273,7 +272,7 @@ fn the_ledger_closes_and_every_number_is_finite() {
                 t.heat_load.value,
                 t.heat_load_btu_per_hour,
                 t.oil_rise_k_per_minute,
-                t.annual_energy_kwh,
+                t.annual_energy.get::<uom::si::energy::kilowatt_hour>(),
                 t.annual_cost,
             ] {
                 prop_assert!(x.is_finite() && x >= 0.0, "{t:?}");
@@ -564,13 +563,13 @@ fn the_advice_keeps_its_own_rules_on_any_job() {
                 if let Some(effect) = a.effect(job.units).map(|e| e.to_lowercase()) {
                     if a.annual_saving_kwh < -0.5 {
                         prop_assert!(effect.contains("costs"), "{effect} / {a:?}");
-                        prop_assert!(!effect.contains("aves") || a.saving_w > 0.5, "{effect}");
+                        prop_assert!(!effect.contains("aves") || a.saving.value > 0.5, "{effect}");
                     }
                     let in_phase = matches!(
                         a.action,
                         Some(Action::LimitPhase { .. } | Action::VentPhase { .. })
                     );
-                    if in_phase && a.saving_w < -0.5 {
+                    if in_phase && a.saving.value < -0.5 {
                         prop_assert!(effect.contains("more in the phase"), "{effect} / {a:?}");
                     }
                     if !in_phase {

@@ -2,7 +2,6 @@
 //! tolerances follow REFERENCES: 1e-12 against exact definitions, 0.5 % against textbook
 //! answers (which round their intermediate steps).
 
-
 use crate::common::*;
 use phasewise_engine::cycle::{
     Cylinder, Direction, HoldMode, Load, MovePhase, Phase, PhaseKind, SpeedRule,

@@ -2,7 +2,6 @@
 //! payback example solved through the whole engine, a hand-worked invented case, the yearly
 //! energy split by ledger item, the assumptions list, and the rounding a customer's quote uses.
 
-
 use crate::common::*;
 use phasewise_engine::cycle::HoldMode;
 use phasewise_engine::quote::{self, for_customer, payback_for_customer, Basis};
@@ -27,7 +26,7 @@ fn totals(cycle_s: f64, kwh: f64, cost: f64, heat_w: f64) -> CycleTotals {
         heat_load: w(heat_w),
         heat_load_btu_per_hour: 0.0,
         oil_rise_k_per_minute: 0.0,
-        annual_energy_kwh: kwh,
+        annual_energy: uom::si::f64::Energy::new::<uom::si::energy::kilowatt_hour>(kwh),
         annual_cost: cost,
     }
 }
@@ -203,7 +202,10 @@ fn the_assumptions_say_which_values_are_defaults() {
             .unwrap_or_else(|| panic!("no assumption on {what}"))
     };
     // The helpers use the common-practice figures: the report names them as defaults.
-    assert!(matches!(basis(&job, "Peak allowance"), Basis::Default { .. }));
+    assert!(matches!(
+        basis(&job, "Peak allowance"),
+        Basis::Default { .. }
+    ));
     assert!(matches!(basis(&job, "fixed"), Basis::Default { .. }));
     assert!(matches!(basis(&job, "cracks at"), Basis::Default { .. }));
     assert!(
@@ -226,7 +228,9 @@ fn the_assumptions_say_which_values_are_defaults() {
         .map(|a| a.what)
         .collect();
     assert!(
-        whats.contains(&"Every power unit: peak allowance (short peaks, times the rating)".to_string()),
+        whats.contains(
+            &"Every power unit: peak allowance (short peaks, times the rating)".to_string()
+        ),
         "{whats:?}"
     );
     assert!(whats.contains(&"“As found”: motor efficiency at full load".to_string()));

@@ -2,7 +2,6 @@
 //! the inputs with the physics of the field brief (DOMAIN.md), independently of the engine's
 //! code; 1e-9 relative allows for rounding only.
 
-
 use crate::common::*;
 use phasewise_engine::cycle::{
     Cylinder, Direction, HoldMode, Load, MovePhase, Phase, PhaseKind, SpeedRule,
@@ -850,7 +849,7 @@ fn a_cycle_longer_than_five_minutes_is_too_long_for_the_rms() {
             .findings
             .iter()
             .find_map(|f| match f {
-                Finding::RmsCycleTooLong { cycle_s, longest_s } => Some((*cycle_s, *longest_s)),
+                Finding::RmsCycleTooLong { cycle, longest } => Some((cycle.value, longest.value)),
                 _ => None,
             })
     };
@@ -958,20 +957,32 @@ fn phases_rank_by_their_energy_over_the_cycle() {
     let place = |name: &str| ranked.iter().position(|e| e.name == name).unwrap();
     assert!(place("unload part") < place("dwell"));
     let idle = &ranked[place("unload part")];
-    assert_close(idle.energy_j, 4_731.872_864_446_938 * 10.0, REL, "idle, J");
+    assert_close(
+        idle.energy.value,
+        4_731.872_864_446_938 * 10.0,
+        REL,
+        "idle, J",
+    );
     let dwell = &ranked[place("dwell")];
-    assert_close(dwell.energy_j, 4_731.872_864_446_938 * 5.0, REL, "dwell, J");
-    assert_eq!(dwell.needed_pa, Some(120e5));
-    assert_close(dwell.pump_pa, 160e5, REL, "dwell pump, Pa");
-    assert_eq!(idle.needed_pa, None);
+    assert_close(
+        dwell.energy.value,
+        4_731.872_864_446_938 * 5.0,
+        REL,
+        "dwell, J",
+    );
+    assert_eq!(dwell.needed.map(|q| q.value), Some(120e5));
+    assert_close(dwell.pump.value, 160e5, REL, "dwell pump, Pa");
+    assert_eq!(idle.needed.map(|q| q.value), None);
     let shares: f64 = ranked.iter().map(|e| e.share).sum();
     assert_close(shares, 1.0, 1e-12, "shares");
     assert_close(
-        ranked.iter().map(|e| e.energy_j).sum::<f64>(),
+        ranked.iter().map(|e| e.energy.value).sum::<f64>(),
         report.designs[0].totals.energy_per_cycle.value,
         1e-12,
         "the cycle's energy",
     );
-    assert!(ranked.windows(2).all(|w| w[0].energy_j >= w[1].energy_j));
+    assert!(ranked
+        .windows(2)
+        .all(|w| w[0].energy.value >= w[1].energy.value));
     assert!(phasewise_engine::phases_by_energy(&job, &report, 3).is_empty());
 }

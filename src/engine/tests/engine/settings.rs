@@ -5,7 +5,6 @@
 //! whichever is more; a flow control's drop 7 bar; cracking 0.97 (pilot-operated) or 0.80
 //! (direct-acting) of the setting.
 
-
 use crate::common::*;
 use phasewise_engine::cycle::{Direction, HoldMode};
 use phasewise_engine::settings::{self, Action, Advice, Rule, Severity};
@@ -59,26 +58,26 @@ fn the_high_low_unloading_window_and_main_setting_follow_from_the_loads() {
     let job = high_low(140.0, 210.0);
     let needs = settings::phase_needs(&job, &job.designs[0]);
     assert_close(
-        needs[0].need_pa.unwrap() / BAR,
+        needs[0].need.map(|q| q.value).unwrap() / BAR,
         10.366198,
         1e-6,
         "approach need",
     );
     assert_close(
-        needs[1].need_pa.unwrap() / BAR,
+        needs[1].need.map(|q| q.value).unwrap() / BAR,
         131.323954,
         1e-6,
         "press need",
     );
     assert_close(
-        needs[2].need_pa.unwrap() / BAR,
+        needs[2].need.map(|q| q.value).unwrap() / BAR,
         11.564858,
         1e-6,
         "return need",
     );
-    assert_eq!(needs[3].need_pa, None);
+    assert_eq!(needs[3].need.map(|q| q.value), None);
     assert_close(
-        needs[1].lowest_pa.unwrap() / BAR,
+        needs[1].lowest.map(|q| q.value).unwrap() / BAR,
         144.456349,
         1e-6,
         "press lowest limit",
@@ -89,14 +88,14 @@ fn the_high_low_unloading_window_and_main_setting_follow_from_the_loads() {
         find(&advice, |r| matches!(r, Rule::UnloadingOutside { .. })).expect("unloading advice");
     let Rule::UnloadingOutside {
         pump,
-        setting_pa,
+        setting,
         window,
     } = unloading.rule
     else {
         unreachable!()
     };
     assert_eq!(pump, 1);
-    assert_close(setting_pa / BAR, 140.0, 1e-12, "setting now");
+    assert_close(in_bar(setting), 140.0, 1e-12, "setting now");
     assert_close(window.0 / BAR, 18.564858, 1e-6, "window low");
     assert_close(window.1 / BAR, 118.191559, 1e-6, "window high");
     assert_eq!(unloading.severity, Severity::Caution);
@@ -167,17 +166,17 @@ fn no_unloading_setting_can_serve_a_fast_move_and_a_hold_just_above_it() {
     assert_eq!(a.action, None);
     let Rule::UnloadingImpossible {
         with_phase,
-        with_pa,
+        with,
         without_phase,
-        without_pa,
+        without,
         ..
     } = a.rule
     else {
         unreachable!()
     };
     assert_eq!((with_phase, without_phase), (0, 1));
-    assert_close(with_pa / BAR, 100.0, 1e-12, "with");
-    assert_close(without_pa / BAR, 105.0, 1e-12, "without");
+    assert_close(in_bar(with), 100.0, 1e-12, "with");
+    assert_close(in_bar(without), 105.0, 1e-12, "without");
 }
 
 /// One ideal 8 cm^3/rev pump (12 L/min) on a 5.5 kW motor, a metered move at 0.01 m/s on a
@@ -210,8 +209,18 @@ fn metered(main_bar: f64, kind: ReliefKind) -> Job {
 fn a_metered_phase_on_a_high_limit_is_offered_the_lowest_that_serves_it() {
     let job = metered(160.0, ReliefKind::PilotOperated);
     let needs = settings::phase_needs(&job, &job.designs[0]);
-    assert_close(needs[0].need_pa.unwrap() / BAR, 34.464790, 1e-6, "need");
-    assert_close(needs[0].lowest_pa.unwrap() / BAR, 41.464790, 1e-6, "lowest");
+    assert_close(
+        needs[0].need.map(|q| q.value).unwrap() / BAR,
+        34.464790,
+        1e-6,
+        "need",
+    );
+    assert_close(
+        needs[0].lowest.map(|q| q.value).unwrap() / BAR,
+        41.464790,
+        1e-6,
+        "lowest",
+    );
     let advice = settings::advise(&job, 0).unwrap();
     let a = find(&advice, |r| {
         matches!(r, Rule::LimitAboveNeed { phase: 0, .. })
@@ -259,7 +268,7 @@ fn a_metered_phase_on_a_high_limit_is_offered_the_lowest_that_serves_it() {
         "shaft after",
     );
     assert_close(
-        a.saving_w,
+        a.saving.value,
         report.designs[0].phases[0].ledger.electrical_input.value
             - report.designs[1].phases[0].ledger.electrical_input.value,
         1e-9,
@@ -396,7 +405,7 @@ fn idles_and_check_held_holds_are_vented_where_the_valve_allows() {
         .expect("vent");
         assert_eq!(a.action, Some(Action::VentPhase { phase }));
         // 12 L/min over 155.2+ bar: about 3.1 kW, against about 30 W vented.
-        assert!(a.saving_w > 2500.0, "{}", a.saving_w);
+        assert!(a.saving.value > 2500.0, "{}", a.saving.value);
     }
     // Vented already: nothing to say.
     let mut vented = mk(ReliefKind::PilotOperated);
@@ -485,7 +494,10 @@ fn actions_go_to_the_proposed_design_never_the_baseline() {
         assert_eq!(&settings::apply(d, &bad), d, "{bad:?}");
     }
     let no_such = settings::advise(&demo, 7).unwrap_err();
-    assert!(no_such[0].message.contains("no power unit 8"), "{no_such:?}");
+    assert!(
+        no_such[0].message.contains("no power unit 8"),
+        "{no_such:?}"
+    );
 }
 
 /// The public entry points refuse an invalid job with its input errors instead of relying on a
@@ -539,8 +551,8 @@ fn a_hold_the_pump_keeps_is_advised_the_limit_that_holds_it() {
     );
     let job = job(cycle, vec![d]);
     let needs = settings::phase_needs(&job, &job.designs[0]);
-    assert_eq!(needs[2].need_pa, Some(120.0 * BAR));
-    assert_eq!(needs[2].lowest_pa, Some(120.0 * BAR));
+    assert_eq!(needs[2].need.map(|q| q.value), Some(120.0 * BAR));
+    assert_eq!(needs[2].lowest.map(|q| q.value), Some(120.0 * BAR));
     let advice = settings::advise(&job, 0).unwrap();
     let a = find(&advice, |r| {
         matches!(r, Rule::LimitAboveNeed { phase: 2, .. })
@@ -631,7 +643,8 @@ fn a_relief_is_never_advised_at_or_below_a_compensator() {
             .find(|f| matches!(f, Finding::ReliefAtCompensator { .. }));
         // A relief cracking at or below 206 bar (main <= 206 / 0.97 = 212.4 bar) is found.
         assert_eq!(at.is_some(), main * 0.97 <= 206.0, "{main}: {at:?}");
-        if let Some(Finding::ReliefAtCompensator { burns_w, .. }) = at {
+        if let Some(Finding::ReliefAtCompensator { burns, .. }) = at {
+            let burns_w = burns.value;
             // Dead-headed, the pump (45 L/min swept, leaking 2.25 L/min per 200 bar) sends its
             // flow over the relief (set at `main` with that flow over it). Below the
             // compensator's 200 bar the whole flow crosses at `main`. Above it the pump
@@ -647,7 +660,7 @@ fn a_relief_is_never_advised_at_or_below_a_compensator() {
                 let p = (42.75 + 42.75 * 200.0 / 6.0 + k * c) / (42.75 / 6.0 + k);
                 (p, k * (p - c))
             };
-            assert_close(*burns_w, p * flow / 600.0 * 1e3, 1e-9, "burns, W");
+            assert_close(burns_w, p * flow / 600.0 * 1e3, 1e-9, "burns, W");
         }
         if main * 0.97 <= 206.0 {
             let a = find(&advice, |r| {
@@ -676,7 +689,7 @@ fn an_actions_effect_never_calls_a_rise_a_saving() {
         phase: 0,
         pressure: bar_(50.0),
     });
-    a.saving_w = -45.0;
+    a.saving.value = -45.0;
     a.annual_saving_kwh = -10.0;
     let text = a.effect(UnitSystem::Si).unwrap();
     assert!(!text.contains("Saves") && !text.contains("saves"), "{text}");
@@ -684,18 +697,18 @@ fn an_actions_effect_never_calls_a_rise_a_saving() {
         text.contains("more in the phase") && text.contains("costs 10 kWh a year more"),
         "{text}"
     );
-    a.saving_w = 0.0;
+    a.saving.value = 0.0;
     a.annual_saving_kwh = 2476.0;
     a.action = Some(Action::SetMain {
         pressure: bar_(150.0),
     });
     let text = a.effect(UnitSystem::Si).unwrap();
     assert_eq!(text, "Saves 2476 kWh a year.");
-    a.saving_w = 300.0;
+    a.saving.value = 300.0;
     let text = a.effect(UnitSystem::Si).unwrap();
     assert!(!text.contains("in the phase"), "{text}");
     a.annual_saving_kwh = 0.1;
-    a.saving_w = 0.0;
+    a.saving.value = 0.0;
     assert_eq!(a.effect(UnitSystem::Si), None);
 }
 
@@ -706,7 +719,7 @@ fn the_margins_are_the_users() {
     let needs = settings::phase_needs(&job, &job.designs[0]);
     // 34.465 x 1.25 = 43.08 bar, more than 34.465 + 7.
     assert_close(
-        needs[0].lowest_pa.unwrap() / BAR,
+        needs[0].lowest.map(|q| q.value).unwrap() / BAR,
         34.464790 * 1.25,
         1e-6,
         "lowest with 25 %",

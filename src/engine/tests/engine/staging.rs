@@ -4,7 +4,6 @@
 //! on the RMS and the peak as the engine's motor findings judge it; one candidate is worked by
 //! hand (pressures, pump states, powers, motor step, energy). The machines are invented.
 
-
 use crate::common::*;
 use phasewise_engine::cycle::PhaseKind;
 use phasewise_engine::demo::scrap_baler;

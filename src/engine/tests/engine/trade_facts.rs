@@ -1,7 +1,6 @@
 //! Facts of the trade the engine must honour. None has a published source: each is marked
 //! common practice (REFERENCES, "Facts of the trade").
 
-
 use crate::common::*;
 use phasewise_engine::cycle::{Direction, HoldMode, SpeedRule};
 use phasewise_engine::valve::{ActiveLimit, IdlePath, ReliefKind};
