@@ -61,14 +61,16 @@
 
 use super::motor::{Motor, TYPICAL_FIXED_LOSS_SHARE, TYPICAL_PEAK_ALLOWANCE};
 use super::power_unit::Design;
-use super::units::{cubic_metres_per_second, pascals, watts, Measure, UnitSystem};
+use super::units::{
+    cubic_metres_per_second, pascals, radians_per_second, watts, Measure, UnitSystem,
+};
 use super::validate::InputError;
 use serde::Serialize;
 
 pub use super::policy::WearPolicy;
 pub use super::pump_test::{day_number, ElectricalInput, MotorEfficiency, PumpTest, Reading};
 use std::f64::consts::TAU;
-use uom::si::f64::{AngularVelocity, Power, Pressure};
+use uom::si::f64::{AngularVelocity, Power, Pressure, VolumeRate};
 
 /// How far a motor is let carry a reading before the current is taken for a misreading
 /// (common practice: induction motors do not run long above about 1.5 x rated).
@@ -109,7 +111,8 @@ pub enum SpeedFrom {
 #[derive(Clone, Copy, Debug, PartialEq, Serialize, Default)]
 pub struct ReadingReport {
     /// The shaft speed the reading is worked at (rad/s).
-    pub speed_rad_per_s: f64,
+    #[serde(rename = "speed_rad_per_s")]
+    pub speed: AngularVelocity,
     pub speed_from: SpeedFrom,
     /// The motor's load (shaft power over rating) the slip was estimated from: from the
     /// torque, else from the electrical input, else the hydraulic power (the least the shaft
@@ -118,16 +121,19 @@ pub struct ReadingReport {
     /// The flow the pump would give at the same pressure at the motor's full-load speed (m^3/s):
     /// the flow read, plus what the pump sweeps in the difference of speed (leakage hardly
     /// depends on speed). The leakage line is fitted through these.
-    pub flow_at_full_load_speed: f64,
+    pub flow_at_full_load_speed: VolumeRate,
     /// Actual over theoretical flow at the reading's speed; none when the flow is above it.
     pub volumetric: Option<f64>,
     /// Pressure x flow (W).
-    pub hydraulic_w: f64,
+    #[serde(rename = "hydraulic_w")]
+    pub hydraulic: Power,
     /// The electrical input (W), when read and believable.
-    pub input_w: Option<f64>,
+    #[serde(rename = "input_w")]
+    pub input: Option<Power>,
     /// Shaft power (W): 2 pi n T from the torque, else what the motor gives for the input at
     /// that load (the part-load model).
-    pub shaft_w: Option<f64>,
+    #[serde(rename = "shaft_w")]
+    pub shaft: Option<Power>,
     /// Whether the shaft power came from a measured torque.
     pub shaft_from_torque: bool,
     pub overall: Option<f64>,
@@ -142,9 +148,9 @@ pub struct ReadingReport {
 /// (leakage in proportion to pressure).
 #[derive(Clone, Copy, Debug, PartialEq, Serialize)]
 pub struct LeakageLine {
-    /// m^3/s.
-    pub zero_pressure_flow: f64,
+    pub zero_pressure_flow: VolumeRate,
     /// (m^3/s)/Pa.
+    /// (m^3/s)/Pa: a slope uom has no named quantity for.
     pub leakage_per_pa: f64,
     /// How many readings it was fitted through.
     pub readings: usize,
@@ -156,9 +162,11 @@ pub struct LeakageLine {
 }
 
 impl LeakageLine {
-    /// The flow the line gives at `pressure` (m^3/s).
-    pub fn flow_at(&self, pressure: f64) -> f64 {
-        self.zero_pressure_flow - self.leakage_per_pa * pressure
+    /// The flow the line gives at `pressure`.
+    pub fn flow_at(&self, pressure: Pressure) -> VolumeRate {
+        cubic_metres_per_second(
+            self.zero_pressure_flow.value - self.leakage_per_pa * pressure.value,
+        )
     }
 }
 
@@ -203,7 +211,7 @@ impl Verdict {
 pub struct TestReport {
     /// Displacement x the motor's full-load speed (m^3/s): the leakage line, the verdict and
     /// the figures copied into a design are at this speed.
-    pub theoretical_flow: f64,
+    pub theoretical_flow: VolumeRate,
     /// The motor's full-load efficiency (a fraction), entered or the class's; the part-load
     /// model lowers it at each reading's load. None when the class's table does not cover the
     /// rating.
@@ -311,7 +319,7 @@ pub fn assess(
         let p = r.pressure.value;
         let q = r.flow.value;
         let mut report = ReadingReport {
-            hydraulic_w: p * q,
+            hydraulic: watts(p * q),
             ..ReadingReport::default()
         };
         // What the motor drew, and the shaft power it gives for that at this load.
@@ -362,18 +370,19 @@ pub fn assess(
                     }
                     None => {
                         // The hydraulic power is the least the shaft can be giving.
-                        let shaft = shaft_from_input.unwrap_or(report.hydraulic_w);
+                        let shaft = shaft_from_input.unwrap_or(report.hydraulic.value);
                         let load = (shaft / rated_motor).clamp(0.0, MOST_LOAD_BELIEVED);
                         (sync - full_slip * load, SpeedFrom::Slip, Some(load))
                     }
                 }
             }
         };
-        report.speed_rad_per_s = speed;
+        report.speed = radians_per_second(speed);
         report.speed_from = from;
         report.load_share = load;
         let swept = per_radian * speed;
-        report.flow_at_full_load_speed = q + per_radian * (full_load_speed - speed);
+        report.flow_at_full_load_speed =
+            cubic_metres_per_second(q + per_radian * (full_load_speed - speed));
         if q > swept * (1.0 + 1e-9) {
             problems.push(Problem {
                 field: at("flow_m3_per_s"),
@@ -386,25 +395,25 @@ pub fn assess(
             });
         } else if swept > 0.0 {
             report.volumetric = Some(q / swept);
-            fit_points.push((p, report.flow_at_full_load_speed));
+            fit_points.push((p, report.flow_at_full_load_speed.value));
         }
-        report.input_w = input;
+        report.input = input.map(watts);
         let from_torque = r.torque.map(|t| t.value * speed);
         report.shaft_from_torque = from_torque.is_some();
-        report.shaft_w = from_torque.or(shaft_from_input);
+        report.shaft = from_torque.or(shaft_from_input).map(watts);
         if let (Some(shaft), Some(input)) = (from_torque, input) {
             if shaft > input * (1.0 + 1e-9) {
                 problems.push(Problem {
                     field: at("torque_n_m"),
                     message: "The shaft power from this torque is more than the motor drew: check the torque reading or the electrical one.".into(),
                 });
-                report.shaft_w = None;
+                report.shaft = None;
             } else if input > 0.0 {
                 report.motor_efficiency_measured = Some(shaft / input);
             }
         }
-        if let (Some(shaft), Some(vol)) = (report.shaft_w, report.volumetric) {
-            let overall = report.hydraulic_w / shaft;
+        if let (Some(shaft), Some(vol)) = (report.shaft.map(|s| s.value), report.volumetric) {
+            let overall = report.hydraulic.value / shaft;
             if overall > 1.0 + 1e-9 {
                 problems.push(Problem {
                     field: at(if report.shaft_from_torque { "torque_n_m" } else { "electrical" }),
@@ -413,7 +422,7 @@ pub fn assess(
                         overall * 100.0
                     ),
                 });
-                report.shaft_w = None;
+                report.shaft = None;
             } else {
                 let mechanical = if vol > 0.0 { overall / vol } else { f64::NAN };
                 if mechanical.is_finite() && mechanical <= 1.0 + 1e-9 {
@@ -461,7 +470,7 @@ pub fn assess(
     };
     let readings_used = fit_points.len();
     Ok(TestReport {
-        theoretical_flow: theoretical,
+        theoretical_flow: cubic_metres_per_second(theoretical),
         motor_efficiency,
         readings: reports,
         leakage,
@@ -496,7 +505,7 @@ fn leakage_line(points: &[(f64, f64)], theoretical: f64, rated: f64) -> Option<L
         return None;
     };
     Some(LeakageLine {
-        zero_pressure_flow: intercept,
+        zero_pressure_flow: cubic_metres_per_second(intercept),
         leakage_per_pa: -slope,
         readings: points.len(),
         fitted,
@@ -556,10 +565,12 @@ pub fn nameplate_efficiency_offered(job: &super::job::Job) -> f64 {
 #[derive(Clone, Copy, Debug, PartialEq, Serialize)]
 pub struct MeasuredPump {
     pub volumetric: f64,
-    pub at_pressure_pa: f64,
+    #[serde(rename = "at_pressure_pa")]
+    pub at_pressure: Pressure,
     /// The speed the volumetric efficiency refers to (the test's full-load speed): the
     /// leakage it fixes holds at any other speed the design turns the pump at.
-    pub at_speed_rad_per_s: f64,
+    #[serde(rename = "at_speed_rad_per_s")]
+    pub at_speed: AngularVelocity,
     pub hydromechanical: Option<f64>,
 }
 
@@ -572,7 +583,8 @@ pub enum NotCopied {
     /// The line gives a volumetric efficiency no working pump has (at or below 0, above 1).
     Volumetric {
         volumetric: f64,
-        at_pressure_pa: f64,
+        #[serde(rename = "at_pressure_pa")]
+        at_pressure: Pressure,
     },
     /// A hydromechanical efficiency at or below 0 or above 1.
     Hydromechanical { hydromechanical: f64 },
@@ -590,11 +602,11 @@ impl NotCopied {
             }
             NotCopied::Volumetric {
                 volumetric,
-                at_pressure_pa,
+                at_pressure,
             } => format!(
                 "Not copied: the readings put the volumetric efficiency at {:.1} % at {}, which no working pump has. Check the flow readings at the highest pressures.",
                 volumetric * 100.0,
-                units.pressure(pascals(at_pressure_pa))
+                units.pressure(at_pressure)
             ),
             NotCopied::Hydromechanical { hydromechanical } => format!(
                 "Not copied: the readings put the hydromechanical efficiency at {:.1} %, which no working pump has. Check the power or torque readings.",
@@ -619,13 +631,13 @@ fn rounded_to_one(v: f64) -> f64 {
 
 /// Whether `m` can go into a design: every efficiency above 0 and at most 1, at a pressure.
 fn copyable(m: &MeasuredPump) -> Result<(), NotCopied> {
-    if !(m.at_pressure_pa.is_finite() && m.at_pressure_pa > 0.0) {
+    if !(m.at_pressure.value.is_finite() && m.at_pressure.value > 0.0) {
         return Err(NotCopied::NoBelievableReading);
     }
     if !(m.volumetric > 0.0 && m.volumetric <= 1.0) {
         return Err(NotCopied::Volumetric {
             volumetric: m.volumetric,
-            at_pressure_pa: m.at_pressure_pa,
+            at_pressure: m.at_pressure,
         });
     }
     match m.hydromechanical {
@@ -637,7 +649,7 @@ fn copyable(m: &MeasuredPump) -> Result<(), NotCopied> {
 pub fn measured_pump(test: &PumpTest, report: &TestReport) -> Result<MeasuredPump, NotCopied> {
     let line = report.leakage.ok_or(NotCopied::NoBelievableReading)?;
     if report.readings.len() != test.readings.len()
-        || !(report.theoretical_flow.is_finite() && report.theoretical_flow > 0.0)
+        || !(report.theoretical_flow.value.is_finite() && report.theoretical_flow.value > 0.0)
     {
         return Err(NotCopied::NoBelievableReading);
     }
@@ -657,9 +669,9 @@ pub fn measured_pump(test: &PumpTest, report: &TestReport) -> Result<MeasuredPum
         .max_by(|a, b| a.0.pressure.value.total_cmp(&b.0.pressure.value))
         .and_then(|(_, r)| r.hydromechanical);
     let measured = MeasuredPump {
-        volumetric: rounded_to_one(line.flow_at(p) / report.theoretical_flow),
-        at_pressure_pa: p,
-        at_speed_rad_per_s: test.speed.value,
+        volumetric: rounded_to_one((line.flow_at(pascals(p)) / report.theoretical_flow).value),
+        at_pressure: pascals(p),
+        at_speed: radians_per_second(test.speed.value),
         hydromechanical: hydromechanical.map(rounded_to_one),
     };
     copyable(&measured)?;
@@ -683,10 +695,10 @@ pub fn apply_to_design(
     };
     target.volumetric_efficiency = measured.volumetric;
     target.efficiency_pressure =
-        Pressure::new::<uom::si::pressure::pascal>(measured.at_pressure_pa);
+        Pressure::new::<uom::si::pressure::pascal>(measured.at_pressure.value);
     target.efficiency_speed = Some(AngularVelocity::new::<
         uom::si::angular_velocity::radian_per_second,
-    >(measured.at_speed_rad_per_s));
+    >(measured.at_speed.value));
     if let Some(h) = measured.hydromechanical {
         target.hydromechanical_efficiency = h;
         // The measured hydromechanical efficiency is the whole shaft power at the test
@@ -745,7 +757,7 @@ mod tests {
         let report = assess(&test, &WearPolicy::default(), UnitSystem::Si).unwrap();
         let measured = measured_pump(&test, &report).unwrap();
         // 120 N.m at 1000 rpm.
-        let shaft = report.readings[1].shaft_w.unwrap();
+        let shaft = report.readings[1].shaft.map(|q| q.value).unwrap();
         assert!((shaft - 120.0 * 1000.0 * TAU / 60.0).abs() < 1e-9 * shaft);
         // A design whose last pump is the tested one, on a motor at the test's speed; its
         // pump has a drag to start with (the demo's: a fixture, not a reference).

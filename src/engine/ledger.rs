@@ -3,7 +3,7 @@
 use super::finding::Finding;
 use super::motor::{Motor, RMS_LONGEST_CYCLE_S, STOPPED_COOLING_SHARE};
 use super::site::{Oil, Site};
-use super::units::{kilowatt_hours, seconds_of};
+use super::units::{kilowatt_hours, seconds_of, watts};
 use super::units::{BTU_IT, KILOWATT_HOUR};
 use serde::Serialize;
 use uom::si::energy::kilowatt_hour;
@@ -162,8 +162,8 @@ pub struct CycleTotals {
 #[derive(Clone, Copy, Debug, PartialEq)]
 pub struct TimedLedger {
     pub ledger: PowerLedger,
-    /// How long the phase lasts (s).
-    pub duration_s: f64,
+    /// How long the phase lasts.
+    pub duration: Time,
     /// Whether the motor turns in the phase (an idle may stop it).
     pub motor_running: bool,
 }
@@ -177,7 +177,7 @@ pub fn cycle_totals(phases: &[TimedLedger], site: &Site, oil: &Oil) -> CycleTota
     let (mut el_sq, mut shaft_sq) = (0.0, 0.0);
     let (mut peak_el, mut peak_shaft) = (0.0f64, 0.0f64);
     for phase in phases {
-        let (ledger, t) = (&phase.ledger, &phase.duration_s);
+        let (ledger, t) = (&phase.ledger, &phase.duration.value);
         let el = ledger.electrical_input.value;
         let shaft = ledger.shaft_power().value;
         time += t;
@@ -341,10 +341,6 @@ pub fn compare(
     }
 }
 
-pub(crate) fn watts(w: f64) -> Power {
-    Power::new::<uom::si::power::watt>(w)
-}
-
 #[cfg(test)]
 mod tests {
     use super::*;
@@ -389,7 +385,7 @@ mod tests {
                 useful_power: watts(shaft_w),
                 ..PowerLedger::default()
             },
-            duration_s: seconds,
+            duration: seconds_of(seconds),
             motor_running: running,
         }
     }

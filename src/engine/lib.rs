@@ -93,8 +93,10 @@
 //! none at setting x 1.03 (`pump::COMPENSATOR_BAND`); a check valve's cracking pressure is its
 //! drop at any flow; a direct phase's pressure is all useful.
 
+/// The quantities the engine's results carry, for crates above it to read them with; its
+/// `unit!` macro defines the trade's exact units in [`units::us`].
 #[macro_use]
-extern crate uom;
+pub extern crate uom;
 
 pub mod cycle;
 pub mod delivery;

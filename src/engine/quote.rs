@@ -33,26 +33,36 @@ use super::job::{Job, Oil};
 use super::ledger::{denoised, simple_payback, LedgerItem};
 use super::motor::{TYPICAL_FIXED_LOSS_SHARE, TYPICAL_PEAK_ALLOWANCE};
 use super::solve::{DesignReport, JobReport};
-use super::units::{Measure, KILOWATT_HOUR};
+use super::units::{watts, Measure, KILOWATT_HOUR};
 use super::valve::{TYPICAL_CHECK_CRACKING_PA, TYPICAL_UNLOADED_DROP_PA};
 use serde::Serialize;
 use uom::si::energy::kilowatt_hour;
-use uom::si::f64::Volume;
+use uom::si::f64::{Energy, Power, Time, Volume};
 
 /// One design's column of the comparison. Exact values; round with [`for_customer`] to show.
 #[derive(Clone, Debug, PartialEq, Serialize)]
 pub struct QuoteColumn {
     pub name: String,
-    pub motor_rated_w: f64,
-    pub peak_shaft_w: f64,
-    pub rms_shaft_w: f64,
-    pub cycle_time_s: f64,
+    #[serde(rename = "motor_rated_w")]
+    pub motor_rated: Power,
+    #[serde(rename = "peak_shaft_w")]
+    pub peak_shaft: Power,
+    #[serde(rename = "rms_shaft_w")]
+    pub rms_shaft: Power,
+    #[serde(rename = "cycle_time_s")]
+    pub cycle_time: Time,
     /// 3600 / cycle time: one part per cycle.
     pub parts_per_hour: f64,
-    pub energy_per_cycle_j: f64,
-    pub annual_energy_kwh: f64,
+    #[serde(rename = "energy_per_cycle_j")]
+    pub energy_per_cycle: Energy,
+    #[serde(
+        rename = "annual_energy_kwh",
+        serialize_with = "super::units::as_kilowatt_hours"
+    )]
+    pub annual_energy: Energy,
     /// Average heat into the oil (W): what a cooler must take away at steady temperature.
-    pub heat_load_w: f64,
+    #[serde(rename = "heat_load_w")]
+    pub heat_load: Power,
     pub heat_load_btu_per_hour: f64,
     /// How fast the oil would warm with no cooler, per hour of running (what the tank and
     /// pipes shed is left out, so the real rise is slower).
@@ -73,7 +83,8 @@ pub struct QuoteColumn {
 pub struct Saving {
     pub energy_kwh_per_year: f64,
     /// Less heat for the cooler to take away (W).
-    pub heat_load_w: f64,
+    #[serde(rename = "heat_load_w")]
+    pub heat_load: Power,
     pub cost_per_year: f64,
     pub co2_kg_per_year: Option<f64>,
     pub payback_years: Option<f64>,
@@ -98,7 +109,10 @@ pub fn columns(job: &Job, report: &JobReport) -> Vec<QuoteColumn> {
                 let cost = denoised(b.annual_cost - t.annual_cost, b.annual_cost);
                 Saving {
                     energy_kwh_per_year: energy,
-                    heat_load_w: denoised(b.heat_load.value - t.heat_load.value, b.heat_load.value),
+                    heat_load: watts(denoised(
+                        b.heat_load.value - t.heat_load.value,
+                        b.heat_load.value,
+                    )),
                     cost_per_year: cost,
                     co2_kg_per_year: grid.map(|g| energy * g),
                     payback_years: simple_payback(
@@ -111,14 +125,14 @@ pub fn columns(job: &Job, report: &JobReport) -> Vec<QuoteColumn> {
             let cycle = t.cycle_time.value;
             QuoteColumn {
                 name: design.name.clone(),
-                motor_rated_w: design.motor.rated_power.value,
-                peak_shaft_w: t.peak_shaft.value,
-                rms_shaft_w: t.rms_shaft.value,
-                cycle_time_s: cycle,
+                motor_rated: design.motor.rated_power,
+                peak_shaft: t.peak_shaft,
+                rms_shaft: t.rms_shaft,
+                cycle_time: t.cycle_time,
                 parts_per_hour: if cycle > 0.0 { 3600.0 / cycle } else { 0.0 },
-                energy_per_cycle_j: t.energy_per_cycle.value,
-                annual_energy_kwh: t.annual_energy.get::<kilowatt_hour>(),
-                heat_load_w: t.heat_load.value,
+                energy_per_cycle: t.energy_per_cycle,
+                annual_energy: t.annual_energy,
+                heat_load: t.heat_load,
                 heat_load_btu_per_hour: t.heat_load_btu_per_hour,
                 oil_rise_k_per_hour: t.oil_rise_k_per_minute * 60.0,
                 annual_cost: t.annual_cost,

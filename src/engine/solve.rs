@@ -11,11 +11,11 @@
 use super::cycle::{HoldMode, Phase, PhaseKind, SpeedRule};
 use super::finding::Finding;
 use super::job::Job;
-use super::ledger::{watts, PowerLedger};
+use super::ledger::PowerLedger;
 use super::ledger::{Comparison, CycleTotals};
 use super::power_unit::{Design, PhaseSetting};
 use super::pump::PumpControl;
-use super::units::{cubic_metres_per_second, seconds_of};
+use super::units::{cubic_metres_per_second, pascals, seconds_of, watts};
 use super::validate::InputError;
 use super::valve::{ActiveLimit, IdlePath, ReliefCharacteristic};
 use serde::Serialize;
@@ -147,7 +147,7 @@ pub(crate) fn solve_design(job: &Job, design: &Design) -> DesignReport {
         .iter()
         .map(|p| super::ledger::TimedLedger {
             ledger: p.ledger,
-            duration_s: p.point.duration.value,
+            duration: p.point.duration,
             motor_running: p.point.motor_running,
         })
         .collect();
@@ -688,10 +688,6 @@ pub(crate) fn design_findings(design: &Design) -> Vec<Finding> {
         }
     }
     findings
-}
-
-fn pascals(pa: f64) -> Pressure {
-    Pressure::new::<uom::si::pressure::pascal>(pa)
 }
 
 fn per_second(m3_per_s: f64) -> VolumeRate {

@@ -64,10 +64,11 @@ use super::power_unit::{Design, UnloadingStage};
 use super::pump::{Pump, PumpControl};
 use super::settings::{self, FlowNeed, UnloadingWindow};
 use super::solve::solve_design;
+use super::units::{joules, pascals, watts};
 use super::validate::InputError;
 use super::valve::{ActiveLimit, CheckValve, IdlePath, UnloadingValve};
 use serde::Serialize;
-use uom::si::f64::{AngularVelocity, Power, Pressure, Volume};
+use uom::si::f64::{AngularVelocity, Energy, Power, Time, Volume};
 
 pub use super::policy::{MotorSteps, StagingOptions, IEC_KW, NEMA_HP};
 
@@ -87,11 +88,16 @@ pub struct Spec {
 pub struct Candidate {
     pub spec: Spec,
     /// The smallest standard motor that covers the RMS and the peak (W).
-    pub motor_w: f64,
-    pub cycle_time_s: f64,
-    pub energy_per_cycle_j: f64,
-    pub rms_shaft_w: f64,
-    pub peak_shaft_w: f64,
+    #[serde(rename = "motor_w")]
+    pub motor: Power,
+    #[serde(rename = "cycle_time_s")]
+    pub cycle_time: Time,
+    #[serde(rename = "energy_per_cycle_j")]
+    pub energy_per_cycle: Energy,
+    #[serde(rename = "rms_shaft_w")]
+    pub rms_shaft: Power,
+    #[serde(rename = "peak_shaft_w")]
+    pub peak_shaft: Power,
     /// The design, ready to become the proposed one.
     pub design: Design,
 }
@@ -99,7 +105,11 @@ pub struct Candidate {
 impl Candidate {
     /// The ranking: smaller motor first, then less energy, then the shorter cycle.
     fn key(&self) -> (f64, f64, f64) {
-        (self.motor_w, self.energy_per_cycle_j, self.cycle_time_s)
+        (
+            self.motor.value,
+            self.energy_per_cycle.value,
+            self.cycle_time.value,
+        )
     }
 
     pub fn ranks_before(&self, other: &Candidate) -> bool {
@@ -203,10 +213,6 @@ fn pump_like(template: &Pump, displacement: f64, baseline: &Design) -> Pump {
         ),
         ..*template
     }
-}
-
-fn pascals(pa: f64) -> Pressure {
-    Pressure::new::<uom::si::pressure::pascal>(pa)
 }
 
 /// The design for `spec`, from the baseline's components; `None` when no unloading setting
@@ -395,11 +401,11 @@ pub fn evaluate(
     design.motor = motor;
     Some(Candidate {
         spec: spec.clone(),
-        motor_w,
-        cycle_time_s: totals.cycle_time.value,
-        energy_per_cycle_j: energy,
-        rms_shaft_w: rms,
-        peak_shaft_w: peak,
+        motor: watts(motor_w),
+        cycle_time: totals.cycle_time,
+        energy_per_cycle: joules(energy),
+        rms_shaft: watts(rms),
+        peak_shaft: watts(peak),
         design,
     })
 }
@@ -462,9 +468,9 @@ impl Search {
         for i in self.next..end {
             if let Some(c) = evaluate(&self.job, &self.options, &targets, &self.specs[i]) {
                 self.feasible += 1;
-                match self.frontier.iter_mut().find(|(m, _)| *m == c.motor_w) {
-                    Some((_, t)) => *t = t.min(c.cycle_time_s),
-                    None => self.frontier.push((c.motor_w, c.cycle_time_s)),
+                match self.frontier.iter_mut().find(|(m, _)| *m == c.motor.value) {
+                    Some((_, t)) => *t = t.min(c.cycle_time.value),
+                    None => self.frontier.push((c.motor.value, c.cycle_time.value)),
                 }
                 let at = self
                     .best

@@ -124,6 +124,7 @@ pub fn ledger_csv(design: &DesignReport, units: UnitSystem) -> String {
 #[cfg(test)]
 mod tests {
     use super::*;
+    use phasewise_engine::uom::si::{energy::kilowatt_hour, power::kilowatt};
     use phasewise_engine::{demo::scrap_baler, solve};
 
     fn cells(csv: &str) -> Vec<Vec<String>> {
@@ -155,11 +156,11 @@ mod tests {
         }
         let cycle = rows.last().unwrap();
         let average: f64 = cycle[5].parse().unwrap();
-        assert!((average - design.totals.average_electrical.value / 1e3).abs() < 1e-4);
+        assert!((average - design.totals.average_electrical.get::<kilowatt>()).abs() < 1e-4);
         let heat: f64 = cycle[13].parse().unwrap();
-        assert!((heat - design.totals.heat_load.value / 1e3).abs() < 1e-4);
+        assert!((heat - design.totals.heat_load.get::<kilowatt>()).abs() < 1e-4);
         let energy: f64 = cycle[14].parse().unwrap();
-        assert!((energy - design.totals.energy_per_cycle.value / 3.6e6).abs() < 1e-5);
+        assert!((energy - design.totals.energy_per_cycle.get::<kilowatt_hour>()).abs() < 1e-5);
     }
 
     #[test]

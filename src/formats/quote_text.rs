@@ -13,6 +13,8 @@
 
 use phasewise_engine::quote::{for_customer, payback_for_customer, QuoteColumn};
 use phasewise_engine::units::{Measure, UnitSystem};
+use phasewise_engine::uom::si::energy::kilowatt_hour;
+use phasewise_engine::uom::si::power::kilowatt;
 
 /// How a figure is shown: rounded as a quote gives it, or as the engine computed it.
 #[derive(Clone, Copy, Debug, PartialEq, Eq, Default)]
@@ -248,21 +250,23 @@ pub fn cell(
     Some(match row {
         // A rating is a size off a list: exact, it is shown as rated.
         Row::MotorSize => match precision {
-            Precision::ForCustomer => power(c.motor_rated_w),
-            Precision::Exact => Measure::Power.with_unit(units, c.motor_rated_w),
+            Precision::ForCustomer => power(c.motor_rated.value),
+            Precision::Exact => Measure::Power.with_unit(units, c.motor_rated.value),
         },
-        Row::PeakLoad => power(c.peak_shaft_w),
-        Row::RmsLoad => power(c.rms_shaft_w),
-        Row::CycleTime => quantity(Measure::Duration, units, c.cycle_time_s, precision),
+        Row::PeakLoad => power(c.peak_shaft.value),
+        Row::RmsLoad => power(c.rms_shaft.value),
+        Row::CycleTime => quantity(Measure::Duration, units, c.cycle_time.value, precision),
         Row::PartsPerHour => plain(c.parts_per_hour, "", precision),
-        Row::EnergyPerCycle => quantity(Measure::Energy, units, c.energy_per_cycle_j, precision),
-        Row::AnnualEnergy => plain(c.annual_energy_kwh, "kWh", precision),
+        Row::EnergyPerCycle => {
+            quantity(Measure::Energy, units, c.energy_per_cycle.value, precision)
+        }
+        Row::AnnualEnergy => plain(c.annual_energy.get::<kilowatt_hour>(), "kWh", precision),
         Row::AnnualCost => plain(c.annual_cost, currency, precision),
-        Row::HeatLoad => quantity(Measure::Heat, units, c.heat_load_w, precision),
+        Row::HeatLoad => quantity(Measure::Heat, units, c.heat_load.value, precision),
         Row::Co2 => plain(c.co2_kg_per_year?, "kg", precision),
         Row::EnergySaved => plain(saving?.energy_kwh_per_year, "kWh", precision),
         Row::CostSaved => plain(saving?.cost_per_year, currency, precision),
-        Row::HeatSaved => quantity(Measure::Heat, units, saving?.heat_load_w, precision),
+        Row::HeatSaved => quantity(Measure::Heat, units, saving?.heat_load.value, precision),
         Row::Co2Saved => plain(saving?.co2_kg_per_year?, "kg", precision),
         Row::Payback => payback_text(saving?.payback_years, precision),
     })
@@ -270,14 +274,16 @@ pub fn cell(
 
 /// What a design's heat load means for cooling, in one sentence.
 pub fn cooling(c: &QuoteColumn, units: UnitSystem, precision: Precision) -> String {
-    if c.heat_load_w <= 0.0 {
+    if c.heat_load.value <= 0.0 {
         return "No heat goes into the oil: no cooler is needed for this cycle.".into();
     }
-    let heat = quantity(Measure::Heat, units, c.heat_load_w, precision);
+    let heat = quantity(Measure::Heat, units, c.heat_load.value, precision);
     // Cooler ratings are given in both kW and Btu/h: the other one in brackets.
     let other = match units {
         UnitSystem::Si => format!("{} Btu/h", number(c.heat_load_btu_per_hour, precision)),
-        UnitSystem::UsCustomary => format!("{} kW", number(c.heat_load_w / 1e3, precision)),
+        UnitSystem::UsCustomary => {
+            format!("{} kW", number(c.heat_load.get::<kilowatt>(), precision))
+        }
     };
     let rise = quantity(
         Measure::RisePerHour,

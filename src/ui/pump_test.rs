@@ -413,12 +413,12 @@ fn TestFindings(t: usize, test: PumpTest, report: TestReport) -> impl IntoView {
                     <td>{Measure::Pressure.format(u, r.pressure.value)}</td>
                     <td>{Measure::Flow.format(u, r.flow.value)}</td>
                     <td>{match x.speed_from {
-                        SpeedFrom::Slip => format!("≈{}", Measure::ShaftSpeed.format(u, x.speed_rad_per_s)),
-                        _ => Measure::ShaftSpeed.format(u, x.speed_rad_per_s),
+                        SpeedFrom::Slip => format!("≈{}", Measure::ShaftSpeed.format(u, x.speed.value)),
+                        _ => Measure::ShaftSpeed.format(u, x.speed.value),
                     }}</td>
                     <td>{percent(x.volumetric)}</td>
-                    <td>{Measure::Power.format(u, x.hydraulic_w)}</td>
-                    <td>{x.shaft_w.map_or("–".into(), |w| Measure::Power.format(u, w))}</td>
+                    <td>{Measure::Power.format(u, x.hydraulic.value)}</td>
+                    <td>{x.shaft.map(|q| q.value).map_or("–".into(), |w| Measure::Power.format(u, w))}</td>
                     <td>{percent(x.overall)}</td>
                     <td>{percent(x.hydromechanical)}</td>
                 </tr>
@@ -430,7 +430,7 @@ fn TestFindings(t: usize, test: PumpTest, report: TestReport) -> impl IntoView {
         <h2>"What the readings say"</h2>
         <p class={class} data-verdict=data data-readings-used=used role="status">{verdict_text}</p>
         {trend_text.map(|t| view! { <p class="trend" data-trend="true">{t}</p> })}
-        <p>{format!("Theoretical flow at the motor's full-load speed of {}: {}. Motor efficiency at full load: {} (less at part load).", Measure::ShaftSpeed.with_unit(u, test.speed.value), Measure::Flow.with_unit(u, report.theoretical_flow), percent(report.motor_efficiency))}</p>
+        <p>{format!("Theoretical flow at the motor's full-load speed of {}: {}. Motor efficiency at full load: {} (less at part load).", Measure::ShaftSpeed.with_unit(u, test.speed.value), Measure::Flow.with_unit(u, report.theoretical_flow.value), percent(report.motor_efficiency))}</p>
         {(!problems.is_empty()).then(|| view! {
             <ul class="test-problems" role="alert">
                 {problems.into_iter().map(|p| view! { <li data-problem=p.field.clone()>{p.message}</li> }).collect_view()}
@@ -473,24 +473,25 @@ fn FlowChart(test: PumpTest, report: TestReport, units: UnitSystem) -> impl Into
     let q_max = report
         .readings
         .iter()
-        .map(|r| r.flow_at_full_load_speed)
-        .fold(report.theoretical_flow, f64::max)
+        .map(|r| r.flow_at_full_load_speed.value)
+        .fold(report.theoretical_flow.value, f64::max)
         * 1.1;
     if !(p_max > 0.0 && q_max > 0.0) {
         return ().into_any();
     }
     let x = move |p: f64| pad + (w - 2.0 * pad) * p / p_max;
     let y = move |q: f64| h - pad - (h - 2.0 * pad) * (q / q_max).max(0.0);
-    let theory = y(report.theoretical_flow);
+    let theory = y(report.theoretical_flow.value);
     let line = report.leakage.map(|l| {
-        let rated = test.rated_pressure.value;
-        view! { <line x1=x(0.0) y1=y(l.flow_at(0.0)) x2=x(rated) y2=y(l.flow_at(rated)) class="fit" /> }
+        let rated = test.rated_pressure;
+        let at = |p| l.flow_at(p).value;
+        view! { <line x1=x(0.0) y1=y(at(rated * 0.0)) x2=x(rated.value) y2=y(at(rated)) class="fit" /> }
     });
     let dots = test
         .readings
         .iter()
         .zip(&report.readings)
-        .map(|(r, at)| view! { <circle cx=x(r.pressure.value) cy=y(at.flow_at_full_load_speed) r="5" class="reading-dot" /> })
+        .map(|(r, at)| view! { <circle cx=x(r.pressure.value) cy=y(at.flow_at_full_load_speed.value) r="5" class="reading-dot" /> })
         .collect_view();
     let axis_p = format!("{} ({})", "Pressure", Measure::Pressure.label(units));
     let axis_q = format!("{} ({})", "Flow", Measure::Flow.label(units));
@@ -504,7 +505,7 @@ fn FlowChart(test: PumpTest, report: TestReport, units: UnitSystem) -> impl Into
                 {dots}
                 <text x=w - pad y=h - pad + 16.0 class="tick" text-anchor="end">{axis_p}</text>
                 <text x=pad y=pad - 8.0 class="tick">{axis_q}</text>
-                <text x=pad + 4.0 y=theory - 4.0 class="tick">{Measure::Flow.format(units, report.theoretical_flow)}</text>
+                <text x=pad + 4.0 y=theory - 4.0 class="tick">{Measure::Flow.format(units, report.theoretical_flow.value)}</text>
                 <line x1=x(test.rated_pressure.value) y1=h - pad x2=x(test.rated_pressure.value) y2=h - pad + 4.0 class="axis" />
                 <text x=x(test.rated_pressure.value) y=h - pad + 28.0 class="tick" text-anchor="middle">{format!("rated {}", Measure::Pressure.format(units, test.rated_pressure.value))}</text>
             </svg>
@@ -577,7 +578,7 @@ fn CopyToDesign(t: usize) -> impl IntoView {
             "Copied into “{name}”, pump {}: volumetric {} at {}{}.",
             p + 1,
             percent(Some(measured.volumetric)),
-            Measure::Pressure.with_unit(u, measured.at_pressure_pa),
+            Measure::Pressure.with_unit(u, measured.at_pressure.value),
             measured.hydromechanical.map_or(String::new(), |h| format!(
                 ", hydromechanical {} (its drag set to zero: the measured figure includes it)",
                 percent(Some(h))

@@ -167,9 +167,9 @@ fn Found(
                 let speed = Measure::ShaftSpeed.with_unit(u, c.spec.speed);
                 let line = format!(
                     "{pumps}{kind} at {speed}; motor {}; cycle {}; {} per cycle",
-                    motor_label(c.motor_w, u),
-                    Measure::Duration.with_unit(u, c.cycle_time_s),
-                    Measure::Energy.with_unit(u, c.energy_per_cycle_j),
+                    motor_label(c.motor.value, u),
+                    Measure::Duration.with_unit(u, c.cycle_time.value),
+                    Measure::Energy.with_unit(u, c.energy_per_cycle.value),
                 );
                 let candidate = c.clone();
                 view! {

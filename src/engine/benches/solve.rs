@@ -8,7 +8,7 @@
 
 // The engine tests' builders; the bench uses a few of them.
 #[path = "../tests/engine/common.rs"]
-#[allow(dead_code)]
+#[allow(dead_code, unused_imports)]
 mod common;
 
 use common::*;

@@ -2,6 +2,8 @@
 //! job's options (the demo job when no file is given): counts, the best candidates and the
 //! motor-size trade-off.
 
+use phasewise_engine::uom::si::{energy::kilojoule, power::kilowatt, pressure::bar};
+
 fn main() {
     let job = match std::env::args().nth(1) {
         Some(path) => {
@@ -35,19 +37,19 @@ fn main() {
             .design
             .unloading_stages
             .iter()
-            .map(|s| format!("{:.0}", s.unloading.setting.value / 1e5))
+            .map(|s| format!("{:.0}", s.unloading.setting.get::<bar>()))
             .collect();
         println!(
             "{} cm3/rev{} at {:.0} rpm: motor {:.1} kW, cycle {:.2} s, {:.1} kJ/cycle, RMS {:.2} kW, peak {:.2} kW, main {:.0} bar, unloading [{}] bar",
             cc.join(" + "),
             if c.spec.compensated { " compensated" } else { "" },
             c.spec.speed * 60.0 / std::f64::consts::TAU,
-            c.motor_w / 1e3,
-            c.cycle_time_s,
-            c.energy_per_cycle_j / 1e3,
-            c.rms_shaft_w / 1e3,
-            c.peak_shaft_w / 1e3,
-            c.design.relief.setting.value / 1e5,
+            c.motor.get::<kilowatt>(),
+            c.cycle_time.value,
+            c.energy_per_cycle.get::<kilojoule>(),
+            c.rms_shaft.get::<kilowatt>(),
+            c.peak_shaft.get::<kilowatt>(),
+            c.design.relief.setting.get::<bar>(),
             settings.join(", ")
         );
     }

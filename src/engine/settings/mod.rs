@@ -96,10 +96,7 @@ use uom::si::f64::{Power, Pressure};
 
 pub use crate::policy::AdvicePolicy;
 pub use crate::power_unit::compensator_dead_head;
-
-pub(super) fn pascals(pa: f64) -> Pressure {
-    Pressure::new::<uom::si::pressure::pascal>(pa)
-}
+use crate::units::pascals;
 
 /// How much a piece of advice matters.
 #[derive(Clone, Copy, Debug, PartialEq, Eq, PartialOrd, Ord, Serialize)]

@@ -8,6 +8,8 @@ use phasewise_engine::power_unit::{Design, PhaseSetting, UnloadingStage};
 use phasewise_engine::pump::{Pump, PumpControl};
 use phasewise_engine::units::UnitSystem;
 use phasewise_engine::valve::*;
+// The trade's US units at their exact definitions, for the tests that read US figures.
+pub use phasewise_engine::units::us::{pressure::psi, volume_rate::gallon_per_minute};
 use uom::si::angular_velocity::revolution_per_minute;
 use uom::si::f64::*;
 use uom::si::force::kilonewton;

@@ -97,12 +97,7 @@ fn hydraulics_and_pneumatics_volumetric_efficiency_example() {
     // 90 L/min measured at 207 bar is 90 % volumetric efficiency.
     let t = test_of(100.0, 1000.0, vec![reading(207.0, lpm(90.0))]);
     let report = assess(&t);
-    assert_close(
-        in_lpm(m3s(report.theoretical_flow)),
-        100.0,
-        1e-12,
-        "theoretical",
-    );
+    assert_close(in_lpm(report.theoretical_flow), 100.0, 1e-12, "theoretical");
     assert_close(
         report.readings[0].volumetric.unwrap(),
         0.90,
@@ -223,16 +218,21 @@ fn us_customary_and_si_readings_give_the_same_physics() {
     r.electrical = Some(ElectricalInput::Power { input: kw(15.0) });
     us.readings = vec![r];
     let mut si = us.clone();
-    // The same in SI units, typed as a metric user would: 39.98 cm^3/rev, 66.24 L/min,
-    // 103.42 bar.
-    si.displacement = Volume::new::<cubic_centimeter>(2.44 * 16.387064);
-    si.readings[0].flow = lpm(17.5 * 3.785411784);
-    si.readings[0].pressure = bar_(1500.0 * 0.068_947_572_931_683_6);
+    // The same through the project's uom units (39.98 cm^3/rev, 66.24 L/min, 103.42 bar in
+    // SI): the figures must agree to the last digits.
+    si.displacement = Volume::new::<uom::si::volume::cubic_meter>(2.44 * cubic_inch);
+    si.readings[0].flow = VolumeRate::new::<gallon_per_minute>(17.5);
+    si.readings[0].pressure = uom::si::f64::Pressure::new::<psi>(1500.0);
     let (a, b) = (
         efficiency::assess(&us, &WearPolicy::default(), UnitSystem::UsCustomary).unwrap(),
         assess(&si),
     );
-    assert_close(a.theoretical_flow, b.theoretical_flow, 1e-12, "theoretical");
+    assert_close(
+        a.theoretical_flow.value,
+        b.theoretical_flow.value,
+        1e-12,
+        "theoretical",
+    );
     let (ra, rb) = (&a.readings[0], &b.readings[0]);
     assert_close(
         ra.volumetric.unwrap(),
@@ -243,7 +243,7 @@ fn us_customary_and_si_readings_give_the_same_physics() {
     assert_close(ra.overall.unwrap(), rb.overall.unwrap(), 1e-12, "overall");
     // Hydraulic power: gpm x psi / 1714.2857 hp (REFERENCES.md, exact).
     assert_close(
-        ra.hydraulic_w / HORSEPOWER,
+        ra.hydraulic.value / HORSEPOWER,
         17.5 * 1500.0 / (12000.0 / 7.0),
         1e-12,
         "hydraulic hp",
@@ -262,14 +262,9 @@ fn the_leakage_fit_recovers_a_known_line() {
     let report = assess(&test_of(40.0, 1500.0, readings));
     let line = report.leakage.unwrap();
     assert_eq!(line.readings, 4);
+    assert_close(in_lpm(line.zero_pressure_flow), 60.0, 1e-9, "intercept");
     assert_close(
-        in_lpm(m3s(line.zero_pressure_flow)),
-        60.0,
-        1e-9,
-        "intercept",
-    );
-    assert_close(
-        line.leakage_per_pa * 1e5 / phasewise_engine::units::LITRE_PER_MINUTE,
+        in_lpm(m3s(line.leakage_per_pa * bar_(1.0).value)),
         0.02,
         1e-9,
         "leakage per bar",
@@ -285,7 +280,7 @@ fn the_leakage_fit_recovers_a_known_line() {
     let one = assess(&test_of(40.0, 1500.0, vec![reading(100.0, lpm(54.0))]));
     let line = one.leakage.unwrap();
     assert_close(
-        line.zero_pressure_flow,
+        line.zero_pressure_flow.value,
         lpm(60.0).value,
         1e-12,
         "through theoretical",
@@ -353,7 +348,7 @@ fn readings_that_cannot_be_right_get_a_message_and_no_figure() {
         power_factor: 0.85,
     });
     let report = assess(&test_of(40.0, 1500.0, vec![r]));
-    assert_eq!(report.readings[0].input_w, None);
+    assert_eq!(report.readings[0].input.map(|q| q.value), None);
     assert!(report
         .problems
         .iter()
@@ -437,7 +432,7 @@ fn the_measured_efficiencies_go_into_a_design() {
     let t = test_of(100.0, 1000.0, vec![reading(20.0, m3s(0.00162)), r]);
     let report = assess(&t);
     let measured = efficiency::measured_pump(&t, &report).unwrap();
-    assert_eq!(measured.at_pressure_pa, 70e5);
+    assert_eq!(measured.at_pressure.value, 70e5);
     let job = phasewise_engine::demo::scrap_baler();
     let d = efficiency::apply_to_design(&job.designs[0], 1, &measured).unwrap();
     assert_close(
@@ -523,7 +518,7 @@ fn a_light_load_reading_is_worked_at_the_slip_corrected_speed() {
     let load = shaft / 22_000.0;
     assert_close(r.load_share.unwrap(), load, 1e-9, "load share");
     let n = 1500.0 - 35.0 * load;
-    assert_close(r.speed_rad_per_s, rpm(n).value, 1e-9, "speed");
+    assert_close(r.speed.value, rpm(n).value, 1e-9, "speed");
     assert_close(n, 1495.86, 1e-5, "speed in rpm, by hand");
     assert_close(
         r.volumetric.unwrap(),
@@ -587,7 +582,7 @@ fn shaft_power_from_the_input_follows_the_motors_part_load_efficiency() {
     // growing with the square of the load. At 3.2 kW drawn by a 22 kW motor (light load) its
     // efficiency is well below the full-load 93 %, so the shaft gets less than 3.2 x 0.93.
     let report = assess(&light_load_test());
-    let shaft = report.readings[0].shaft_w.unwrap();
+    let shaft = report.readings[0].shaft.map(|q| q.value).unwrap();
     assert!(shaft < 3200.0 * 0.93 - 100.0, "{shaft}");
     let m = the_motor(0.93);
     // input = shaft + loss(shaft), to rounding.
@@ -611,7 +606,7 @@ fn shaft_power_from_the_input_follows_the_motors_part_load_efficiency() {
     let mut t = light_load_test();
     t.readings[0].electrical = Some(ElectricalInput::Power { input: kw(0.4) });
     let report = assess(&t);
-    assert_eq!(report.readings[0].shaft_w, None);
+    assert_eq!(report.readings[0].shaft.map(|q| q.value), None);
     assert!(report
         .problems
         .iter()
@@ -669,8 +664,8 @@ fn an_efficiency_no_pump_has_is_never_copied() {
     ] {
         let m = MeasuredPump {
             volumetric,
-            at_pressure_pa: 100e5,
-            at_speed_rad_per_s: 150.0,
+            at_pressure: bar_(100.0),
+            at_speed: AngularVelocity::new::<uom::si::angular_velocity::radian_per_second>(150.0),
             hydromechanical,
         };
         assert!(

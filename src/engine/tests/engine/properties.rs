@@ -385,7 +385,11 @@ fn lowering_a_needlessly_high_limit_in_a_metered_phase_never_raises_its_loss() {
                 let l = &r.designs[0].phases[i].ledger;
                 (l.electrical_input - l.useful_power).value
             };
-            job.designs[0].remote_stages.push(bar_(remote / 1e5));
+            job.designs[0]
+                .remote_stages
+                .push(uom::si::f64::Pressure::new::<uom::si::pressure::pascal>(
+                    remote,
+                ));
             let stage = job.designs[0].remote_stages.len() - 1;
             job.designs[0].phase_settings[i].limit = ActiveLimit::Remote { stage };
             let after = solved(&job)?;

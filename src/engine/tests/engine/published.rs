@@ -10,7 +10,7 @@ use phasewise_engine::ledger::{cycle_totals, PowerLedger, TimedLedger};
 use phasewise_engine::units::{GALLON_PER_MINUTE, HORSEPOWER, PSI};
 use phasewise_engine::valve::ReliefKind;
 use phasewise_engine::{solve, PumpState};
-use uom::si::f64::{Power, Pressure};
+use uom::si::f64::{Power, Pressure, VolumeRate};
 
 fn pressure_load(name: &str, load_bar: f64) -> Phase {
     Phase {
@@ -181,8 +181,8 @@ fn hydraulic_horsepower_of_engineering_toolbox() {
     let d = us_unit(20.0, 3000.0, 20.0);
     let demand = direct(
         "demand",
-        20.0 * GALLON_PER_MINUTE / 1.0e-3 * 60.0,
-        1500.0 * PSI / 1e5,
+        in_lpm(VolumeRate::new::<gallon_per_minute>(20.0)),
+        in_bar(Pressure::new::<psi>(1500.0)),
         10.0,
     );
     let report = solve(&job(vec![demand], vec![d])).unwrap();
@@ -200,7 +200,7 @@ fn ledger_of(electrical_kw: f64, relief_kw: f64, seconds: f64) -> TimedLedger {
             useful_power: w(electrical_kw - relief_kw),
             ..PowerLedger::default()
         },
-        duration_s: seconds,
+        duration: s(seconds),
         motor_running: true,
     }
 }

@@ -14,8 +14,8 @@ fn totals(cycle_s: f64, kwh: f64, cost: f64, heat_w: f64) -> CycleTotals {
     let w = |v: f64| Power::new::<uom::si::power::watt>(v);
     CycleTotals {
         cycle_time: Time::new::<uom::si::time::second>(cycle_s),
-        energy_per_cycle: Energy::new::<uom::si::energy::joule>(
-            kwh / 4000.0 * 3.6e6 * cycle_s / 3600.0,
+        energy_per_cycle: Energy::new::<uom::si::energy::kilowatt_hour>(
+            kwh / 4000.0 * cycle_s / 3600.0,
         ),
         average_electrical: w(kwh / 4000.0 * 1e3),
         peak_electrical: w(0.0),
@@ -89,7 +89,7 @@ fn high_efficiency_motor_savings_of_cengel_and_boles() {
     );
     // The standard motor's own year, from the same data: 44.742 / 0.89 x 3500 h.
     assert_close(
-        c[0].annual_energy_kwh,
+        c[0].annual_energy.get::<uom::si::energy::kilowatt_hour>(),
         44.742 / 0.89 * 3500.0,
         0.005,
         "kWh a year",
@@ -160,7 +160,12 @@ fn the_year_split_by_ledger_item_adds_up_to_the_year() {
     let report = solve(&job).unwrap();
     let c = &quote::columns(&job, &report)[0];
     let sum: f64 = c.annual_energy_by_item_kwh.iter().sum();
-    assert_close(sum, c.annual_energy_kwh, 1e-9, "items against the year");
+    assert_close(
+        sum,
+        c.annual_energy.get::<uom::si::energy::kilowatt_hour>(),
+        1e-9,
+        "items against the year",
+    );
     assert!(c.annual_energy_by_item_kwh.iter().all(|&e| e >= 0.0));
     let d = &report.designs[0];
     let motor_j: f64 = d
@@ -294,8 +299,8 @@ fn a_retrofit_worked_by_hand() {
     let c = quote::columns(&job, &report);
     assert_eq!(c.len(), 2);
     assert!(c[0].against_baseline.is_none());
-    assert_eq!(c[0].motor_rated_w, 15e3);
-    assert_eq!(c[1].motor_rated_w, 11e3);
+    assert_eq!(c[0].motor_rated.value, 15e3);
+    assert_eq!(c[1].motor_rated.value, 11e3);
     assert_close(c[0].parts_per_hour, 120.0, 1e-12, "parts per hour");
     assert_close(c[1].parts_per_hour, 112.5, 1e-12, "parts per hour");
     assert_close(c[0].co2_kg_per_year.unwrap(), 16_000.0, 1e-12, "CO2");

@@ -12,7 +12,7 @@ use phasewise_engine::units::UnitSystem;
 use phasewise_engine::valve::{ActiveLimit, ReliefKind};
 use phasewise_engine::{solve, Finding, Job};
 
-const BAR: f64 = 1e5;
+use phasewise_engine::units::BAR;
 
 fn rules(advice: &[Advice]) -> Vec<&Rule> {
     advice.iter().map(|a| &a.rule).collect()

@@ -36,7 +36,7 @@ fn options(sizes: &[f64], max_pumps: usize) -> StagingOptions {
 }
 
 fn key(c: &Candidate) -> (f64, f64, f64) {
-    (c.motor_w, c.energy_per_cycle_j, c.cycle_time_s)
+    (c.motor.value, c.energy_per_cycle.value, c.cycle_time.value)
 }
 
 /// An invented high-low press, slow as found: a single 25 cm^3/rev pump on a 15 kW motor at
@@ -168,19 +168,19 @@ fn kept_candidates_meet_the_times_and_size_their_motor_on_rms_and_peak() {
                 );
             }
         }
-        assert!(c.motor_w * opts.service_factor >= r.totals.rms_shaft.value);
-        assert!(c.motor_w * opts.peak_allowance >= r.totals.peak_shaft.value);
+        assert!(c.motor.value * opts.service_factor >= r.totals.rms_shaft.value);
+        assert!(c.motor.value * opts.peak_allowance >= r.totals.peak_shaft.value);
         // The next smaller step would not do.
-        if let Some(smaller) = steps.iter().rev().find(|&&s| s < c.motor_w) {
+        if let Some(smaller) = steps.iter().rev().find(|&&s| s < c.motor.value) {
             assert!(
                 smaller * opts.service_factor < r.totals.rms_shaft.value
                     || smaller * opts.peak_allowance < r.totals.peak_shaft.value
             );
         }
-        assert_eq!(c.design.motor.rated_power.value, c.motor_w);
+        assert_eq!(c.design.motor.rated_power.value, c.motor.value);
     }
     // Unloading the large pump in the press lets a smaller motor serve than the as-found 15 kW.
-    assert!(found.best[0].motor_w < 15e3, "{:?}", found.best[0].spec);
+    assert!(found.best[0].motor.value < 15e3, "{:?}", found.best[0].spec);
 }
 
 #[test]
@@ -327,17 +327,17 @@ fn a_candidate_worked_by_hand() {
         assert_close(phase.ledger.shaft_power().value, watts, 1e-6, name);
         assert_close(phase.point.duration.value, seconds, 1e-6, name);
     }
-    assert_close(c.cycle_time_s, 25.061734, 1e-6, "cycle");
-    assert_close(c.rms_shaft_w, 1302.515, 1e-6, "RMS");
-    assert_close(c.peak_shaft_w, 2926.479, 1e-6, "peak");
-    assert_eq!(c.motor_w, 3000.0);
+    assert_close(c.cycle_time.value, 25.061734, 1e-6, "cycle");
+    assert_close(c.rms_shaft.value, 1302.515, 1e-6, "RMS");
+    assert_close(c.peak_shaft.value, 2926.479, 1e-6, "peak");
+    assert_eq!(c.motor.value, 3000.0);
     assert_close(
         d.motor.full_load_efficiency,
         0.896,
         1e-12,
         "IE3 at the table's 5.5 kW",
     );
-    assert_close(c.energy_per_cycle_j, 10450.99, 1e-6, "energy per cycle");
+    assert_close(c.energy_per_cycle.value, 10450.99, 1e-6, "energy per cycle");
     assert_close(
         r.totals.energy_per_cycle.value,
         10450.99,
@@ -377,7 +377,7 @@ fn each_move_keeps_to_its_own_target_time() {
             .unwrap()
             .best
             .first()
-            .map(|c| c.motor_w)
+            .map(|c| c.motor.value)
     };
     let as_found = slow_press();
     let press_time = staging::targets(&as_found, &opts).unwrap().phase_times[1].unwrap();
@@ -428,7 +428,11 @@ fn a_cycle_time_target_is_kept() {
         .iter()
         .map(|f| f.1)
         .fold(f64::INFINITY, f64::min);
-    let slowest_kept = free.best.iter().map(|c| c.cycle_time_s).fold(0.0, f64::max);
+    let slowest_kept = free
+        .best
+        .iter()
+        .map(|c| c.cycle_time.value)
+        .fold(0.0, f64::max);
     assert!(
         fastest < slowest_kept,
         "the case needs a spread of cycle times"
@@ -441,7 +445,11 @@ fn a_cycle_time_target_is_kept() {
     let held = staging::search(&job, &opts).unwrap();
     assert!(!held.best.is_empty() && held.feasible < free.feasible);
     for c in &held.best {
-        assert!(c.cycle_time_s <= limit * (1.0 + 1e-9), "{}", c.cycle_time_s);
+        assert!(
+            c.cycle_time.value <= limit * (1.0 + 1e-9),
+            "{}",
+            c.cycle_time.value
+        );
     }
 }
 
@@ -513,7 +521,7 @@ fn each_candidates_motor_takes_its_class_efficiency_at_its_own_size() {
         for (size, (motor_w, efficiency)) in [25.0, 40.0].into_iter().zip(expected) {
             let c = staging::evaluate(&job, &opts, &targets, &single(size)).expect("it serves");
             let what = format!("{size} cm^3/rev, {:?}", opts.efficiency_class());
-            assert_close(c.motor_w, motor_w, 1e-12, &what);
+            assert_close(c.motor.value, motor_w, 1e-12, &what);
             assert_close(
                 c.design.motor.full_load_efficiency,
                 efficiency,
@@ -535,10 +543,10 @@ fn each_candidates_motor_takes_its_class_efficiency_at_its_own_size() {
                     (shaft + loss) * p.point.duration.value
                 })
                 .sum();
-            assert_close(c.energy_per_cycle_j, by_hand, 1e-9, &what);
+            assert_close(c.energy_per_cycle.value, by_hand, 1e-9, &what);
             assert_close(
                 d.totals.energy_per_cycle.value,
-                c.energy_per_cycle_j,
+                c.energy_per_cycle.value,
                 1e-9,
                 &what,
             );
@@ -573,7 +581,7 @@ fn compensated_candidates_keep_the_relief_clear_of_the_compensator() {
             continue;
         };
         let dead_head = phasewise_engine::settings::compensator_dead_head(&d).unwrap();
-        let margin = (dead_head * 0.10).max(15.0 * 1e5);
+        let margin = (dead_head * 0.10).max(bar_(15.0).value);
         assert!(
             d.relief.setting.value >= dead_head + margin - 1e-6,
             "{size}: relief {} against dead-head {dead_head}",

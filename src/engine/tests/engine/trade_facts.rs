@@ -5,6 +5,9 @@ use crate::common::*;
 use phasewise_engine::cycle::{Direction, HoldMode, SpeedRule};
 use phasewise_engine::valve::{ActiveLimit, IdlePath, ReliefKind};
 use phasewise_engine::{solve, Finding};
+use uom::si::area::square_meter;
+use uom::si::f64::Area;
+use uom::si::force::kilonewton;
 
 /// One ideal 20 cm^3/rev pump at 1500 rpm (30 L/min) and a relief set at 200 bar for 30 L/min.
 fn unit(kind: ReliefKind) -> phasewise_engine::power_unit::Design {
@@ -28,7 +31,7 @@ fn move_at(bar: f64) -> phasewise_engine::cycle::Phase {
         50.0,
         100.0,
         Direction::Extend,
-        bar * 1e5 * area / 1e3,
+        (bar_(bar) * Area::new::<square_meter>(area)).get::<kilonewton>(),
         0.0,
         SpeedRule::AllPumpFlow,
     )
