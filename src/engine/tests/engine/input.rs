@@ -78,22 +78,17 @@ fn a_rod_as_thick_as_the_bore_is_refused_at_the_rod() {
 
 #[test]
 fn negative_zero_and_not_a_number_say_which() {
-    assert_eq!(
-        errors_after(|j| cylinder(j).stroke = mm(-10.0))[0].1,
-        "cannot be negative"
-    );
-    assert_eq!(
-        errors_after(|j| cylinder(j).stroke = mm(0.0))[0].1,
-        "must be more than zero"
-    );
-    assert_eq!(
-        errors_after(|j| cylinder(j).stroke = mm(f64::NAN))[0].1,
-        "is not a number: type a value"
-    );
-    assert_eq!(
-        errors_after(|j| cylinder(j).stroke = mm(f64::INFINITY))[0].1,
-        "is not a number: type a value"
-    );
+    // (the stroke typed, what the field says)
+    let cases = [
+        (-10.0, "cannot be negative"),
+        (0.0, "must be more than zero"),
+        (f64::NAN, "is not a number: type a value"),
+        (f64::INFINITY, "is not a number: type a value"),
+    ];
+    for (stroke, said) in cases {
+        let errors = errors_after(|j| cylinder(j).stroke = mm(stroke));
+        assert_eq!(errors[0].1, said, "a stroke of {stroke} mm");
+    }
     let idle_zero = errors_after(|j| j.cycle[2].kind = idle("idle", 0.0).kind);
     assert_eq!(
         idle_zero,
