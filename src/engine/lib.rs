@@ -154,6 +154,16 @@ pub struct PhaseEnergy {
     pub pump: Pressure,
 }
 
+impl PhaseEnergy {
+    /// Whether the pump works at the pressure the phase needs, give or take 1 % and 0.01 bar
+    /// (the rounding between two solved figures, not a surplus worth naming). `None` when the
+    /// phase needs no pressure.
+    pub fn pump_at_need(&self) -> Option<bool> {
+        let need = self.needed?.value;
+        Some((self.pump.value - need).abs() <= need.abs() * 0.01 + 1e3)
+    }
+}
+
 /// Each phase of design `d`'s report by its energy over one cycle, most first (ties in cycle
 /// order). Empty for a design the report does not hold.
 pub fn phases_by_energy(job: &Job, report: &JobReport, d: usize) -> Vec<PhaseEnergy> {

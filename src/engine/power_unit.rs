@@ -115,6 +115,12 @@ impl Design {
         }
     }
 
+    /// Where a newly added remote stage starts: 60 % of the main setting, below it so that it
+    /// governs, for the user to set (a starting value, not advice).
+    pub fn new_remote_stage(&self) -> Pressure {
+        self.relief.setting * 0.6
+    }
+
     /// Whether this proposal was made from an "as found" whose machine has changed since.
     pub fn made_from_older(&self, baseline: &Design) -> bool {
         self.made_from

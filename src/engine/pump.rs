@@ -65,6 +65,15 @@ pub(crate) struct PumpAtSpeed {
     pub compensator: Option<f64>,
 }
 
+impl Pump {
+    /// The compensator setting a pump switched to pressure-compensated starts at: 80 % of its
+    /// rated pressure, safely inside the rating, for the user to set (a starting value, not
+    /// advice).
+    pub fn first_compensator_setting(&self) -> Pressure {
+        self.rated_pressure * 0.8
+    }
+}
+
 impl PumpAtSpeed {
     /// `pump` turning at `revolutions_per_second`. Its leakage per pascal is fixed by the
     /// volumetric efficiency at the speed it was stated at (this speed, if none is given).

@@ -3,7 +3,9 @@
 //! The engine computes in SI base units. These constants are the exact definitions of NIST
 //! SP 811 (Appendix B) and the SI brochure, because uom 0.38 ships some of them rounded
 //! (its psi is 8.7e-8 relative off, its US gallon is 3.785412 L, and its `btu` is the
-//! thermochemical one).
+//! thermochemical one). [`us`] makes each a uom unit of our own, so results and tests read
+//! `p.get::<psi>()` instead of repeating a factor; [`pascals`], [`watts`] and their kin turn
+//! the inner solve's plain SI numbers into quantities.
 
 use serde::{Deserialize, Serialize};
 use uom::si::energy::kilowatt_hour;

@@ -252,7 +252,8 @@ fn DesignEditor(d: usize) -> impl IntoView {
         }).collect_view()}
         <button type="button" class="button wide" on:click=move |_| state.job.update(|j| {
             if let Some(x) = design_mut(j, d) {
-                x.remote_stages.push(Pressure::new::<pascal>(x.relief.setting.value * 0.6));
+                let first = x.new_remote_stage();
+                x.remote_stages.push(first);
             }
         })>"Add a remote pilot stage"</button>
 
@@ -321,7 +322,7 @@ fn PumpEditor(d: usize, p: usize) -> impl IntoView {
                     options=vec![("fixed", "Fixed displacement".into()), ("compensated", "Pressure-compensated".into())]
                     get=move |j: &Job| if matches!(pump(j, d, p).map(|x| x.control), Some(PumpControl::Compensated { .. })) { "compensated" } else { "fixed" }
                     set=move |j: &mut Job, key| if let Some(x) = pump_mut(j, d, p) {
-                        x.control = if key == "compensated" { PumpControl::Compensated { setting: Pressure::new::<pascal>(x.rated_pressure.value * 0.8) } } else { PumpControl::Fixed };
+                        x.control = if key == "compensated" { PumpControl::Compensated { setting: x.first_compensator_setting() } } else { PumpControl::Fixed };
                     } />
                 {move || compensated().then(|| view! {
                     <NumberField label="Compensator setting" path=field("control.setting_pa") measure=Measure::Pressure

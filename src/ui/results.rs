@@ -118,13 +118,14 @@ fn PhasesByEnergy(report: std::sync::Arc<JobReport>, d: usize, units: UnitSystem
         <h2>"Where each cycle's energy goes"</h2>
         <ol class="card energy-rank" data-energy-rank="true">
             {ranked.into_iter().map(|e| {
-                let pressures = match e.needed.map(|q| q.value) {
-                    Some(need) if (e.pump.value - need).abs() > need.abs() * 0.01 + 1e3 => format!(
+                let need = e.needed.map_or(0.0, |q| q.value);
+                let pressures = match e.pump_at_need() {
+                    Some(false) => format!(
                         "needs {}, pump at {}",
                         Measure::Pressure.with_unit(units, need),
                         Measure::Pressure.with_unit(units, e.pump.value)
                     ),
-                    Some(need) => format!("at {}", Measure::Pressure.with_unit(units, need)),
+                    Some(true) => format!("at {}", Measure::Pressure.with_unit(units, need)),
                     None => format!("needs no pressure, pump at {}", Measure::Pressure.with_unit(units, e.pump.value)),
                 };
                 view! {
