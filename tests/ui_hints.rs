@@ -4,7 +4,7 @@
 
 use std::path::Path;
 
-/// The authors our sources name (REFERENCES.md and the report's list of sources).
+/// Authors of the published sources behind the app's figures, whom only the report may name.
 const AUTHORS: [&str; 6] = ["Esposito", "Rabie", "Casey", "Çengel", "Cengel", "Cowern"];
 
 fn literals(code: &str) -> Vec<String> {

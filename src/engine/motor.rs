@@ -259,7 +259,7 @@ mod tests {
     #[test]
     fn outside_its_table_a_class_takes_the_nearest_ends_figure() {
         // IEC 60034-30-1 IE3 4-pole: 89.6 % at 5.5 kW, 93.9 % at 37 kW; NEMA MG 1 Table 12-12
-        // NEMA Premium: 91.7 % at 10 hp, 94.5 % at 50 hp (REFERENCES).
+        // NEMA Premium: 91.7 % at 10 hp, 94.5 % at 50 hp (60 Hz, 4-pole, enclosed).
         let kw = |v: f64| Power::new::<kilowatt>(v);
         let hp = |v: f64| Power::new::<uom::si::power::watt>(v * super::super::units::HORSEPOWER);
         let close = |a: f64, b: f64| assert!((a - b).abs() < 1e-12, "{a} against {b}");

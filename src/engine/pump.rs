@@ -11,9 +11,8 @@ pub struct Pump {
     pub displacement: Volume,
     /// Actual over theoretical flow, as measured at `efficiency_pressure` and
     /// `efficiency_speed`. Internal leakage (slip) grows in proportion to pressure and hardly
-    /// depends on shaft speed (DOMAIN.md, "Leakage, speed and viscosity"), so this one point
-    /// fixes a leakage flow per unit of pressure: at a lower speed the same leakage is a larger
-    /// share of a smaller swept flow.
+    /// depends on shaft speed, so this one point fixes a leakage flow per unit of pressure: at a
+    /// lower speed the same leakage is a larger share of a smaller swept flow.
     pub volumetric_efficiency: f64,
     #[serde(rename = "efficiency_pressure_pa")]
     pub efficiency_pressure: Pressure,

@@ -600,8 +600,7 @@ fn dead_headed(unit: &PreparedUnit, governing: f64) -> (f64, f64) {
 pub(crate) fn design_findings(design: &Design) -> Vec<Finding> {
     let mut findings = Vec::new();
     let unit = PreparedUnit::new(design);
-    // A relief cracking at or below a compensator takes the pump's whole flow (DOMAIN.md,
-    // "Pressure-compensated pumps on a fixed-speed motor").
+    // A relief cracking at or below a compensator takes the pump's whole flow.
     if let Some(dead_head) = super::power_unit::compensator_dead_head(design) {
         let main = design.relief.setting.value;
         let limits = std::iter::once((None, main)).chain(

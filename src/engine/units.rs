@@ -414,7 +414,7 @@ mod tests {
         // hp = gpm x psi / (12000/7) = gpm x psi / 1714.2857... (exact from SP 811 units).
         let hp = GALLON_PER_MINUTE * PSI / HORSEPOWER;
         assert!(close(hp, 7.0 / 12_000.0, 1e-12));
-        // 1 hp = 2544.4336 Btu_IT/h (REFERENCES: derived from SP 811), to the printed digits.
+        // 1 hp = 2544.4336 Btu_IT/h (derived from NIST SP 811, Appendix B), to the printed digits.
         assert!(close(HORSEPOWER / (BTU_IT / 3600.0), 2544.4336, 1e-8));
     }
 

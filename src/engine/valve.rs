@@ -14,11 +14,10 @@ use uom::si::f64::{Pressure, VolumeRate};
 /// The main relief valve.
 ///
 /// Its setting is what a technician sets and reads on the machine: the gauge's pressure with
-/// the pump dead-headed, the whole flow the pumps then give crossing the valve (DOMAIN.md, "How
-/// a relief valve's setting is read in the field"). The valve starts to pass flow below it
-/// (cracking, by valve type) and the pressure rises above it with more flow (override): a
-/// straight line through cracking and the setting at that flow. Remote pilot stages and the
-/// vent are read the same way, at the same flow.
+/// the pump dead-headed, the whole flow the pumps then give crossing the valve. The valve starts
+/// to pass flow below it (cracking, by valve type) and the pressure rises above it with more
+/// flow (override): a straight line through cracking and the setting at that flow. Remote pilot
+/// stages and the vent are read the same way, at the same flow.
 #[derive(Clone, Copy, Debug, PartialEq, Serialize, Deserialize)]
 pub struct ReliefValve {
     pub kind: ReliefKind,

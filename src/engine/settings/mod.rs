@@ -5,8 +5,8 @@
 //! [`apply_to_proposed`]). Savings are not estimated: the design is solved again with the
 //! action applied and the two results are compared.
 //!
-//! The rules are common practice, not a standard (DOMAIN.md, "Relief valves and pressure
-//! settings per phase"); their margins are the user's, in [`AdvicePolicy`].
+//! The rules are common practice, not a standard; their margins are the user's, in
+//! [`AdvicePolicy`].
 //!
 //! # What a phase needs (`needs`)
 //!
@@ -24,7 +24,7 @@
 //!
 //! # The rules (`rules`)
 //!
-//! All common practice (DOMAIN.md):
+//! All common practice:
 //!
 //! | rule | severity | action |
 //! |---|---|---|

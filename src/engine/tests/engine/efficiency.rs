@@ -1,9 +1,9 @@
 //! The pump field test (engine `efficiency`) and the motor efficiency classes (engine
-//! `motor`): published examples and tables, each with its source beside the check
-//! (../shared/REFERENCES.md); the same physics in US customary and SI; the leakage fit on exact
-//! synthetic readings; bad readings get their messages and no figure; the speed of each reading
-//! from the motor's slip and its shaft power from the motor's part-load model; what is copied
-//! into a design; how many readings a verdict needs; tests in date order.
+//! `motor`): published examples and tables, each with its source beside the check; the same
+//! physics in US customary and SI; the leakage fit on exact synthetic readings; bad readings
+//! get their messages and no figure; the speed of each reading from the motor's slip and its
+//! shaft power from the motor's part-load model; what is copied into a design; how many
+//! readings a verdict needs; tests in date order.
 
 use crate::common::*;
 use phasewise_engine::efficiency::{
@@ -138,7 +138,7 @@ fn three_phase_input_power_example() {
 
 #[test]
 fn iec_and_nema_table_values() {
-    // IEC 60034-30-1, 50 Hz, 4-pole (REFERENCES.md); printed tables: 1e-6.
+    // IEC 60034-30-1, 50 Hz, 4-pole, nominal full-load efficiency; printed tables: 1e-6.
     let kw_sizes = [5.5, 7.5, 11.0, 15.0, 22.0, 30.0, 37.0];
     let tables = [
         (
@@ -241,7 +241,7 @@ fn us_customary_and_si_readings_give_the_same_physics() {
         "volumetric",
     );
     assert_close(ra.overall.unwrap(), rb.overall.unwrap(), 1e-12, "overall");
-    // Hydraulic power: gpm x psi / 1714.2857 hp (REFERENCES.md, exact).
+    // Hydraulic power: gpm x psi / 1714.2857 hp (exact from NIST SP 811, Appendix B).
     assert_close(
         ra.hydraulic.value / HORSEPOWER,
         17.5 * 1500.0 / (12000.0 / 7.0),

@@ -543,8 +543,8 @@ fn any_text_read_as_a_job_file_is_a_job_or_a_reason() {
 }
 
 /// On any valid job the advice keeps its own rules: no proposed limit below a compensated pump's
-/// floor (DOMAIN.md, "Pressure-compensated pumps on a fixed-speed motor"; common practice), and
-/// an action that draws more is never worded as a saving.
+/// floor (a relief at or below the compensator takes the pump's whole flow; the margin above it
+/// is common practice), and an action that draws more is never worded as a saving.
 #[test]
 fn the_advice_keeps_its_own_rules_on_any_job() {
     use phasewise_engine::settings::{self, Action};

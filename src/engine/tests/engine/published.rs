@@ -1,6 +1,6 @@
 //! The engine against published values. Each check names its source beside it; the
-//! tolerances follow REFERENCES: 1e-12 against exact definitions, 0.5 % against textbook
-//! answers (which round their intermediate steps).
+//! tolerances: 1e-12 against exact definitions, 0.5 % against textbook answers (which round
+//! their intermediate steps).
 
 use crate::common::*;
 use phasewise_engine::cycle::{
@@ -208,7 +208,7 @@ fn ledger_of(electrical_kw: f64, relief_kw: f64, seconds: f64) -> TimedLedger {
 #[test]
 fn rms_power_over_a_duty_cycle() {
     // P_rms = sqrt(sum(P_i^2 t_i) / sum(t_i)), the method of Machine Design's and Power &
-    // Motion's motor-sizing articles (REFERENCES): 10 kW for 2 s and 2 kW for 8 s give
+    // Motion's motor-sizing articles: 10 kW for 2 s and 2 kW for 8 s give
     // sqrt((100 x 2 + 4 x 8) / 10) = sqrt(23.2) = 4.8166 kW.
     let j = job(vec![], vec![]);
     let totals = cycle_totals(
@@ -228,7 +228,7 @@ fn rms_power_over_a_duty_cycle() {
 
 #[test]
 fn heat_load_in_btu_per_hour() {
-    // 1 hp = 2544.4336 Btu_IT/h (REFERENCES, derived from NIST SP 811's exact definitions).
+    // 1 hp = 2544.4336 Btu_IT/h (derived from NIST SP 811's exact definitions, Appendix B).
     let j = job(vec![], vec![]);
     let one_hp = HORSEPOWER / 1e3;
     let totals = cycle_totals(&[ledger_of(2.0 * one_hp, one_hp, 5.0)], &j.site, &j.oil);

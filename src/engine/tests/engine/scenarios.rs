@@ -1,6 +1,6 @@
 //! Invented machines, worked by hand. Every expected number is derived in the comments from
-//! the inputs with the physics of the field brief (DOMAIN.md), independently of the engine's
-//! code; 1e-9 relative allows for rounding only.
+//! the inputs with the trade's physics, independently of the engine's code; 1e-9 relative
+//! allows for rounding only.
 
 use crate::common::*;
 use phasewise_engine::cycle::{
@@ -533,9 +533,9 @@ fn an_idle_over_a_limit_settles_where_the_limit_was_read() {
 
 /// The setting is what the gauge reads on the machine: a direct-acting relief set at 150 bar,
 /// rated 100 L/min, on a 20 L/min pump holds 150 bar dead-headed, not the 120 + 0.2 x 30 = 126
-/// bar a setting read at the valve's rated flow would give (DOMAIN.md, "How a relief valve's
-/// setting is read in the field"). A 140 bar press on it keeps moving, with flow leaking over
-/// the valve from its 120 bar cracking: 20 / 30 L/min per bar x 20 bar = 13.333 L/min.
+/// bar a setting read at the valve's rated flow would give (it is read with the whole pump flow
+/// crossing the valve). A 140 bar press on it keeps moving, with flow leaking over the valve
+/// from its 120 bar cracking: 20 / 30 L/min per bar x 20 bar = 13.333 L/min.
 #[test]
 fn a_relief_holds_the_pressure_it_was_set_to_with_the_pumps_flow_over_it() {
     let d = design(

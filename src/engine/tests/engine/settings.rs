@@ -1,9 +1,8 @@
 //! The settings advice (engine `settings`): each rule with a case that triggers it and one that
 //! does not, and a high-low press whose unloading and relief settings follow from its loads,
-//! bore and line losses, worked by hand below. The rules are common practice (DOMAIN.md,
-//! "Relief valves and pressure settings per phase"), with the default margins: 10 % or 7 bar,
-//! whichever is more; a flow control's drop 7 bar; cracking 0.97 (pilot-operated) or 0.80
-//! (direct-acting) of the setting.
+//! bore and line losses, worked by hand below. The rules are common practice, with the default
+//! margins: 10 % or 7 bar, whichever is more; a flow control's drop 7 bar; cracking 0.97
+//! (pilot-operated) or 0.80 (direct-acting) of the setting.
 
 use crate::common::*;
 use phasewise_engine::cycle::{Direction, HoldMode};
@@ -530,8 +529,7 @@ fn advice_and_the_staging_search_refuse_an_invalid_job_with_its_errors() {
 
 /// A hold the pump keeps sits at its limit with the pump's whole flow over the relief (the way
 /// the limit is read on the machine), so the lowest limit that holds it is its own pressure,
-/// not the margin a moving phase keeps below its relief's cracking (DOMAIN.md, "How a relief
-/// valve's setting is read in the field"; common practice).
+/// not the margin a moving phase keeps below its relief's cracking (common practice).
 #[test]
 fn a_hold_the_pump_keeps_is_advised_the_limit_that_holds_it() {
     let mut cycle = high_low_cycle();
@@ -577,10 +575,9 @@ fn a_hold_the_pump_keeps_is_advised_the_limit_that_holds_it() {
     assert!(dwell.findings.is_empty(), "{:?}", dwell.findings);
 }
 
-/// A relief at or below a compensated pump's dead-head pressure takes its whole flow (DOMAIN.md,
-/// "Pressure-compensated pumps on a fixed-speed motor"; the margin is common practice: about
-/// 10 %, or 15 to 20 bar). The advice never proposes one, a finding names the power it burns,
-/// and a relief set too low is advised up.
+/// A relief at or below a compensated pump's dead-head pressure takes its whole flow (the margin
+/// above it is common practice: about 10 %, or 15 to 20 bar). The advice never proposes one, a
+/// finding names the power it burns, and a relief set too low is advised up.
 #[test]
 fn a_relief_is_never_advised_at_or_below_a_compensator() {
     use phasewise_engine::pump::PumpControl;

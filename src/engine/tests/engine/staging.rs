@@ -262,7 +262,7 @@ fn a_candidate_worked_by_hand() {
     // Motor (IEC steps, service factor 1.0, peak allowance 1.25): 2.2 kW carries the RMS but
     // not the peak (2.75 kW < 2.93 kW); 3.0 kW carries both (3.75 kW).
     // Energy with the 3.0 kW motor at IE3, the default class for IEC steps: 3 kW is below the
-    // table (5.5 to 37 kW), so the table's 5.5 kW figure, 89.6 % (IEC 60034-30-1, REFERENCES):
+    // table (5.5 to 37 kW), so the table's 5.5 kW figure, 89.6 % (IEC 60034-30-1, 4-pole):
     // loss 3000 x (1/0.896 - 1) = 348.214 W at rated load, 35 % of it fixed (the baseline's
     // share): sum of (P + 348.214 x (0.35 + 0.65 (P/3000)^2)) x t = 10450.99 J.
     // Starts: the motor stops once a cycle, 3600 / 25.061734 = 143.65 times an hour; a 3 kW
@@ -489,8 +489,8 @@ fn each_candidates_motor_takes_its_class_efficiency_at_its_own_size() {
     // and 20 hp on NEMA steps). Each candidate's motor takes its class's nominal efficiency at
     // its own rating, not the baseline's 90 %: IEC 60034-30-1 4-pole 50 Hz, IE3 7.5 kW 90.4 %,
     // 15 kW 92.1 %; IE4 92.6 % and 93.9 %; NEMA MG 1 Table 12-12, NEMA Premium 10 hp 91.7 %,
-    // 20 hp 93.0 % (REFERENCES). Its energy is recomputed with that motor, so it is what the
-    // engine gives for the design applied.
+    // 20 hp 93.0 %. Its energy is recomputed with that motor, so it is what the engine gives
+    // for the design applied.
     let job = slow_press();
     let single = |cc_per_rev: f64| Spec {
         displacements: vec![cc(cc_per_rev)],
@@ -603,7 +603,7 @@ fn compensated_candidates_keep_the_relief_clear_of_the_compensator() {
 }
 
 /// A candidate at another speed keeps the baseline pump's leakage flow, not its volumetric
-/// efficiency (DOMAIN.md, "Leakage, speed and viscosity"): the baseline's 8 cm^3/rev pump, 92 %
+/// efficiency (slip hardly depends on shaft speed): the baseline's 8 cm^3/rev pump, 92 %
 /// volumetric at 200 bar and 1500 rpm, leaks 0.08 x 12 = 0.96 L/min at 200 bar; a 16 cm^3/rev
 /// candidate pump at 750 rpm (the same 12 L/min swept) leaks twice that, 1.92 L/min, as its
 /// slip scales with displacement and not with speed: 84 % volumetric.

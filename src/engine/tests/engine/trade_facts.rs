@@ -1,5 +1,5 @@
 //! Facts of the trade the engine must honour. None has a published source: each is marked
-//! common practice (REFERENCES, "Facts of the trade").
+//! common practice.
 
 use crate::common::*;
 use phasewise_engine::cycle::{Direction, HoldMode, SpeedRule};
@@ -163,9 +163,9 @@ fn extending_uses_the_bore_and_retracting_the_annulus() {
     );
 }
 
-/// Slip hardly depends on speed (DOMAIN.md, "Leakage, speed and viscosity"): a pump stated at
-/// 92 % volumetric at 1500 rpm and 200 bar loses the same 8 % of its 1500 rpm swept flow at
-/// 750 rpm, so there it delivers 50 - 8 = 42 % of its 1500 rpm flow: 84 % volumetric.
+/// Slip is driven by pressure and hardly depends on speed: a pump stated at 92 % volumetric at
+/// 1500 rpm and 200 bar loses the same 8 % of its 1500 rpm swept flow at 750 rpm, so there it
+/// delivers 50 - 8 = 42 % of its 1500 rpm flow: 84 % volumetric.
 #[test]
 fn a_pump_slower_than_its_efficiency_was_stated_at_leaks_the_same_flow() {
     let mut pump = fixed_pump(40.0, 0.92, 200.0, 0.9, 0.0);
