@@ -7,6 +7,7 @@ use phasewise::engine::demo::scrap_baler;
 use phasewise::engine::units::{Measure, UnitSystem};
 use phasewise::engine::{solve, Job};
 use phasewise_harness::browser::{AppSession, Browser, Viewport};
+use uom::si::energy::kilowatt_hour;
 use uom::si::f64::Force;
 
 fn field(path: &str) -> String {
@@ -68,7 +69,7 @@ async fn the_demo_results_are_the_engines() {
     );
     assert_eq!(
         b.text("[data-total='annual-energy']").await,
-        format!("{:.0} kWh", totals.annual_energy_kwh)
+        format!("{:.0} kWh", totals.annual_energy.get::<kilowatt_hour>())
     );
     // The charts are drawn: a bar segment per ledger item with power, a line per timeline panel.
     assert!(b.count(".chart rect").await >= report.designs[0].phases.len());
@@ -78,7 +79,7 @@ async fn the_demo_results_are_the_engines() {
     b.screenshot_of(".chart", "ledger-chart").await;
     // The proposal, with its comparison against the baseline.
     b.click("button[data-design='1']").await;
-    let saved = report.comparisons[0].annual_energy_saved_kwh;
+    let saved = report.comparisons[0].annual_energy_saved.get::<kilowatt_hour>();
     b.wait_for_text("[data-total='saved-energy']", |t| {
         t == format!("{saved:.0} kWh")
     })
