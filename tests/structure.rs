@@ -7,7 +7,7 @@ use std::path::Path;
 
 /// The engine's modules from the bottom up. A module may use only those before it; a new
 /// module takes its place here (see DEVELOPERS.md, "Layers inside").
-const STACK: [&str; 20] = [
+const STACK: [&str; 21] = [
     // Quantities and the parts of a machine.
     "units",
     "pump",
@@ -23,6 +23,7 @@ const STACK: [&str; 20] = [
     "delivery",
     "job",
     "demo",
+    "fields",
     // The algorithms.
     "validate",
     "ledger",

@@ -35,6 +35,8 @@ pub const LITRE_PER_MINUTE: f64 = 1e-3 / 60.0;
 pub const GALLON_PER_MINUTE: f64 = US_GALLON / 60.0;
 /// One kilowatt-hour in joules (exact).
 pub const KILOWATT_HOUR: f64 = 3.6e6;
+/// One revolution per minute in radians per second (exact).
+pub const REVOLUTION_PER_MINUTE: f64 = std::f64::consts::TAU / 60.0;
 
 /// The trade's US customary units as uom units at NIST SP 811's exact definitions (uom's own
 /// are rounded, see the module doc). Each is defined once, from the constants above, so no
@@ -227,7 +229,7 @@ impl Measure {
             (Measure::Displacement, Us) => ("in³/rev", INCH * INCH * INCH, 3),
             (Measure::Speed, Si) => ("m/s", 1.0, 3),
             (Measure::Speed, Us) => ("in/s", INCH, 2),
-            (Measure::ShaftSpeed, _) => ("rpm", std::f64::consts::TAU / 60.0, 0),
+            (Measure::ShaftSpeed, _) => ("rpm", REVOLUTION_PER_MINUTE, 0),
             (Measure::Duration, _) => ("s", 1.0, 2),
             (Measure::Percent, _) => ("%", 0.01, 1),
             (Measure::OilVolume, Si) => ("L", 1e-3, 0),

@@ -4,14 +4,14 @@
 //! an infinity where the physics has none.
 
 use super::cycle::{Load, PhaseKind, SpeedRule};
+use super::fields::{self, *};
 use super::job::{Job, SCHEMA_VERSION};
 use super::power_unit::{Design, MAX_PUMPS};
 use super::pump::{Pump, PumpControl};
-use super::units::{
-    cubic_metres_per_second, pascals, watts, Measure, UnitSystem, BAR, LITRE_PER_MINUTE,
-};
+use super::units::{cubic_metres_per_second, pascals, watts, Measure, UnitSystem};
 use super::valve::{ActiveLimit, IdlePath};
 use serde::Serialize;
+use std::ops::RangeBounds;
 
 /// One thing wrong with the input.
 #[derive(Clone, Debug, PartialEq, Eq, Serialize)]
@@ -28,281 +28,198 @@ impl std::fmt::Display for InputError {
     }
 }
 
-// Beyond these a value is a typing slip, not a machine (and would overflow the arithmetic).
-const MAX_PRESSURE: f64 = 2000.0 * BAR;
-const MAX_LENGTH: f64 = 50.0; // m
-const MAX_FLOW: f64 = 100_000.0 * LITRE_PER_MINUTE;
-const MAX_DURATION: f64 = 30.0 * 86_400.0; // s
-const MAX_POWER: f64 = 20e6; // W
-const MAX_SPEED_RAD_S: f64 = 10_000.0 * std::f64::consts::TAU / 60.0;
-const MAX_DISPLACEMENT: f64 = 0.02; // m^3/rev
-const MAX_FORCE: f64 = 1e9; // N
-const MAX_VELOCITY: f64 = 100.0; // m/s
-const HOURS_PER_YEAR: f64 = 8784.0; // a leap year
-
 struct Checker {
     units: UnitSystem,
     errors: Vec<InputError>,
-    /// The path of the part being checked, e.g. `designs[0].unloading_stages[1]`. One buffer,
-    /// extended and cut back, so a valid job costs no allocation per field.
-    at: String,
+    /// The list indices of the part being checked, outermost first: `[0, 1]` in the second
+    /// unloading stage of the first power unit. A path is written only for a problem, so a
+    /// valid job costs no allocation per field.
+    at: Vec<usize>,
 }
 
 impl Checker {
-    fn fail(&mut self, field: &str, message: impl Into<String>) {
-        let field = match (self.at.is_empty(), field.is_empty()) {
-            (true, _) => field.to_string(),
-            (false, true) => self.at.clone(),
-            (false, false) => format!("{}.{field}", self.at),
-        };
+    fn new(units: UnitSystem) -> Checker {
+        Checker {
+            units,
+            errors: Vec::new(),
+            at: Vec::new(),
+        }
+    }
+
+    fn fail(&mut self, field: &FieldSpec, message: impl Into<String>) {
         self.errors.push(InputError {
-            field,
+            field: field.at(&self.at),
             message: message.into(),
         });
     }
 
-    /// Checks a part of the job, with `segment` added to the field paths.
-    fn within(&mut self, segment: std::fmt::Arguments, check: impl FnOnce(&mut Checker)) {
-        use std::fmt::Write;
-        let len = self.at.len();
-        if len > 0 {
-            self.at.push('.');
-        }
-        let _ = self.at.write_fmt(segment);
+    /// Checks item `index` of a list (a phase, a power unit, a stage, a reading, a size).
+    fn within(&mut self, index: usize, check: impl FnOnce(&mut Checker)) {
+        self.at.push(index);
         check(self);
-        self.at.truncate(len);
+        self.at.pop();
     }
 
-    /// A finite number in (0, max] (or [0, max] when `zero_ok`).
-    fn amount(
-        &mut self,
-        field: &str,
-        value: f64,
-        zero_ok: bool,
-        max: f64,
-        show: impl Fn(UnitSystem, f64) -> String,
-    ) -> bool {
+    /// A number, checked as its field declares; whether it passed.
+    fn number(&mut self, field: &FieldSpec, value: f64) -> bool {
         let units = self.units;
-        if !value.is_finite() {
-            self.fail(field, "is not a number: type a value");
-        } else if value < 0.0 {
-            self.fail(field, "cannot be negative");
-        } else if value == 0.0 && !zero_ok {
-            self.fail(field, "must be more than zero");
-        } else if value > max {
-            self.fail(
-                field,
-                format!(
-                    "{} is more than any machine has: at most {}",
-                    show(units, value),
-                    show(units, max)
-                ),
-            );
-        } else {
-            return true;
+        let problem = match field.check {
+            Check::Amount { zero_ok, max } => {
+                amount_problem(value, zero_ok, max, |v| figure(field.measure, units, v))
+            }
+            Check::Fraction { zero_ok } => fraction_problem(value, zero_ok),
+            Check::Between {
+                low,
+                high,
+                otherwise,
+            } => (!(value.is_finite() && (low, high).contains(&value)))
+                .then(|| otherwise.to_string()),
+            Check::Required { .. } | Check::Date { .. } | Check::Free => None,
+        };
+        match problem {
+            Some(message) => {
+                self.fail(field, message);
+                false
+            }
+            None => true,
         }
-        false
     }
 
-    fn pressure(&mut self, field: &str, value: f64, zero_ok: bool) -> bool {
-        self.amount(field, value, zero_ok, MAX_PRESSURE, |u, v| {
-            u.pressure(pascals(v))
-        })
-    }
-
-    fn flow(&mut self, field: &str, value: f64, zero_ok: bool) -> bool {
-        self.amount(field, value, zero_ok, MAX_FLOW, |u, v| {
-            u.flow(cubic_metres_per_second(v))
-        })
-    }
-
-    fn power(&mut self, field: &str, value: f64, zero_ok: bool) -> bool {
-        self.amount(field, value, zero_ok, MAX_POWER, |u, v| u.power(watts(v)))
-    }
-
-    /// As `amount`, with the figures in the field's own unit and the job's unit system, rounded
-    /// as the field shows them (never "999999999.9990001 m").
-    fn plain(
-        &mut self,
-        field: &str,
-        value: f64,
-        zero_ok: bool,
-        max: f64,
-        measure: Measure,
-    ) -> bool {
-        self.amount(field, value, zero_ok, max, move |units, v| {
-            measure.with_unit(units, v)
-        })
-    }
-
-    /// An efficiency or share in (0, 1] (or [0, 1] when `zero_ok`).
-    fn fraction(&mut self, field: &str, value: f64, zero_ok: bool) {
-        if !value.is_finite() {
-            self.fail(field, "is not a number: type a value");
-        } else if value > 1.0 {
-            self.fail(field, format!("{:.1} % is more than 100 %", value * 100.0));
-        } else if value < 0.0 || (value == 0.0 && !zero_ok) {
-            self.fail(field, "must be more than 0 %");
+    /// A text, checked as its field declares.
+    fn text(&mut self, field: &FieldSpec, value: &str) {
+        match field.check {
+            Check::Required { otherwise } if value.trim().is_empty() => {
+                self.fail(field, otherwise);
+            }
+            Check::Date { otherwise }
+                if !value.trim().is_empty() && super::pump_test::day_number(value).is_none() =>
+            {
+                self.fail(field, otherwise);
+            }
+            _ => {}
         }
+    }
+}
+
+/// What is wrong with an amount that must be finite, in (0, max] (or [0, max] when
+/// `zero_ok`); the figures in the message as `show` gives them.
+fn amount_problem(
+    value: f64,
+    zero_ok: bool,
+    max: f64,
+    show: impl Fn(f64) -> String,
+) -> Option<String> {
+    if !value.is_finite() {
+        Some("is not a number: type a value".into())
+    } else if value < 0.0 {
+        Some("cannot be negative".into())
+    } else if value == 0.0 && !zero_ok {
+        Some("must be more than zero".into())
+    } else if value > max {
+        Some(format!(
+            "{} is more than any machine has: at most {}",
+            show(value),
+            show(max)
+        ))
+    } else {
+        None
+    }
+}
+
+/// What is wrong with an efficiency or share in (0, 1] (or [0, 1] when `zero_ok`).
+fn fraction_problem(value: f64, zero_ok: bool) -> Option<String> {
+    if !value.is_finite() {
+        Some("is not a number: type a value".into())
+    } else if value > 1.0 {
+        Some(format!("{:.1} % is more than 100 %", value * 100.0))
+    } else if value < 0.0 || (value == 0.0 && !zero_ok) {
+        Some("must be more than 0 %".into())
+    } else {
+        None
+    }
+}
+
+/// A figure in a message, in the field's own unit and the job's unit system, rounded as the
+/// field shows it (never "999999999.9990001 m"); pressures, flows, powers and shaft speeds
+/// as the engine's other messages say them.
+fn figure(measure: Option<Measure>, units: UnitSystem, value: f64) -> String {
+    match measure {
+        Some(Measure::Pressure) => units.pressure(pascals(value)),
+        Some(Measure::Flow) => units.flow(cubic_metres_per_second(value)),
+        Some(Measure::Power) => units.power(watts(value)),
+        Some(Measure::ShaftSpeed) => rpm(units, value),
+        Some(measure) => measure.with_unit(units, value),
+        None => value.to_string(),
     }
 }
 
 /// Every problem with a job, or none.
 pub fn validate(job: &Job) -> Result<(), Vec<InputError>> {
-    let mut c = Checker {
-        units: job.units,
-        errors: Vec::new(),
-        at: String::new(),
-    };
+    let mut c = Checker::new(job.units);
     if job.schema_version == 0 || job.schema_version > SCHEMA_VERSION {
         c.fail(
-            "schema_version",
+            &fields::SCHEMA_VERSION,
             format!(
                 "format {} is not one this version reads (1 to {SCHEMA_VERSION})",
                 job.schema_version
             ),
         );
     }
-    if job.name.trim().is_empty() {
-        c.fail("name", "give the job a name");
-    }
+    c.text(&JOB_NAME, &job.name);
     if job.cycle.is_empty() {
-        c.fail("cycle", "add at least one phase to the cycle");
+        c.fail(&PHASES, "add at least one phase to the cycle");
     }
     for (i, phase) in job.cycle.iter().enumerate() {
-        c.within(format_args!("cycle[{i}]"), |c| check_phase(c, &phase.kind));
+        c.within(i, |c| check_phase(c, &phase.kind));
     }
     if job.designs.is_empty() {
-        c.fail("designs", "add at least one power unit");
+        c.fail(&DESIGNS, "add at least one power unit");
     }
     for (i, design) in job.designs.iter().enumerate() {
-        c.within(format_args!("designs[{i}]"), |c| {
-            check_design(c, design, job)
-        });
+        c.within(i, |c| check_design(c, design, job));
     }
-    c.plain(
-        "site.operating_hours_per_year",
-        job.site.operating_hours_per_year,
-        true,
-        HOURS_PER_YEAR,
-        Measure::HoursPerYear,
-    );
-    c.plain(
-        "site.tariff_per_kwh",
-        job.site.tariff_per_kwh,
-        true,
-        1e3,
-        Measure::Tariff,
-    );
-    c.plain(
-        "site.retrofit_price",
-        job.site.retrofit_price,
-        true,
-        1e12,
-        Measure::Money,
-    );
+    c.number(&OPERATING_HOURS, job.site.operating_hours_per_year);
+    c.number(&TARIFF, job.site.tariff_per_kwh);
+    c.number(&RETROFIT_PRICE, job.site.retrofit_price);
     if let Some(f) = job.site.grid_factor {
-        c.plain(
-            "site.grid_kg_co2_per_kwh",
-            f,
-            true,
-            5.0,
-            Measure::GridFactor,
-        );
+        c.number(&GRID_FACTOR, f);
     }
-    c.plain(
-        "oil.volume_m3",
-        job.oil.volume.value,
-        false,
-        1000.0,
-        Measure::OilVolume,
-    );
-    c.plain(
-        "oil.density_kg_per_m3",
-        job.oil.density.value,
-        false,
-        2000.0,
-        Measure::Density,
-    );
-    c.plain(
-        "oil.specific_heat_j_per_kg_k",
-        job.oil.specific_heat.value,
-        false,
-        10_000.0,
-        Measure::SpecificHeat,
-    );
+    c.number(&OIL_VOLUME, job.oil.volume.value);
+    c.number(&OIL_DENSITY, job.oil.density.value);
+    c.number(&OIL_SPECIFIC_HEAT, job.oil.specific_heat.value);
     let a = &job.advice;
-    c.fraction("advice.margin_fraction", a.margin_fraction, true);
-    c.pressure("advice.margin_min_pa", a.margin_min.value, true);
-    c.pressure(
-        "advice.compensator_margin_min_pa",
-        a.compensator_margin_min.value,
-        true,
-    );
-    c.pressure(
-        "advice.flow_control_drop_pa",
-        a.flow_control_drop.value,
-        true,
-    );
-    c.power("advice.least_saving_w", a.least_saving_w, true);
+    c.number(&MARGIN_SHARE, a.margin_fraction);
+    c.number(&MARGIN_MIN, a.margin_min.value);
+    c.number(&COMPENSATOR_MARGIN_MIN, a.compensator_margin_min.value);
+    c.number(&FLOW_CONTROL_DROP, a.flow_control_drop.value);
+    c.number(&LEAST_SAVING, a.least_saving_w);
     let st = &job.staging;
     for (i, v) in st.displacements.iter().enumerate() {
-        c.plain(
-            &format!("staging.displacements_m3_per_rev[{i}]"),
-            v.value,
-            false,
-            1e-2,
-            Measure::Displacement,
-        );
+        c.within(i, |c| {
+            c.number(&PUMP_SIZES, v.value);
+        });
     }
     for (i, v) in st.speeds.iter().enumerate() {
-        c.plain(
-            &format!("staging.speeds_rad_per_s[{i}]"),
-            v.value,
-            false,
-            1e3,
-            Measure::ShaftSpeed,
-        );
+        c.within(i, |c| {
+            c.number(&MOTOR_SPEEDS, v.value);
+        });
     }
-    if !(1..=3).contains(&st.max_pumps) {
-        c.fail("staging.max_pumps", "choose one to three pumps");
-    }
-    c.plain(
-        "staging.service_factor",
-        st.service_factor,
-        false,
-        2.0,
-        Measure::Factor,
-    );
-    c.plain(
-        "staging.peak_allowance",
-        st.peak_allowance,
-        false,
-        5.0,
-        Measure::Factor,
-    );
+    c.number(&MOST_PUMPS, st.max_pumps as f64);
+    c.number(&STAGING_SERVICE_FACTOR, st.service_factor);
+    c.number(&STAGING_PEAK_ALLOWANCE, st.peak_allowance);
     if let Some(t) = st.cycle_time_target {
-        c.plain(
-            "staging.cycle_time_target_s",
-            t.value,
-            false,
-            MAX_DURATION,
-            Measure::Duration,
-        );
+        c.number(&CYCLE_TIME_TARGET, t.value);
     }
-    c.fraction("wear.good_from", job.wear.good_from, false);
-    c.fraction("wear.worn_below", job.wear.worn_below, false);
+    c.number(&GOOD_FROM, job.wear.good_from);
+    c.number(&WORN_BELOW, job.wear.worn_below);
     if job.wear.worn_below > job.wear.good_from {
-        c.fail(
-            "wear.worn_below",
-            "the worn line sits at or below the good line",
-        );
+        c.fail(&WORN_BELOW, "the worn line sits at or below the good line");
     }
     if st.service_factor.is_finite() && st.service_factor < 1.0 {
-        c.fail("staging.service_factor", "a service factor is 1 or more");
+        c.fail(&STAGING_SERVICE_FACTOR, "a service factor is 1 or more");
     }
     if st.peak_allowance.is_finite() && st.peak_allowance < 1.0 {
-        c.fail("staging.peak_allowance", "the peak allowance is 1 or more");
+        c.fail(&STAGING_PEAK_ALLOWANCE, "the peak allowance is 1 or more");
     }
     if c.errors.is_empty() {
         Ok(())
@@ -315,93 +232,41 @@ fn check_phase(c: &mut Checker, kind: &PhaseKind) {
     match kind {
         PhaseKind::Move(m) => {
             let cyl = &m.cylinder;
-            let bore = c.plain(
-                "cylinder.bore_m",
-                cyl.bore.value,
-                false,
-                MAX_LENGTH,
-                Measure::Length,
-            );
-            let rod = c.plain(
-                "cylinder.rod_m",
-                cyl.rod.value,
-                true,
-                MAX_LENGTH,
-                Measure::Length,
-            );
+            let bore = c.number(&BORE, cyl.bore.value);
+            let rod = c.number(&ROD, cyl.rod.value);
             if bore && rod && cyl.rod.value >= cyl.bore.value {
-                c.fail("cylinder.rod_m", "the rod must be thinner than the bore");
+                c.fail(&ROD, "the rod must be thinner than the bore");
             }
-            c.plain(
-                "cylinder.stroke_m",
-                cyl.stroke.value,
-                false,
-                MAX_LENGTH,
-                Measure::Length,
-            );
+            c.number(&STROKE, cyl.stroke.value);
             match m.load {
-                Load::Force { force } => {
-                    c.plain("load.force_n", force.value, true, MAX_FORCE, Measure::Force);
-                }
-                Load::Pressure { pressure } => {
-                    c.pressure("load.pressure_pa", pressure.value, true);
-                }
-            }
-            c.pressure("line_loss_pa", m.line_loss.value, true);
+                Load::Force { force } => c.number(&LOAD_FORCE, force.value),
+                Load::Pressure { pressure } => c.number(&LOAD_PRESSURE, pressure.value),
+            };
+            c.number(&LINE_LOSS, m.line_loss.value);
             match m.speed {
                 SpeedRule::AllPumpFlow => {}
                 SpeedRule::MeteredSpeed { speed } => {
-                    c.plain(
-                        "speed.speed_m_per_s",
-                        speed.value,
-                        false,
-                        MAX_VELOCITY,
-                        Measure::Speed,
-                    );
+                    c.number(&METERED_SPEED, speed.value);
                 }
                 SpeedRule::MeteredFlow { flow } => {
-                    c.flow("speed.flow_m3_per_s", flow.value, false);
+                    c.number(&METERED_FLOW, flow.value);
                 }
             }
             if let Some(t) = m.target_time {
-                c.plain(
-                    "target_time_s",
-                    t.value,
-                    false,
-                    MAX_DURATION,
-                    Measure::Duration,
-                );
+                c.number(&TARGET_TIME, t.value);
             }
         }
         PhaseKind::Hold(h) => {
-            c.pressure("pressure_pa", h.pressure.value, false);
-            c.plain(
-                "duration_s",
-                h.duration.value,
-                false,
-                MAX_DURATION,
-                Measure::Duration,
-            );
+            c.number(&HOLD_PRESSURE, h.pressure.value);
+            c.number(&DURATION, h.duration.value);
         }
         PhaseKind::Idle(i) => {
-            c.plain(
-                "duration_s",
-                i.duration.value,
-                false,
-                MAX_DURATION,
-                Measure::Duration,
-            );
+            c.number(&DURATION, i.duration.value);
         }
         PhaseKind::Direct(d) => {
-            c.flow("flow_m3_per_s", d.flow.value, true);
-            c.pressure("pressure_pa", d.pressure.value, true);
-            c.plain(
-                "duration_s",
-                d.duration.value,
-                false,
-                MAX_DURATION,
-                Measure::Duration,
-            );
+            c.number(&DIRECT_FLOW, d.flow.value);
+            c.number(&DIRECT_PRESSURE, d.pressure.value);
+            c.number(&DURATION, d.duration.value);
         }
     }
 }
@@ -415,7 +280,7 @@ fn check_design(c: &mut Checker, d: &Design, job: &Job) {
         let unit = super::delivery::PreparedUnit::new(d);
         if unit.dead_head_flow(d.relief.setting.value) <= 0.0 {
             c.fail(
-                "relief.setting_pa",
+                &RELIEF_SETTING,
                 "at this setting the pumps would lose all their flow to leakage: check the setting and the pumps' volumetric efficiency",
             );
         }
@@ -423,70 +288,46 @@ fn check_design(c: &mut Checker, d: &Design, job: &Job) {
 }
 
 fn check_design_fields(c: &mut Checker, d: &Design, job: &Job) {
-    if d.name.trim().is_empty() {
-        c.fail("name", "give the power unit a name");
-    }
+    c.text(&DESIGN_NAME, &d.name);
     if let Some(price) = d.retrofit_price {
-        c.plain("retrofit_price", price, true, 1e12, Measure::Money);
+        c.number(&OWN_RETROFIT_PRICE, price);
     }
     let m = &d.motor;
-    c.power("motor.rated_power_w", m.rated_power.value, false);
-    c.amount(
-        "motor.full_load_speed_rad_per_s",
-        m.full_load_speed.value,
-        false,
-        MAX_SPEED_RAD_S,
-        |_, v| format!("{:.0} rpm", v * 60.0 / std::f64::consts::TAU),
-    );
-    c.fraction("motor.full_load_efficiency", m.full_load_efficiency, false);
-    c.fraction("motor.fixed_loss_share", m.fixed_loss_share, true);
-    if !(m.service_factor.is_finite() && (1.0..=2.0).contains(&m.service_factor)) {
-        c.fail(
-            "motor.service_factor",
-            "must be between 1.0 and 2.0 (1.0 if the nameplate shows none)",
-        );
-    }
-    if !(m.peak_allowance.is_finite() && (1.0..=3.0).contains(&m.peak_allowance)) {
-        c.fail(
-            "motor.peak_allowance",
-            "must be between 1.0 and 3.0 (1.25 is usual; the motor's breakdown torque decides)",
-        );
-    }
+    c.number(&MOTOR_RATED_POWER, m.rated_power.value);
+    c.number(&MOTOR_SPEED, m.full_load_speed.value);
+    c.number(&MOTOR_EFFICIENCY, m.full_load_efficiency);
+    c.number(&MOTOR_FIXED_LOSS, m.fixed_loss_share);
+    c.number(&MOTOR_SERVICE_FACTOR, m.service_factor);
+    c.number(&MOTOR_PEAK_ALLOWANCE, m.peak_allowance);
     if d.pump_count() > MAX_PUMPS {
         c.fail(
-            "unloading_stages",
+            &UNLOADING_STAGES,
             format!("at most {MAX_PUMPS} pumps on one motor"),
         );
     }
     for (i, stage) in d.unloading_stages.iter().enumerate() {
-        c.within(format_args!("unloading_stages[{i}]"), |c| {
-            check_stage(c, stage)
-        });
+        c.within(i, |c| check_stage(c, stage));
     }
-    c.within(format_args!("base_pump"), |c| check_pump(c, &d.base_pump));
+    check_pump(c, &d.base_pump);
     let r = &d.relief;
-    c.pressure("relief.setting_pa", r.setting.value, false);
-    c.flow("relief.rated_flow_m3_per_s", r.rated_flow.value, false);
-    let cf = r.cracking_fraction;
-    if !(cf.is_finite() && cf > 0.0 && cf < 1.0) {
-        c.fail(
-            "relief.cracking_fraction",
-            "must be above 0 % and below 100 % of the setting",
-        );
-    }
+    c.number(&RELIEF_SETTING, r.setting.value);
+    c.number(&RELIEF_RATED_FLOW, r.rated_flow.value);
+    c.number(&RELIEF_CRACKING, r.cracking_fraction);
     for (i, remote) in d.remote_stages.iter().enumerate() {
-        c.pressure(&format!("remote_stages_pa[{i}]"), remote.value, false);
+        c.within(i, |c| {
+            c.number(&REMOTE_STAGES, remote.value);
+        });
     }
     if !d.remote_stages.is_empty() && !r.kind.has_vent_port() {
         c.fail(
-            "remote_stages_pa",
+            &REMOTE_STAGES,
             "a direct-acting relief has no vent port for remote pilot stages",
         );
     }
-    c.pressure("vent_pressure_pa", d.vent_pressure.value, false);
+    c.number(&VENT_PRESSURE, d.vent_pressure.value);
     if d.phase_settings.len() != job.cycle.len() {
         c.fail(
-            "phase_settings",
+            &PHASE_SETTINGS,
             format!(
                 "has settings for {} phases but the cycle has {}",
                 d.phase_settings.len(),
@@ -495,9 +336,7 @@ fn check_design_fields(c: &mut Checker, d: &Design, job: &Job) {
         );
     }
     for (i, setting) in d.phase_settings.iter().enumerate() {
-        c.within(format_args!("phase_settings[{i}]"), |c| {
-            check_setting(c, d, setting)
-        });
+        c.within(i, |c| check_setting(c, d, setting));
     }
 }
 
@@ -508,7 +347,7 @@ fn check_setting(c: &mut Checker, d: &Design, setting: &super::power_unit::Phase
         ActiveLimit::Remote { stage } => {
             if stage >= d.remote_stages.len() {
                 c.fail(
-                    "limit",
+                    &LIMIT,
                     format!(
                         "remote stage {} does not exist (the unit has {})",
                         stage + 1,
@@ -519,67 +358,50 @@ fn check_setting(c: &mut Checker, d: &Design, setting: &super::power_unit::Phase
         }
         ActiveLimit::Vented => {
             if !r.kind.has_vent_port() {
-                c.fail("limit", "a direct-acting relief has no vent port to vent");
+                c.fail(&LIMIT, "a direct-acting relief has no vent port to vent");
             }
         }
     }
     match setting.idle_path {
         IdlePath::Vented if !r.kind.has_vent_port() => {
             c.fail(
-                "idle_path",
+                &IDLE_PATH,
                 "a direct-acting relief has no vent port to vent",
             );
         }
         IdlePath::OpenCentre { drop } => {
-            c.pressure("idle_path.drop_pa", drop.value, true);
+            c.number(&OPEN_CENTRE_DROP, drop.value);
         }
         _ => {}
     }
 }
 
 fn check_stage(c: &mut Checker, stage: &super::power_unit::UnloadingStage) {
-    c.within(format_args!("pump"), |c| check_pump(c, &stage.pump));
+    check_pump(c, &stage.pump);
     let setting = stage.unloading.setting.value;
     let drop = stage.unloading.unloaded_drop.value;
-    let ok_setting = c.pressure("unloading.setting_pa", setting, false);
-    let ok_drop = c.pressure("unloading.unloaded_drop_pa", drop, true);
+    let ok_setting = c.number(&UNLOADING_SETTING, setting);
+    let ok_drop = c.number(&UNLOADED_DROP, drop);
     if ok_setting && ok_drop && drop >= setting {
-        c.fail(
-            "unloading.unloaded_drop_pa",
-            "must be below the unloading setting",
-        );
+        c.fail(&UNLOADED_DROP, "must be below the unloading setting");
     }
-    c.pressure("check.cracking_pa", stage.check.cracking.value, true);
+    c.number(&CHECK_CRACKING, stage.check.cracking.value);
 }
 
+/// A pump: the base pump of the power unit being checked, or the pump of the unloading stage
+/// being checked (its field paths say which).
 fn check_pump(c: &mut Checker, p: &Pump) {
-    c.plain(
-        "displacement_m3_per_rev",
-        p.displacement.value,
-        false,
-        MAX_DISPLACEMENT,
-        Measure::Displacement,
-    );
-    c.fraction("volumetric_efficiency", p.volumetric_efficiency, false);
-    c.pressure("efficiency_pressure_pa", p.efficiency_pressure.value, false);
+    c.number(&DISPLACEMENT, p.displacement.value);
+    c.number(&VOLUMETRIC_EFFICIENCY, p.volumetric_efficiency);
+    c.number(&EFFICIENCY_PRESSURE, p.efficiency_pressure.value);
     if let Some(speed) = p.efficiency_speed {
-        c.amount(
-            "efficiency_speed_rad_per_s",
-            speed.value,
-            false,
-            MAX_SPEED_RAD_S,
-            |_, v| format!("{:.0} rpm", v * 60.0 / std::f64::consts::TAU),
-        );
+        c.number(&EFFICIENCY_SPEED, speed.value);
     }
-    c.fraction(
-        "hydromechanical_efficiency",
-        p.hydromechanical_efficiency,
-        false,
-    );
-    c.power("drag_power_w", p.drag_power.value, true);
-    c.pressure("rated_pressure_pa", p.rated_pressure.value, false);
+    c.number(&HYDROMECHANICAL_EFFICIENCY, p.hydromechanical_efficiency);
+    c.number(&DRAG_POWER, p.drag_power.value);
+    c.number(&PUMP_RATED_PRESSURE, p.rated_pressure.value);
     if let PumpControl::Compensated { setting } = p.control {
-        c.pressure("control.setting_pa", setting.value, false);
+        c.number(&COMPENSATOR_SETTING, setting.value);
     }
 }
 
@@ -587,8 +409,8 @@ fn check_pump(c: &mut Checker, p: &Pump) {
 /// motors slip a few percent).
 const MAX_SLIP: f64 = 0.2;
 
-fn rpm(_: UnitSystem, rad_per_s: f64) -> String {
-    format!("{:.0} rpm", rad_per_s * 60.0 / std::f64::consts::TAU)
+fn rpm(units: UnitSystem, rad_per_s: f64) -> String {
+    Measure::ShaftSpeed.with_unit(units, rad_per_s)
 }
 
 /// Every problem with field test `index` of a job, named by its path in the job file
@@ -599,7 +421,9 @@ pub fn validate_pump_test(
     index: usize,
     units: UnitSystem,
 ) -> Vec<InputError> {
-    check_pump_test(test, Some(index), units)
+    let mut c = Checker::new(units);
+    c.within(index, |c| check_pump_test(c, test));
+    c.errors
 }
 
 /// As [`validate_pump_test`], the paths within the test (`readings[1].flow_m3_per_s`).
@@ -607,103 +431,76 @@ pub(crate) fn pump_test_errors(
     test: &super::pump_test::PumpTest,
     units: UnitSystem,
 ) -> Vec<InputError> {
-    check_pump_test(test, None, units)
+    let test_at = format!("{}.", Part::PumpTest.at(&[0]));
+    let mut errors = validate_pump_test(test, 0, units);
+    for e in &mut errors {
+        if let Some(within) = e.field.strip_prefix(&test_at) {
+            e.field = within.to_string();
+        }
+    }
+    errors
 }
 
-fn check_pump_test(
-    test: &super::pump_test::PumpTest,
-    index: Option<usize>,
-    units: UnitSystem,
-) -> Vec<InputError> {
+fn check_pump_test(c: &mut Checker, test: &super::pump_test::PumpTest) {
     use super::pump_test::{ElectricalInput, MotorEfficiency};
-    let mut c = Checker {
-        units,
-        errors: Vec::new(),
-        at: String::new(),
-    };
-    let checks = |c: &mut Checker| {
-        if test.pump.trim().is_empty() {
-            c.fail(
-                "pump",
-                "say which pump was tested (tests of one pump are compared by it)",
-            );
-        }
-        if !test.date.trim().is_empty() && super::pump_test::day_number(&test.date).is_none() {
-            c.fail("date", "write the date as year-month-day, e.g. 2026-11-30");
-        }
-        c.plain(
-            "displacement_m3_per_rev",
-            test.displacement.value,
-            false,
-            MAX_DISPLACEMENT,
-            Measure::Displacement,
-        );
-        let full_load = test.speed.value;
-        let full_load_ok = c.amount("speed_rad_per_s", full_load, false, MAX_SPEED_RAD_S, rpm);
-        if let Some(sync) = test.synchronous_speed.map(|s| s.value) {
-            let field = "synchronous_speed_rad_per_s";
-            if c.amount(field, sync, false, MAX_SPEED_RAD_S, rpm) && full_load_ok {
-                if sync <= full_load {
-                    c.fail(
-                        field,
-                        "must be above the full-load speed: a four-pole motor on 50 Hz is 1500 rpm and turns about 1460 rpm at full load",
-                    );
-                } else if full_load < sync * (1.0 - MAX_SLIP) {
-                    c.fail(
-                        field,
-                        format!(
-                            "{} is too far above the full-load speed of {} for an induction motor (they differ by a few percent): check both",
-                            rpm(units, sync),
-                            rpm(units, full_load)
-                        ),
-                    );
-                }
+    let units = c.units;
+    c.text(&TESTED_PUMP, &test.pump);
+    c.text(&TEST_DATE, &test.date);
+    c.number(&TEST_DISPLACEMENT, test.displacement.value);
+    let full_load = test.speed.value;
+    let full_load_ok = c.number(&TEST_SPEED, full_load);
+    if let Some(sync) = test.synchronous_speed.map(|s| s.value) {
+        if c.number(&TEST_SYNCHRONOUS_SPEED, sync) && full_load_ok {
+            if sync <= full_load {
+                c.fail(
+                    &TEST_SYNCHRONOUS_SPEED,
+                    "must be above the full-load speed: a four-pole motor on 50 Hz is 1500 rpm and turns about 1460 rpm at full load",
+                );
+            } else if full_load < sync * (1.0 - MAX_SLIP) {
+                c.fail(
+                    &TEST_SYNCHRONOUS_SPEED,
+                    format!(
+                        "{} is too far above the full-load speed of {} for an induction motor (they differ by a few percent): check both",
+                        rpm(units, sync),
+                        rpm(units, full_load)
+                    ),
+                );
             }
         }
-        c.pressure("rated_pressure_pa", test.rated_pressure.value, false);
-        c.power("motor_rated_power_w", test.motor_rated_power.value, false);
-        if let MotorEfficiency::Entered { efficiency } = test.motor_efficiency {
-            c.fraction("motor_efficiency.efficiency", efficiency, false);
-        }
-        if test.readings.is_empty() {
-            c.fail("readings", "add a reading: a flow at a test pressure");
-        }
-        for (k, r) in test.readings.iter().enumerate() {
-            c.within(format_args!("readings[{k}]"), |c| {
-                c.pressure("pressure_pa", r.pressure.value, true);
-                c.flow("flow_m3_per_s", r.flow.value, true);
-                if let Some(n) = r.speed {
-                    c.amount("speed_rad_per_s", n.value, false, MAX_SPEED_RAD_S, rpm);
-                }
-                match r.electrical {
-                    None => {}
-                    Some(ElectricalInput::Power { input }) => {
-                        c.power("electrical.input_w", input.value, false);
-                    }
-                    Some(ElectricalInput::ThreePhase {
-                        voltage,
-                        current,
-                        power_factor,
-                    }) => {
-                        c.plain("electrical.line_voltage_v", voltage.value, false, 50e3, Measure::Voltage);
-                        c.plain("electrical.line_current_a", current.value, false, 50e3, Measure::Current);
-                        if !(power_factor.is_finite() && power_factor > 0.0 && power_factor <= 1.0) {
-                            c.fail(
-                                "electrical.power_factor",
-                                "a power factor is more than 0 and at most 1 (0.8 is typical at full load): check the meter",
-                            );
-                        }
-                    }
-                }
-                if let Some(t) = r.torque {
-                    c.plain("torque_n_m", t.value, false, 1e6, Measure::Torque);
-                }
-            });
-        }
-    };
-    match index {
-        Some(i) => c.within(format_args!("pump_tests[{i}]"), checks),
-        None => checks(&mut c),
     }
-    c.errors
+    c.number(&TEST_RATED_PRESSURE, test.rated_pressure.value);
+    c.number(&TEST_MOTOR_POWER, test.motor_rated_power.value);
+    if let MotorEfficiency::Entered { efficiency } = test.motor_efficiency {
+        c.number(&TEST_MOTOR_EFFICIENCY, efficiency);
+    }
+    if test.readings.is_empty() {
+        c.fail(&READINGS, "add a reading: a flow at a test pressure");
+    }
+    for (k, r) in test.readings.iter().enumerate() {
+        c.within(k, |c| {
+            c.number(&TEST_PRESSURE, r.pressure.value);
+            c.number(&TEST_FLOW, r.flow.value);
+            if let Some(n) = r.speed {
+                c.number(&SHAFT_SPEED, n.value);
+            }
+            match r.electrical {
+                None => {}
+                Some(ElectricalInput::Power { input }) => {
+                    c.number(&INPUT_POWER, input.value);
+                }
+                Some(ElectricalInput::ThreePhase {
+                    voltage,
+                    current,
+                    power_factor,
+                }) => {
+                    c.number(&LINE_VOLTAGE, voltage.value);
+                    c.number(&LINE_CURRENT, current.value);
+                    c.number(&POWER_FACTOR, power_factor);
+                }
+            }
+            if let Some(t) = r.torque {
+                c.number(&SHAFT_TORQUE, t.value);
+            }
+        });
+    }
 }

@@ -4,7 +4,7 @@ use super::field::{ChoiceField, NumberField, TextField, UnitSwitch};
 use super::shared::ExampleBanner;
 use super::state::use_job;
 use crate::engine::cycle::*;
-use crate::engine::units::Measure;
+use crate::engine::fields;
 use crate::engine::Job;
 use leptos::prelude::*;
 use uom::si::f64::*;
@@ -214,8 +214,8 @@ fn PhaseCard(index: usize) -> impl IntoView {
                 </div>
                 <div class="phase-fields">
                     <TextField
-                        label="Name"
-                        path=format!("cycle[{index}].name")
+                        field=&fields::PHASE_NAME
+                        at=[index]
                         get=move |j: &Job| j.cycle.get(index).map(|p| p.name.clone()).unwrap_or_default()
                         set=move |j: &mut Job, v| {
                             if let Some(p) = j.cycle.get_mut(index) {
@@ -224,8 +224,8 @@ fn PhaseCard(index: usize) -> impl IntoView {
                         }
                     />
                     <ChoiceField
-                        label="What happens"
-                        path=format!("cycle[{index}].kind")
+                        field=&fields::PHASE_KIND
+                        at=[index]
                         options=["move", "hold", "idle", "direct"].iter().map(|k| (*k, kind_label(k).to_string())).collect()
                         get=move |j: &Job| j.cycle.get(index).map(|p| kind_key(&p.kind)).unwrap_or("idle")
                         set=move |j: &mut Job, key| {
@@ -251,7 +251,6 @@ fn PhaseCard(index: usize) -> impl IntoView {
 #[component]
 fn MoveFields(index: usize) -> impl IntoView {
     let state = use_job();
-    let at = move |field: &str| format!("cycle[{index}].{field}");
     let load_key = move |j: &Job| match move_of(j, index).map(|m| m.load) {
         Some(Load::Pressure { .. }) => "pressure",
         _ => "force",
@@ -267,8 +266,8 @@ fn MoveFields(index: usize) -> impl IntoView {
     let speed = move || speed.get();
     view! {
         <ChoiceField
-            label="Direction"
-            path=at("direction")
+            field=&fields::DIRECTION
+            at=[index]
             options=vec![("extend", "Extend (full bore)".into()), ("retract", "Retract (annulus)".into())]
             get=move |j: &Job| match move_of(j, index).map(|m| m.direction) {
                 Some(Direction::Retract) => "retract",
@@ -280,18 +279,18 @@ fn MoveFields(index: usize) -> impl IntoView {
                 }
             }
         />
-        <NumberField label="Bore" path=at("cylinder.bore_m") measure=Measure::Length
+        <NumberField field=&fields::BORE at=[index]
             get=move |j: &Job| move_of(j, index).map_or(f64::NAN, |m| m.cylinder.bore.value)
             set=move |j: &mut Job, v| if let Some(m) = move_of_mut(j, index) { m.cylinder.bore.value = v } />
-        <NumberField label="Rod" path=at("cylinder.rod_m") measure=Measure::Length
+        <NumberField field=&fields::ROD at=[index]
             get=move |j: &Job| move_of(j, index).map_or(f64::NAN, |m| m.cylinder.rod.value)
             set=move |j: &mut Job, v| if let Some(m) = move_of_mut(j, index) { m.cylinder.rod.value = v } />
-        <NumberField label="Stroke in this phase" path=at("cylinder.stroke_m") measure=Measure::Length
+        <NumberField field=&fields::STROKE at=[index]
             get=move |j: &Job| move_of(j, index).map_or(f64::NAN, |m| m.cylinder.stroke.value)
             set=move |j: &mut Job, v| if let Some(m) = move_of_mut(j, index) { m.cylinder.stroke.value = v } />
         <ChoiceField
-            label="Load given as"
-            path=at("load.type")
+            field=&fields::LOAD_GIVEN_AS
+            at=[index]
             options=vec![("force", "A force".into()), ("pressure", "A gauge pressure".into())]
             get=load_key
             set=move |j: &mut Job, key| {
@@ -302,23 +301,23 @@ fn MoveFields(index: usize) -> impl IntoView {
         />
         {move || if load_is_force() {
             view! {
-                <NumberField label="Load force" path=at("load.force_n") measure=Measure::Force
+                <NumberField field=&fields::LOAD_FORCE at=[index]
                     get=move |j: &Job| match move_of(j, index).map(|m| m.load) { Some(Load::Force { force }) => force.value, _ => f64::NAN }
                     set=move |j: &mut Job, v| if let Some(m) = move_of_mut(j, index) { m.load = Load::Force { force: Force::new::<uom::si::force::newton>(v) } } />
             }.into_any()
         } else {
             view! {
-                <NumberField label="Load pressure" path=at("load.pressure_pa") measure=Measure::Pressure
+                <NumberField field=&fields::LOAD_PRESSURE at=[index]
                     get=move |j: &Job| match move_of(j, index).map(|m| m.load) { Some(Load::Pressure { pressure }) => pressure.value, _ => f64::NAN }
                     set=move |j: &mut Job, v| if let Some(m) = move_of_mut(j, index) { m.load = Load::Pressure { pressure: Pressure::new::<uom::si::pressure::pascal>(v) } } />
             }.into_any()
         }}
-        <NumberField label="Line and valve losses" path=at("line_loss_pa") measure=Measure::Pressure
+        <NumberField field=&fields::LINE_LOSS at=[index]
             get=move |j: &Job| move_of(j, index).map_or(f64::NAN, |m| m.line_loss.value)
             set=move |j: &mut Job, v| if let Some(m) = move_of_mut(j, index) { m.line_loss.value = v } />
         <ChoiceField
-            label="Speed"
-            path=at("speed.rule")
+            field=&fields::SPEED_RULE
+            at=[index]
             options=vec![
                 ("all_pump_flow", "As fast as the pumps allow".into()),
                 ("metered_speed", "Metered to a speed".into()),
@@ -337,12 +336,12 @@ fn MoveFields(index: usize) -> impl IntoView {
         />
         {move || match speed() {
             "metered_speed" => Some(view! {
-                <NumberField label="Metered speed" path=at("speed.speed_m_per_s") measure=Measure::Speed
+                <NumberField field=&fields::METERED_SPEED at=[index]
                     get=move |j: &Job| match move_of(j, index).map(|m| m.speed) { Some(SpeedRule::MeteredSpeed { speed }) => speed.value, _ => f64::NAN }
                     set=move |j: &mut Job, v| if let Some(m) = move_of_mut(j, index) { m.speed = SpeedRule::MeteredSpeed { speed: Velocity::new::<uom::si::velocity::meter_per_second>(v) } } />
             }.into_any()),
             "metered_flow" => Some(view! {
-                <NumberField label="Metered flow" path=at("speed.flow_m3_per_s") measure=Measure::Flow
+                <NumberField field=&fields::METERED_FLOW at=[index]
                     get=move |j: &Job| match move_of(j, index).map(|m| m.speed) { Some(SpeedRule::MeteredFlow { flow }) => flow.value, _ => f64::NAN }
                     set=move |j: &mut Job, v| if let Some(m) = move_of_mut(j, index) { m.speed = SpeedRule::MeteredFlow { flow: VolumeRate::new::<uom::si::volume_rate::cubic_meter_per_second>(v) } } />
             }.into_any()),
@@ -364,15 +363,15 @@ fn HoldFields(index: usize) -> impl IntoView {
         }
     }
     view! {
-        <NumberField label="Pressure to hold" path=format!("cycle[{index}].pressure_pa") measure=Measure::Pressure
+        <NumberField field=&fields::HOLD_PRESSURE at=[index]
             get=move |j: &Job| hold(j).map_or(f64::NAN, |h| h.pressure.value)
             set=move |j: &mut Job, v| if let Some(h) = hold_mut(j, index) { h.pressure.value = v } />
-        <NumberField label="Duration" path=format!("cycle[{index}].duration_s") measure=Measure::Duration
+        <NumberField field=&fields::DURATION at=[index]
             get=move |j: &Job| hold(j).map_or(f64::NAN, |h| h.duration.value)
             set=move |j: &mut Job, v| if let Some(h) = hold_mut(j, index) { h.duration.value = v } />
         <ChoiceField
-            label="Held by"
-            path=format!("cycle[{index}].mode")
+            field=&fields::HELD_BY
+            at=[index]
             options=vec![("held_by_pump", "The pump, over the relief".into()), ("locked_by_check", "A check valve (pump free to unload)".into())]
             get=move |j: &Job| match hold(j).map(|h| h.mode) { Some(HoldMode::LockedByCheck) => "locked_by_check", _ => "held_by_pump" }
             set=move |j: &mut Job, key| if let Some(h) = hold_mut(j, index) {
@@ -385,7 +384,7 @@ fn HoldFields(index: usize) -> impl IntoView {
 #[component]
 fn IdleFields(index: usize) -> impl IntoView {
     view! {
-        <NumberField label="Duration" path=format!("cycle[{index}].duration_s") measure=Measure::Duration
+        <NumberField field=&fields::DURATION at=[index]
             get=move |j: &Job| match j.cycle.get(index).map(|p| &p.kind) { Some(PhaseKind::Idle(i)) => i.duration.value, _ => f64::NAN }
             set=move |j: &mut Job, v| if let Some(PhaseKind::Idle(i)) = j.cycle.get_mut(index).map(|p| &mut p.kind) { i.duration.value = v } />
         <p class="hint">"Where the pump flow goes while idle is set per power unit, in the Power unit area."</p>
@@ -407,13 +406,13 @@ fn DirectFields(index: usize) -> impl IntoView {
         }
     }
     view! {
-        <NumberField label="Flow taken" path=format!("cycle[{index}].flow_m3_per_s") measure=Measure::Flow
+        <NumberField field=&fields::DIRECT_FLOW at=[index]
             get=move |j: &Job| direct(j, index).map_or(f64::NAN, |d| d.flow.value)
             set=move |j: &mut Job, v| if let Some(d) = direct_mut(j, index) { d.flow.value = v } />
-        <NumberField label="At a pressure of" path=format!("cycle[{index}].pressure_pa") measure=Measure::Pressure
+        <NumberField field=&fields::DIRECT_PRESSURE at=[index]
             get=move |j: &Job| direct(j, index).map_or(f64::NAN, |d| d.pressure.value)
             set=move |j: &mut Job, v| if let Some(d) = direct_mut(j, index) { d.pressure.value = v } />
-        <NumberField label="Duration" path=format!("cycle[{index}].duration_s") measure=Measure::Duration
+        <NumberField field=&fields::DURATION at=[index]
             get=move |j: &Job| direct(j, index).map_or(f64::NAN, |d| d.duration.value)
             set=move |j: &mut Job, v| if let Some(d) = direct_mut(j, index) { d.duration.value = v } />
     }

@@ -3,6 +3,7 @@
 //! and the engine's validation message for that field appears under it.
 
 use super::state::use_job;
+use crate::engine::fields::FieldSpec;
 use crate::engine::units::{parse_number, Measure, UnitSystem};
 use crate::engine::Job;
 use leptos::prelude::*;
@@ -34,22 +35,39 @@ fn shown_text(measure: Measure, system: UnitSystem, si: f64) -> String {
     }
 }
 
+/// A field's label and its path in the job file (as the engine names it in its errors), from
+/// its declaration: `at` fills the indices of the lists it sits in, outermost first (the
+/// phase, the power unit, ...); `label` replaces the declared one where it depends on the
+/// index ("Remote stage 2").
+fn label_and_path(field: &FieldSpec, at: &[usize], label: Option<String>) -> (String, String) {
+    (
+        label.unwrap_or_else(|| field.label.to_string()),
+        field.at(at),
+    )
+}
+
+/// The unit a number field shows: the one its declaration gives (every number declares one).
+fn measure_of(field: &FieldSpec) -> Measure {
+    debug_assert!(field.measure.is_some(), "{} declares no unit", field.key);
+    field.measure.unwrap_or(Measure::Factor)
+}
+
 /// A number in the job, edited in the job's units.
 #[component]
 pub fn NumberField(
-    #[prop(into)] label: String,
-    /// The field's path in the job file, as the engine names it in its errors.
-    #[prop(into)]
-    path: String,
-    measure: Measure,
+    /// The field as the engine declares it: its label, path and unit.
+    field: &'static FieldSpec,
+    #[prop(into, optional)] at: Vec<usize>,
+    #[prop(into, optional)] label: Option<String>,
     get: impl Fn(&Job) -> f64 + Send + Sync + 'static,
     set: impl Fn(&mut Job, f64) + Send + Sync + 'static,
 ) -> impl IntoView {
+    let (label, path) = label_and_path(field, &at, label);
     // Empty text is a missing number: the job holds NaN and validation says so.
     number_input(
         label,
         path,
-        measure,
+        measure_of(field),
         None,
         Arc::new(get),
         Arc::new(move |j: &mut Job, v: Option<f64>| set(j, v.unwrap_or(f64::NAN))),
@@ -60,17 +78,18 @@ pub fn NumberField(
 /// applies then ("as found: 2.4").
 #[component]
 pub fn OptionalNumberField(
-    #[prop(into)] label: String,
-    #[prop(into)] path: String,
-    measure: Measure,
+    field: &'static FieldSpec,
+    #[prop(into, optional)] at: Vec<usize>,
+    #[prop(into, optional)] label: Option<String>,
     #[prop(into)] placeholder: Signal<String>,
     get: impl Fn(&Job) -> Option<f64> + Send + Sync + 'static,
     set: impl Fn(&mut Job, Option<f64>) + Send + Sync + 'static,
 ) -> impl IntoView {
+    let (label, path) = label_and_path(field, &at, label);
     number_input(
         label,
         path,
-        measure,
+        measure_of(field),
         Some(placeholder),
         Arc::new(move |j: &Job| get(j).unwrap_or(f64::NAN)),
         Arc::new(set),
@@ -181,11 +200,12 @@ fn number_input(
 /// A text in the job (a name).
 #[component]
 pub fn TextField(
-    #[prop(into)] label: String,
-    #[prop(into)] path: String,
+    field: &'static FieldSpec,
+    #[prop(into, optional)] at: Vec<usize>,
     get: impl Fn(&Job) -> String + Send + Sync + 'static,
     set: impl Fn(&mut Job, String) + Send + Sync + 'static,
 ) -> impl IntoView {
+    let (label, path) = label_and_path(field, &at, None);
     let state = use_job();
     let id = field_id(&path);
     let error_id = format!("{id}-error");
@@ -219,12 +239,13 @@ pub fn TextField(
 /// A choice among a few options, each (value key, label).
 #[component]
 pub fn ChoiceField(
-    #[prop(into)] label: String,
-    #[prop(into)] path: String,
+    field: &'static FieldSpec,
+    #[prop(into, optional)] at: Vec<usize>,
     options: Vec<(&'static str, String)>,
     get: impl Fn(&Job) -> &'static str + Send + Sync + 'static,
     set: impl Fn(&mut Job, &str) + Send + Sync + 'static,
 ) -> impl IntoView {
+    let (label, path) = label_and_path(field, &at, None);
     let state = use_job();
     let id = field_id(&path);
     let error = {

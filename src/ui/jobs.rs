@@ -17,6 +17,7 @@ use super::storage::{
     download, file_stem, flush_pending, load_all, local_storage, now_ms, open, save_now,
     stored_ids, stored_names, strs, use_storage, write, SaveNote,
 };
+use crate::engine::fields;
 use crate::engine::Job;
 use crate::formats::library::{self, Entry};
 use leptos::prelude::*;
@@ -111,9 +112,9 @@ pub fn JobsArea() -> impl IntoView {
             <Conflict />
             <div class="card">
                 <h2>"Open now"</h2>
-                <TextField label="Job name" path="name" get=|j: &Job| j.name.clone() set=|j: &mut Job, v| j.name = v />
-                <TextField label="Site" path="site.location" get=|j: &Job| j.site.location.clone() set=|j: &mut Job, v| j.site.location = v />
-                <TextField label="Notes" path="notes" get=|j: &Job| j.notes.clone() set=|j: &mut Job, v| j.notes = v />
+                <TextField field=&fields::JOB_NAME get=|j: &Job| j.name.clone() set=|j: &mut Job, v| j.name = v />
+                <TextField field=&fields::SITE get=|j: &Job| j.site.location.clone() set=|j: &mut Job, v| j.site.location = v />
+                <TextField field=&fields::NOTES get=|j: &Job| j.notes.clone() set=|j: &mut Job, v| j.notes = v />
             </div>
             <button type="button" class="button wide" data-action="new-job" aria-expanded=move || choosing.get().to_string()
                 on:click=move |_| choosing.update(|c| *c = !*c)>"Start a new job"</button>
@@ -212,9 +213,14 @@ fn JobRow(entry: Entry) -> impl IntoView {
                     };
                     let mut job = current.job.clone();
                     job.name = name.clone();
-                    if let Some(problem) = crate::engine::validate::validate(&job)
-                        .err()
-                        .and_then(|errors| errors.into_iter().find(|e| e.field == "name"))
+                    if let Some(problem) =
+                        crate::engine::validate::validate(&job)
+                            .err()
+                            .and_then(|errors| {
+                                errors
+                                    .into_iter()
+                                    .find(|e| e.field == fields::JOB_NAME.at(&[]))
+                            })
                     {
                         rename_problem.set(Some(problem.message));
                         return;

@@ -5,6 +5,7 @@ use super::field::{ChoiceField, NumberField, OptionalNumberField, TextField, Uni
 use super::shared::{DesignTabs, OlderBaselineNotice, SettingsCaution};
 use super::state::use_job;
 use crate::engine::cycle::PhaseKind;
+use crate::engine::fields;
 use crate::engine::power_unit::{Design, UnloadingStage, MAX_PUMPS};
 use crate::engine::pump::{Pump, PumpControl};
 use crate::engine::units::Measure;
@@ -36,12 +37,14 @@ fn pump_mut(j: &mut Job, d: usize, p: usize) -> Option<&mut Pump> {
     }
 }
 
-fn pump_path(j: &Job, d: usize, p: usize) -> String {
+/// Where pump `p` of power unit `d` sits, as its fields' indices: an unloading stage's pump
+/// (`[d, p]`) or the base pump (`[d]`).
+fn pump_at(j: &Job, d: usize, p: usize) -> Vec<usize> {
     let stages = j.designs.get(d).map_or(0, |x| x.unloading_stages.len());
     if p < stages {
-        format!("designs[{d}].unloading_stages[{p}].pump")
+        vec![d, p]
     } else {
-        format!("designs[{d}].base_pump")
+        vec![d]
     }
 }
 
@@ -158,28 +161,28 @@ fn DesignEditor(d: usize) -> impl IntoView {
     let phases = Memo::new(move |_| state.job.with(|j| j.cycle.len()));
     let phases = move || phases.get();
     view! {
-        <TextField label="Name of this power unit" path=format!("designs[{d}].name")
+        <TextField field=&fields::DESIGN_NAME at=[d]
             get=move |j: &Job| design(j, d).map(|x| x.name.clone()).unwrap_or_default()
             set=move |j: &mut Job, v| if let Some(x) = design_mut(j, d) { x.name = v } />
 
         <h2>"Motor"</h2>
         <div class="field-grid">
-            <NumberField label="Rated power" path=format!("designs[{d}].motor.rated_power_w") measure=Measure::Power
+            <NumberField field=&fields::MOTOR_RATED_POWER at=[d]
                 get=move |j: &Job| design(j, d).map_or(f64::NAN, |x| x.motor.rated_power.value)
                 set=move |j: &mut Job, v| if let Some(x) = design_mut(j, d) { x.motor.rated_power.value = v } />
-            <NumberField label="Full-load speed" path=format!("designs[{d}].motor.full_load_speed_rad_per_s") measure=Measure::ShaftSpeed
+            <NumberField field=&fields::MOTOR_SPEED at=[d]
                 get=move |j: &Job| design(j, d).map_or(f64::NAN, |x| x.motor.full_load_speed.value)
                 set=move |j: &mut Job, v| if let Some(x) = design_mut(j, d) { x.motor.full_load_speed.value = v } />
-            <NumberField label="Full-load efficiency" path=format!("designs[{d}].motor.full_load_efficiency") measure=Measure::Percent
+            <NumberField field=&fields::MOTOR_EFFICIENCY at=[d]
                 get=move |j: &Job| design(j, d).map_or(f64::NAN, |x| x.motor.full_load_efficiency)
                 set=move |j: &mut Job, v| if let Some(x) = design_mut(j, d) { x.motor.full_load_efficiency = v } />
-            <NumberField label="Share of its loss that is fixed" path=format!("designs[{d}].motor.fixed_loss_share") measure=Measure::Percent
+            <NumberField field=&fields::MOTOR_FIXED_LOSS at=[d]
                 get=move |j: &Job| design(j, d).map_or(f64::NAN, |x| x.motor.fixed_loss_share)
                 set=move |j: &mut Job, v| if let Some(x) = design_mut(j, d) { x.motor.fixed_loss_share = v } />
-            <NumberField label="Service factor" path=format!("designs[{d}].motor.service_factor") measure=Measure::Factor
+            <NumberField field=&fields::MOTOR_SERVICE_FACTOR at=[d]
                 get=move |j: &Job| design(j, d).map_or(f64::NAN, |x| x.motor.service_factor)
                 set=move |j: &mut Job, v| if let Some(x) = design_mut(j, d) { x.motor.service_factor = v } />
-            <NumberField label="Peak allowance (short peaks, times the rating)" path=format!("designs[{d}].motor.peak_allowance") measure=Measure::Factor
+            <NumberField field=&fields::MOTOR_PEAK_ALLOWANCE at=[d]
                 get=move |j: &Job| design(j, d).map_or(f64::NAN, |x| x.motor.peak_allowance)
                 set=move |j: &mut Job, v| if let Some(x) = design_mut(j, d) { x.motor.peak_allowance = v } />
         </div>
@@ -194,7 +197,7 @@ fn DesignEditor(d: usize) -> impl IntoView {
         <h2>"Relief valve"</h2>
         <SettingsCaution />
         <div class="field-grid">
-            <ChoiceField label="Type" path=format!("designs[{d}].relief.kind")
+            <ChoiceField field=&fields::RELIEF_KIND at=[d]
                 options=vec![("pilot_operated", "Pilot-operated".into()), ("direct_acting", "Direct-acting".into())]
                 get=move |j: &Job| match design(j, d).map(|x| x.relief.kind) { Some(ReliefKind::DirectActing) => "direct_acting", _ => "pilot_operated" }
                 set=move |j: &mut Job, key| if let Some(x) = design_mut(j, d) {
@@ -204,16 +207,16 @@ fn DesignEditor(d: usize) -> impl IntoView {
                         x.relief.cracking_fraction = kind.typical_cracking_fraction();
                     }
                 } />
-            <NumberField label="Setting (gauge, pump dead-headed)" path=format!("designs[{d}].relief.setting_pa") measure=Measure::Pressure
+            <NumberField field=&fields::RELIEF_SETTING at=[d]
                 get=move |j: &Job| design(j, d).map_or(f64::NAN, |x| x.relief.setting.value)
                 set=move |j: &mut Job, v| if let Some(x) = design_mut(j, d) { x.relief.setting.value = v } />
-            <NumberField label="Rated flow" path=format!("designs[{d}].relief.rated_flow_m3_per_s") measure=Measure::Flow
+            <NumberField field=&fields::RELIEF_RATED_FLOW at=[d]
                 get=move |j: &Job| design(j, d).map_or(f64::NAN, |x| x.relief.rated_flow.value)
                 set=move |j: &mut Job, v| if let Some(x) = design_mut(j, d) { x.relief.rated_flow.value = v } />
-            <NumberField label="Cracks at (share of setting)" path=format!("designs[{d}].relief.cracking_fraction") measure=Measure::Percent
+            <NumberField field=&fields::RELIEF_CRACKING at=[d]
                 get=move |j: &Job| design(j, d).map_or(f64::NAN, |x| x.relief.cracking_fraction)
                 set=move |j: &mut Job, v| if let Some(x) = design_mut(j, d) { x.relief.cracking_fraction = v } />
-            <NumberField label="Pressure when vented" path=format!("designs[{d}].vent_pressure_pa") measure=Measure::Pressure
+            <NumberField field=&fields::VENT_PRESSURE at=[d]
                 get=move |j: &Job| design(j, d).map_or(f64::NAN, |x| x.vent_pressure.value)
                 set=move |j: &mut Job, v| if let Some(x) = design_mut(j, d) { x.vent_pressure.value = v } />
         </div>
@@ -230,7 +233,7 @@ fn DesignEditor(d: usize) -> impl IntoView {
         <h3>"Remote pilot stages"</h3>
         {move || (0..remotes()).map(|r| view! {
             <div class="stage-row">
-                <NumberField label=format!("Remote stage {}", r + 1) path=format!("designs[{d}].remote_stages_pa[{r}]") measure=Measure::Pressure
+                <NumberField field=&fields::REMOTE_STAGES at=[d, r] label=format!("Remote stage {}", r + 1)
                     get=move |j: &Job| design(j, d).and_then(|x| x.remote_stages.get(r)).map_or(f64::NAN, |p| p.value)
                     set=move |j: &mut Job, v| if let Some(p) = design_mut(j, d).and_then(|x| x.remote_stages.get_mut(r)) { p.value = v } />
                 <button type="button" class="button danger" on:click=move |_| state.job.update(|j| {
@@ -266,7 +269,7 @@ fn DesignEditor(d: usize) -> impl IntoView {
 #[component]
 fn PumpEditor(d: usize, p: usize) -> impl IntoView {
     let state = use_job();
-    let path = move || state.job.with(|j| pump_path(j, d, p));
+    let this_pump = move || state.job.with(|j| pump_at(j, d, p));
     let is_stage = Memo::new(move |_| {
         state
             .job
@@ -291,52 +294,51 @@ fn PumpEditor(d: usize, p: usize) -> impl IntoView {
             }
         })
     };
-    let field = move |f: &str| format!("{}.{f}", path());
     view! {
         <fieldset class="pump-card">
             <legend>{move || if is_stage() { format!("Pump {} (unloads)", p + 1) } else { format!("Pump {} (to the relief)", p + 1) }}</legend>
             <div class="field-grid">
-                <NumberField label="Displacement" path=field("displacement_m3_per_rev") measure=Measure::Displacement
+                <NumberField field=&fields::DISPLACEMENT at=this_pump()
                     get=move |j: &Job| pump(j, d, p).map_or(f64::NAN, |x| x.displacement.value)
                     set=move |j: &mut Job, v| if let Some(x) = pump_mut(j, d, p) { x.displacement.value = v } />
-                <NumberField label="Volumetric efficiency" path=field("volumetric_efficiency") measure=Measure::Percent
+                <NumberField field=&fields::VOLUMETRIC_EFFICIENCY at=this_pump()
                     get=move |j: &Job| pump(j, d, p).map_or(f64::NAN, |x| x.volumetric_efficiency)
                     set=move |j: &mut Job, v| if let Some(x) = pump_mut(j, d, p) { x.volumetric_efficiency = v } />
-                <NumberField label="Measured at" path=field("efficiency_pressure_pa") measure=Measure::Pressure
+                <NumberField field=&fields::EFFICIENCY_PRESSURE at=this_pump()
                     get=move |j: &Job| pump(j, d, p).map_or(f64::NAN, |x| x.efficiency_pressure.value)
                     set=move |j: &mut Job, v| if let Some(x) = pump_mut(j, d, p) { x.efficiency_pressure.value = v } />
-                <OptionalNumberField label="... and at shaft speed" path=field("efficiency_speed_rad_per_s") measure=Measure::ShaftSpeed
+                <OptionalNumberField field=&fields::EFFICIENCY_SPEED at=this_pump()
                     placeholder=Signal::derive(move || state.job.with(|j| design(j, d).map_or(String::new(), |x| format!("the motor's: {}", Measure::ShaftSpeed.with_unit(j.units, x.motor.full_load_speed.value)))))
                     get=move |j: &Job| pump(j, d, p).and_then(|x| x.efficiency_speed.map(|w| w.value))
                     set=move |j: &mut Job, v| if let Some(x) = pump_mut(j, d, p) { x.efficiency_speed = v.map(uom::si::f64::AngularVelocity::new::<uom::si::angular_velocity::radian_per_second>) } />
-                <NumberField label="Hydromechanical efficiency" path=field("hydromechanical_efficiency") measure=Measure::Percent
+                <NumberField field=&fields::HYDROMECHANICAL_EFFICIENCY at=this_pump()
                     get=move |j: &Job| pump(j, d, p).map_or(f64::NAN, |x| x.hydromechanical_efficiency)
                     set=move |j: &mut Job, v| if let Some(x) = pump_mut(j, d, p) { x.hydromechanical_efficiency = v } />
-                <NumberField label="Drag with no pressure" path=field("drag_power_w") measure=Measure::Power
+                <NumberField field=&fields::DRAG_POWER at=this_pump()
                     get=move |j: &Job| pump(j, d, p).map_or(f64::NAN, |x| x.drag_power.value)
                     set=move |j: &mut Job, v| if let Some(x) = pump_mut(j, d, p) { x.drag_power.value = v } />
-                <NumberField label="Rated pressure" path=field("rated_pressure_pa") measure=Measure::Pressure
+                <NumberField field=&fields::PUMP_RATED_PRESSURE at=this_pump()
                     get=move |j: &Job| pump(j, d, p).map_or(f64::NAN, |x| x.rated_pressure.value)
                     set=move |j: &mut Job, v| if let Some(x) = pump_mut(j, d, p) { x.rated_pressure.value = v } />
-                <ChoiceField label="Control" path=field("control.type")
+                <ChoiceField field=&fields::PUMP_CONTROL at=this_pump()
                     options=vec![("fixed", "Fixed displacement".into()), ("compensated", "Pressure-compensated".into())]
                     get=move |j: &Job| if matches!(pump(j, d, p).map(|x| x.control), Some(PumpControl::Compensated { .. })) { "compensated" } else { "fixed" }
                     set=move |j: &mut Job, key| if let Some(x) = pump_mut(j, d, p) {
                         x.control = if key == "compensated" { PumpControl::Compensated { setting: x.first_compensator_setting() } } else { PumpControl::Fixed };
                     } />
                 {move || compensated().then(|| view! {
-                    <NumberField label="Compensator setting" path=field("control.setting_pa") measure=Measure::Pressure
+                    <NumberField field=&fields::COMPENSATOR_SETTING at=this_pump()
                         get=move |j: &Job| match pump(j, d, p).map(|x| x.control) { Some(PumpControl::Compensated { setting }) => setting.value, _ => f64::NAN }
                         set=move |j: &mut Job, v| if let Some(x) = pump_mut(j, d, p) { x.control = PumpControl::Compensated { setting: Pressure::new::<pascal>(v) } } />
                 })}
                 {move || is_stage().then(|| view! {
-                    <NumberField label="Unloads at" path=format!("designs[{d}].unloading_stages[{p}].unloading.setting_pa") measure=Measure::Pressure
+                    <NumberField field=&fields::UNLOADING_SETTING at=[d, p]
                         get=move |j: &Job| design(j, d).and_then(|x| x.unloading_stages.get(p)).map_or(f64::NAN, |s| s.unloading.setting.value)
                         set=move |j: &mut Job, v| if let Some(s) = design_mut(j, d).and_then(|x| x.unloading_stages.get_mut(p)) { s.unloading.setting.value = v } />
-                    <NumberField label="Pressure when unloaded" path=format!("designs[{d}].unloading_stages[{p}].unloading.unloaded_drop_pa") measure=Measure::Pressure
+                    <NumberField field=&fields::UNLOADED_DROP at=[d, p]
                         get=move |j: &Job| design(j, d).and_then(|x| x.unloading_stages.get(p)).map_or(f64::NAN, |s| s.unloading.unloaded_drop.value)
                         set=move |j: &mut Job, v| if let Some(s) = design_mut(j, d).and_then(|x| x.unloading_stages.get_mut(p)) { s.unloading.unloaded_drop.value = v } />
-                    <NumberField label="Check valve cracking" path=format!("designs[{d}].unloading_stages[{p}].check.cracking_pa") measure=Measure::Pressure
+                    <NumberField field=&fields::CHECK_CRACKING at=[d, p]
                         get=move |j: &Job| design(j, d).and_then(|x| x.unloading_stages.get(p)).map_or(f64::NAN, |s| s.check.cracking.value)
                         set=move |j: &mut Job, v| if let Some(s) = design_mut(j, d).and_then(|x| x.unloading_stages.get_mut(p)) { s.check.cracking.value = v } />
                 })}
@@ -414,7 +416,7 @@ fn PhaseLimit(d: usize, i: usize) -> impl IntoView {
         <div class="phase-limit">
             <div class="field">
                 <label for=limit_id.clone()>{move || format!("{}. {}", i + 1, name())}</label>
-                <select id=limit_id data-path=format!("designs[{d}].phase_settings[{i}].limit") on:change=set_limit>
+                <select id=limit_id data-path=fields::LIMIT.at(&[d, i]) on:change=set_limit>
                     {move || {
                         let now = current();
                         options()
@@ -447,7 +449,7 @@ fn IdlePathField(d: usize, i: usize) -> impl IntoView {
     });
     let open_centre = move || open_centre.get();
     view! {
-        <ChoiceField label="Flow while idle" path=format!("designs[{d}].phase_settings[{i}].idle_path")
+        <ChoiceField field=&fields::IDLE_PATH at=[d, i]
             options=vec![
                 ("over_limit", "Over the limit above".into()),
                 ("vented", "Vented relief".into()),
@@ -469,7 +471,7 @@ fn IdlePathField(d: usize, i: usize) -> impl IntoView {
                 };
             } />
         {move || open_centre().then(|| view! {
-            <NumberField label="Open-centre pressure drop" path=format!("designs[{d}].phase_settings[{i}].idle_path.drop_pa") measure=Measure::Pressure
+            <NumberField field=&fields::OPEN_CENTRE_DROP at=[d, i]
                 get=move |j: &Job| match path(j) { Some(IdlePath::OpenCentre { drop }) => drop.value, _ => f64::NAN }
                 set=move |j: &mut Job, v| if let Some(s) = design_mut(j, d).and_then(|x| x.phase_settings.get_mut(i)) { s.idle_path = IdlePath::OpenCentre { drop: Pressure::new::<pascal>(v) } } />
         })}

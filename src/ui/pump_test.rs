@@ -10,6 +10,7 @@ use super::state::use_job;
 use crate::engine::efficiency::{
     self, ElectricalInput, MotorEfficiency, PumpTest, Reading, SpeedFrom, TestReport,
 };
+use crate::engine::fields::{self, FieldSpec};
 use crate::engine::motor::EfficiencyClass;
 use crate::engine::units::{Measure, UnitSystem};
 use crate::engine::Job;
@@ -122,7 +123,6 @@ pub fn PumpCheckArea() -> impl IntoView {
 #[component]
 fn TestEditor(t: usize) -> impl IntoView {
     let state = use_job();
-    let p = move |field: &str| format!("pump_tests[{t}].{field}");
     let readings = Memo::new(move |_| {
         state
             .job
@@ -145,29 +145,29 @@ fn TestEditor(t: usize) -> impl IntoView {
     view! {
         <h2>"The pump"</h2>
         <div class="field-grid">
-            <TextField label="Which pump" path=p("pump")
+            <TextField field=&fields::TESTED_PUMP at=[t]
                 get=move |j: &Job| test(j, t).map_or(String::new(), |x| x.pump.clone())
                 set=move |j: &mut Job, v| if let Some(x) = test_mut(j, t) { x.pump = v } />
-            <TextField label="Date (year-month-day)" path=p("date")
+            <TextField field=&fields::TEST_DATE at=[t]
                 get=move |j: &Job| test(j, t).map_or(String::new(), |x| x.date.clone())
                 set=move |j: &mut Job, v| if let Some(x) = test_mut(j, t) { x.date = v } />
-            <NumberField label="Displacement (nameplate)" path=p("displacement_m3_per_rev") measure=Measure::Displacement
+            <NumberField field=&fields::TEST_DISPLACEMENT at=[t]
                 get=move |j: &Job| test(j, t).map_or(f64::NAN, |x| x.displacement.value)
                 set=move |j: &mut Job, v| if let Some(x) = test_mut(j, t) { x.displacement.value = v } />
-            <NumberField label="Motor full-load speed (nameplate)" path=p("speed_rad_per_s") measure=Measure::ShaftSpeed
+            <NumberField field=&fields::TEST_SPEED at=[t]
                 get=move |j: &Job| test(j, t).map_or(f64::NAN, |x| x.speed.value)
                 set=move |j: &mut Job, v| if let Some(x) = test_mut(j, t) { x.speed.value = v } />
-            <OptionalNumberField label="Motor synchronous speed" path=p("synchronous_speed_rad_per_s") measure=Measure::ShaftSpeed
+            <OptionalNumberField field=&fields::TEST_SYNCHRONOUS_SPEED at=[t]
                 placeholder=Signal::derive(move || synchronous_hint(&state.job.read(), t))
                 get=move |j: &Job| test(j, t).and_then(|x| x.synchronous_speed).map(|s| s.value)
                 set=move |j: &mut Job, v| if let Some(x) = test_mut(j, t) { x.synchronous_speed = v.map(AngularVelocity::new::<uom::si::angular_velocity::radian_per_second>) } />
-            <NumberField label="Rated pressure" path=p("rated_pressure_pa") measure=Measure::Pressure
+            <NumberField field=&fields::TEST_RATED_PRESSURE at=[t]
                 get=move |j: &Job| test(j, t).map_or(f64::NAN, |x| x.rated_pressure.value)
                 set=move |j: &mut Job, v| if let Some(x) = test_mut(j, t) { x.rated_pressure.value = v } />
-            <NumberField label="Motor rated power" path=p("motor_rated_power_w") measure=Measure::Power
+            <NumberField field=&fields::TEST_MOTOR_POWER at=[t]
                 get=move |j: &Job| test(j, t).map_or(f64::NAN, |x| x.motor_rated_power.value)
                 set=move |j: &mut Job, v| if let Some(x) = test_mut(j, t) { x.motor_rated_power.value = v } />
-            <ChoiceField label="Motor efficiency from" path=p("motor_efficiency")
+            <ChoiceField field=&fields::MOTOR_EFFICIENCY_FROM at=[t]
                 options=vec![
                     ("entered", "Its nameplate".to_string()),
                     ("ie2", "IE2 table (IEC, 4-pole, 50 Hz)".to_string()),
@@ -178,12 +178,12 @@ fn TestEditor(t: usize) -> impl IntoView {
                 get=move |j: &Job| motor_source(j, t)
                 set=move |j: &mut Job, v: &str| set_motor_source(j, t, v) />
             {move || (motor_source(&state.job.read(), t) == "entered").then(|| view! {
-                <NumberField label="Motor efficiency" path=p("motor_efficiency.efficiency") measure=Measure::Percent
+                <NumberField field=&fields::TEST_MOTOR_EFFICIENCY at=[t]
                     get=move |j: &Job| match test(j, t).map(|x| x.motor_efficiency) { Some(MotorEfficiency::Entered { efficiency }) => efficiency, _ => f64::NAN }
                     set=move |j: &mut Job, v| if let Some(x) = test_mut(j, t) { x.motor_efficiency = MotorEfficiency::Entered { efficiency: v } } />
             })}
         </div>
-        <TextField label="Notes" path=p("notes")
+        <TextField field=&fields::TEST_NOTES at=[t]
             get=move |j: &Job| test(j, t).map_or(String::new(), |x| x.notes.clone())
             set=move |j: &mut Job, v| if let Some(x) = test_mut(j, t) { x.notes = v } />
         <h2>"Readings"</h2>
@@ -306,7 +306,6 @@ fn set_torque(j: &mut Job, t: usize, k: usize, v: Option<f64>) {
 #[component]
 fn ReadingEditor(t: usize, k: usize) -> impl IntoView {
     let state = use_job();
-    let p = move |field: &str| format!("pump_tests[{t}].readings[{k}].{field}");
     let kind = Memo::new(move |_| state.job.with(|j| electrical_kind(j, t, k)));
     let remove = move |_| {
         state.job.update(|j| {
@@ -317,9 +316,9 @@ fn ReadingEditor(t: usize, k: usize) -> impl IntoView {
             }
         })
     };
-    let figure = move |label: &'static str, field: &'static str, which: u8, measure: Measure| {
+    let figure = move |field: &'static FieldSpec, which: u8| {
         view! {
-            <NumberField label=label path=p(field) measure=measure
+            <NumberField field=field at=[t, k]
                 get=move |j: &Job| electrical_figure(j, t, k, which)
                 set=move |j: &mut Job, v| set_electrical_figure(j, t, k, which, v) />
         }
@@ -328,17 +327,17 @@ fn ReadingEditor(t: usize, k: usize) -> impl IntoView {
         <fieldset class="card reading" data-reading=k>
             <legend>{format!("Reading {}", k + 1)}</legend>
             <div class="field-grid">
-                <NumberField label="Test pressure" path=p("pressure_pa") measure=Measure::Pressure
+                <NumberField field=&fields::TEST_PRESSURE at=[t, k]
                     get=move |j: &Job| reading(j, t, k).map_or(f64::NAN, |r| r.pressure.value)
                     set=move |j: &mut Job, v| if let Some(r) = reading_mut(j, t, k) { r.pressure.value = v } />
-                <NumberField label="Flow" path=p("flow_m3_per_s") measure=Measure::Flow
+                <NumberField field=&fields::TEST_FLOW at=[t, k]
                     get=move |j: &Job| reading(j, t, k).map_or(f64::NAN, |r| r.flow.value)
                     set=move |j: &mut Job, v| if let Some(r) = reading_mut(j, t, k) { r.flow.value = v } />
-                <OptionalNumberField label="Shaft speed, if measured" path=p("speed_rad_per_s") measure=Measure::ShaftSpeed
+                <OptionalNumberField field=&fields::SHAFT_SPEED at=[t, k]
                     placeholder=Signal::derive(|| "estimated from the load".to_string())
                     get=move |j: &Job| speed_of(j, t, k)
                     set=move |j: &mut Job, v| set_speed(j, t, k, v) />
-                <ChoiceField label="Motor input" path=p("electrical")
+                <ChoiceField field=&fields::MOTOR_INPUT at=[t, k]
                     options=vec![
                         ("none", "Not read".to_string()),
                         ("power", "Power meter, kW".to_string()),
@@ -347,15 +346,15 @@ fn ReadingEditor(t: usize, k: usize) -> impl IntoView {
                     get=move |j: &Job| electrical_kind(j, t, k)
                     set=move |j: &mut Job, v: &str| set_electrical_kind(j, t, k, v) />
                 {move || match kind.get() {
-                    "power" => figure("Input power", "electrical.input_w", 0, Measure::Power).into_any(),
+                    "power" => figure(&fields::INPUT_POWER, 0).into_any(),
                     "three_phase" => view! {
-                        {figure("Line voltage", "electrical.line_voltage_v", 1, Measure::Voltage)}
-                        {figure("Line current", "electrical.line_current_a", 2, Measure::Current)}
-                        {figure("Power factor", "electrical.power_factor", 3, Measure::Factor)}
+                        {figure(&fields::LINE_VOLTAGE, 1)}
+                        {figure(&fields::LINE_CURRENT, 2)}
+                        {figure(&fields::POWER_FACTOR, 3)}
                     }.into_any(),
                     _ => ().into_any(),
                 }}
-                <OptionalNumberField label="Shaft torque, if measured" path=p("torque_n_m") measure=Measure::Torque
+                <OptionalNumberField field=&fields::SHAFT_TORQUE at=[t, k]
                     placeholder=Signal::derive(|| "not measured".to_string())
                     get=move |j: &Job| torque_of(j, t, k)
                     set=move |j: &mut Job, v| set_torque(j, t, k, v) />
@@ -618,9 +617,9 @@ fn WearLines() -> impl IntoView {
             <summary>"Where the verdict draws its lines"</summary>
             <p class="hint">"Judged on the volumetric efficiency the leakage line predicts at the rated pressure. Defaults: good from 90 %, worn below 80 % (typical for gear and vane pumps; the maker's figures come first)."</p>
             <div class="field-grid">
-                <NumberField label="Good from" path="wear.good_from" measure=Measure::Percent
+                <NumberField field=&fields::GOOD_FROM
                     get=|j: &Job| j.wear.good_from set=|j: &mut Job, v| j.wear.good_from = v />
-                <NumberField label="Worn below" path="wear.worn_below" measure=Measure::Percent
+                <NumberField field=&fields::WORN_BELOW
                     get=|j: &Job| j.wear.worn_below set=|j: &mut Job, v| j.wear.worn_below = v />
             </div>
         </details>

@@ -9,6 +9,7 @@
 use super::charts::EnergyChart;
 use super::field::{NumberField, OptionalNumberField, TextField, UnitSwitch};
 use super::state::use_job;
+use crate::engine::fields;
 use crate::engine::quote::{self, QuoteColumn};
 use crate::engine::units::{Measure, UnitSystem};
 use crate::engine::Job;
@@ -279,9 +280,9 @@ fn SiteCosts() -> impl IntoView {
                 let d = n + 1;
                 view! {
                     <OptionalNumberField
+                        field=&fields::OWN_RETROFIT_PRICE
+                        at=[d]
                         label=format!("Retrofit price for “{name}”, if its own")
-                        path=format!("designs[{d}].retrofit_price")
-                        measure=Measure::Money
                         placeholder=site_price
                         get=move |j: &Job| j.designs.get(d).and_then(|x| x.retrofit_price)
                         set=move |j: &mut Job, v| if let Some(x) = j.designs.get_mut(d) { x.retrofit_price = v }
@@ -294,16 +295,16 @@ fn SiteCosts() -> impl IntoView {
         <div class="card">
             <h2>"Site and costs"</h2>
             <div class="field-grid">
-                <NumberField label="Running hours" path="site.operating_hours_per_year" measure=Measure::HoursPerYear
+                <NumberField field=&fields::OPERATING_HOURS
                     get=|j: &Job| j.site.operating_hours_per_year set=|j: &mut Job, v| j.site.operating_hours_per_year = v />
-                <NumberField label="Electricity price" path="site.tariff_per_kwh" measure=Measure::Tariff
+                <NumberField field=&fields::TARIFF
                     get=|j: &Job| j.site.tariff_per_kwh set=|j: &mut Job, v| j.site.tariff_per_kwh = v />
-                <TextField label="Currency" path="site.currency"
+                <TextField field=&fields::CURRENCY
                     get=|j: &Job| j.site.currency.clone() set=|j: &mut Job, v| j.site.currency = v />
-                <NumberField label="Retrofit price, installed" path="site.retrofit_price" measure=Measure::Money
+                <NumberField field=&fields::RETROFIT_PRICE
                     get=|j: &Job| j.site.retrofit_price set=|j: &mut Job, v| j.site.retrofit_price = v />
-                <OptionalNumberField label="Grid CO₂ factor (your utility's)" path="site.grid_kg_co2_per_kwh"
-                    measure=Measure::GridFactor placeholder="none: no CO₂ figures".to_string()
+                <OptionalNumberField field=&fields::GRID_FACTOR
+                    placeholder="none: no CO₂ figures".to_string()
                     get=|j: &Job| j.site.grid_factor set=|j: &mut Job, v| j.site.grid_factor = v />
                 {own_prices}
             </div>
@@ -328,11 +329,11 @@ fn OilFields() -> impl IntoView {
         <div class="card">
             <h2>"The oil"</h2>
             <div class="field-grid">
-                <NumberField label="Oil in circulation" path="oil.volume_m3" measure=Measure::OilVolume
+                <NumberField field=&fields::OIL_VOLUME
                     get=|j: &Job| j.oil.volume.value set=|j: &mut Job, v| j.oil.volume.value = v />
-                <NumberField label="Density" path="oil.density_kg_per_m3" measure=Measure::Density
+                <NumberField field=&fields::OIL_DENSITY
                     get=|j: &Job| j.oil.density.value set=|j: &mut Job, v| j.oil.density.value = v />
-                <NumberField label="Specific heat" path="oil.specific_heat_j_per_kg_k" measure=Measure::SpecificHeat
+                <NumberField field=&fields::OIL_SPECIFIC_HEAT
                     get=|j: &Job| j.oil.specific_heat.value set=|j: &mut Job, v| j.oil.specific_heat.value = v />
             </div>
             <p class="hint">{mineral_hint}</p>

@@ -61,10 +61,18 @@ pub fn place_of(field: &str, job: &Job) -> String {
     }
 }
 
-/// A field's name in words, from its path: `cycle[1].load.force_n` is "force",
+/// A field's name in words, from its path: its declared label in lower case, or its declared
+/// words where the label alone would not say which ("relief setting" for the relief's
+/// "Setting"). `job` tells which kind a phase is (a hold's `pressure_pa` is "pressure to
+/// hold").
+pub fn field_words(field: &str, job: &Job) -> String {
+    crate::engine::fields::spec_of(field, job).map_or_else(|| words_from_path(field), |s| s.words())
+}
+
+/// A path's words without a declaration: `cycle[1].load.force_n` is "force",
 /// `designs[0].relief.setting_pa` is "relief setting". The unit suffix of the job file's key
 /// goes; the part it belongs to stays where it says which (relief, motor, unloading, check).
-pub fn field_words(field: &str) -> String {
+fn words_from_path(field: &str) -> String {
     const SUFFIXES: [&str; 13] = [
         "_m3_per_rev",
         "_m3_per_s",
@@ -213,7 +221,7 @@ pub fn StaleNotice() -> impl IntoView {
                             let field = e.field.clone();
                             view! {
                                 <li>
-                                    {format!("{}, {}: {} ", place_of(&e.field, &job), field_words(&e.field), e.message)}
+                                    {format!("{}, {}: {} ", place_of(&e.field, &job), field_words(&e.field, &job), e.message)}
                                     <a href=area_of(&e.field).href() data-go-to=e.field.clone()
                                         on:click=move |ev| { ev.prevent_default(); go_to_field(state, field.clone()); }>
                                         "Go to it"
@@ -447,26 +455,33 @@ pub(super) fn percent(v: Option<f64>) -> String {
 #[cfg(test)]
 mod tests {
     use super::{area_of, field_words};
+    use crate::engine::{demo, fields};
     use crate::ui::area::Area;
 
     #[test]
     fn a_field_is_named_in_words_and_found_in_its_area() {
-        assert_eq!(field_words("cycle[1].load.force_n"), "force");
-        assert_eq!(field_words("cycle[0].cylinder.bore_m"), "bore");
+        // The example: phases 1 and 2 are a move and a hold.
+        let job = demo::scrap_baler();
+        let words = |path: &str| field_words(path, &job);
+        assert_eq!(words("cycle[1].load.force_n"), "load force");
+        assert_eq!(words("cycle[0].cylinder.bore_m"), "bore");
+        assert_eq!(words("cycle[2].pressure_pa"), "pressure to hold");
+        assert_eq!(words("designs[0].relief.setting_pa"), "relief setting");
         assert_eq!(
-            field_words("designs[0].relief.setting_pa"),
-            "relief setting"
-        );
-        assert_eq!(
-            field_words("designs[1].unloading_stages[0].unloading.setting_pa"),
+            words("designs[1].unloading_stages[0].unloading.setting_pa"),
             "unloading setting"
         );
-        assert_eq!(
-            field_words("designs[0].motor.rated_power_w"),
-            "motor rated power"
-        );
-        assert_eq!(field_words("site.tariff_per_kwh"), "tariff");
-        assert_eq!(field_words("name"), "name");
+        assert_eq!(words("designs[0].motor.rated_power_w"), "motor rated power");
+        assert_eq!(words("site.tariff_per_kwh"), "electricity price");
+        assert_eq!(words("site.grid_kg_co2_per_kwh"), "grid CO₂ factor");
+        assert_eq!(words("name"), "job name");
+        // Its declared label, in lower case, where that says which it is.
+        for field in [&fields::BORE, &fields::VENT_PRESSURE, &fields::OIL_VOLUME] {
+            let path = field.at(&[0]);
+            assert_eq!(words(&path), field.label.to_lowercase(), "{path}");
+        }
+        // A path with no declaration is read from its key.
+        assert_eq!(words("designs[0].relief.reseat_pa"), "relief reseat");
         assert_eq!(area_of("cycle[3].duration_s"), Area::Cycle);
         assert_eq!(
             area_of("designs[0].base_pump.drag_power_w"),

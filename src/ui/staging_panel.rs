@@ -6,6 +6,7 @@
 use super::field::{NumberField, OptionalNumberField};
 use super::state::use_job;
 use crate::engine::cycle::PhaseKind;
+use crate::engine::fields::{self, FieldSpec};
 use crate::engine::motor::EfficiencyClass;
 use crate::engine::staging::{self, Candidate, MotorSteps, Search, SearchResult};
 use crate::engine::units::{format_list, parse_list, Measure, UnitSystem};
@@ -256,25 +257,25 @@ fn StagingOptionsEditor() -> impl IntoView {
     view! {
         <details class="staging-options">
             <summary>"What to choose from"</summary>
-            <ListField label="Pump sizes" path="staging.displacements_m3_per_rev" measure=Measure::Displacement
+            <ListField field=&fields::PUMP_SIZES
                 get=sizes set=set_sizes />
             <p class="hint">"Default: the R10 preferred numbers from 2.5 to 160 cm³/rev, as pumps are typically sized."</p>
-            <ListField label="Motor speeds" path="staging.speeds_rad_per_s" measure=Measure::ShaftSpeed
+            <ListField field=&fields::MOTOR_SPEEDS
                 get=speeds set=set_speeds />
             <p class="hint">"Default: 4- and 6-pole motors at 50 and 60 Hz, typical full-load speeds."</p>
-            <super::field::ChoiceField label="Most pumps on the shaft" path="staging.max_pumps"
+            <super::field::ChoiceField field=&fields::MOST_PUMPS
                 options=vec![("1", "One".to_string()), ("2", "Two".to_string()), ("3", "Three".to_string())]
                 get=|j: &Job| match j.staging.max_pumps { 1 => "1", 2 => "2", _ => "3" }
                 set=|j: &mut Job, v: &str| j.staging.max_pumps = v.parse().unwrap_or(3) />
-            <super::field::ChoiceField label="Also try a pressure-compensated pump" path="staging.compensated"
+            <super::field::ChoiceField field=&fields::TRY_COMPENSATED
                 options=vec![("yes", "Yes".to_string()), ("no", "No".to_string())]
                 get=|j: &Job| if j.staging.compensated { "yes" } else { "no" }
                 set=|j: &mut Job, v: &str| j.staging.compensated = v == "yes" />
-            <super::field::ChoiceField label="Standard motor ratings" path="staging.motor_steps"
+            <super::field::ChoiceField field=&fields::MOTOR_STEPS
                 options=vec![("iec", "IEC, kW".to_string()), ("nema", "NEMA, hp".to_string())]
                 get=|j: &Job| match j.staging.motor_steps { MotorSteps::IecKw => "iec", MotorSteps::NemaHp => "nema" }
                 set=|j: &mut Job, v: &str| j.staging.motor_steps = if v == "nema" { MotorSteps::NemaHp } else { MotorSteps::IecKw } />
-            <super::field::ChoiceField label="New motor's efficiency class" path="staging.efficiency_class"
+            <super::field::ChoiceField field=&fields::EFFICIENCY_CLASS
                 options=vec![
                     ("usual", "As the sizes: IE3 for kW, NEMA Premium for hp".to_string()),
                     ("ie2", "IE2".to_string()),
@@ -297,9 +298,9 @@ fn StagingOptionsEditor() -> impl IntoView {
                     _ => None,
                 } />
             <p class="hint">"Each candidate's motor is taken at its class's nominal efficiency for its own size (IEC 60034-30-1, 5.5 to 37 kW; NEMA MG 1, 10 to 50 hp); a size outside those takes the figure at the nearer end."</p>
-            <NumberField label="Service factor" path="staging.service_factor" measure=Measure::Factor
+            <NumberField field=&fields::STAGING_SERVICE_FACTOR
                 get=|j: &Job| j.staging.service_factor set=|j: &mut Job, v| j.staging.service_factor = v />
-            <NumberField label="Peak allowance (short peaks, times the rating)" path="staging.peak_allowance" measure=Measure::Factor
+            <NumberField field=&fields::STAGING_PEAK_ALLOWANCE
                 get=|j: &Job| j.staging.peak_allowance set=|j: &mut Job, v| j.staging.peak_allowance = v />
         </details>
         <LongestTimes />
@@ -342,12 +343,12 @@ fn LongestTimes() -> impl IntoView {
             <p class="hint">"A candidate must make each move in no more than its time here, and the whole cycle in no more than the cycle time. Leave a move empty to keep it as fast as it is now."</p>
             <div class="field-grid">
                 {move || moves.get().into_iter().map(|(i, name)| view! {
-                    <OptionalNumberField label=format!("{}. {name}", i + 1) path=format!("cycle[{i}].target_time_s")
-                        measure=Measure::Duration placeholder=Signal::derive(move || as_found(Some(i)))
+                    <OptionalNumberField field=&fields::TARGET_TIME at=[i] label=format!("{}. {name}", i + 1)
+                        placeholder=Signal::derive(move || as_found(Some(i)))
                         get=move |j: &Job| move_target(j, i)
                         set=move |j: &mut Job, v| set_move_target(j, i, v) />
                 }).collect_view()}
-                <OptionalNumberField label="Whole cycle" path="staging.cycle_time_target_s" measure=Measure::Duration
+                <OptionalNumberField field=&fields::CYCLE_TIME_TARGET
                     placeholder=Signal::derive(move || as_found(None).replace("as found", "free; as found"))
                     get=cycle_target set=set_cycle_target />
             </div>
@@ -384,12 +385,13 @@ fn set_move_target(j: &mut Job, i: usize, v: Option<f64>) {
 /// keeps its last good list.
 #[component]
 fn ListField(
-    #[prop(into)] label: String,
-    #[prop(into)] path: String,
-    measure: Measure,
+    /// The list's figures as the engine declares them; the field names the whole list.
+    field: &'static FieldSpec,
     get: impl Fn(&Job) -> Vec<f64> + Send + Sync + 'static,
     set: impl Fn(&mut Job, Vec<f64>) + Send + Sync + 'static,
 ) -> impl IntoView {
+    let (label, path) = (field.label, field.at(&[]));
+    let measure = field.measure.unwrap_or(Measure::Factor);
     let state = use_job();
     let units = state.job.with_untracked(|j| j.units);
     let text = RwSignal::new(

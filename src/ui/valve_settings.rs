@@ -5,6 +5,7 @@
 use super::field::NumberField;
 use super::shared::{DesignTabs, SettingsCaution};
 use super::state::use_job;
+use crate::engine::fields;
 use crate::engine::settings::{self, Severity};
 use crate::engine::units::Measure;
 use crate::engine::Job;
@@ -166,15 +167,15 @@ fn Margins() -> impl IntoView {
         <details class="card margins">
             <summary>"Margins the advice uses"</summary>
             <p class="hint">"Defaults are common practice, not a standard: use the component makers' figures and your site's rules where they differ."</p>
-            <NumberField label="Margin above the need, share" path="advice.margin_fraction" measure=Measure::Percent
+            <NumberField field=&fields::MARGIN_SHARE
                 get=|j: &Job| j.advice.margin_fraction set=|j: &mut Job, v| j.advice.margin_fraction = v />
-            <NumberField label="Margin above the need, at least" path="advice.margin_min_pa" measure=Measure::Pressure
+            <NumberField field=&fields::MARGIN_MIN
                 get=|j: &Job| j.advice.margin_min.value set=|j: &mut Job, v| j.advice.margin_min.value = v />
-            <NumberField label="Drop a flow control needs" path="advice.flow_control_drop_pa" measure=Measure::Pressure
+            <NumberField field=&fields::FLOW_CONTROL_DROP
                 get=|j: &Job| j.advice.flow_control_drop.value set=|j: &mut Job, v| j.advice.flow_control_drop.value = v />
-            <NumberField label="Relief above a compensator, at least" path="advice.compensator_margin_min_pa" measure=Measure::Pressure
+            <NumberField field=&fields::COMPENSATOR_MARGIN_MIN
                 get=|j: &Job| j.advice.compensator_margin_min.value set=|j: &mut Job, v| j.advice.compensator_margin_min.value = v />
-            <NumberField label="Smallest saving worth advising" path="advice.least_saving_w" measure=Measure::Power
+            <NumberField field=&fields::LEAST_SAVING
                 get=|j: &Job| j.advice.least_saving_w set=|j: &mut Job, v| j.advice.least_saving_w = v />
         </details>
     }

@@ -79,7 +79,9 @@ async fn the_demo_results_are_the_engines() {
     b.screenshot_of(".chart", "ledger-chart").await;
     // The proposal, with its comparison against the baseline.
     b.click("button[data-design='1']").await;
-    let saved = report.comparisons[0].annual_energy_saved.get::<kilowatt_hour>();
+    let saved = report.comparisons[0]
+        .annual_energy_saved
+        .get::<kilowatt_hour>();
     b.wait_for_text("[data-total='saved-energy']", |t| {
         t == format!("{saved:.0} kWh")
     })

@@ -335,3 +335,155 @@ fn a_corrupt_or_newer_file_is_refused_with_a_reason() {
         Err(JobFileError::Unreadable(_))
     ));
 }
+
+/// A job with every kind of field filled in: the checks fixture with a direct phase, a move
+/// given a load pressure and a metered flow and a longest time, open-centre idles, remote
+/// stages, compensated stage pumps, a pump's speed, prices, a grid factor, a cycle time and a
+/// reading with volts, amps, a shaft speed and a torque.
+fn every_field_job() -> serde_json::Value {
+    use serde_json::json;
+    let dir = std::path::Path::new(env!("CARGO_MANIFEST_DIR")).join("tests/fixtures");
+    let text = std::fs::read_to_string(dir.join("trim-press-checks.job.json")).unwrap();
+    // Read and written again, so the advice margins and wear lines left out are there.
+    let text = Job::from_json(&text).unwrap().to_json();
+    let mut j: serde_json::Value = serde_json::from_str(&text).unwrap();
+    let cycle = j["cycle"].as_array_mut().unwrap();
+    let mut clamp = cycle[1].clone();
+    clamp["load"] = json!({"type": "pressure", "pressure_pa": 3e6});
+    clamp["speed"] = json!({"rule": "metered_flow", "flow_m3_per_s": 3e-4});
+    clamp["target_time_s"] = json!(4.0);
+    cycle.push(json!({"name": "tool", "kind": "direct", "flow_m3_per_s": 2e-4, "pressure_pa": 5e6, "duration_s": 3.0}));
+    cycle.push(clamp);
+    let idle = cycle.iter().position(|p| p["kind"] == "idle").unwrap();
+    for d in j["designs"].as_array_mut().unwrap() {
+        let settings = d["phase_settings"].as_array_mut().unwrap();
+        settings.push(settings[0].clone());
+        settings.push(settings[0].clone());
+        settings[idle]["idle_path"] = json!({"path": "open_centre", "drop_pa": 5e5});
+        d["base_pump"]["efficiency_speed_rad_per_s"] = json!(150.0);
+        d["retrofit_price"] = json!(1000.0);
+        d["remote_stages_pa"] = json!([8e6]);
+        for s in d["unloading_stages"].as_array_mut().unwrap() {
+            s["pump"]["control"] = json!({"type": "compensated", "setting_pa": 1.5e7});
+        }
+    }
+    j["site"]["grid_kg_co2_per_kwh"] = json!(0.4);
+    j["staging"] = json!({"displacements_m3_per_rev": [1e-5, 2e-5], "speeds_rad_per_s": [150.0],
+        "max_pumps": 2, "compensated": true, "motor_steps": "iec_kw", "service_factor": 1.15,
+        "peak_allowance": 1.25, "cycle_time_target_s": 30.0});
+    j["pump_tests"][0]["synchronous_speed_rad_per_s"] = json!(157.0);
+    j["pump_tests"][1]["motor_efficiency"] = json!({"from": "entered", "efficiency": 0.9});
+    j["pump_tests"][0]["readings"].as_array_mut().unwrap().push(json!({
+        "pressure_pa": 1.2e7, "flow_m3_per_s": 9e-4, "speed_rad_per_s": 150.0, "torque_n_m": 50.0,
+        "electrical": {"as": "three_phase", "line_voltage_v": 400.0, "line_current_a": 20.0, "power_factor": 0.85}}));
+    j
+}
+
+/// Every number made -1 (a count or a stage index made 0 or past the end), every name blank
+/// and every date unreadable.
+fn spoil(value: &mut serde_json::Value, key: &str) {
+    use serde_json::Value;
+    match value {
+        Value::Number(_) => {
+            *value = match key {
+                "schema_version" | "max_pumps" => 0.into(),
+                "stage" => 9.into(),
+                _ => (-1.0).into(),
+            }
+        }
+        Value::String(s) if key == "name" || key == "pump" => s.clear(),
+        Value::String(s) if key == "date" => *s = "yesterday".into(),
+        Value::Object(fields) => fields.iter_mut().for_each(|(k, v)| spoil(v, k)),
+        Value::Array(items) => items.iter_mut().for_each(|v| spoil(v, key)),
+        _ => {}
+    }
+}
+
+/// Every path validation can name is a declared field, found again from the path; and every
+/// field declared with a check is checked.
+#[test]
+fn every_field_validation_names_is_declared_and_every_declared_check_is_made() {
+    use phasewise_engine::fields::{self, Check};
+    use phasewise_engine::validate::{validate, validate_pump_test};
+    let mut spoiled = every_field_job();
+    spoil(&mut spoiled, "");
+    let spoiled = Job::from_json(&spoiled.to_string()).unwrap();
+    let good = Job::from_json(&every_field_job().to_string()).unwrap();
+    assert!(solve(&good).is_ok(), "{:?}", solve(&good).err());
+    let mut jobs = vec![spoiled];
+    // The problems between fields, each in its own job.
+    let edits: &[fn(&mut Job)] = &[
+        |j| j.cycle.clear(),
+        |j| j.designs.clear(),
+        |j| j.pump_tests[0].readings.clear(),
+        |j| j.wear.worn_below = 0.95,
+        |j| {
+            j.designs[0].phase_settings.pop();
+        },
+        |j| {
+            let s = j.designs[0].unloading_stages[0];
+            j.designs[0].unloading_stages = vec![s; 4];
+        },
+        |j| {
+            j.designs[0].relief.kind = ReliefKind::DirectActing;
+            j.designs[0].phase_settings[0].limit = ActiveLimit::Vented;
+            j.designs[0].phase_settings[0].idle_path = IdlePath::Vented;
+        },
+        |j| {
+            let d = &mut j.designs[0];
+            for p in d.unloading_stages.iter_mut().map(|s| &mut s.pump) {
+                p.efficiency_pressure = bar_(1.0);
+            }
+            d.base_pump.efficiency_pressure = bar_(1.0);
+        },
+        |j| cylinder(j).rod = cylinder(j).bore,
+        |j| {
+            let s = &mut j.designs[0].unloading_stages[0].unloading;
+            s.unloaded_drop = s.setting;
+        },
+        |j| j.pump_tests[0].synchronous_speed = Some(j.pump_tests[0].speed),
+    ];
+    for edit in edits {
+        let mut j = good.clone();
+        edit(&mut j);
+        jobs.push(j);
+    }
+    let mut named = Vec::new();
+    for (n, job) in jobs.iter().enumerate() {
+        let mut errors = validate(job).err().unwrap_or_default();
+        for (i, test) in job.pump_tests.iter().enumerate() {
+            errors.extend(validate_pump_test(test, i, job.units));
+        }
+        assert!(!errors.is_empty(), "job {n} has no error");
+        for e in errors {
+            let spec = fields::spec_of(&e.field, job);
+            let spec = spec.unwrap_or_else(|| panic!("no field declared for {}", e.field));
+            let indices: Vec<usize> = (e.field.split('[').skip(1))
+                .map(|s| s.split(']').next().unwrap().parse().unwrap())
+                .collect();
+            assert_eq!(
+                spec.at(&indices),
+                e.field,
+                "built again from its declaration"
+            );
+            named.push(spec);
+        }
+    }
+    let unchecked: Vec<&str> = fields::ALL
+        .iter()
+        .filter(|s| s.check != Check::Free && !named.contains(s))
+        .map(|s| s.key)
+        .collect();
+    assert!(
+        unchecked.is_empty(),
+        "declared with a check but never reported: {unchecked:?}"
+    );
+    for spec in [
+        &fields::PHASES,
+        &fields::LIMIT,
+        &fields::IDLE_PATH,
+        &fields::READINGS,
+    ] {
+        assert!(named.contains(&spec), "{}", spec.key);
+    }
+}
