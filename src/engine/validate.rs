@@ -18,6 +18,10 @@ use std::ops::RangeBounds;
 pub struct InputError {
     /// The field's path in the job file, e.g. `cycle[2].cylinder.rod_m`.
     pub field: String,
+    /// The field in a sentence, from its declaration ("relief setting"). Not written out: an
+    /// error's file form is its path and message.
+    #[serde(skip)]
+    pub words: String,
     /// What is wrong, for the person who typed it.
     pub message: String,
 }
@@ -49,6 +53,7 @@ impl Checker {
     fn fail(&mut self, field: &FieldSpec, message: impl Into<String>) {
         self.errors.push(InputError {
             field: field.at(&self.at),
+            words: field.words(),
             message: message.into(),
         });
     }
@@ -68,11 +73,11 @@ impl Checker {
                 amount_problem(value, zero_ok, max, |v| figure(field.measure, units, v))
             }
             Check::Fraction { zero_ok } => fraction_problem(value, zero_ok),
-            Check::Between {
+            Check::Between(&Bounds {
                 low,
                 high,
                 otherwise,
-            } => (!(value.is_finite() && (low, high).contains(&value)))
+            }) => (!(value.is_finite() && (low, high).contains(&value)))
                 .then(|| otherwise.to_string()),
             Check::Required { .. } | Check::Date { .. } | Check::Free => None,
         };

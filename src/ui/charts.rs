@@ -33,6 +33,9 @@ fn ledger_values(l: &PowerLedger) -> [f64; 7] {
 /// so a long phase name is never cut to fit a column beside it.
 const BAR_LEFT: f64 = 12.0;
 
+/// A ledger item's name, its style class and its figure in words.
+type SegmentWords = (&'static str, &'static str, String);
+
 /// One bar per row, split into the ledger's items, on an axis from zero to about `max`. Each
 /// segment's figure can be read three ways: hovering (its title), tapping or focusing it (the
 /// read-out line under the chart), and the table of figures that opens below.
@@ -53,7 +56,7 @@ fn stacked_bars(
     let x = move |v: f64| BAR_LEFT + plot * v / axis_max;
     let picked = RwSignal::new(None::<String>);
     // Each row's segments in words, for the read-out and the table.
-    let words: Vec<(String, Vec<(&'static str, &'static str, String)>, String)> = rows
+    let words: Vec<(String, Vec<SegmentWords>, String)> = rows
         .iter()
         .map(|(name, values)| {
             let parts = values

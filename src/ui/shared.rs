@@ -61,54 +61,6 @@ pub fn place_of(field: &str, job: &Job) -> String {
     }
 }
 
-/// A field's name in words, from its path: its declared label in lower case, or its declared
-/// words where the label alone would not say which ("relief setting" for the relief's
-/// "Setting"). `job` tells which kind a phase is (a hold's `pressure_pa` is "pressure to
-/// hold").
-pub fn field_words(field: &str, job: &Job) -> String {
-    crate::engine::fields::spec_of(field, job).map_or_else(|| words_from_path(field), |s| s.words())
-}
-
-/// A path's words without a declaration: `cycle[1].load.force_n` is "force",
-/// `designs[0].relief.setting_pa` is "relief setting". The unit suffix of the job file's key
-/// goes; the part it belongs to stays where it says which (relief, motor, unloading, check).
-fn words_from_path(field: &str) -> String {
-    const SUFFIXES: [&str; 13] = [
-        "_m3_per_rev",
-        "_m3_per_s",
-        "_rad_per_s",
-        "_m_per_s",
-        "_kg_per_m3",
-        "_j_per_kg_k",
-        "_per_kwh",
-        "_m3",
-        "_pa",
-        "_m",
-        "_n",
-        "_s",
-        "_w",
-    ];
-    let mut parts = field.split('.').map(|p| p.split('[').next().unwrap_or(p));
-    let last = parts.next_back().unwrap_or(field);
-    let key = SUFFIXES
-        .iter()
-        .find_map(|s| last.strip_suffix(s))
-        .unwrap_or(last);
-    let owner = parts.next_back().filter(|p| {
-        matches!(
-            *p,
-            "relief" | "motor" | "unloading" | "check" | "load" | "speed"
-        )
-    });
-    let words = key.replace('_', " ");
-    match owner {
-        Some(owner) if !words.starts_with(owner) && owner != "load" && owner != "speed" => {
-            format!("{owner} {words}")
-        }
-        _ => words,
-    }
-}
-
 /// The area that holds a field, by its path.
 pub fn area_of(field: &str) -> super::area::Area {
     use super::area::Area;
@@ -221,7 +173,7 @@ pub fn StaleNotice() -> impl IntoView {
                             let field = e.field.clone();
                             view! {
                                 <li>
-                                    {format!("{}, {}: {} ", place_of(&e.field, &job), field_words(&e.field, &job), e.message)}
+                                    {format!("{}, {}: {} ", place_of(&e.field, &job), e.words, e.message)}
                                     <a href=area_of(&e.field).href() data-go-to=e.field.clone()
                                         on:click=move |ev| { ev.prevent_default(); go_to_field(state, field.clone()); }>
                                         "Go to it"
@@ -454,34 +406,11 @@ pub(super) fn percent(v: Option<f64>) -> String {
 
 #[cfg(test)]
 mod tests {
-    use super::{area_of, field_words};
-    use crate::engine::{demo, fields};
+    use super::area_of;
     use crate::ui::area::Area;
 
     #[test]
-    fn a_field_is_named_in_words_and_found_in_its_area() {
-        // The example: phases 1 and 2 are a move and a hold.
-        let job = demo::scrap_baler();
-        let words = |path: &str| field_words(path, &job);
-        assert_eq!(words("cycle[1].load.force_n"), "load force");
-        assert_eq!(words("cycle[0].cylinder.bore_m"), "bore");
-        assert_eq!(words("cycle[2].pressure_pa"), "pressure to hold");
-        assert_eq!(words("designs[0].relief.setting_pa"), "relief setting");
-        assert_eq!(
-            words("designs[1].unloading_stages[0].unloading.setting_pa"),
-            "unloading setting"
-        );
-        assert_eq!(words("designs[0].motor.rated_power_w"), "motor rated power");
-        assert_eq!(words("site.tariff_per_kwh"), "electricity price");
-        assert_eq!(words("site.grid_kg_co2_per_kwh"), "grid CO₂ factor");
-        assert_eq!(words("name"), "job name");
-        // Its declared label, in lower case, where that says which it is.
-        for field in [&fields::BORE, &fields::VENT_PRESSURE, &fields::OIL_VOLUME] {
-            let path = field.at(&[0]);
-            assert_eq!(words(&path), field.label.to_lowercase(), "{path}");
-        }
-        // A path with no declaration is read from its key.
-        assert_eq!(words("designs[0].relief.reseat_pa"), "relief reseat");
+    fn a_field_is_found_in_its_area() {
         assert_eq!(area_of("cycle[3].duration_s"), Area::Cycle);
         assert_eq!(
             area_of("designs[0].base_pump.drag_power_w"),

@@ -15,7 +15,8 @@ pub fn advise(job: &Job, index: usize) -> Result<Vec<Advice>, Vec<InputError>> {
     crate::validate::validate(job)?;
     let Some(design) = job.designs.get(index) else {
         return Err(vec![InputError {
-            field: "designs".into(),
+            field: crate::fields::DESIGNS.at(&[]),
+            words: crate::fields::DESIGNS.words(),
             message: format!(
                 "there is no power unit {} (the job has {})",
                 index + 1,

@@ -384,7 +384,10 @@ async fn the_out_of_date_notice_names_the_field_and_goes_to_it() {
     let notice = b
         .wait_for_text("[data-stale]", |t| t.contains("Go to it"))
         .await;
-    assert!(notice.contains("Phase 2 (Compress), load force: "), "{notice}");
+    assert!(
+        notice.contains("Phase 2 (Compress), load force: "),
+        "{notice}"
+    );
     b.click("[data-go-to='cycle[1].load.force_n']").await;
     b.wait_for("main[data-area='cycle']").await;
     let mut focused = serde_json::Value::Null;

@@ -52,6 +52,18 @@ fn errors_after(edit: impl FnOnce(&mut Job)) -> Vec<(String, String)> {
     }
 }
 
+/// The errors of a job after `edit`, as (field, words) pairs.
+fn words_after(edit: impl FnOnce(&mut Job)) -> Vec<(String, String)> {
+    let mut j = good_job();
+    edit(&mut j);
+    solve(&j)
+        .err()
+        .unwrap_or_default()
+        .into_iter()
+        .map(|e| (e.field, e.words))
+        .collect()
+}
+
 fn cylinder(j: &mut Job) -> &mut phasewise_engine::cycle::Cylinder {
     match &mut j.cycle[0].kind {
         PhaseKind::Move(m) => &mut m.cylinder,
@@ -466,6 +478,7 @@ fn every_field_validation_names_is_declared_and_every_declared_check_is_made() {
                 e.field,
                 "built again from its declaration"
             );
+            assert_eq!(e.words, spec.words(), "named in words as declared");
             named.push(spec);
         }
     }
@@ -485,5 +498,48 @@ fn every_field_validation_names_is_declared_and_every_declared_check_is_made() {
         &fields::READINGS,
     ] {
         assert!(named.contains(&spec), "{}", spec.key);
+    }
+}
+
+/// An error names its field in a sentence as the form would: its label in lower case, or the
+/// words declared where the label alone does not say which ("relief setting" for the relief's
+/// "Setting"); a phase's key is read by the phase's kind (a hold's pressure is the pressure to
+/// hold).
+#[test]
+fn an_error_names_its_field_in_words() {
+    type Edit = fn(&mut Job);
+    let cases: [(&str, Edit); 6] = [
+        ("cycle[0].cylinder.bore_m", |j| {
+            cylinder(j).bore.value = -1.0
+        }),
+        ("cycle[1].pressure_pa", |j| match &mut j.cycle[1].kind {
+            PhaseKind::Hold(h) => h.pressure.value = f64::NAN,
+            _ => unreachable!(),
+        }),
+        ("designs[0].relief.setting_pa", |j| {
+            j.designs[0].relief.setting.value = 0.0
+        }),
+        ("designs[0].unloading_stages[0].unloading.setting_pa", |j| {
+            j.designs[0].unloading_stages[0].unloading.setting.value = f64::NAN
+        }),
+        ("designs[0].motor.rated_power_w", |j| {
+            j.designs[0].motor.rated_power.value = -5.0
+        }),
+        ("name", |j| j.name = " ".into()),
+    ];
+    let expected = [
+        "bore",
+        "pressure to hold",
+        "relief setting",
+        "unloading setting",
+        "motor rated power",
+        "job name",
+    ];
+    for ((field, edit), words) in cases.into_iter().zip(expected) {
+        assert_eq!(
+            words_after(edit),
+            vec![(field.to_string(), words.to_string())],
+            "{field}"
+        );
     }
 }
