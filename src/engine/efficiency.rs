@@ -59,6 +59,7 @@
 //! with its reason ([`NotCopied`]). It is a deliberate user action, so it may change "as
 //! found" (a measured pump is usually the as-found one).
 
+use super::fields::{self, FieldSpec};
 use super::motor::{Motor, TYPICAL_FIXED_LOSS_SHARE, TYPICAL_PEAK_ALLOWANCE};
 use super::power_unit::Design;
 use super::units::{
@@ -298,7 +299,7 @@ pub fn assess(
                 Ok(e) => Some(e),
                 Err(range) => {
                     problems.push(Problem {
-                    field: "motor_efficiency".into(),
+                    field: fields::MOTOR_EFFICIENCY_FROM.within_item(&[]),
                     message: format!(
                         "The class's table here covers {} to {}: enter the nameplate efficiency for a {} motor.",
                         units.power(range.lowest),
@@ -315,7 +316,7 @@ pub fn assess(
     let mut reports = Vec::new();
     let mut fit_points = Vec::new();
     for (k, r) in test.readings.iter().enumerate() {
-        let at = |field: &str| format!("readings[{k}].{field}");
+        let at = |field: &FieldSpec| field.within_item(&[k]);
         let p = r.pressure.value;
         let q = r.flow.value;
         let mut report = ReadingReport {
@@ -331,7 +332,7 @@ pub fn assess(
             let shaft = motor.map_or(w, |m| shaft_for_input(&m, w));
             if shaft > rated_motor * MOST_LOAD_BELIEVED {
                 problems.push(Problem {
-                    field: at("electrical"),
+                    field: at(&fields::MOTOR_INPUT),
                     message: format!(
                         "This input would load the {} motor to {:.0} % of its rating: check the clamp meter's range, that it is on one line conductor, and the voltage.",
                         units.power(watts(rated_motor)),
@@ -343,7 +344,7 @@ pub fn assess(
                 match motor {
                     Some(_) if shaft > 0.0 => shaft_from_input = Some(shaft),
                     Some(m) => problems.push(Problem {
-                        field: at("electrical"),
+                        field: at(&fields::MOTOR_INPUT),
                         message: format!(
                             "This input is no more than the {} motor draws running with no load (about {}): check the meter, the motor's rating and its efficiency.",
                             units.power(watts(rated_motor)),
@@ -385,7 +386,7 @@ pub fn assess(
             cubic_metres_per_second(q + per_radian * (full_load_speed - speed));
         if q > swept * (1.0 + 1e-9) {
             problems.push(Problem {
-                field: at("flow_m3_per_s"),
+                field: at(&fields::TEST_FLOW),
                 message: format!(
                     "{} is more than the pump sweeps at {} ({}): check the meter range or the displacement and speed.",
                     units.flow(cubic_metres_per_second(q)),
@@ -404,7 +405,7 @@ pub fn assess(
         if let (Some(shaft), Some(input)) = (from_torque, input) {
             if shaft > input * (1.0 + 1e-9) {
                 problems.push(Problem {
-                    field: at("torque_n_m"),
+                    field: at(&fields::SHAFT_TORQUE),
                     message: "The shaft power from this torque is more than the motor drew: check the torque reading or the electrical one.".into(),
                 });
                 report.shaft = None;
@@ -416,7 +417,7 @@ pub fn assess(
             let overall = report.hydraulic.value / shaft;
             if overall > 1.0 + 1e-9 {
                 problems.push(Problem {
-                    field: at(if report.shaft_from_torque { "torque_n_m" } else { "electrical" }),
+                    field: at(if report.shaft_from_torque { &fields::SHAFT_TORQUE } else { &fields::MOTOR_INPUT }),
                     message: format!(
                         "These figures put the pump's overall efficiency at {:.0} %, above 100 %: check the meters, the motor efficiency, or the displacement.",
                         overall * 100.0
@@ -430,7 +431,7 @@ pub fn assess(
                     report.hydromechanical = Some(mechanical);
                 } else {
                     problems.push(Problem {
-                        field: at("flow_m3_per_s"),
+                        field: at(&fields::TEST_FLOW),
                         message: "These figures put the hydromechanical efficiency above 100 %: the flow reading is likely low for the power drawn. Check the flow meter.".into(),
                     });
                 }
@@ -443,7 +444,7 @@ pub fn assess(
     if let Some(line) = &leakage {
         if line.leakage_per_pa < 0.0 {
             problems.push(Problem {
-                field: "readings".into(),
+                field: fields::READINGS.within_item(&[]),
                 message: "The flow rises with pressure across these readings, which leakage cannot do: check that the speed held and the meter read steadily.".into(),
             });
         }

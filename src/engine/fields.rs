@@ -249,6 +249,20 @@ impl FieldSpec {
         path
     }
 
+    /// Its path within the outermost list item it sits in, with `indices` for the lists
+    /// inside that item: `TEST_FLOW.within_item(&[1])` is `readings[1].flow_m3_per_s`, as a
+    /// pump test's report names what to look at.
+    pub fn within_item(&self, indices: &[usize]) -> String {
+        let mut all = Vec::with_capacity(indices.len() + 1);
+        all.push(0);
+        all.extend_from_slice(indices);
+        let path = self.at(&all);
+        match path.split_once("].") {
+            Some((_, within)) => within.to_string(),
+            None => path,
+        }
+    }
+
     /// Whether `pattern` (a path with its indices taken out, `designs[].motor.rated_power_w`)
     /// names this field, or the whole list it is.
     fn names(&self, pattern: &str) -> bool {
@@ -919,5 +933,8 @@ mod tests {
         assert_eq!(GRID_FACTOR.words(), "grid CO₂ factor");
         assert_eq!(STAGING_PEAK_ALLOWANCE.words(), "peak allowance");
         assert_eq!(DIRECT_PRESSURE.words(), "pressure");
+        assert_eq!(TEST_FLOW.within_item(&[1]), "readings[1].flow_m3_per_s");
+        assert_eq!(READINGS.within_item(&[]), "readings");
+        assert_eq!(MOTOR_EFFICIENCY_FROM.within_item(&[]), "motor_efficiency");
     }
 }
