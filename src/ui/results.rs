@@ -253,21 +253,9 @@ pub fn PresenterPanel() -> impl IntoView {
         let units = state.units();
         let d = state.design.get();
         let currency = state.job.with(|j| j.site.currency.clone());
-        state.result.with(|r| {
-            let report = r.as_ref().ok()?;
-            let design = super::shared::shown_design(report, d)?;
-            let t = &design.totals;
-            Some((
-                design.name.clone(),
-                [
-                    Measure::Power.with_unit(units, t.average_electrical.value),
-                    Measure::Heat.with_unit(units, t.heat_load.value),
-                    format!("{:.0} kWh", t.annual_energy.get::<kilowatt_hour>()),
-                    format!("{:.0} {currency}", t.annual_cost),
-                    Measure::Duration.with_unit(units, t.cycle_time.value),
-                ],
-            ))
-        })
+        state
+            .result
+            .with(|r| super::shared::headline_figures(r.as_ref().ok()?, d, units, &currency))
     });
     // What each figure was when the field being changed was entered, so typing "250" shows
     // the figures before the 2, not those after the 25. Entering another field starts anew.

@@ -7,9 +7,10 @@ use super::icons::CautionIcon;
 use super::state::use_job;
 use crate::engine::efficiency::{PumpTest, TestReport, Verdict, READINGS_FOR_VERDICT};
 use crate::engine::power_unit::Design;
-use crate::engine::units::Measure;
+use crate::engine::units::{Measure, UnitSystem};
 use crate::engine::{Job, JobReport};
 use leptos::prelude::*;
+use uom::si::energy::kilowatt_hour;
 
 /// The power unit `d` of a report, or its last one when `d` is past the end (a power unit just
 /// removed): what every view of "the power unit shown" reads.
@@ -100,6 +101,29 @@ pub(super) fn go_to_field(state: super::state::JobState, field: String) {
     );
 }
 
+/// The shown power unit's name and its headline figures in words, in this order: average
+/// input, heat into the oil, energy a year, running cost a year (in `currency`), cycle time.
+/// The live strip and the presenter panel show them alike.
+pub fn headline_figures(
+    report: &JobReport,
+    design: usize,
+    units: UnitSystem,
+    currency: &str,
+) -> Option<(String, [String; 5])> {
+    let design = shown_design(report, design)?;
+    let t = &design.totals;
+    Some((
+        design.name.clone(),
+        [
+            Measure::Power.with_unit(units, t.average_electrical.value),
+            Measure::Heat.with_unit(units, t.heat_load.value),
+            format!("{:.0} kWh", t.annual_energy.get::<kilowatt_hour>()),
+            format!("{:.0} {currency}", t.annual_cost),
+            Measure::Duration.with_unit(units, t.cycle_time.value),
+        ],
+    ))
+}
+
 /// A strip of the key figures, shown while editing so every change shows its effect at once.
 /// Its markup stays; only its texts change, so an edit costs a solve and three text updates.
 #[component]
@@ -109,16 +133,8 @@ pub fn LiveSummary() -> impl IntoView {
         let units = state.units();
         let d = state.design.get();
         let pick = |report: &JobReport| {
-            let design = shown_design(report, d)?;
-            let t = &design.totals;
-            Some((
-                design.name.clone(),
-                [
-                    Measure::Power.with_unit(units, t.average_electrical.value),
-                    Measure::Heat.with_unit(units, t.heat_load.value),
-                    Measure::Duration.with_unit(units, t.cycle_time.value),
-                ],
-            ))
+            let (name, [average, heat, _, _, cycle]) = headline_figures(report, d, units, "")?;
+            Some((name, [average, heat, cycle]))
         };
         match state.result.with(|r| r.as_ref().ok().and_then(|r| pick(r))) {
             Some((name, values)) => Some((false, name, values)),
