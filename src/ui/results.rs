@@ -253,9 +253,14 @@ pub fn PresenterPanel() -> impl IntoView {
         let units = state.units();
         let d = state.design.get();
         let currency = state.job.with(|j| j.site.currency.clone());
-        state
-            .result
-            .with(|r| super::shared::headline_figures(r.as_ref().ok()?, d, units, &currency))
+        state.result.with(|r| {
+            let report = r.as_ref().ok()?;
+            let (name, [average, heat, cycle]) = super::shared::headline_figures(report, d, units)?;
+            let t = &super::shared::shown_design(report, d)?.totals;
+            let energy = format!("{:.0} kWh", t.annual_energy.get::<kilowatt_hour>());
+            let cost = format!("{:.0} {currency}", t.annual_cost);
+            Some((name, [average, heat, energy, cost, cycle]))
+        })
     });
     // What each figure was when the field being changed was entered, so typing "250" shows
     // the figures before the 2, not those after the 25. Entering another field starts anew.

@@ -10,7 +10,6 @@ use crate::engine::power_unit::Design;
 use crate::engine::units::{Measure, UnitSystem};
 use crate::engine::{Job, JobReport};
 use leptos::prelude::*;
-use uom::si::energy::kilowatt_hour;
 
 /// The power unit `d` of a report, or its last one when `d` is past the end (a power unit just
 /// removed): what every view of "the power unit shown" reads.
@@ -101,15 +100,13 @@ pub(super) fn go_to_field(state: super::state::JobState, field: String) {
     );
 }
 
-/// The shown power unit's name and its headline figures in words, in this order: average
-/// input, heat into the oil, energy a year, running cost a year (in `currency`), cycle time.
-/// The live strip and the presenter panel show them alike.
+/// The shown power unit's name and the headline figures every view of it leads with, in
+/// words: average input, heat into the oil, cycle time.
 pub fn headline_figures(
     report: &JobReport,
     design: usize,
     units: UnitSystem,
-    currency: &str,
-) -> Option<(String, [String; 5])> {
+) -> Option<(String, [String; 3])> {
     let design = shown_design(report, design)?;
     let t = &design.totals;
     Some((
@@ -117,8 +114,6 @@ pub fn headline_figures(
         [
             Measure::Power.with_unit(units, t.average_electrical.value),
             Measure::Heat.with_unit(units, t.heat_load.value),
-            format!("{:.0} kWh", t.annual_energy.get::<kilowatt_hour>()),
-            format!("{:.0} {currency}", t.annual_cost),
             Measure::Duration.with_unit(units, t.cycle_time.value),
         ],
     ))
@@ -132,10 +127,7 @@ pub fn LiveSummary() -> impl IntoView {
     let figures = Memo::new(move |_| {
         let units = state.units();
         let d = state.design.get();
-        let pick = |report: &JobReport| {
-            let (name, [average, heat, _, _, cycle]) = headline_figures(report, d, units, "")?;
-            Some((name, [average, heat, cycle]))
-        };
+        let pick = |report: &JobReport| headline_figures(report, d, units);
         match state.result.with(|r| r.as_ref().ok().and_then(|r| pick(r))) {
             Some((name, values)) => Some((false, name, values)),
             None => state
