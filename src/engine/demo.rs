@@ -82,6 +82,7 @@ pub fn scrap_baler() -> Job {
             fixed_loss_share: super::motor::TYPICAL_FIXED_LOSS_SHARE,
             service_factor: 1.0,
             peak_allowance: super::motor::TYPICAL_PEAK_ALLOWANCE,
+            electrical: None,
         },
         unloading_stages: vec![UnloadingStage {
             pump: pump(63.0),

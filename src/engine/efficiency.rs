@@ -256,6 +256,7 @@ fn part_load_motor(test: &PumpTest, full_load_efficiency: f64) -> Motor {
         fixed_loss_share: TYPICAL_FIXED_LOSS_SHARE,
         service_factor: 1.0,
         peak_allowance: TYPICAL_PEAK_ALLOWANCE,
+        electrical: None,
     }
 }
 

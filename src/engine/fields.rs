@@ -567,6 +567,29 @@ pub const MOTOR_PEAK_ALLOWANCE: FieldSpec = Design
         },
     )
     .said("motor peak allowance");
+pub const MOTOR_VOLTAGE: FieldSpec = Design
+    .field("motor.electrical.voltage_v", "Rated voltage (line to line)")
+    .amount(Voltage, 50e3)
+    .said("motor rated voltage");
+pub const MOTOR_FULL_LOAD_CURRENT: FieldSpec = Design
+    .field("motor.electrical.full_load_current_a", "Full-load current")
+    .amount(Current, 50e3)
+    .said("motor full-load current");
+pub const MOTOR_POWER_FACTOR: FieldSpec = Design
+    .field(
+        "motor.electrical.power_factor",
+        "Full-load power factor, if given",
+    )
+    .between(
+        Some(Factor),
+        &Bounds {
+            low: Excluded(0.0),
+            high: Included(1.0),
+            otherwise:
+                "a power factor is more than 0 and at most 1 (0.8 to 0.9 is usual at full load)",
+        },
+    )
+    .said("motor power factor");
 /// The pumps after the first, each with its unloading valve: a list, its length checked.
 pub const UNLOADING_STAGES: FieldSpec = Design
     .field("unloading_stages", "Unloading stages")
@@ -653,6 +676,10 @@ pub const OPEN_CENTRE_DROP: FieldSpec = PhaseSetting
     .field("idle_path.drop_pa", "Open-centre pressure drop")
     .amount(Pressure, MAX_PRESSURE)
     .or_zero();
+pub const MEASURED_CURRENT: FieldSpec = PhaseSetting
+    .field("measured_current_a", "Line current read")
+    .amount(Current, 50e3)
+    .said("line current read");
 
 // A pump test.
 pub const TESTED_PUMP: FieldSpec = PumpTest
@@ -782,6 +809,9 @@ pub const ALL: &[&FieldSpec] = &[
     &MOTOR_FIXED_LOSS,
     &MOTOR_SERVICE_FACTOR,
     &MOTOR_PEAK_ALLOWANCE,
+    &MOTOR_VOLTAGE,
+    &MOTOR_FULL_LOAD_CURRENT,
+    &MOTOR_POWER_FACTOR,
     &UNLOADING_STAGES,
     &RELIEF_KIND,
     &RELIEF_SETTING,
@@ -805,6 +835,7 @@ pub const ALL: &[&FieldSpec] = &[
     &LIMIT,
     &IDLE_PATH,
     &OPEN_CENTRE_DROP,
+    &MEASURED_CURRENT,
     &TESTED_PUMP,
     &TEST_DATE,
     &TEST_NOTES,

@@ -1,9 +1,16 @@
 //! What the solver noticed: conditions a technician should know about, each with the numbers
 //! behind it and a sentence in plain words.
 
+use super::units::Measure;
 use super::units::{seconds, UnitSystem};
 use serde::Serialize;
-use uom::si::f64::{Power, Pressure, Time, VolumeRate};
+use uom::si::f64::{ElectricCurrent, Power, Pressure, Time, VolumeRate};
+
+/// How far a clamp-meter reading may differ from the model's current, as a share of the
+/// motor's full-load current, before it is a finding. Our judgement: a clamp meter reads within
+/// a few percent, and the model's no-load current is a rule of thumb; a tenth of the full-load
+/// current is more than both.
+pub const CURRENT_DIFFERENCE_SHARE: f64 = 0.1;
 
 /// Pumps are numbered from 1 in shaft order (unloading stages first, the base pump last).
 #[derive(Clone, Debug, PartialEq, Serialize)]
@@ -53,6 +60,14 @@ pub enum Finding {
         required: Pressure,
         #[serde(rename = "reached_pa")]
         reached: Pressure,
+    },
+    /// The line current read in a phase differs from the model's by more than
+    /// [`CURRENT_DIFFERENCE_SHARE`] of the motor's full-load current.
+    CurrentDiffers {
+        #[serde(rename = "measured_a")]
+        measured: ElectricCurrent,
+        #[serde(rename = "expected_a")]
+        expected: ElectricCurrent,
     },
     /// A remote stage set at or above the main setting never governs.
     RemoteAboveMain {
@@ -171,6 +186,16 @@ impl Finding {
                 "The hold needs {} but the active limit holds only {}.",
                 p(required),
                 p(reached)
+            ),
+            Finding::CurrentDiffers { measured, expected } => format!(
+                "The motor draws {} here; the model expects {}. {}",
+                Measure::Current.with_unit(u, measured.value),
+                Measure::Current.with_unit(u, expected.value),
+                if measured > expected {
+                    "Check the relief and unloading settings (flow crossing a valve), the pumps' wear and the supply voltage, then the figures entered."
+                } else {
+                    "Check that the phase runs as entered (pressure, flow, which pumps feed) and the meter's range and conductor."
+                }
             ),
             Finding::RemoteAboveMain { stage, remote, main } => format!(
                 "Remote stage {} is set at {}, not below the main setting of {}: it never governs.",

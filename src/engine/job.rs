@@ -74,6 +74,7 @@ impl Job {
                 fixed_loss_share: TYPICAL_FIXED_LOSS_SHARE,
                 service_factor: 1.0,
                 peak_allowance: TYPICAL_PEAK_ALLOWANCE,
+                electrical: None,
             },
             unloading_stages: Vec::new(),
             base_pump: Pump {

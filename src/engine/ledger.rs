@@ -375,6 +375,7 @@ mod tests {
             fixed_loss_share: 0.35,
             service_factor,
             peak_allowance,
+            electrical: None,
         }
     }
 

@@ -102,6 +102,7 @@ pub mod cycle;
 pub mod delivery;
 pub mod demo;
 pub mod efficiency;
+pub mod electrical;
 pub mod fields;
 pub mod finding;
 pub mod job;

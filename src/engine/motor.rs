@@ -2,7 +2,7 @@
 
 use super::units::watts;
 use serde::{Deserialize, Serialize};
-use uom::si::f64::{AngularVelocity, Power};
+use uom::si::f64::{AngularVelocity, ElectricCurrent, ElectricPotential, Power};
 
 #[derive(Clone, Copy, Debug, PartialEq, Serialize, Deserialize)]
 pub struct Motor {
@@ -25,6 +25,25 @@ pub struct Motor {
     /// decide; a peak above it stalls or trips the motor.
     #[serde(default = "typical_peak_allowance")]
     pub peak_allowance: f64,
+    /// The electrical side of the nameplate, when entered: the line current and power factor
+    /// of each phase are then predicted ([`super::electrical`]).
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub electrical: Option<ElectricalRating>,
+}
+
+/// A three-phase motor's electrical nameplate.
+#[derive(Clone, Copy, Debug, PartialEq, Serialize, Deserialize)]
+pub struct ElectricalRating {
+    /// Rated line-to-line voltage (the one the motor is connected for).
+    #[serde(rename = "voltage_v")]
+    pub voltage: ElectricPotential,
+    /// Full-load line current at that voltage.
+    #[serde(rename = "full_load_current_a")]
+    pub full_load_current: ElectricCurrent,
+    /// Full-load power factor, when the nameplate gives one; otherwise it follows from the
+    /// rest of the nameplate ([`super::electrical::full_load_power_factor`]).
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub power_factor: Option<f64>,
 }
 
 /// How far over its rating a motor is commonly let run for a short peak (common practice:
@@ -234,6 +253,7 @@ mod tests {
             fixed_loss_share: share,
             service_factor: 1.0,
             peak_allowance: TYPICAL_PEAK_ALLOWANCE,
+            electrical: None,
         }
     }
 

@@ -5,7 +5,7 @@ use super::motor::Motor;
 use super::pump::Pump;
 use super::valve::{ActiveLimit, CheckValve, IdlePath, ReliefValve, UnloadingValve};
 use serde::{Deserialize, Serialize};
-use uom::si::f64::Pressure;
+use uom::si::f64::{ElectricCurrent, Pressure};
 
 /// The most pumps one motor drives here.
 pub const MAX_PUMPS: usize = 4;
@@ -58,6 +58,14 @@ pub struct PhaseSetting {
     pub limit: ActiveLimit,
     /// Where the flow goes if the phase is an idle; ignored for other phases.
     pub idle_path: IdlePath,
+    /// The line current a clamp meter read in this phase, when entered: the model's figure is
+    /// shown beside it.
+    #[serde(
+        default,
+        rename = "measured_current_a",
+        skip_serializing_if = "Option::is_none"
+    )]
+    pub measured_current: Option<ElectricCurrent>,
 }
 
 impl Default for PhaseSetting {
@@ -65,6 +73,7 @@ impl Default for PhaseSetting {
         PhaseSetting {
             limit: ActiveLimit::Main,
             idle_path: IdlePath::OverLimit,
+            measured_current: None,
         }
     }
 }

@@ -9,7 +9,7 @@
 //! each balance is solved exactly, without iteration.
 
 use super::cycle::{HoldMode, Phase, PhaseKind, SpeedRule};
-use super::finding::Finding;
+use super::finding::{Finding, CURRENT_DIFFERENCE_SHARE};
 use super::job::Job;
 use super::ledger::PowerLedger;
 use super::ledger::{Comparison, CycleTotals};
@@ -30,6 +30,10 @@ pub struct PhaseReport {
     pub name: String,
     pub point: OperatingPoint,
     pub ledger: PowerLedger,
+    /// The line current and power factor, when the motor's electrical nameplate is entered
+    /// and it runs.
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub line: Option<super::electrical::LineDraw>,
     pub findings: Vec<Finding>,
 }
 
@@ -143,6 +147,11 @@ pub(crate) fn solve_design(job: &Job, design: &Design) -> DesignReport {
             report.findings.push(f);
         }
     }
+    if let Some(rating) = &design.motor.electrical {
+        for (report, setting) in phases.iter_mut().zip(&design.phase_settings) {
+            draw_from_line(report, &design.motor, rating, setting);
+        }
+    }
     let timed: Vec<super::ledger::TimedLedger> = phases
         .iter()
         .map(|p| super::ledger::TimedLedger {
@@ -163,6 +172,31 @@ pub(crate) fn solve_design(job: &Job, design: &Design) -> DesignReport {
         phases,
         totals,
         findings,
+    }
+}
+
+/// The phase's line current and power factor, and a finding when the current read there
+/// differs from it by more than [`CURRENT_DIFFERENCE_SHARE`] of the full-load current.
+fn draw_from_line(
+    report: &mut PhaseReport,
+    motor: &super::motor::Motor,
+    rating: &super::motor::ElectricalRating,
+    setting: &PhaseSetting,
+) {
+    if !report.point.motor_running {
+        return;
+    }
+    let shaft = report.ledger.electrical_input - report.ledger.motor_loss;
+    let draw = super::electrical::line_draw(motor, rating, report.ledger.electrical_input, shaft);
+    report.line = Some(draw);
+    if let Some(measured) = setting.measured_current {
+        let tolerance = rating.full_load_current * CURRENT_DIFFERENCE_SHARE;
+        if (measured - draw.current).abs() > tolerance {
+            report.findings.push(Finding::CurrentDiffers {
+                measured,
+                expected: draw.current,
+            });
+        }
     }
 }
 
@@ -557,6 +591,7 @@ fn report(
             motor_running: !stopped,
         },
         ledger,
+        line: None,
         findings: point.findings,
     }
 }

@@ -304,6 +304,9 @@ fn check_design_fields(c: &mut Checker, d: &Design, job: &Job) {
     c.number(&MOTOR_FIXED_LOSS, m.fixed_loss_share);
     c.number(&MOTOR_SERVICE_FACTOR, m.service_factor);
     c.number(&MOTOR_PEAK_ALLOWANCE, m.peak_allowance);
+    if let Some(rating) = &m.electrical {
+        check_electrical_rating(c, m, rating);
+    }
     if d.pump_count() > MAX_PUMPS {
         c.fail(
             &UNLOADING_STAGES,
@@ -345,6 +348,34 @@ fn check_design_fields(c: &mut Checker, d: &Design, job: &Job) {
     }
 }
 
+/// The motor's electrical nameplate: each figure, and that together they describe a motor (a
+/// power factor above 1 means the rating, efficiency, voltage and current disagree).
+fn check_electrical_rating(
+    c: &mut Checker,
+    motor: &super::motor::Motor,
+    rating: &super::motor::ElectricalRating,
+) {
+    let voltage = c.number(&MOTOR_VOLTAGE, rating.voltage.value);
+    let current = c.number(&MOTOR_FULL_LOAD_CURRENT, rating.full_load_current.value);
+    match rating.power_factor {
+        Some(pf) => {
+            c.number(&MOTOR_POWER_FACTOR, pf);
+        }
+        None if voltage && current => {
+            let pf = super::electrical::full_load_power_factor(motor, rating);
+            if pf > 1.0 {
+                c.fail(
+                    &MOTOR_FULL_LOAD_CURRENT,
+                    format!(
+                        "is too low for the motor's rated power and efficiency at this voltage (it would need a power factor of {pf:.2}): check the current, the voltage the motor is connected for, and the rating"
+                    ),
+                );
+            }
+        }
+        None => {}
+    }
+}
+
 fn check_setting(c: &mut Checker, d: &Design, setting: &super::power_unit::PhaseSetting) {
     let r = &d.relief;
     match setting.limit {
@@ -378,6 +409,9 @@ fn check_setting(c: &mut Checker, d: &Design, setting: &super::power_unit::Phase
             c.number(&OPEN_CENTRE_DROP, drop.value);
         }
         _ => {}
+    }
+    if let Some(current) = setting.measured_current {
+        c.number(&MEASURED_CURRENT, current.value);
     }
 }
 

@@ -91,6 +91,7 @@ pub fn motor(kw_rated: f64, rpm: f64, efficiency: f64) -> Motor {
         fixed_loss_share: 0.35,
         service_factor: 1.0,
         peak_allowance: phasewise_engine::motor::TYPICAL_PEAK_ALLOWANCE,
+        electrical: None,
     }
 }
 

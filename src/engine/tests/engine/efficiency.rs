@@ -476,6 +476,7 @@ fn the_motor(efficiency: f64) -> Motor {
         fixed_loss_share: TYPICAL_FIXED_LOSS_SHARE,
         service_factor: 1.0,
         peak_allowance: TYPICAL_PEAK_ALLOWANCE,
+        electrical: None,
     }
 }
 

@@ -350,7 +350,7 @@ fn a_corrupt_or_newer_file_is_refused_with_a_reason() {
 
 /// A job with every kind of field filled in: the checks fixture with a direct phase, a move
 /// given a load pressure and a metered flow and a longest time, open-centre idles, remote
-/// stages, compensated stage pumps, a pump's speed, prices, a grid factor, a cycle time and a
+/// stages, a motor's electrical nameplate and a current read, compensated stage pumps, a pump's speed, prices, a grid factor, a cycle time and a
 /// reading with volts, amps, a shaft speed and a torque.
 fn every_field_job() -> serde_json::Value {
     use serde_json::json;
@@ -375,6 +375,9 @@ fn every_field_job() -> serde_json::Value {
         d["base_pump"]["efficiency_speed_rad_per_s"] = json!(150.0);
         d["retrofit_price"] = json!(1000.0);
         d["remote_stages_pa"] = json!([8e6]);
+        d["motor"]["electrical"] =
+            json!({"voltage_v": 400.0, "full_load_current_a": 30.0, "power_factor": 0.85});
+        d["phase_settings"][0]["measured_current_a"] = json!(12.0);
         for s in d["unloading_stages"].as_array_mut().unwrap() {
             s["pump"]["control"] = json!({"type": "compensated", "setting_pa": 1.5e7});
         }

@@ -147,7 +147,11 @@ fn setting(pilot: bool, remotes: usize) -> impl Strategy<Value = PhaseSetting> {
                 3 => IdlePath::MotorStopped,
                 _ => IdlePath::OverLimit,
             };
-            PhaseSetting { limit, idle_path }
+            PhaseSetting {
+                limit,
+                idle_path,
+                measured_current: None,
+            }
         },
     )
 }

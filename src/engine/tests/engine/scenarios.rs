@@ -481,6 +481,7 @@ fn an_unloading_setting_inside_the_relief_override_hunts() {
     d.phase_settings = vec![phasewise_engine::power_unit::PhaseSetting {
         limit: ActiveLimit::Remote { stage: 0 },
         idle_path: IdlePath::OverLimit,
+        measured_current: None,
     }];
     let report = solve(&job(vec![direct("test stand", 5.0, 20.0, 30.0)], vec![d])).unwrap();
     let phase = &report.designs[0].phases[0];
@@ -523,6 +524,7 @@ fn an_idle_over_a_limit_settles_where_the_limit_was_read() {
     d.phase_settings = vec![phasewise_engine::power_unit::PhaseSetting {
         limit: ActiveLimit::Remote { stage: 0 },
         idle_path: IdlePath::OverLimit,
+        measured_current: None,
     }];
     let report = solve(&job(vec![idle("wait", 30.0)], vec![d])).unwrap();
     let phase = &report.designs[0].phases[0];
