@@ -7,7 +7,7 @@ use std::path::Path;
 
 /// The engine's modules from the bottom up. A module may use only those before it; a new
 /// module takes its place here (see DEVELOPERS.md, "Layers inside").
-const STACK: [&str; 22] = [
+const STACK: [&str; 24] = [
     // Quantities and the parts of a machine.
     "units",
     "pump",
@@ -20,6 +20,7 @@ const STACK: [&str; 22] = [
     // What the job keeps.
     "policy",
     "pump_test",
+    "motor_check",
     "power_unit",
     "delivery",
     "job",
@@ -32,6 +33,7 @@ const STACK: [&str; 22] = [
     "settings",
     "staging",
     "efficiency",
+    "motor_load",
     "quote",
 ];
 

@@ -127,6 +127,7 @@ pub fn scrap_baler() -> Job {
         advice: Default::default(),
         staging: Default::default(),
         pump_tests: Vec::new(),
+        motor_checks: Vec::new(),
         wear: Default::default(),
     }
 }

@@ -77,11 +77,7 @@ use uom::si::f64::{AngularVelocity, Power, Pressure, VolumeRate};
 /// (common practice: induction motors do not run long above about 1.5 x rated).
 pub const MOST_LOAD_BELIEVED: f64 = 1.5;
 
-/// The most full-load slip inferred for a motor whose synchronous speed is not entered, as a
-/// share of the synchronous speed (common practice, from memory: nameplate slip is about 1 to
-/// 5 %, up to about 8 % on small motors). A full-load speed further below every synchronous
-/// speed (a round 1500 or 1000 rpm, say) is taken as the speed at every reading.
-pub const MOST_NAMEPLATE_SLIP: f64 = 0.08;
+pub use super::motor::MOST_NAMEPLATE_SLIP;
 
 /// A verdict rests on at least this many believable readings, at different test pressures:
 /// one point cannot tell leakage from a misread meter.
@@ -233,17 +229,7 @@ pub struct TestReport {
 /// full-load speed, if the full-load speed is within [`MOST_NAMEPLATE_SLIP`] of it. None: no
 /// slip is estimated, and readings without a measured speed are worked at the full-load speed.
 pub fn synchronous_speed(test: &PumpTest) -> Option<f64> {
-    let full_load = test.speed.value;
-    if let Some(entered) = test.synchronous_speed {
-        return (entered.value > full_load).then_some(entered.value);
-    }
-    // 120 f / poles in rpm is f / pole pairs in revolutions per second.
-    [50.0, 60.0]
-        .into_iter()
-        .flat_map(|hz: f64| (1..=6).map(move |pairs| hz * TAU / f64::from(pairs)))
-        .filter(|s| *s > full_load * (1.0 + 1e-9))
-        .min_by(f64::total_cmp)
-        .filter(|s| (s - full_load) / s <= MOST_NAMEPLATE_SLIP)
+    super::motor::synchronous_speed(test.speed, test.synchronous_speed)
 }
 
 /// The test's motor as the part-load model sees it: its rating and full-load efficiency, with

@@ -55,6 +55,10 @@ pub enum Part {
     PumpTest,
     /// A reading of a pump test (`pump_tests[0].readings[3]`).
     Reading,
+    /// A motor check (`motor_checks[0]`).
+    MotorCheck,
+    /// A reading of a motor check (`motor_checks[0].readings[1]`).
+    MotorReading,
 }
 
 impl Part {
@@ -69,6 +73,8 @@ impl Part {
             PhaseSetting => &["designs[].phase_settings[]"],
             PumpTest => &["pump_tests[]"],
             Reading => &["pump_tests[].readings[]"],
+            MotorCheck => &["motor_checks[]"],
+            MotorReading => &["motor_checks[].readings[]"],
         }
     }
 
@@ -750,6 +756,82 @@ pub const SHAFT_TORQUE: FieldSpec = Reading
     .amount(Torque, 1e6)
     .said("shaft torque");
 
+// A motor check.
+pub const CHECKED_MOTOR: FieldSpec = MotorCheck
+    .field("motor", "Which motor")
+    .required("say which motor was checked (checks of one motor are compared by it)")
+    .said("motor checked");
+pub const CHECK_DATE: FieldSpec = MotorCheck
+    .field("date", "Date (year-month-day)")
+    .date("write the date as year-month-day, e.g. 2026-11-30");
+pub const CHECK_NOTES: FieldSpec = MotorCheck.field("notes", "Notes");
+pub const CHECK_DESIGN: FieldSpec = MotorCheck
+    .field("design", "Power unit it drives")
+    .said("power unit the motor drives");
+pub const CHECK_RATED_POWER: FieldSpec = MotorCheck
+    .field("nameplate.rated_power_w", "Rated power")
+    .amount(Power, MAX_POWER);
+pub const CHECK_VOLTAGE: FieldSpec = MotorCheck
+    .field("nameplate.voltage_v", "Rated voltage (line to line)")
+    .amount(Voltage, 50e3)
+    .said("rated voltage");
+pub const CHECK_FULL_LOAD_CURRENT: FieldSpec = MotorCheck
+    .field("nameplate.full_load_current_a", "Full-load current")
+    .amount(Current, 50e3);
+pub const CHECK_FULL_LOAD_SPEED: FieldSpec = MotorCheck
+    .field("nameplate.full_load_speed_rad_per_s", "Full-load speed")
+    .amount(ShaftSpeed, MAX_SPEED_RAD_S);
+pub const CHECK_EFFICIENCY_FROM: FieldSpec =
+    MotorCheck.field("nameplate.efficiency", "Full-load efficiency from");
+pub const CHECK_EFFICIENCY: FieldSpec = MotorCheck
+    .field("nameplate.efficiency.efficiency", "Full-load efficiency")
+    .fraction();
+pub const CHECK_POWER_FACTOR: FieldSpec = MotorCheck
+    .field("nameplate.power_factor", "Full-load power factor, if given")
+    .between(
+        Some(Factor),
+        &Bounds {
+            low: Excluded(0.0),
+            high: Included(1.0),
+            otherwise:
+                "a power factor is more than 0 and at most 1 (0.8 to 0.9 is usual at full load)",
+        },
+    )
+    .said("nameplate power factor");
+pub const CHECK_SYNCHRONOUS_SPEED: FieldSpec = MotorCheck
+    .field(
+        "nameplate.synchronous_speed_rad_per_s",
+        "Synchronous speed (120 × supply Hz / poles)",
+    )
+    .amount(ShaftSpeed, MAX_SPEED_RAD_S);
+pub const MOTOR_READINGS: FieldSpec = MotorCheck.field("readings", "Readings");
+
+// A reading of a motor check.
+pub const READ_INPUT: FieldSpec = MotorReading
+    .field("input_w", "Input power (meter)")
+    .amount(Power, MAX_POWER);
+pub const READ_VOLTAGE: FieldSpec = MotorReading
+    .field("line.voltage_v", "Line voltage")
+    .amount(Voltage, 50e3);
+pub const READ_CURRENT: FieldSpec = MotorReading
+    .field("line.current_a", "Line current")
+    .amount(Current, 50e3);
+pub const READ_POWER_FACTOR: FieldSpec = MotorReading
+    .field("line.power_factor", "Power factor, if the meter gives it")
+    .between(
+        Some(Factor),
+        &Bounds {
+            low: Excluded(0.0),
+            high: Included(1.0),
+            otherwise: "a power factor is more than 0 and at most 1: check the meter",
+        },
+    )
+    .said("power factor");
+pub const READ_SPEED: FieldSpec = MotorReading
+    .field("speed_rad_per_s", "Shaft speed (tachometer)")
+    .amount(ShaftSpeed, MAX_SPEED_RAD_S)
+    .said("shaft speed");
+
 /// Every field declared, for finding one by its path.
 pub const ALL: &[&FieldSpec] = &[
     &SCHEMA_VERSION,
@@ -856,6 +938,24 @@ pub const ALL: &[&FieldSpec] = &[
     &LINE_CURRENT,
     &POWER_FACTOR,
     &SHAFT_TORQUE,
+    &CHECKED_MOTOR,
+    &CHECK_DATE,
+    &CHECK_NOTES,
+    &CHECK_DESIGN,
+    &CHECK_RATED_POWER,
+    &CHECK_VOLTAGE,
+    &CHECK_FULL_LOAD_CURRENT,
+    &CHECK_FULL_LOAD_SPEED,
+    &CHECK_EFFICIENCY_FROM,
+    &CHECK_EFFICIENCY,
+    &CHECK_POWER_FACTOR,
+    &CHECK_SYNCHRONOUS_SPEED,
+    &MOTOR_READINGS,
+    &READ_INPUT,
+    &READ_VOLTAGE,
+    &READ_CURRENT,
+    &READ_POWER_FACTOR,
+    &READ_SPEED,
 ];
 
 #[cfg(test)]

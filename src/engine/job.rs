@@ -41,6 +41,9 @@ pub struct Job {
     /// Field tests of the machine's pumps (absent in older files: none).
     #[serde(default, skip_serializing_if = "Vec::is_empty")]
     pub pump_tests: Vec<super::pump_test::PumpTest>,
+    /// Field checks of the machine's motors (absent in older files: none).
+    #[serde(default, skip_serializing_if = "Vec::is_empty")]
+    pub motor_checks: Vec<super::motor_check::MotorCheck>,
     /// Where the pump-wear verdict draws its lines (absent: the defaults).
     #[serde(default)]
     pub wear: super::policy::WearPolicy,
@@ -143,6 +146,7 @@ impl Job {
             advice: Default::default(),
             staging: Default::default(),
             pump_tests: Vec::new(),
+            motor_checks: Vec::new(),
             wear: Default::default(),
         }
     }

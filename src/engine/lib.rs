@@ -108,6 +108,8 @@ pub mod finding;
 pub mod job;
 pub mod ledger;
 pub mod motor;
+pub mod motor_check;
+pub mod motor_load;
 pub mod policy;
 pub mod power_unit;
 pub mod pump;

@@ -86,6 +86,33 @@ impl Motor {
     }
 }
 
+/// The most full-load slip inferred for a motor whose synchronous speed is not entered, as a
+/// share of the synchronous speed (common practice, from memory: nameplate slip is about 1 to
+/// 5 %, up to about 8 % on small motors). A full-load speed further below every synchronous
+/// speed (a round 1500 or 1000 rpm, say) is taken as having no slip known.
+pub const MOST_NAMEPLATE_SLIP: f64 = 0.08;
+
+/// The synchronous speed (rad/s) of a motor with this full-load speed: the entered one (when
+/// above the full-load speed), else (common practice) the lowest of 120 f / poles for a 50 or
+/// 60 Hz supply above the full-load speed, if the full-load speed is within
+/// [`MOST_NAMEPLATE_SLIP`] of it. None: no slip can be worked out.
+pub fn synchronous_speed(
+    full_load: AngularVelocity,
+    entered: Option<AngularVelocity>,
+) -> Option<f64> {
+    let full_load = full_load.value;
+    if let Some(entered) = entered {
+        return (entered.value > full_load).then_some(entered.value);
+    }
+    // 120 f / poles in rpm is f / pole pairs in revolutions per second.
+    [50.0, 60.0]
+        .into_iter()
+        .flat_map(|hz: f64| (1..=6).map(move |pairs| hz * std::f64::consts::TAU / f64::from(pairs)))
+        .filter(|s| *s > full_load * (1.0 + 1e-9))
+        .min_by(f64::total_cmp)
+        .filter(|s| (s - full_load) / s <= MOST_NAMEPLATE_SLIP)
+}
+
 /// A published efficiency class, for a motor whose nameplate efficiency is not known.
 #[derive(Clone, Copy, Debug, PartialEq, Eq, Serialize, Deserialize)]
 #[serde(rename_all = "snake_case")]

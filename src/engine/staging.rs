@@ -60,6 +60,8 @@
 use super::cycle::PhaseKind;
 use super::finding::Finding;
 use super::job::Job;
+use super::ledger::CycleTotals;
+use super::motor::Motor;
 use super::power_unit::{Design, UnloadingStage};
 use super::pump::{Pump, PumpControl};
 use super::settings::{self, FlowNeed, UnloadingWindow};
@@ -336,6 +338,31 @@ pub fn targets(job: &Job, options: &StagingOptions) -> Option<Targets> {
     })
 }
 
+/// The smallest standard motor of `options` whose rating x service factor carries the cycle's
+/// RMS shaft power and whose rating x peak allowance carries its peak; none when no size does.
+/// Its loss depends on its rating and on its class's efficiency at that rating (the nearest
+/// table end outside the table; the fixed share of the loss stays `motor`'s). It carries the
+/// sizing's factors, so the engine's motor findings judge it as the sizing did.
+pub fn right_sized_motor(
+    motor: &Motor,
+    totals: &CycleTotals,
+    options: &StagingOptions,
+) -> Option<Motor> {
+    let rms = totals.rms_shaft.value;
+    let peak = totals.peak_shaft.value;
+    let motor_w = options.motor_steps.ratings_w().into_iter().find(|&rated| {
+        rated * options.service_factor >= rms && rated * options.peak_allowance >= peak
+    })?;
+    let mut sized = *motor;
+    sized.rated_power = Power::new::<uom::si::power::watt>(motor_w);
+    sized.full_load_efficiency = options
+        .efficiency_class()
+        .nominal_efficiency_or_nearest(sized.rated_power);
+    sized.service_factor = options.service_factor;
+    sized.peak_allowance = options.peak_allowance;
+    Some(sized)
+}
+
 /// Builds, solves and sizes one spec; `None` when it misses a constraint.
 pub fn evaluate(
     job: &Job,
@@ -370,20 +397,8 @@ pub fn evaluate(
     }
     let rms = totals.rms_shaft.value;
     let peak = totals.peak_shaft.value;
-    let motor_w = options.motor_steps.ratings_w().into_iter().find(|&rated| {
-        rated * options.service_factor >= rms && rated * options.peak_allowance >= peak
-    })?;
-    // The energy with the motor of that size: its loss depends on its rating and on its
-    // class's efficiency at that rating (the nearest table end outside the table; the fixed
-    // share of the loss stays the baseline's). It carries the sizing's factors, so the engine's
-    // motor findings judge it as the search did.
-    let mut motor = design.motor;
-    motor.rated_power = Power::new::<uom::si::power::watt>(motor_w);
-    motor.full_load_efficiency = options
-        .efficiency_class()
-        .nominal_efficiency_or_nearest(motor.rated_power);
-    motor.service_factor = options.service_factor;
-    motor.peak_allowance = options.peak_allowance;
+    let motor = right_sized_motor(&design.motor, totals, options)?;
+    let motor_w = motor.rated_power.value;
     let energy = report
         .phases
         .iter()

@@ -480,6 +480,107 @@ pub(crate) fn pump_test_errors(
     errors
 }
 
+/// Every problem with motor check `index` of a job, named by its path in the job file
+/// (`motor_checks[0].readings[1].line.current_a`). Kept apart from [`validate`], as a pump
+/// test is: a check being typed in never stops the job's results.
+pub fn validate_motor_check(
+    check: &super::motor_check::MotorCheck,
+    index: usize,
+    job: &Job,
+    units: UnitSystem,
+) -> Vec<InputError> {
+    let mut c = Checker::new(units);
+    c.within(index, |c| check_motor_check(c, check, job));
+    c.errors
+}
+
+/// As [`validate_motor_check`], the paths within the check (`readings[1].line.current_a`).
+pub(crate) fn motor_check_errors(
+    check: &super::motor_check::MotorCheck,
+    job: &Job,
+    units: UnitSystem,
+) -> Vec<InputError> {
+    let check_at = format!("{}.", Part::MotorCheck.at(&[0]));
+    let mut errors = validate_motor_check(check, 0, job, units);
+    for e in &mut errors {
+        if let Some(within) = e.field.strip_prefix(&check_at) {
+            e.field = within.to_string();
+        }
+    }
+    errors
+}
+
+fn check_motor_check(c: &mut Checker, check: &super::motor_check::MotorCheck, job: &Job) {
+    use super::pump_test::MotorEfficiency;
+    let units = c.units;
+    c.text(&CHECKED_MOTOR, &check.motor);
+    c.text(&CHECK_DATE, &check.date);
+    if check.design >= job.designs.len() {
+        c.fail(
+            &CHECK_DESIGN,
+            format!(
+                "there is no power unit {} (the job has {})",
+                check.design + 1,
+                job.designs.len()
+            ),
+        );
+    }
+    let plate = &check.nameplate;
+    c.number(&CHECK_RATED_POWER, plate.rated_power.value);
+    c.number(&CHECK_VOLTAGE, plate.voltage.value);
+    c.number(&CHECK_FULL_LOAD_CURRENT, plate.full_load_current.value);
+    let full_load = plate.full_load_speed.value;
+    let full_load_ok = c.number(&CHECK_FULL_LOAD_SPEED, full_load);
+    if let MotorEfficiency::Entered { efficiency } = plate.efficiency {
+        c.number(&CHECK_EFFICIENCY, efficiency);
+    }
+    if let Some(pf) = plate.power_factor {
+        c.number(&CHECK_POWER_FACTOR, pf);
+    }
+    if let Some(sync) = plate.synchronous_speed.map(|s| s.value) {
+        if c.number(&CHECK_SYNCHRONOUS_SPEED, sync) && full_load_ok {
+            if sync <= full_load {
+                c.fail(
+                    &CHECK_SYNCHRONOUS_SPEED,
+                    "must be above the full-load speed: a four-pole motor on 50 Hz is 1500 rpm and turns about 1460 rpm at full load",
+                );
+            } else if full_load < sync * (1.0 - MAX_SLIP) {
+                c.fail(
+                    &CHECK_SYNCHRONOUS_SPEED,
+                    format!(
+                        "{} is too far above the full-load speed of {} for an induction motor (they differ by a few percent): check both",
+                        rpm(units, sync),
+                        rpm(units, full_load)
+                    ),
+                );
+            }
+        }
+    }
+    if check.readings.is_empty() {
+        c.fail(
+            &MOTOR_READINGS,
+            "add a reading: a power meter's input, the line's volts and amps, or the shaft speed",
+        );
+    }
+    for (k, r) in check.readings.iter().enumerate() {
+        c.within(k, |c| {
+            if let Some(input) = r.input {
+                c.number(&READ_INPUT, input.value);
+            }
+            if let Some(line) = r.line {
+                c.number(&READ_VOLTAGE, line.voltage.value);
+                c.number(&READ_CURRENT, line.current.value);
+                if let Some(pf) = line.power_factor {
+                    c.number(&READ_POWER_FACTOR, pf);
+                }
+            }
+            if let Some(speed) = r.speed {
+                c.number(&READ_SPEED, speed.value);
+            }
+        });
+    }
+}
+
 fn check_pump_test(c: &mut Checker, test: &super::pump_test::PumpTest) {
     use super::pump_test::{ElectricalInput, MotorEfficiency};
     let units = c.units;

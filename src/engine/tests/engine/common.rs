@@ -228,6 +228,7 @@ pub fn job(cycle: Vec<Phase>, designs: Vec<Design>) -> Job {
         advice: Default::default(),
         staging: Default::default(),
         pump_tests: Vec::new(),
+        motor_checks: Vec::new(),
         wear: Default::default(),
     }
 }

@@ -388,6 +388,12 @@ fn every_field_job() -> serde_json::Value {
         "peak_allowance": 1.25, "cycle_time_target_s": 30.0});
     j["pump_tests"][0]["synchronous_speed_rad_per_s"] = json!(157.0);
     j["pump_tests"][1]["motor_efficiency"] = json!({"from": "entered", "efficiency": 0.9});
+    j["motor_checks"] = json!([{"motor": "main", "date": "2026-11-30", "design": 0,
+        "nameplate": {"rated_power_w": 7500.0, "voltage_v": 400.0, "full_load_current_a": 15.0,
+            "full_load_speed_rad_per_s": 152.4, "efficiency": {"from": "entered", "efficiency": 0.9},
+            "power_factor": 0.82, "synchronous_speed_rad_per_s": 157.08},
+        "readings": [{"input_w": 5000.0, "speed_rad_per_s": 155.0,
+            "line": {"voltage_v": 400.0, "current_a": 10.0, "power_factor": 0.8}}]}]);
     j["pump_tests"][0]["readings"].as_array_mut().unwrap().push(json!({
         "pressure_pa": 1.2e7, "flow_m3_per_s": 9e-4, "speed_rad_per_s": 150.0, "torque_n_m": 50.0,
         "electrical": {"as": "three_phase", "line_voltage_v": 400.0, "line_current_a": 20.0, "power_factor": 0.85}}));
@@ -402,11 +408,11 @@ fn spoil(value: &mut serde_json::Value, key: &str) {
         Value::Number(_) => {
             *value = match key {
                 "schema_version" | "max_pumps" => 0.into(),
-                "stage" => 9.into(),
+                "stage" | "design" => 9.into(),
                 _ => (-1.0).into(),
             }
         }
-        Value::String(s) if key == "name" || key == "pump" => s.clear(),
+        Value::String(s) if key == "name" || key == "pump" || key == "motor" => s.clear(),
         Value::String(s) if key == "date" => *s = "yesterday".into(),
         Value::Object(fields) => fields.iter_mut().for_each(|(k, v)| spoil(v, k)),
         Value::Array(items) => items.iter_mut().for_each(|v| spoil(v, key)),
@@ -419,7 +425,7 @@ fn spoil(value: &mut serde_json::Value, key: &str) {
 #[test]
 fn every_field_validation_names_is_declared_and_every_declared_check_is_made() {
     use phasewise_engine::fields::{self, Check};
-    use phasewise_engine::validate::{validate, validate_pump_test};
+    use phasewise_engine::validate::{validate, validate_motor_check, validate_pump_test};
     let mut spoiled = every_field_job();
     spoil(&mut spoiled, "");
     let spoiled = Job::from_json(&spoiled.to_string()).unwrap();
@@ -431,6 +437,7 @@ fn every_field_validation_names_is_declared_and_every_declared_check_is_made() {
         |j| j.cycle.clear(),
         |j| j.designs.clear(),
         |j| j.pump_tests[0].readings.clear(),
+        |j| j.motor_checks[0].readings.clear(),
         |j| j.wear.worn_below = 0.95,
         |j| {
             j.designs[0].phase_settings.pop();
@@ -468,6 +475,9 @@ fn every_field_validation_names_is_declared_and_every_declared_check_is_made() {
         let mut errors = validate(job).err().unwrap_or_default();
         for (i, test) in job.pump_tests.iter().enumerate() {
             errors.extend(validate_pump_test(test, i, job.units));
+        }
+        for (i, check) in job.motor_checks.iter().enumerate() {
+            errors.extend(validate_motor_check(check, i, job, job.units));
         }
         assert!(!errors.is_empty(), "job {n} has no error");
         for e in errors {

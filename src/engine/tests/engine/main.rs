@@ -18,6 +18,7 @@
 //! | `settings.rs` | every advice rule with a case that triggers it and one that does not (common practice), a high-low press worked by hand, actions never touching the baseline, holds advised their own pressure, no relief at a compensator, effects worded by sign, invalid jobs refused |
 //! | `efficiency.rs` | the pump check: Esposito 5-9, Hydraulics & Pneumatics examples, IEC 60034-30-1 and NEMA MG 1 tables, the leakage fit, each bad reading's message, the trend by date, slip-corrected speed, part-load motor efficiency, copying without the drag twice, the readings a verdict needs |
 //! | `electrical.rs` | the line current and power factor: the nameplate met at full load, a maker's part-load power factors, a third of the current unloaded (common practice), rising with load, sqrt(3) V I PF equal to the ledger's input in every phase, a clamp-meter reading far off is a finding |
+//! | `motor_check.rs` | the motor check: the US DOE fact sheet's input-power and slip examples, the voltage correction and current method against petrobras/ccp's test values, Hydraulics & Pneumatics' efficiency from two readings, which method is trusted, the verdict, a right-sized motor's saving |
 //! | `quote.rs` | the quote: Cengel and Boles' high-efficiency motor example solved through the whole engine (7,929 kWh, $634 a year, 1.01 years), a hand-worked invented retrofit, the year split by ledger item adding up, which assumptions are defaults, the customer rounding |
 //!
 //! A test that checks the main job against something outside the project names its source
@@ -30,6 +31,7 @@ mod efficiency;
 mod electrical;
 mod golden;
 mod input;
+mod motor_check;
 mod properties;
 mod published;
 mod quote;
