@@ -4,12 +4,16 @@
 
 use super::cycle::*;
 use super::job::{Job, Oil, Site, SCHEMA_VERSION};
-use super::motor::Motor;
+use super::motor::{ElectricalRating, Motor};
+use super::motor_check::{LineReading, MotorCheck, MotorNameplate, MotorReading};
 use super::power_unit::{Design, PhaseSetting, UnloadingStage};
 use super::pump::{Pump, PumpControl};
+use super::pump_test::MotorEfficiency;
 use super::units::UnitSystem;
 use super::valve::*;
 use uom::si::angular_velocity::revolution_per_minute;
+use uom::si::electric_current::ampere;
+use uom::si::electric_potential::volt;
 use uom::si::f64::*;
 use uom::si::force::kilonewton;
 use uom::si::length::millimeter;
@@ -82,7 +86,11 @@ pub fn scrap_baler() -> Job {
             fixed_loss_share: super::motor::TYPICAL_FIXED_LOSS_SHARE,
             service_factor: 1.0,
             peak_allowance: super::motor::TYPICAL_PEAK_ALLOWANCE,
-            electrical: None,
+            electrical: Some(ElectricalRating {
+                voltage: ElectricPotential::new::<volt>(400.0),
+                full_load_current: ElectricCurrent::new::<ampere>(41.0),
+                power_factor: Some(0.85),
+            }),
         },
         unloading_stages: vec![UnloadingStage {
             pump: pump(63.0),
@@ -127,7 +135,41 @@ pub fn scrap_baler() -> Job {
         advice: Default::default(),
         staging: Default::default(),
         pump_tests: Vec::new(),
-        motor_checks: Vec::new(),
+        motor_checks: vec![MotorCheck {
+            motor: "Main motor, 22 kW".into(),
+            date: "2026-11-24".into(),
+            notes: "Read in the dwell, then on the fast approach.".into(),
+            design: 0,
+            nameplate: MotorNameplate {
+                rated_power: Power::new::<kilowatt>(22.0),
+                voltage: ElectricPotential::new::<volt>(400.0),
+                full_load_current: ElectricCurrent::new::<ampere>(41.0),
+                full_load_speed: AngularVelocity::new::<revolution_per_minute>(1470.0),
+                efficiency: MotorEfficiency::Entered { efficiency: 0.91 },
+                power_factor: Some(0.85),
+                synchronous_speed: None,
+            },
+            readings: vec![
+                MotorReading {
+                    input: None,
+                    line: Some(LineReading {
+                        voltage: ElectricPotential::new::<volt>(398.0),
+                        current: ElectricCurrent::new::<ampere>(23.4),
+                        power_factor: Some(0.72),
+                    }),
+                    speed: Some(AngularVelocity::new::<revolution_per_minute>(1486.0)),
+                },
+                MotorReading {
+                    input: None,
+                    line: Some(LineReading {
+                        voltage: ElectricPotential::new::<volt>(401.0),
+                        current: ElectricCurrent::new::<ampere>(15.6),
+                        power_factor: Some(0.40),
+                    }),
+                    speed: Some(AngularVelocity::new::<revolution_per_minute>(1495.0)),
+                },
+            ],
+        }],
         wear: Default::default(),
     }
 }

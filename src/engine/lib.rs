@@ -224,6 +224,26 @@ pub struct JobAnswer {
     pub advice: Vec<DesignAdvice>,
     /// Each pump test's assessment (or its input errors) and its trend, in the job's order.
     pub pump_tests: Vec<PumpTestAnswer>,
+    /// Each motor check's assessment (or its input errors) and its words, in the job's order.
+    #[serde(skip_serializing_if = "Vec::is_empty")]
+    pub motor_checks: Vec<MotorCheckAnswer>,
+}
+
+#[derive(Clone, Debug, PartialEq, Serialize)]
+pub struct MotorCheckAnswer {
+    pub motor: String,
+    pub date: String,
+    pub assessment: MotorAssessed,
+    /// The verdict and each reading in words, when assessed.
+    pub words: Option<motor_load::MotorCheckWords>,
+}
+
+/// A motor check read, or the input errors that stop it being read.
+#[derive(Clone, Debug, PartialEq, Serialize)]
+#[serde(rename_all = "snake_case")]
+pub enum MotorAssessed {
+    Assessment(motor_load::MotorCheckReport),
+    InputErrors(Vec<InputError>),
 }
 
 #[derive(Clone, Debug, PartialEq, Serialize)]
@@ -288,8 +308,15 @@ pub enum Assessed {
 ///   "pump_tests": [ { "pump", "date",
 ///       "assessment": { "assessment": { ...efficiency::TestReport } }
 ///                   | { "input_errors": [ { "field", "message" } ] },
-///       "trend": { "earlier", "days", "volumetric_change" } | null } ]
+///       "trend": { "earlier", "days", "volumetric_change" } | null } ],
+///   "motor_checks": [ { "motor", "date",          // left out when the job has none
+///       "assessment": { "assessment": { ...motor_load::MotorCheckReport } }
+///                   | { "input_errors": [ { "field", "message" } ] },
+///       "words": { "verdict", "readings": [".."] } | null } ]
 /// }
+///
+/// A phase's `line` (its line current and power factor) is there when the motor's electrical
+/// nameplate is entered and the motor runs.
 /// ```
 ///
 /// Quantities are SI, named by their key's suffix as in the job file. An invalid job prints
@@ -341,12 +368,32 @@ pub fn answer(job: &Job) -> Result<JobAnswer, Vec<InputError>> {
     let phases_by_energy = (0..report.designs.len())
         .map(|d| phases_by_energy(job, &report, d))
         .collect();
+    let motor_checks = job
+        .motor_checks
+        .iter()
+        .map(|check| {
+            let assessed = motor_load::assess_motor(job, check, units);
+            MotorCheckAnswer {
+                motor: check.motor.clone(),
+                date: check.date.clone(),
+                words: assessed
+                    .as_ref()
+                    .ok()
+                    .map(|r| r.describe(units, &job.site.currency)),
+                assessment: match assessed {
+                    Ok(report) => MotorAssessed::Assessment(report),
+                    Err(errors) => MotorAssessed::InputErrors(errors),
+                },
+            }
+        })
+        .collect();
     Ok(JobAnswer {
         phases_by_energy,
         report,
         findings_in_words,
         advice,
         pump_tests,
+        motor_checks,
     })
 }
 

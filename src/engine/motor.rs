@@ -147,6 +147,16 @@ pub struct OutsideTable {
 }
 
 impl EfficiencyClass {
+    /// The class as its standard names it.
+    pub fn name(self) -> &'static str {
+        match self {
+            EfficiencyClass::Ie2 => "IE2",
+            EfficiencyClass::Ie3 => "IE3",
+            EfficiencyClass::Ie4 => "IE4",
+            EfficiencyClass::NemaPremium => "NEMA Premium",
+        }
+    }
+
     /// The class's nominal full-load efficiency for a motor of `rated` (a fraction). At a
     /// table size, the table's figure; between sizes, the published formula for IE3, and for
     /// the others a straight line in log10 of power between the two neighbours (our choice:

@@ -72,9 +72,9 @@ impl LoadMethod {
     /// How far it can be trusted, in a sentence.
     pub fn accuracy(self) -> &'static str {
         match self {
-            LoadMethod::InputPower => "The most reliable: it rests on a power reading, and takes the full-load efficiency at part load, which holds from about half load up.",
-            LoadMethod::Slip | LoadMethod::SlipAtVoltage => "Rough: the nameplate full-load speed may be off by a fifth of the slip and is rounded to 5 rpm, so a few rpm change the load by a tenth.",
-            LoadMethod::Current => "Only from about half load up: below it the magnetising current keeps the current up.",
+            LoadMethod::InputPower => "It is the most reliable: it rests on a power reading, and takes the full-load efficiency at part load, which holds from about half load up.",
+            LoadMethod::Slip | LoadMethod::SlipAtVoltage => "It is rough: the nameplate full-load speed may be off by a fifth of the slip and is rounded to 5 rpm, so a few rpm change the load by a tenth.",
+            LoadMethod::Current => "It holds only from about half load up: below that the magnetising current keeps the current up.",
         }
     }
 }
@@ -222,12 +222,26 @@ pub fn assess_motor(
                 });
             }
         }
+        if let Some((efficiency, EfficiencyFrom::Readings { load_by })) = report.efficiency {
+            if efficiency >= 1.0 {
+                problems.push(MotorProblem {
+                    field: at(&fields::READ_SPEED),
+                    message: format!(
+                        "The input and the load by {} give an efficiency of {:.0} %, which no motor has: check the shaft speed, the synchronous speed and the power reading.",
+                        load_by.name(),
+                        efficiency * 100.0
+                    ),
+                });
+            }
+        }
         if report.estimates.is_empty() {
             problems.push(MotorProblem {
                 field: at(&fields::READ_SPEED),
                 message: "This reading gives no load: add a power reading, the line's volts and amps, or the shaft speed (with the synchronous speed known).".into(),
             });
         }
+        let mut report = report;
+        report.efficiency = report.efficiency.filter(|(e, _)| *e < 1.0);
         readings.push(report);
     }
     let highest = readings
@@ -348,4 +362,96 @@ fn right_size(job: &Job, check: &MotorCheck) -> Option<RightSize> {
         energy_saved: now.totals.annual_energy - then.totals.annual_energy,
         cost_saved: now.totals.annual_cost - then.totals.annual_cost,
     })
+}
+
+/// A check in words, in the job's units and currency.
+#[derive(Clone, Debug, PartialEq, Serialize)]
+pub struct MotorCheckWords {
+    /// The verdict and, for an oversized motor, what a right-sized one would save.
+    pub verdict: String,
+    /// Per reading: each method's load, which to trust and why, and the efficiency.
+    pub readings: Vec<String>,
+}
+
+impl MotorCheckReport {
+    pub fn describe(&self, units: UnitSystem, currency: &str) -> MotorCheckWords {
+        let percent = |x: f64| format!("{:.0} %", x * 100.0);
+        let trusted_method = |load: f64| {
+            self.readings
+                .iter()
+                .filter_map(|r| r.trusted())
+                .find(|e| e.load == load)
+                .map_or("", |e| e.method.name())
+        };
+        let mut verdict = match self.verdict {
+            MotorVerdict::Oversized { load } => format!(
+                "Loaded to at most {} of its rating (by {}): oversized. Below about half load a motor's efficiency and power factor fall away.",
+                percent(load),
+                trusted_method(load)
+            ),
+            MotorVerdict::WellLoaded { load } => format!(
+                "Loaded to at most {} of its rating (by {}): well loaded.",
+                percent(load),
+                trusted_method(load)
+            ),
+            MotorVerdict::Overloaded { load } => format!(
+                "Loaded to {} of its rating (by {}): overloaded. Check the motor's temperature and protection; the cycle needs a larger motor or less load.",
+                percent(load),
+                trusted_method(load)
+            ),
+            MotorVerdict::NotJudged => "Not judged: no reading gives a load to trust (add a power reading, or the shaft speed with the synchronous speed).".into(),
+        };
+        if let (MotorVerdict::Oversized { .. }, Some(right)) = (self.verdict, &self.right_size) {
+            verdict.push_str(&format!(
+                " The smallest standard motor that carries this power unit's cycle, {} ({}), would save {:.0} kWh ({:.0} {currency}) a year at the site's hours and tariff.",
+                units.power(right.rated_power),
+                right.class.name(),
+                right.energy_saved.get::<uom::si::energy::kilowatt_hour>(),
+                right.cost_saved
+            ));
+        }
+        let readings = self
+            .readings
+            .iter()
+            .enumerate()
+            .map(|(k, r)| {
+                let loads: Vec<String> = r
+                    .estimates
+                    .iter()
+                    .map(|e| format!("{} by {}", percent(e.load), e.method.name()))
+                    .collect();
+                let mut words = format!("Reading {}: ", k + 1);
+                if loads.is_empty() {
+                    words.push_str("no load can be worked out.");
+                    return words;
+                }
+                words.push_str(&loads.join("; "));
+                words.push_str(". ");
+                match r.trusted() {
+                    Some(e) => words.push_str(&format!(
+                        "Trust the {} method. {}",
+                        e.method.name(),
+                        e.method.accuracy()
+                    )),
+                    None => words.push_str(&format!(
+                        "The current method says little here. {}",
+                        LoadMethod::Current.accuracy()
+                    )),
+                }
+                if let Some((efficiency, from)) = r.efficiency {
+                    words.push_str(&format!(
+                        " Efficiency {} ({}).",
+                        percent(efficiency),
+                        match from {
+                            EfficiencyFrom::Readings { load_by } =>
+                                format!("from the input and the load by {}", load_by.name()),
+                            EfficiencyFrom::Model => "the part-load model's at this input; add the shaft speed to measure it".into(),
+                        }
+                    ));
+                }
+                words
+            })
+            .collect();
+        MotorCheckWords { verdict, readings }
+    }
 }

@@ -4,14 +4,24 @@
 //! `phasewise_engine::answer`):
 //!
 //!     cargo run -p phasewise-engine --example solve -- job.json
+//!     cargo run -p phasewise-engine --example solve        (the demo job)
 //!
 //! Exit status 0 with the document on stdout; 2 with the input errors (a JSON list of
 //! `{field, message}`) or the file's problem on stderr; 1 if the file cannot be read.
 
 fn main() -> std::process::ExitCode {
     let Some(path) = std::env::args().nth(1) else {
-        eprintln!("usage: cargo run -p phasewise-engine --example solve -- JOB.json");
-        return std::process::ExitCode::from(1);
+        let demo = phasewise_engine::demo::scrap_baler();
+        return match phasewise_engine::solve_json(&demo.to_json()) {
+            Ok(answer) => {
+                println!("{answer}");
+                std::process::ExitCode::SUCCESS
+            }
+            Err(problem) => {
+                eprintln!("{problem}");
+                std::process::ExitCode::from(2)
+            }
+        };
     };
     let text = match std::fs::read_to_string(&path) {
         Ok(text) => text,
