@@ -130,7 +130,7 @@ pub fn scrap_baler() -> Job {
         units: UnitSystem::Si,
         cycle,
         designs: vec![as_found, proposed],
-        site: Site { location: "Recycling yard, press bay 2 (invented)".into(), operating_hours_per_year: 3500.0, tariff_per_kwh: 0.18, currency: "EUR".into(), retrofit_price: 2400.0, grid_factor: None },
+        site: Site { location: "Recycling yard, press bay 2 (invented)".into(), operating_hours_per_year: 3500.0, tariff_per_kwh: 0.18, currency: "EUR".into(), retrofit_price: 2400.0, grid_factor: None , demand_charge: None, power_factor_threshold: None},
         oil: Oil::mineral(Volume::new::<liter>(400.0)),
         advice: Default::default(),
         staging: Default::default(),

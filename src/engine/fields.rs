@@ -388,6 +388,28 @@ pub const GRID_FACTOR: FieldSpec = Job
     )
     .amount(GridFactor, 5.0)
     .or_zero();
+pub const DEMAND_CHARGE: FieldSpec = Job
+    .field(
+        "site.demand_charge_per_kw_month",
+        "Demand charge, if billed",
+    )
+    .amount(DemandCharge, 1e4)
+    .or_zero();
+pub const POWER_FACTOR_THRESHOLD: FieldSpec = Job
+    .field(
+        "site.power_factor_threshold",
+        "Reactive power billed below power factor",
+    )
+    .between(
+        Some(Factor),
+        &Bounds {
+            low: Excluded(0.0),
+            high: Included(1.0),
+            otherwise:
+                "a power factor is more than 0 and at most 1 (tariffs commonly use 0.85 or 0.90)",
+        },
+    )
+    .said("power factor the tariff asks for");
 pub const OIL_VOLUME: FieldSpec = Job
     .field("oil.volume_m3", "Oil in circulation")
     .amount(OilVolume, 1000.0);
@@ -845,6 +867,8 @@ pub const ALL: &[&FieldSpec] = &[
     &CURRENCY,
     &RETROFIT_PRICE,
     &GRID_FACTOR,
+    &DEMAND_CHARGE,
+    &POWER_FACTOR_THRESHOLD,
     &OIL_VOLUME,
     &OIL_DENSITY,
     &OIL_SPECIFIC_HEAT,

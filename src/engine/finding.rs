@@ -69,6 +69,9 @@ pub enum Finding {
         #[serde(rename = "expected_a")]
         expected: ElectricCurrent,
     },
+    /// Over the cycle the motor's power factor (kWh over kVAh) is below the one the site's
+    /// tariff asks for, so the site pays for reactive power.
+    PowerFactorBelowTariff { average: f64, threshold: f64 },
     /// A remote stage set at or above the main setting never governs.
     RemoteAboveMain {
         stage: usize,
@@ -186,6 +189,9 @@ impl Finding {
                 "The hold needs {} but the active limit holds only {}.",
                 p(required),
                 p(reached)
+            ),
+            Finding::PowerFactorBelowTariff { average, threshold } => format!(
+                "Over the cycle the motor's power factor averages {average:.2}, below the {threshold:.2} the tariff asks for: the site pays for reactive power. A motor sized to its load, or power-factor correction by a qualified electrician, raises it; the utility's terms decide what it costs."
             ),
             Finding::CurrentDiffers { measured, expected } => format!(
                 "The motor draws {} here; the model expects {}. {}",

@@ -138,6 +138,8 @@ impl Job {
                 currency,
                 retrofit_price: empty,
                 grid_factor: None,
+                demand_charge: None,
+                power_factor_threshold: None,
             },
             oil: Oil::mineral(Volume {
                 value: empty,

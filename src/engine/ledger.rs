@@ -154,8 +154,61 @@ pub struct CycleTotals {
         serialize_with = "super::units::as_kilowatt_hours"
     )]
     pub annual_energy: Energy,
-    /// In the site's currency.
+    /// In the site's currency: the energy at the tariff, and the demand charge when the site
+    /// has one.
     pub annual_cost: f64,
+    /// The highest average electrical input over the tariff's demand interval, with what it
+    /// costs a year (twelve months of the site's demand charge); absent when the site has no
+    /// demand charge.
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub demand: Option<DemandCharge>,
+}
+
+#[derive(Clone, Copy, Debug, PartialEq, Serialize)]
+pub struct DemandCharge {
+    #[serde(rename = "billed_demand_w")]
+    pub billed_demand: Power,
+    pub annual_cost: f64,
+}
+
+/// The highest average of the cycle's electrical input over any window of `interval` seconds,
+/// the cycle repeating. The input is constant within a phase, so a window's average changes
+/// linearly between the starts where one of its ends crosses a phase boundary: the highest is
+/// at one of those.
+pub fn highest_average_over(phases: &[TimedLedger], interval: f64) -> f64 {
+    let time: f64 = phases.iter().map(|p| p.duration.value).sum();
+    if time <= 0.0 || interval <= 0.0 {
+        return 0.0;
+    }
+    let power = |p: &TimedLedger| p.ledger.electrical_input.value;
+    // Energy from the cycle's start to time t, the cycle repeating.
+    let energy_to = |t: f64| {
+        let cycles = (t / time).floor();
+        let mut e = cycles
+            * phases
+                .iter()
+                .map(|p| power(p) * p.duration.value)
+                .sum::<f64>();
+        let mut left = t - cycles * time;
+        for p in phases {
+            let d = p.duration.value.min(left);
+            e += power(p) * d;
+            left -= d;
+            if left <= 0.0 {
+                break;
+            }
+        }
+        e
+    };
+    let mut boundaries = vec![0.0];
+    for p in phases {
+        boundaries.push(boundaries.last().unwrap_or(&0.0) + p.duration.value);
+    }
+    boundaries
+        .iter()
+        .flat_map(|&b| [b, (b - interval).rem_euclid(time)])
+        .map(|start| (energy_to(start + interval) - energy_to(start)) / interval)
+        .fold(0.0, f64::max)
 }
 
 /// One phase as the cycle's totals see it.
@@ -200,6 +253,13 @@ pub fn cycle_totals(phases: &[TimedLedger], site: &Site, oil: &Oil) -> CycleTota
     let heat_capacity = oil.volume.value * oil.density.value * oil.specific_heat.value;
     let annual_energy_kwh =
         average(energy) * site.operating_hours_per_year * 3600.0 / KILOWATT_HOUR;
+    let demand = site.demand_charge.map(|per_kw_month| {
+        let billed = highest_average_over(phases, super::site::DEMAND_INTERVAL_S);
+        DemandCharge {
+            billed_demand: watts(billed),
+            annual_cost: 12.0 * billed / 1e3 * per_kw_month,
+        }
+    });
     CycleTotals {
         cycle_time: Time::new::<uom::si::time::second>(time),
         energy_per_cycle: Energy::new::<uom::si::energy::joule>(energy),
@@ -217,7 +277,9 @@ pub fn cycle_totals(phases: &[TimedLedger], site: &Site, oil: &Oil) -> CycleTota
         heat_load_btu_per_hour: heat * 3600.0 / BTU_IT,
         oil_rise_k_per_minute: heat * 60.0 / heat_capacity,
         annual_energy: kilowatt_hours(annual_energy_kwh),
-        annual_cost: annual_energy_kwh * site.tariff_per_kwh,
+        annual_cost: annual_energy_kwh * site.tariff_per_kwh
+            + demand.map_or(0.0, |d| d.annual_cost),
+        demand,
     }
 }
 
@@ -362,6 +424,7 @@ mod tests {
             oil_rise_k_per_minute: 0.0,
             annual_energy: kilowatt_hours(0.0),
             annual_cost: 0.0,
+            demand: None,
         }
     }
 
@@ -426,6 +489,8 @@ mod tests {
             currency: "EUR".into(),
             retrofit_price: 0.0,
             grid_factor: None,
+            demand_charge: None,
+            power_factor_threshold: None,
         };
         let oil = Oil::mineral(uom::si::f64::Volume::new::<uom::si::volume::liter>(100.0));
         let t = cycle_totals(

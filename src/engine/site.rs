@@ -28,7 +28,26 @@ pub struct Site {
         skip_serializing_if = "Option::is_none"
     )]
     pub grid_factor: Option<f64>,
+    /// What the utility charges a month per kW of billed demand, in `currency` (absent: the
+    /// tariff has no demand charge). Demand is billed as the highest average power over the
+    /// tariff's demand interval ([`DEMAND_INTERVAL_S`]).
+    #[serde(
+        default,
+        rename = "demand_charge_per_kw_month",
+        skip_serializing_if = "Option::is_none"
+    )]
+    pub demand_charge: Option<f64>,
+    /// The power factor below which the tariff charges for reactive power (absent: it does
+    /// not, or it is not known). Tariffs commonly set 0.85 or 0.90 (UConn ITAC, "Power Factor
+    /// Correction").
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub power_factor_threshold: Option<f64>,
 }
+
+/// The interval a utility's demand meter averages power over (common practice: 15 minutes in
+/// most tariffs, 30 in some; the site's tariff says). A machine whose cycle is shorter is billed
+/// about its average power, not its peak.
+pub const DEMAND_INTERVAL_S: f64 = 15.0 * 60.0;
 
 /// The oil, for the temperature rise with no cooler.
 #[derive(Clone, Copy, Debug, PartialEq, Serialize, Deserialize)]

@@ -147,9 +147,13 @@ pub(crate) fn solve_design(job: &Job, design: &Design) -> DesignReport {
             report.findings.push(f);
         }
     }
+    let mut reactive_note = None;
     if let Some(rating) = &design.motor.electrical {
         for (report, setting) in phases.iter_mut().zip(&design.phase_settings) {
             draw_from_line(report, &design.motor, rating, setting);
+        }
+        if let Some(threshold) = job.site.power_factor_threshold {
+            reactive_note = power_factor_below(&phases, rating, threshold);
         }
     }
     let timed: Vec<super::ledger::TimedLedger> = phases
@@ -162,6 +166,7 @@ pub(crate) fn solve_design(job: &Job, design: &Design) -> DesignReport {
         .collect();
     let totals = super::ledger::cycle_totals(&timed, &job.site, &job.oil);
     let mut findings = design_findings(design);
+    findings.extend(reactive_note);
     findings.extend(super::ledger::motor_findings(
         &design.motor,
         &totals,
@@ -198,6 +203,26 @@ fn draw_from_line(
             });
         }
     }
+}
+
+/// The cycle's power factor, kWh over kVAh of the running phases, when it is below the
+/// tariff's `threshold`.
+fn power_factor_below(
+    phases: &[PhaseReport],
+    rating: &super::motor::ElectricalRating,
+    threshold: f64,
+) -> Option<Finding> {
+    let (mut real, mut apparent) = (0.0, 0.0);
+    for p in phases {
+        if let Some(line) = p.line {
+            let t = p.point.duration.value;
+            real += p.ledger.electrical_input.value * t;
+            apparent += 3f64.sqrt() * rating.voltage.value * line.current.value * t;
+        }
+    }
+    let average = real / apparent;
+    (apparent > 0.0 && average < threshold)
+        .then_some(Finding::PowerFactorBelowTariff { average, threshold })
 }
 
 /// What a phase asks of the power unit, in SI numbers.

@@ -202,6 +202,8 @@ pub enum Measure {
     HoursPerYear,
     /// Electricity price per kWh, in the job's currency.
     Tariff,
+    /// A demand charge per kW of billed demand a month, in the job's currency.
+    DemandCharge,
     /// A sum in the job's currency (the unit is the job's own label, not shown here).
     Money,
     /// Grid emission factor, kg CO2 per kWh.
@@ -248,6 +250,7 @@ impl Measure {
             (Measure::Current, _) => ("A", 1.0, 1),
             (Measure::HoursPerYear, _) => ("h/year", 1.0, 0),
             (Measure::Tariff, _) => ("per kWh", 1.0, 3),
+            (Measure::DemandCharge, _) => ("per kW·month", 1.0, 2),
             (Measure::Money, _) => ("", 1.0, 0),
             (Measure::GridFactor, _) => ("kg/kWh", 1.0, 3),
             (Measure::RisePerHour, Si) => ("K/h", 1.0, 1),

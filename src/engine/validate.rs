@@ -186,6 +186,12 @@ pub fn validate(job: &Job) -> Result<(), Vec<InputError>> {
     c.number(&OPERATING_HOURS, job.site.operating_hours_per_year);
     c.number(&TARIFF, job.site.tariff_per_kwh);
     c.number(&RETROFIT_PRICE, job.site.retrofit_price);
+    if let Some(charge) = job.site.demand_charge {
+        c.number(&DEMAND_CHARGE, charge);
+    }
+    if let Some(pf) = job.site.power_factor_threshold {
+        c.number(&POWER_FACTOR_THRESHOLD, pf);
+    }
     if let Some(f) = job.site.grid_factor {
         c.number(&GRID_FACTOR, f);
     }

@@ -223,6 +223,8 @@ pub fn job(cycle: Vec<Phase>, designs: Vec<Design>) -> Job {
             currency: "EUR".into(),
             retrofit_price: 3000.0,
             grid_factor: None,
+            demand_charge: None,
+            power_factor_threshold: None,
         },
         oil: Oil::mineral(Volume::new::<liter>(200.0)),
         advice: Default::default(),

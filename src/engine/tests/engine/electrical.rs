@@ -218,3 +218,83 @@ fn a_nameplate_that_cannot_be_is_refused_at_the_current() {
         errors[0].message
     );
 }
+
+fn timed(kw_in: f64, seconds: f64) -> phasewise_engine::ledger::TimedLedger {
+    let ledger = phasewise_engine::ledger::PowerLedger {
+        electrical_input: kw(kw_in),
+        useful_power: kw(kw_in),
+        ..Default::default()
+    };
+    phasewise_engine::ledger::TimedLedger {
+        ledger,
+        duration: s(seconds),
+        motor_running: true,
+    }
+}
+
+/// A utility bills demand as the highest average power over its demand interval (15 minutes,
+/// common practice): a cycle much shorter than that is billed its average power, not its peak;
+/// a longer one the worst window. Worked by hand: 10 kW for 10 s and 2 kW for 20 s average
+/// 4.667 kW (900 s is 30 whole cycles); 20 kW for 600 s and 2 kW for 1,800 s give, at worst,
+/// the 600 s of 20 kW and 300 s of 2 kW: 12,600 kJ / 900 s = 14 kW.
+#[test]
+fn demand_is_the_highest_average_over_the_interval() {
+    use phasewise_engine::ledger::highest_average_over;
+    let short = [timed(10.0, 10.0), timed(2.0, 20.0)];
+    assert_close(
+        highest_average_over(&short, 900.0),
+        14_000.0 / 3.0,
+        1e-12,
+        "short",
+    );
+    let long = [timed(2.0, 1000.0), timed(20.0, 600.0), timed(2.0, 800.0)];
+    assert_close(highest_average_over(&long, 900.0), 14_000.0, 1e-12, "long");
+}
+
+/// A demand charge adds twelve months of the billed demand to the yearly cost; a tariff that
+/// asks for a power factor the cycle does not reach gets a note, one it reaches none.
+#[test]
+fn the_tariffs_demand_and_reactive_charges_are_counted() {
+    let plain = solve(&press_with_nameplate()).unwrap().designs[0].totals;
+    assert!(plain.demand.is_none());
+    let mut j = press_with_nameplate();
+    j.site.demand_charge = Some(10.0);
+    j.site.power_factor_threshold = Some(0.95);
+    let report = solve(&j).unwrap();
+    let totals = report.designs[0].totals;
+    let demand = totals.demand.unwrap();
+    assert_close(
+        demand.annual_cost,
+        12.0 * demand.billed_demand.value / 1e3 * 10.0,
+        1e-12,
+        "demand cost",
+    );
+    assert_close(
+        totals.annual_cost,
+        plain.annual_cost + demand.annual_cost,
+        1e-12,
+        "cost",
+    );
+    // The cycle is short against the 15 minutes, so the billed demand is about its average:
+    // a window holds whole cycles and a part of one, at most one cycle's worth of the peak.
+    let (average, peak) = (
+        totals.average_electrical.value,
+        totals.peak_electrical.value,
+    );
+    let billed = demand.billed_demand.value;
+    let most = average + (peak - average) * totals.cycle_time.value / 900.0;
+    assert!(
+        billed >= average && billed <= most,
+        "{average} <= {billed} <= {most}"
+    );
+    let notes = |j: &Job| {
+        solve(j).unwrap().designs[0]
+            .findings
+            .iter()
+            .filter(|f| matches!(f, Finding::PowerFactorBelowTariff { .. }))
+            .count()
+    };
+    assert_eq!(notes(&j), 1);
+    j.site.power_factor_threshold = Some(0.3);
+    assert_eq!(notes(&j), 0);
+}

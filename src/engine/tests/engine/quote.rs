@@ -28,6 +28,7 @@ fn totals(cycle_s: f64, kwh: f64, cost: f64, heat_w: f64) -> CycleTotals {
         oil_rise_k_per_minute: 0.0,
         annual_energy: uom::si::f64::Energy::new::<uom::si::energy::kilowatt_hour>(kwh),
         annual_cost: cost,
+        demand: None,
     }
 }
 
