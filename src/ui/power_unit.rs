@@ -6,13 +6,16 @@ use super::shared::{DesignTabs, OlderBaselineNotice, SettingsCaution};
 use super::state::use_job;
 use crate::engine::cycle::PhaseKind;
 use crate::engine::fields;
+use crate::engine::motor::ElectricalRating;
 use crate::engine::power_unit::{Design, UnloadingStage, MAX_PUMPS};
 use crate::engine::pump::{Pump, PumpControl};
 use crate::engine::units::Measure;
 use crate::engine::valve::{ActiveLimit, CheckValve, IdlePath, ReliefKind, UnloadingValve};
 use crate::engine::Job;
 use leptos::prelude::*;
-use uom::si::f64::Pressure;
+use uom::si::electric_current::ampere;
+use uom::si::electric_potential::volt;
+use uom::si::f64::{ElectricCurrent, ElectricPotential, Pressure};
 use uom::si::pressure::{bar, pascal};
 
 /// The pump at place `p` in shaft order (stages, then the base pump) of design `d`.
@@ -186,6 +189,7 @@ fn DesignEditor(d: usize) -> impl IntoView {
                 get=move |j: &Job| design(j, d).map_or(f64::NAN, |x| x.motor.peak_allowance)
                 set=move |j: &mut Job, v| if let Some(x) = design_mut(j, d) { x.motor.peak_allowance = v } />
         </div>
+        <MotorNameplateFields d=d />
 
         <h2>"Pumps, in shaft order"</h2>
         <SettingsCaution />
@@ -364,6 +368,12 @@ fn PhaseLimit(d: usize, i: usize) -> impl IntoView {
             .with(|j| matches!(j.cycle.get(i).map(|p| &p.kind), Some(PhaseKind::Idle(_))))
     });
     let is_idle = move || is_idle.get();
+    let has_nameplate = Memo::new(move |_| {
+        state
+            .job
+            .with(|j| design(j, d).is_some_and(|x| x.motor.electrical.is_some()))
+    });
+    let has_nameplate = move || has_nameplate.get();
     let options = move || {
         state.job.with(|j| {
             let mut options = vec![("main".to_string(), "Main setting".to_string())];
@@ -430,7 +440,102 @@ fn PhaseLimit(d: usize, i: usize) -> impl IntoView {
                 </select>
             </div>
             {move || is_idle().then(|| view! { <IdlePathField d=d i=i /> })}
+            {move || has_nameplate().then(|| view! { <CurrentReadField d=d i=i /> })}
         </div>
+    }
+}
+
+/// The motor's electrical nameplate, entered on demand: with it the results show each phase's
+/// line current and power factor, and a clamp-meter reading per phase can be set beside them.
+#[component]
+fn MotorNameplateFields(d: usize) -> impl IntoView {
+    let state = use_job();
+    let entered = Memo::new(move |_| {
+        state
+            .job
+            .with(|j| design(j, d).is_some_and(|x| x.motor.electrical.is_some()))
+    });
+    let rating = move |j: &Job| design(j, d).and_then(|x| x.motor.electrical);
+    fn rating_mut(j: &mut Job, d: usize) -> Option<&mut ElectricalRating> {
+        design_mut(j, d).and_then(|x| x.motor.electrical.as_mut())
+    }
+    let add = move |_| {
+        state.job.update(|j| {
+            if let Some(x) = design_mut(j, d) {
+                x.motor.electrical = Some(ElectricalRating {
+                    voltage: ElectricPotential::new::<volt>(f64::NAN),
+                    full_load_current: ElectricCurrent::new::<ampere>(f64::NAN),
+                    power_factor: None,
+                });
+            }
+        })
+    };
+    let remove = move |_| {
+        state.job.update(|j| {
+            if let Some(x) = design_mut(j, d) {
+                x.motor.electrical = None;
+                for s in &mut x.phase_settings {
+                    s.measured_current = None;
+                }
+            }
+        })
+    };
+    view! {
+        <h3>"Electrical nameplate"</h3>
+        <p class="hint">"With it, the results show each phase's line current and power factor, to compare with a clamp meter."</p>
+        {move || if entered.get() {
+            view! {
+                <div class="field-grid">
+                    <NumberField field=&fields::MOTOR_VOLTAGE at=[d]
+                        get=move |j: &Job| rating(j).map_or(f64::NAN, |r| r.voltage.value)
+                        set=move |j: &mut Job, v| if let Some(r) = rating_mut(j, d) { r.voltage.value = v } />
+                    <NumberField field=&fields::MOTOR_FULL_LOAD_CURRENT at=[d]
+                        get=move |j: &Job| rating(j).map_or(f64::NAN, |r| r.full_load_current.value)
+                        set=move |j: &mut Job, v| if let Some(r) = rating_mut(j, d) { r.full_load_current.value = v } />
+                    <OptionalNumberField field=&fields::MOTOR_POWER_FACTOR at=[d]
+                        placeholder=Signal::derive(|| "from the rest of the nameplate".to_string())
+                        get=move |j: &Job| rating(j).and_then(|r| r.power_factor)
+                        set=move |j: &mut Job, v| if let Some(r) = rating_mut(j, d) { r.power_factor = v } />
+                </div>
+                <button type="button" class="button quiet" data-action="remove-nameplate" on:click=remove>"Leave the electrical nameplate out"</button>
+            }.into_any()
+        } else {
+            view! {
+                <button type="button" class="button wide" data-action="add-nameplate" on:click=add>"Enter the electrical nameplate"</button>
+            }.into_any()
+        }}
+    }
+}
+
+/// A clamp-meter reading of the line current in phase `i`, with the model's figure as its
+/// placeholder (the engine compares them and says when they differ).
+#[component]
+fn CurrentReadField(d: usize, i: usize) -> impl IntoView {
+    let state = use_job();
+    let model = Signal::derive(move || {
+        let units = state.units();
+        state.result.with(|r| {
+            r.as_ref()
+                .ok()
+                .and_then(|r| r.designs.get(d))
+                .and_then(|x| x.phases.get(i))
+                .and_then(|p| p.line)
+                .map_or_else(
+                    || "not read".to_string(),
+                    |l| {
+                        format!(
+                            "model: {}",
+                            Measure::Current.with_unit(units, l.current.value)
+                        )
+                    },
+                )
+        })
+    });
+    view! {
+        <OptionalNumberField field=&fields::MEASURED_CURRENT at=[d, i]
+            placeholder=model
+            get=move |j: &Job| design(j, d).and_then(|x| x.phase_settings.get(i)).and_then(|s| s.measured_current.map(|a| a.value))
+            set=move |j: &mut Job, v| if let Some(s) = design_mut(j, d).and_then(|x| x.phase_settings.get_mut(i)) { s.measured_current = v.map(ElectricCurrent::new::<ampere>) } />
     }
 }
 

@@ -306,6 +306,12 @@ fn SiteCosts() -> impl IntoView {
                 <OptionalNumberField field=&fields::GRID_FACTOR
                     placeholder="none: no CO₂ figures".to_string()
                     get=|j: &Job| j.site.grid_factor set=|j: &mut Job, v| j.site.grid_factor = v />
+                <OptionalNumberField field=&fields::DEMAND_CHARGE
+                    placeholder="none: energy only".to_string()
+                    get=|j: &Job| j.site.demand_charge set=|j: &mut Job, v| j.site.demand_charge = v />
+                <OptionalNumberField field=&fields::POWER_FACTOR_THRESHOLD
+                    placeholder="none: reactive power not billed".to_string()
+                    get=|j: &Job| j.site.power_factor_threshold set=|j: &mut Job, v| j.site.power_factor_threshold = v />
                 {own_prices}
             </div>
         </div>

@@ -93,7 +93,12 @@ fn ReportView(
         <TimelineChart design=design.clone() units=units />
         <h2>"Phase by phase"</h2>
         <ol class="phase-results">
-            {design.phases.iter().enumerate().map(|(i, p)| view! { <PhaseResult i=i phase=p.clone() units=units /> }).collect_view()}
+            {design.phases.iter().enumerate().map(|(i, p)| {
+                let read = state.job.with_untracked(|j| {
+                    j.designs.get(d).and_then(|x| x.phase_settings.get(i)).and_then(|s| s.measured_current.map(|a| a.value))
+                });
+                view! { <PhaseResult i=i phase=p.clone() units=units read=read /> }
+            }).collect_view()}
         </ol>
         {(!design.findings.is_empty()).then(|| view! {
             <h2>"About this power unit"</h2>
@@ -171,13 +176,38 @@ fn Totals(design: DesignReport, units: UnitSystem, currency: String) -> impl Int
                 <Figure label="Oil warms, no cooler" value=Measure::RiseRate.with_unit(units, t.oil_rise_k_per_minute) key="oil-rise" />
                 <Figure label="Energy a year" value=format!("{:.0} kWh", t.annual_energy.get::<kilowatt_hour>()) key="annual-energy" />
                 <Figure label="Running cost a year" value=format!("{:.0} {currency}", t.annual_cost) key="annual-cost" />
+                {t.demand.map(|demand| view! {
+                    <Figure label="of which demand charge" value=format!(
+                        "{:.0} {currency} ({} billed)",
+                        demand.annual_cost,
+                        Measure::Power.with_unit(units, demand.billed_demand.value)
+                    ) key="demand-cost" />
+                })}
             </dl>
         </div>
     }
 }
 
+/// A difference of current with its sign: "+0.7 A", "-1.2 A".
+fn signed_current(units: UnitSystem, amps: f64) -> String {
+    let text = Measure::Current.with_unit(units, amps.abs());
+    if Measure::Current.format(units, amps.abs()) == Measure::Current.format(units, 0.0) {
+        text
+    } else if amps > 0.0 {
+        format!("+{text}")
+    } else {
+        format!("−{text}")
+    }
+}
+
 #[component]
-fn PhaseResult(i: usize, phase: crate::engine::PhaseReport, units: UnitSystem) -> impl IntoView {
+fn PhaseResult(
+    i: usize,
+    phase: crate::engine::PhaseReport,
+    units: UnitSystem,
+    /// The line current a clamp meter read in this phase, if entered.
+    read: Option<f64>,
+) -> impl IntoView {
     let p = &phase.point;
     let l = &phase.ledger;
     let unloaded: Vec<String> = p
@@ -219,6 +249,16 @@ fn PhaseResult(i: usize, phase: crate::engine::PhaseReport, units: UnitSystem) -
                 {row("Pumps", "pumps", pumps)}
                 {row("Limit", "limit", format!("{limit}, {}", Measure::Pressure.with_unit(units, p.limit.setting.value)))}
                 {row("Electrical input", "input", Measure::Power.with_unit(units, l.electrical_input.value))}
+                {phase.line.map(|line| row("Line current", "current", format!(
+                    "{} at power factor {:.2}",
+                    Measure::Current.with_unit(units, line.current.value),
+                    line.power_factor
+                )))}
+                {phase.line.zip(read).map(|(line, read)| row("Clamp meter read", "current-read", format!(
+                    "{} ({} against the model)",
+                    Measure::Current.with_unit(units, read),
+                    signed_current(units, read - line.current.value)
+                )))}
                 {row(LedgerItem::UsefulWork.name(), "useful", Measure::Power.with_unit(units, l.useful_power.value))}
                 {row("Heat into the oil", "heat", Measure::Power.with_unit(units, l.heat_into_oil().value))}
             </dl>
