@@ -17,6 +17,9 @@ pub enum Area {
     Settings,
     /// A pump's efficiency from readings taken at the machine.
     PumpTest,
+    /// A motor's load and efficiency from readings taken at the machine; reached from the
+    /// power unit's motor and from the pump test.
+    MotorCheck,
     /// The designs side by side for a retrofit quote: cost, savings, payback.
     Quote,
     /// The quote as a page to print or save as PDF; reached from the quote area.
@@ -33,7 +36,8 @@ impl Area {
 
     /// The areas in the navigation bar, in working order. Safety is not among them: it has
     /// its own button in the top bar so that it is one tap away from everywhere. Nor is the
-    /// printable report: it opens from the quote area, as a document does.
+    /// printable report: it opens from the quote area, as a document does. Nor the motor
+    /// check: it opens from the power unit's motor, so seven items still fit a phone.
     pub const NAV: [Area; 7] = [
         Area::Cycle,
         Area::PowerUnit,
@@ -45,12 +49,13 @@ impl Area {
     ];
 
     /// Every area, for code that must treat them all (tests, the router).
-    pub const ALL: [Area; 9] = [
+    pub const ALL: [Area; 10] = [
         Area::Cycle,
         Area::PowerUnit,
         Area::Results,
         Area::Settings,
         Area::PumpTest,
+        Area::MotorCheck,
         Area::Quote,
         Area::Report,
         Area::Jobs,
@@ -71,6 +76,7 @@ impl Area {
             Area::Results => "results",
             Area::Settings => "settings",
             Area::PumpTest => "pump-test",
+            Area::MotorCheck => "motor-check",
             Area::Quote => "quote",
             Area::Report => "report",
             Area::Jobs => "jobs",
@@ -101,6 +107,7 @@ impl Area {
             Area::Results => "Results",
             Area::Settings => "Valve settings",
             Area::PumpTest => "Pump test",
+            Area::MotorCheck => "Motor check",
             Area::Quote => "Retrofit quote",
             Area::Report => "Quote report",
             Area::Jobs => "Jobs on this device",
@@ -117,6 +124,7 @@ impl Area {
             Area::Results => "Results",
             Area::Settings => "Valve settings",
             Area::PumpTest => "Pump test",
+            Area::MotorCheck => "Motor check",
             Area::Quote => "Quote",
             Area::Report => "Report",
             Area::Jobs => "Jobs",
@@ -141,6 +149,9 @@ impl Area {
             }
             Area::PumpTest => {
                 "A pump's volumetric and overall efficiency from flow, pressure, speed and motor readings."
+            }
+            Area::MotorCheck => {
+                "How loaded a motor is and how efficient, from a power meter, a clamp meter or a tachometer."
             }
             Area::Quote => {
                 "Every power unit of the job side by side: what each costs to run, what the retrofit saves, and when it pays for itself."
@@ -198,10 +209,10 @@ mod tests {
     }
 
     #[test]
-    fn navigation_holds_every_area_but_safety_and_the_report_once() {
+    fn navigation_holds_every_area_but_safety_the_report_and_the_motor_check_once() {
         for area in Area::ALL {
             let count = Area::NAV.iter().filter(|&&a| a == area).count();
-            let kept_out = matches!(area, Area::Safety | Area::Report);
+            let kept_out = matches!(area, Area::Safety | Area::Report | Area::MotorCheck);
             assert_eq!(count, usize::from(!kept_out), "{area:?}");
         }
     }

@@ -40,6 +40,8 @@ pub fn area_icon(area: Area) -> AnyView {
         Area::Settings => "M4.5 17a7.5 7.5 0 1 1 15 0 M12 17l3.5-4.5 M4 20h16",
         // A meter trace: readings taken from a running pump.
         Area::PumpTest => "M3 13h4l2.5-6 4 11 2.5-5H21",
+        // A circle with a tick for the shaft and a lead out: a motor being read.
+        Area::MotorCheck => "M12 5a7 7 0 1 1 0 14a7 7 0 1 1 0-14 M12 12l3-3 M19 12h3",
         // A sheet with a total line under two figures: the quote.
         Area::Quote | Area::Report => "M6 3h9l3 3v15H6Z M9 10h6 M9 13.5h6 M9 17.5h6",
         // A folder: jobs kept on the device.

@@ -9,6 +9,7 @@ mod display;
 pub mod field;
 mod icons;
 pub mod jobs;
+mod motor_check;
 mod offline;
 mod power_unit;
 mod pump_test;
@@ -120,6 +121,7 @@ fn page(area: Area) -> AnyView {
         Area::Jobs => view! { <jobs::JobsArea /> }.into_any(),
         Area::Settings => view! { <valve_settings::SettingsArea /> }.into_any(),
         Area::PumpTest => view! { <pump_test::PumpCheckArea /> }.into_any(),
+        Area::MotorCheck => view! { <motor_check::MotorCheckArea /> }.into_any(),
         Area::Quote => view! { <quote::QuoteArea /> }.into_any(),
         Area::Report => view! { <report::ReportArea /> }.into_any(),
     }

@@ -190,6 +190,7 @@ fn DesignEditor(d: usize) -> impl IntoView {
                 set=move |j: &mut Job, v| if let Some(x) = design_mut(j, d) { x.motor.peak_allowance = v } />
         </div>
         <MotorNameplateFields d=d />
+        <a class="button quiet" href=crate::ui::area::Area::MotorCheck.href() data-link="motor-check">"Check this motor at the machine"</a>
 
         <h2>"Pumps, in shaft order"</h2>
         <SettingsCaution />

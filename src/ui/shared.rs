@@ -70,6 +70,7 @@ pub fn area_of(field: &str) -> super::area::Area {
         "site" | "oil" => Area::Quote,
         "advice" | "staging" => Area::Settings,
         "pump_tests" | "wear" => Area::PumpTest,
+        "motor_checks" => Area::MotorCheck,
         _ => Area::Jobs,
     }
 }

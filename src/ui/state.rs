@@ -15,6 +15,8 @@ pub type Outcome = Result<Arc<JobReport>, Arc<Vec<InputError>>>;
 /// What the engine says about each pump test of the job: its report, or its input errors.
 pub type PumpTestOutcomes =
     Arc<Vec<Result<crate::engine::efficiency::TestReport, Vec<InputError>>>>;
+pub type MotorCheckOutcomes =
+    Arc<Vec<Result<crate::engine::motor_load::MotorCheckReport, Vec<InputError>>>>;
 
 /// A change that threw something away (a design removed, a proposed design overwritten), kept
 /// so one tap puts the job back as it was.
@@ -40,6 +42,8 @@ pub struct JobState {
     /// Each pump test checked and assessed once per change of the job (computed only when
     /// read: the pump-check area and its fields share it).
     pub pump_tests: Memo<PumpTestOutcomes>,
+    /// Each motor check read once per change of the job (computed only when read).
+    pub motor_checks: Memo<MotorCheckOutcomes>,
     /// The last report of a job without errors: shown, marked stale, while the job has errors.
     pub last_good: RwSignal<Option<Arc<JobReport>>>,
     /// The design the power-unit and results areas show.
@@ -85,6 +89,28 @@ impl JobState {
             },
             |_, _| true,
         );
+        let motor_checks = Memo::new_with_compare(
+            move |_| {
+                job.with(|j| {
+                    Arc::new(
+                        j.motor_checks
+                            .iter()
+                            .enumerate()
+                            .map(|(i, c)| {
+                                crate::engine::motor_load::assess_motor(j, c, j.units).map_err(
+                                    |_| {
+                                        crate::engine::validate::validate_motor_check(
+                                            c, i, j, j.units,
+                                        )
+                                    },
+                                )
+                            })
+                            .collect(),
+                    )
+                })
+            },
+            |_, _| true,
+        );
         // Kept by an effect, not a memo: a memo is only computed when read, and the results
         // may not be on screen while the job is still good.
         let last_good = RwSignal::new(None);
@@ -97,6 +123,7 @@ impl JobState {
             job,
             result,
             pump_tests,
+            motor_checks,
             last_good,
             design: RwSignal::new(0),
             open_phase: RwSignal::new(None),
@@ -155,6 +182,21 @@ impl JobState {
             let (index, inner) = rest.split_once("].")?;
             let index: usize = index.parse().ok()?;
             return self.pump_tests.with(|tests| match tests.get(index)? {
+                Err(errors) => errors
+                    .iter()
+                    .find(|e| e.field == field)
+                    .map(|e| e.message.clone()),
+                Ok(report) => report
+                    .problems
+                    .iter()
+                    .find(|p| p.field == inner)
+                    .map(|p| p.message.clone()),
+            });
+        }
+        if let Some(rest) = field.strip_prefix("motor_checks[") {
+            let (index, inner) = rest.split_once("].")?;
+            let index: usize = index.parse().ok()?;
+            return self.motor_checks.with(|checks| match checks.get(index)? {
                 Err(errors) => errors
                     .iter()
                     .find(|e| e.field == field)
