@@ -179,6 +179,19 @@ fn design_strategy(phases: usize) -> impl Strategy<Value = Design> {
                         let mut motor = motor(m.0, m.1, m.2);
                         motor.fixed_loss_share = m.3;
                         motor.service_factor = m.4;
+                        // An electrical nameplate consistent with a 0.85 full-load power
+                        // factor at 400 V, so every running phase has a line current.
+                        motor.electrical = Some(phasewise_engine::motor::ElectricalRating {
+                            voltage: uom::si::f64::ElectricPotential::new::<
+                                uom::si::electric_potential::volt,
+                            >(400.0),
+                            full_load_current: uom::si::f64::ElectricCurrent::new::<
+                                uom::si::electric_current::ampere,
+                            >(
+                                m.0 * 1e3 / (m.2 * 3f64.sqrt() * 400.0 * 0.85)
+                            ),
+                            power_factor: None,
+                        });
                         let kind = if pilot {
                             ReliefKind::PilotOperated
                         } else {
@@ -256,6 +269,22 @@ fn the_ledger_closes_and_every_number_is_finite() {
                             && item.value >= -1e-9 * l.electrical_input.value.max(1.0),
                         "{l:?}"
                     );
+                }
+                // The line current and power factor give the ledger's input: sqrt(3) V I PF.
+                match (phase.line, phase.point.motor_running) {
+                    (Some(line), true) => {
+                        let input = 3f64.sqrt() * 400.0 * line.current.value * line.power_factor;
+                        prop_assert!(
+                            (input - l.electrical_input.value).abs()
+                                <= 1e-9 * l.electrical_input.value.max(1.0),
+                            "{input} against {l:?}"
+                        );
+                        prop_assert!((0.0..=1.0).contains(&line.power_factor), "{line:?}");
+                    }
+                    (None, false) => {}
+                    (line, running) => {
+                        prop_assert!(false, "line {line:?} while running {running}")
+                    }
                 }
                 let p = &phase.point;
                 for x in [
