@@ -237,6 +237,7 @@ fn CheckEditor(c: usize) -> impl IntoView {
             get=move |j: &Job| check(j, c).map_or(String::new(), |x| x.notes.clone())
             set=move |j: &mut Job, v| if let Some(x) = check_mut(j, c) { x.notes = v } />
         <h2>"Readings"</h2>
+        <p class="hint">"Take readings across the cycle, the working phases included: the verdict rests on the highest load read."</p>
         {move || (0..readings.get()).map(|k| view! { <MotorReadingEditor c=c k=k /> }).collect_view()}
         <button type="button" class="button wide" data-action="add-motor-reading" on:click=add>"Add a reading"</button>
         <button type="button" class="button danger" data-action="delete-motor-check" on:click=remove>"Delete this check"</button>
