@@ -54,6 +54,47 @@ async fn a_motor_check_on_a_phone_reads_the_verdict_and_follows_a_reading() {
         t.contains("cannot be negative")
     })
     .await;
+    // A new check of the shown motor, its nameplate taken from the power unit: one clamp-meter
+    // reading with volts, amps and power factor, and one tachometer reading.
+    b.click("[data-action='new-motor-check']").await;
+    b.wait_for(&field("motor_checks[1].readings[0].line.voltage_v"))
+        .await;
+    b.fill(&field("motor_checks[1].motor"), "Main motor again")
+        .await;
+    b.fill(&field("motor_checks[1].readings[0].line.voltage_v"), "400")
+        .await;
+    b.fill(&field("motor_checks[1].readings[0].line.current_a"), "36")
+        .await;
+    b.fill(
+        &field("motor_checks[1].readings[0].line.power_factor"),
+        "0.84",
+    )
+    .await;
+    b.click("[data-action='add-motor-reading']").await;
+    b.fill(
+        &field("motor_checks[1].readings[1].speed_rad_per_s"),
+        "1478",
+    )
+    .await;
+    let verdict = b
+        .wait_for_text("[data-motor-verdict] p", |t| t.contains("by input power"))
+        .await;
+    let stored: Job = serde_json::from_value(
+        b.stored_job_when(|j| {
+            j["motor_checks"][1]["readings"][1]["speed_rad_per_s"]
+                .as_f64()
+                .is_some()
+        })
+        .await,
+    )
+    .unwrap();
+    let report = assess_motor(&stored, &stored.motor_checks[1], stored.units).unwrap();
+    assert_eq!(
+        verdict,
+        report.describe(stored.units, &stored.site.currency).verdict
+    );
+    assert_eq!(b.sideways_overflow().await, 0);
+    b.screenshot("motor-check-new").await;
     app.finish().await;
 }
 
