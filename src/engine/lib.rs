@@ -122,6 +122,7 @@ pub mod staging;
 pub mod units;
 pub mod validate;
 pub mod valve;
+pub mod viscosity;
 
 pub use finding::Finding;
 pub use job::{Job, JobFileError, Oil, Site, SCHEMA_VERSION};
