@@ -33,7 +33,7 @@
 //! of the staging options that carries its RMS and peak shaft power, at the options' efficiency
 //! class (as the staging search sizes one): the same yearly figures the quote uses.
 
-use super::efficiency::{shaft_for_input, MOST_LOAD_BELIEVED};
+use super::efficiency::{shaft_for_input, Problem, MOST_LOAD_BELIEVED};
 use super::fields;
 use super::job::Job;
 use super::motor::{EfficiencyClass, Motor, TYPICAL_FIXED_LOSS_SHARE, TYPICAL_PEAK_ALLOWANCE};
@@ -148,14 +148,6 @@ pub struct RightSize {
     pub cost_saved: f64,
 }
 
-/// Something in the readings that cannot be right, with the field to look at (its path within
-/// the check).
-#[derive(Clone, Debug, PartialEq, Serialize)]
-pub struct MotorProblem {
-    pub field: String,
-    pub message: String,
-}
-
 /// Everything a check says.
 #[derive(Clone, Debug, PartialEq, Serialize)]
 pub struct MotorCheckReport {
@@ -166,7 +158,9 @@ pub struct MotorCheckReport {
     pub readings: Vec<MotorReadingReport>,
     pub verdict: MotorVerdict,
     pub right_size: Option<RightSize>,
-    pub problems: Vec<MotorProblem>,
+    /// Readings that cannot be right, each with the field to look at (its path within the
+    /// check), as a pump test's are.
+    pub problems: Vec<Problem>,
 }
 
 /// The check read against the job (its power unit's cycle, the site, the staging options);
@@ -205,7 +199,7 @@ pub fn assess_motor(
         let report = read(r, check, synchronous, rated_input, &model);
         if let Some(input) = report.input {
             if input.value > rated_input * MOST_LOAD_BELIEVED {
-                problems.push(MotorProblem {
+                problems.push(Problem {
                     field: at(if r.input.is_some() { &fields::READ_INPUT } else { &fields::READ_CURRENT }),
                     message: format!(
                         "This input would load the motor to {:.0} % of its rating: check the meter's range, that the clamp is on one line conductor, and the voltage.",
@@ -216,7 +210,7 @@ pub fn assess_motor(
         }
         if let (Some(speed), Some(sync)) = (r.speed, synchronous) {
             if speed.value >= sync {
-                problems.push(MotorProblem {
+                problems.push(Problem {
                     field: at(&fields::READ_SPEED),
                     message: "An induction motor driving a load turns below its synchronous speed: check the tachometer and the synchronous speed.".into(),
                 });
@@ -224,7 +218,7 @@ pub fn assess_motor(
         }
         if let Some((efficiency, EfficiencyFrom::Readings { load_by })) = report.efficiency {
             if efficiency >= 1.0 {
-                problems.push(MotorProblem {
+                problems.push(Problem {
                     field: at(&fields::READ_SPEED),
                     message: format!(
                         "The input and the load by {} give an efficiency of {:.0} %, which no motor has: check the shaft speed, the synchronous speed and the power reading.",
@@ -235,7 +229,7 @@ pub fn assess_motor(
             }
         }
         if report.estimates.is_empty() {
-            problems.push(MotorProblem {
+            problems.push(Problem {
                 field: at(&fields::READ_SPEED),
                 message: "This reading gives no load: add a power reading, the line's volts and amps, or the shaft speed (with the synchronous speed known).".into(),
             });

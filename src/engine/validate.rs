@@ -454,6 +454,36 @@ fn check_pump(c: &mut Checker, p: &Pump) {
 /// motors slip a few percent).
 const MAX_SLIP: f64 = 0.2;
 
+/// A synchronous speed entered for a motor whose full-load speed is `full_load` (rad/s): a
+/// number, above the full-load speed, and within an induction motor's slip of it.
+fn check_synchronous_speed(
+    c: &mut Checker,
+    field: &FieldSpec,
+    sync: f64,
+    full_load: f64,
+    full_load_ok: bool,
+) {
+    let units = c.units;
+    if !(c.number(field, sync) && full_load_ok) {
+        return;
+    }
+    if sync <= full_load {
+        c.fail(
+            field,
+            "must be above the full-load speed: a four-pole motor on 50 Hz is 1500 rpm and turns about 1460 rpm at full load",
+        );
+    } else if full_load < sync * (1.0 - MAX_SLIP) {
+        c.fail(
+            field,
+            format!(
+                "{} is too far above the full-load speed of {} for an induction motor (they differ by a few percent): check both",
+                rpm(units, sync),
+                rpm(units, full_load)
+            ),
+        );
+    }
+}
+
 fn rpm(units: UnitSystem, rad_per_s: f64) -> String {
     Measure::ShaftSpeed.with_unit(units, rad_per_s)
 }
@@ -476,10 +506,14 @@ pub(crate) fn pump_test_errors(
     test: &super::pump_test::PumpTest,
     units: UnitSystem,
 ) -> Vec<InputError> {
-    let test_at = format!("{}.", Part::PumpTest.at(&[0]));
-    let mut errors = validate_pump_test(test, 0, units);
+    within_item(Part::PumpTest, validate_pump_test(test, 0, units))
+}
+
+/// `errors` of item 0 of `part`'s list, their paths made relative to the item.
+fn within_item(part: Part, mut errors: Vec<InputError>) -> Vec<InputError> {
+    let item_at = format!("{}.", part.at(&[0]));
     for e in &mut errors {
-        if let Some(within) = e.field.strip_prefix(&test_at) {
+        if let Some(within) = e.field.strip_prefix(&item_at) {
             e.field = within.to_string();
         }
     }
@@ -506,19 +540,11 @@ pub(crate) fn motor_check_errors(
     job: &Job,
     units: UnitSystem,
 ) -> Vec<InputError> {
-    let check_at = format!("{}.", Part::MotorCheck.at(&[0]));
-    let mut errors = validate_motor_check(check, 0, job, units);
-    for e in &mut errors {
-        if let Some(within) = e.field.strip_prefix(&check_at) {
-            e.field = within.to_string();
-        }
-    }
-    errors
+    within_item(Part::MotorCheck, validate_motor_check(check, 0, job, units))
 }
 
 fn check_motor_check(c: &mut Checker, check: &super::motor_check::MotorCheck, job: &Job) {
     use super::pump_test::MotorEfficiency;
-    let units = c.units;
     c.text(&CHECKED_MOTOR, &check.motor);
     c.text(&CHECK_DATE, &check.date);
     if check.design >= job.designs.len() {
@@ -543,24 +569,14 @@ fn check_motor_check(c: &mut Checker, check: &super::motor_check::MotorCheck, jo
     if let Some(pf) = plate.power_factor {
         c.number(&CHECK_POWER_FACTOR, pf);
     }
-    if let Some(sync) = plate.synchronous_speed.map(|s| s.value) {
-        if c.number(&CHECK_SYNCHRONOUS_SPEED, sync) && full_load_ok {
-            if sync <= full_load {
-                c.fail(
-                    &CHECK_SYNCHRONOUS_SPEED,
-                    "must be above the full-load speed: a four-pole motor on 50 Hz is 1500 rpm and turns about 1460 rpm at full load",
-                );
-            } else if full_load < sync * (1.0 - MAX_SLIP) {
-                c.fail(
-                    &CHECK_SYNCHRONOUS_SPEED,
-                    format!(
-                        "{} is too far above the full-load speed of {} for an induction motor (they differ by a few percent): check both",
-                        rpm(units, sync),
-                        rpm(units, full_load)
-                    ),
-                );
-            }
-        }
+    if let Some(sync) = plate.synchronous_speed {
+        check_synchronous_speed(
+            c,
+            &CHECK_SYNCHRONOUS_SPEED,
+            sync.value,
+            full_load,
+            full_load_ok,
+        );
     }
     if check.readings.is_empty() {
         c.fail(
@@ -589,30 +605,19 @@ fn check_motor_check(c: &mut Checker, check: &super::motor_check::MotorCheck, jo
 
 fn check_pump_test(c: &mut Checker, test: &super::pump_test::PumpTest) {
     use super::pump_test::{ElectricalInput, MotorEfficiency};
-    let units = c.units;
     c.text(&TESTED_PUMP, &test.pump);
     c.text(&TEST_DATE, &test.date);
     c.number(&TEST_DISPLACEMENT, test.displacement.value);
     let full_load = test.speed.value;
     let full_load_ok = c.number(&TEST_SPEED, full_load);
-    if let Some(sync) = test.synchronous_speed.map(|s| s.value) {
-        if c.number(&TEST_SYNCHRONOUS_SPEED, sync) && full_load_ok {
-            if sync <= full_load {
-                c.fail(
-                    &TEST_SYNCHRONOUS_SPEED,
-                    "must be above the full-load speed: a four-pole motor on 50 Hz is 1500 rpm and turns about 1460 rpm at full load",
-                );
-            } else if full_load < sync * (1.0 - MAX_SLIP) {
-                c.fail(
-                    &TEST_SYNCHRONOUS_SPEED,
-                    format!(
-                        "{} is too far above the full-load speed of {} for an induction motor (they differ by a few percent): check both",
-                        rpm(units, sync),
-                        rpm(units, full_load)
-                    ),
-                );
-            }
-        }
+    if let Some(sync) = test.synchronous_speed {
+        check_synchronous_speed(
+            c,
+            &TEST_SYNCHRONOUS_SPEED,
+            sync.value,
+            full_load,
+            full_load_ok,
+        );
     }
     c.number(&TEST_RATED_PRESSURE, test.rated_pressure.value);
     c.number(&TEST_MOTOR_POWER, test.motor_rated_power.value);

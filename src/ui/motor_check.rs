@@ -5,9 +5,9 @@
 
 use super::field::{ChoiceField, NumberField, OptionalNumberField, TextField};
 use super::icons::CautionIcon;
+use super::shared::{efficiency_from_key, efficiency_source_key, efficiency_source_options};
 use super::state::use_job;
 use crate::engine::fields;
-use crate::engine::motor::EfficiencyClass;
 use crate::engine::motor_check::{LineReading, MotorCheck, MotorNameplate, MotorReading};
 use crate::engine::motor_load::{MotorCheckReport, MotorVerdict};
 use crate::engine::pump_test::MotorEfficiency;
@@ -118,32 +118,13 @@ pub fn MotorCheckArea() -> impl IntoView {
 }
 
 fn efficiency_source(j: &Job, c: usize) -> &'static str {
-    match check(j, c).map(|x| x.nameplate.efficiency) {
-        Some(MotorEfficiency::Class { class }) => match class {
-            EfficiencyClass::Ie2 => "ie2",
-            EfficiencyClass::Ie3 => "ie3",
-            EfficiencyClass::Ie4 => "ie4",
-            EfficiencyClass::NemaPremium => "nema",
-        },
-        _ => "entered",
-    }
+    check(j, c).map_or("entered", |x| efficiency_source_key(x.nameplate.efficiency))
 }
 
+/// A switch to the nameplate leaves its figure to be typed.
 fn set_efficiency_source(j: &mut Job, c: usize, v: &str) {
-    let class = match v {
-        "ie2" => Some(EfficiencyClass::Ie2),
-        "ie3" => Some(EfficiencyClass::Ie3),
-        "ie4" => Some(EfficiencyClass::Ie4),
-        "nema" => Some(EfficiencyClass::NemaPremium),
-        _ => None,
-    };
     if let Some(x) = check_mut(j, c) {
-        x.nameplate.efficiency = match class {
-            Some(class) => MotorEfficiency::Class { class },
-            None => MotorEfficiency::Entered {
-                efficiency: f64::NAN,
-            },
-        };
+        x.nameplate.efficiency = efficiency_from_key(v, f64::NAN);
     }
 }
 
@@ -214,13 +195,7 @@ fn CheckEditor(c: usize) -> impl IntoView {
                 get=move |j: &Job| plate(j).and_then(|p| p.synchronous_speed).map(|s| s.value)
                 set=move |j: &mut Job, v| if let Some(p) = plate_mut(j, c) { p.synchronous_speed = v.map(AngularVelocity::new::<radian_per_second>) } />
             <ChoiceField field=&fields::CHECK_EFFICIENCY_FROM at=[c]
-                options=vec![
-                    ("entered", "Its nameplate".to_string()),
-                    ("ie2", "IE2 table (IEC, 4-pole, 50 Hz)".to_string()),
-                    ("ie3", "IE3 table (IEC, 4-pole, 50 Hz)".to_string()),
-                    ("ie4", "IE4 table (IEC, 4-pole, 50 Hz)".to_string()),
-                    ("nema", "NEMA Premium table (4-pole, 60 Hz)".to_string()),
-                ]
+                options=efficiency_source_options()
                 get=move |j: &Job| efficiency_source(j, c)
                 set=move |j: &mut Job, v: &str| set_efficiency_source(j, c, v) />
             {move || (efficiency_source(&state.job.read(), c) == "entered").then(|| view! {

@@ -5,13 +5,14 @@
 
 use super::field::{ChoiceField, NumberField, OptionalNumberField, TextField};
 use super::icons::CautionIcon;
-use super::shared::{percent, verdict_words};
+use super::shared::{
+    efficiency_from_key, efficiency_source_key, efficiency_source_options, percent, verdict_words,
+};
 use super::state::use_job;
 use crate::engine::efficiency::{
     self, ElectricalInput, MotorEfficiency, PumpTest, Reading, SpeedFrom, TestReport,
 };
 use crate::engine::fields::{self, FieldSpec};
-use crate::engine::motor::EfficiencyClass;
 use crate::engine::units::{Measure, UnitSystem};
 use crate::engine::Job;
 use leptos::prelude::*;
@@ -168,13 +169,7 @@ fn TestEditor(t: usize) -> impl IntoView {
                 get=move |j: &Job| test(j, t).map_or(f64::NAN, |x| x.motor_rated_power.value)
                 set=move |j: &mut Job, v| if let Some(x) = test_mut(j, t) { x.motor_rated_power.value = v } />
             <ChoiceField field=&fields::MOTOR_EFFICIENCY_FROM at=[t]
-                options=vec![
-                    ("entered", "Its nameplate".to_string()),
-                    ("ie2", "IE2 table (IEC, 4-pole, 50 Hz)".to_string()),
-                    ("ie3", "IE3 table (IEC, 4-pole, 50 Hz)".to_string()),
-                    ("ie4", "IE4 table (IEC, 4-pole, 50 Hz)".to_string()),
-                    ("nema", "NEMA Premium table (4-pole, 60 Hz)".to_string()),
-                ]
+                options=efficiency_source_options()
                 get=move |j: &Job| motor_source(j, t)
                 set=move |j: &mut Job, v: &str| set_motor_source(j, t, v) />
             {move || (motor_source(&state.job.read(), t) == "entered").then(|| view! {
@@ -205,33 +200,16 @@ fn synchronous_hint(j: &Job, t: usize) -> String {
 }
 
 fn motor_source(j: &Job, t: usize) -> &'static str {
-    match test(j, t).map(|x| x.motor_efficiency) {
-        Some(MotorEfficiency::Class { class }) => match class {
-            EfficiencyClass::Ie2 => "ie2",
-            EfficiencyClass::Ie3 => "ie3",
-            EfficiencyClass::Ie4 => "ie4",
-            EfficiencyClass::NemaPremium => "nema",
-        },
-        _ => "entered",
-    }
+    test(j, t).map_or("entered", |x| efficiency_source_key(x.motor_efficiency))
 }
 
 fn set_motor_source(j: &mut Job, t: usize, v: &str) {
-    let class = match v {
-        "ie2" => Some(EfficiencyClass::Ie2),
-        "ie3" => Some(EfficiencyClass::Ie3),
-        "ie4" => Some(EfficiencyClass::Ie4),
-        "nema" => Some(EfficiencyClass::NemaPremium),
-        _ => None,
-    };
-    let fallback = crate::engine::efficiency::nameplate_efficiency_offered(j);
+    let efficiency = efficiency_from_key(
+        v,
+        crate::engine::efficiency::nameplate_efficiency_offered(j),
+    );
     if let Some(x) = test_mut(j, t) {
-        x.motor_efficiency = match class {
-            Some(class) => MotorEfficiency::Class { class },
-            None => MotorEfficiency::Entered {
-                efficiency: fallback,
-            },
-        };
+        x.motor_efficiency = efficiency;
     }
 }
 

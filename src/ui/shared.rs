@@ -6,7 +6,9 @@
 use super::icons::CautionIcon;
 use super::state::use_job;
 use crate::engine::efficiency::{PumpTest, TestReport, Verdict, READINGS_FOR_VERDICT};
+use crate::engine::motor::EfficiencyClass;
 use crate::engine::power_unit::Design;
+use crate::engine::pump_test::MotorEfficiency;
 use crate::engine::units::{Measure, UnitSystem};
 use crate::engine::{Job, JobReport};
 use leptos::prelude::*;
@@ -411,6 +413,47 @@ pub(super) fn PumpVerdicts() -> impl IntoView {
 
 pub(super) fn percent(v: Option<f64>) -> String {
     v.map_or("–".into(), |v| format!("{:.1} %", v * 100.0))
+}
+
+/// The choices of where a motor's full-load efficiency comes from (its nameplate or a class's
+/// table), as a choice field's options; a pump test and a motor check offer the same.
+pub fn efficiency_source_options() -> Vec<(&'static str, String)> {
+    vec![
+        ("entered", "Its nameplate".to_string()),
+        ("ie2", "IE2 table (IEC, 4-pole, 50 Hz)".to_string()),
+        ("ie3", "IE3 table (IEC, 4-pole, 50 Hz)".to_string()),
+        ("ie4", "IE4 table (IEC, 4-pole, 50 Hz)".to_string()),
+        ("nema", "NEMA Premium table (4-pole, 60 Hz)".to_string()),
+    ]
+}
+
+/// The option key of where an efficiency comes from.
+pub fn efficiency_source_key(efficiency: MotorEfficiency) -> &'static str {
+    match efficiency {
+        MotorEfficiency::Class { class } => match class {
+            EfficiencyClass::Ie2 => "ie2",
+            EfficiencyClass::Ie3 => "ie3",
+            EfficiencyClass::Ie4 => "ie4",
+            EfficiencyClass::NemaPremium => "nema",
+        },
+        MotorEfficiency::Entered { .. } => "entered",
+    }
+}
+
+/// The efficiency an option key chooses: a class's table, or the nameplate figure `entered`.
+pub fn efficiency_from_key(key: &str, entered: f64) -> MotorEfficiency {
+    let class = match key {
+        "ie2" => EfficiencyClass::Ie2,
+        "ie3" => EfficiencyClass::Ie3,
+        "ie4" => EfficiencyClass::Ie4,
+        "nema" => EfficiencyClass::NemaPremium,
+        _ => {
+            return MotorEfficiency::Entered {
+                efficiency: entered,
+            }
+        }
+    };
+    MotorEfficiency::Class { class }
 }
 
 #[cfg(test)]

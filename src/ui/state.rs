@@ -175,38 +175,20 @@ impl JobState {
     }
 
     /// The engine's message for a field (by its path in the job file), if it has one. A pump
-    /// test's fields are judged by the test's own checks (they never stop the job's results),
-    /// then by what its readings say (a flow above what the pump sweeps, ...).
+    /// test's or a motor check's fields are judged by its own checks (they never stop the
+    /// job's results), then by what its readings say (a flow above what the pump sweeps, ...).
     pub fn error_for(&self, field: &str) -> Option<String> {
-        if let Some(rest) = field.strip_prefix("pump_tests[") {
-            let (index, inner) = rest.split_once("].")?;
-            let index: usize = index.parse().ok()?;
-            return self.pump_tests.with(|tests| match tests.get(index)? {
-                Err(errors) => errors
-                    .iter()
-                    .find(|e| e.field == field)
-                    .map(|e| e.message.clone()),
-                Ok(report) => report
-                    .problems
-                    .iter()
-                    .find(|p| p.field == inner)
-                    .map(|p| p.message.clone()),
-            });
+        if let Some(message) = self
+            .pump_tests
+            .with(|tests| field_check_message(tests, "pump_tests[", field, |r| &r.problems))
+        {
+            return message;
         }
-        if let Some(rest) = field.strip_prefix("motor_checks[") {
-            let (index, inner) = rest.split_once("].")?;
-            let index: usize = index.parse().ok()?;
-            return self.motor_checks.with(|checks| match checks.get(index)? {
-                Err(errors) => errors
-                    .iter()
-                    .find(|e| e.field == field)
-                    .map(|e| e.message.clone()),
-                Ok(report) => report
-                    .problems
-                    .iter()
-                    .find(|p| p.field == inner)
-                    .map(|p| p.message.clone()),
-            });
+        if let Some(message) = self
+            .motor_checks
+            .with(|checks| field_check_message(checks, "motor_checks[", field, |r| &r.problems))
+        {
+            return message;
         }
         self.result.with(|r| match r {
             Ok(_) => None,
@@ -222,6 +204,33 @@ impl JobState {
         let count = self.job.with(|j| j.designs.len());
         self.design.get().min(count.saturating_sub(1))
     }
+}
+
+/// For a path into a field check's list (`list` is its start, `pump_tests[`): `Some` with the
+/// check's message for the field (its input error, else the problem its report names there),
+/// `None` for a path outside the list.
+fn field_check_message<R>(
+    outcomes: &[Result<R, Vec<InputError>>],
+    list: &str,
+    field: &str,
+    problems: impl Fn(&R) -> &[crate::engine::efficiency::Problem],
+) -> Option<Option<String>> {
+    let rest = field.strip_prefix(list)?;
+    let message = (|| {
+        let (index, inner) = rest.split_once("].")?;
+        let index: usize = index.parse().ok()?;
+        match outcomes.get(index)? {
+            Err(errors) => errors
+                .iter()
+                .find(|e| e.field == field)
+                .map(|e| e.message.clone()),
+            Ok(report) => problems(report)
+                .iter()
+                .find(|p| p.field == inner)
+                .map(|p| p.message.clone()),
+        }
+    })();
+    Some(message)
 }
 
 pub fn use_job() -> JobState {

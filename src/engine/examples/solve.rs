@@ -10,25 +10,15 @@
 //! `{field, message}`) or the file's problem on stderr; 1 if the file cannot be read.
 
 fn main() -> std::process::ExitCode {
-    let Some(path) = std::env::args().nth(1) else {
-        let demo = phasewise_engine::demo::scrap_baler();
-        return match phasewise_engine::solve_json(&demo.to_json()) {
-            Ok(answer) => {
-                println!("{answer}");
-                std::process::ExitCode::SUCCESS
+    let text = match std::env::args().nth(1) {
+        None => phasewise_engine::demo::scrap_baler().to_json(),
+        Some(path) => match std::fs::read_to_string(&path) {
+            Ok(text) => text,
+            Err(e) => {
+                eprintln!("cannot read {path}: {e}");
+                return std::process::ExitCode::from(1);
             }
-            Err(problem) => {
-                eprintln!("{problem}");
-                std::process::ExitCode::from(2)
-            }
-        };
-    };
-    let text = match std::fs::read_to_string(&path) {
-        Ok(text) => text,
-        Err(e) => {
-            eprintln!("cannot read {path}: {e}");
-            return std::process::ExitCode::from(1);
-        }
+        },
     };
     match phasewise_engine::solve_json(&text) {
         Ok(answer) => {
