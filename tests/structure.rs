@@ -7,14 +7,15 @@ use std::path::Path;
 
 /// The engine's modules from the bottom up. A module may use only those before it; a new
 /// module takes its place here (see DEVELOPERS.md, "Layers inside").
-const STACK: [&str; 25] = [
+const STACK: [&str; 26] = [
     // Quantities and the parts of a machine.
     "units",
     "pump",
     "valve",
+    "viscosity",
+    "lines",
     "cycle",
     "site",
-    "viscosity",
     "motor",
     "electrical",
     "finding",

@@ -107,6 +107,7 @@ pub mod fields;
 pub mod finding;
 pub mod job;
 pub mod ledger;
+pub mod lines;
 pub mod motor;
 pub mod motor_check;
 pub mod motor_load;
