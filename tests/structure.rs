@@ -7,7 +7,7 @@ use std::path::Path;
 
 /// The engine's modules from the bottom up. A module may use only those before it; a new
 /// module takes its place here (see DEVELOPERS.md, "Layers inside").
-const STACK: [&str; 26] = [
+const STACK: [&str; 27] = [
     // Quantities and the parts of a machine.
     "units",
     "pump",
@@ -15,6 +15,7 @@ const STACK: [&str; 26] = [
     "viscosity",
     "lines",
     "cycle",
+    "heat",
     "site",
     "motor",
     "electrical",

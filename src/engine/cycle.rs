@@ -44,6 +44,10 @@ pub struct MovePhase {
     /// Line, valve and back-pressure losses between pump and cylinder, added to the load pressure.
     #[serde(rename = "line_loss_pa")]
     pub line_loss: Pressure,
+    /// The pressure and return lines as described (absent: `line_loss` is the whole of it);
+    /// their drop follows the flow and the oil, on top of `line_loss`.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub lines: Option<super::lines::MoveLines>,
     pub speed: SpeedRule,
     /// The longest this move may take: the staging search keeps every candidate to it.
     /// Absent: as long as it takes with the baseline design ("as found").
@@ -90,6 +94,16 @@ pub struct Cylinder {
 }
 
 impl Cylinder {
+    /// The other side's area over the working side's: what the return line carries for each
+    /// unit of flow in (annulus over bore extending, bore over annulus retracting).
+    pub fn return_ratio(&self, direction: Direction) -> f64 {
+        let other = match direction {
+            Direction::Extend => Direction::Retract,
+            Direction::Retract => Direction::Extend,
+        };
+        self.working_area_m2(other) / self.working_area_m2(direction)
+    }
+
     /// The area the oil pushes on: the full bore extending, the annulus retracting.
     pub fn working_area_m2(&self, direction: Direction) -> f64 {
         let bore = circle_area(self.bore.value);

@@ -46,6 +46,15 @@ impl<'a> PreparedUnit<'a> {
         PreparedUnit { design, pumps }
     }
 
+    /// The unit with each pump's leakage scaled by `factor(pump)`: slip flow goes as pressure
+    /// over viscosity, so a pump stated at a thicker oil than the working one leaks more.
+    pub fn with_leakage_scaled(mut self, factor: impl Fn(&super::pump::Pump) -> f64) -> Self {
+        for (s, pump) in self.pumps.iter_mut().zip(self.design.pumps()) {
+            s.pump.leakage *= factor(pump);
+        }
+        self
+    }
+
     /// The flow the pumps send over the relief with the system dead-headed at `p` (m^3/s), as
     /// when a relief is set: every pump not unloaded at that pressure, at full stroke (a
     /// compensator is turned up out of the way while the relief is set, common practice),

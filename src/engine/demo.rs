@@ -37,6 +37,7 @@ fn ram(name: &str, stroke_mm: f64, direction: Direction, force_kn: f64, line_bar
                 force: Force::new::<kilonewton>(force_kn),
             },
             line_loss: Pressure::new::<bar>(line_bar),
+            lines: None,
             speed: SpeedRule::AllPumpFlow,
             target_time: None,
         }),
@@ -48,6 +49,7 @@ fn pump(cc: f64) -> Pump {
         displacement: Volume::new::<cubic_centimeter>(cc),
         volumetric_efficiency: 0.92,
         efficiency_pressure: Pressure::new::<bar>(210.0),
+        efficiency_temperature: None,
         efficiency_speed: None,
         hydromechanical_efficiency: 0.90,
         drag_power: Power::new::<kilowatt>(0.15 + cc * 0.004),
@@ -112,6 +114,8 @@ pub fn scrap_baler() -> Job {
         remote_stages: vec![],
         vent_pressure: Pressure::new::<bar>(1.7),
         phase_settings: vec![PhaseSetting::default(); cycle.len()],
+        cooler: None,
+        suction_line: None,
         retrofit_price: None,
         made_from: None,
     };
@@ -171,6 +175,8 @@ pub fn scrap_baler() -> Job {
             ],
         }],
         wear: Default::default(),
+        tank: None,
+        warm_up: None,
     }
 }
 

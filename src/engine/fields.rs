@@ -855,6 +855,151 @@ pub const READ_SPEED: FieldSpec = MotorReading
     .said("shaft speed");
 
 /// Every field declared, for finding one by its path.
+// The oil, the lines and the heat balance.
+const C0: f64 = 273.15;
+/// A thermometer's reading on a machine: from a cold start outdoors to far past any oil's life.
+const OIL_TEMPERATURE: Bounds = Bounds {
+    low: Included(C0 - 40.0),
+    high: Included(C0 + 150.0),
+    otherwise: "an oil temperature is between -40 and 150 °C (-40 and 302 °F)",
+};
+const AIR_TEMPERATURE: Bounds = Bounds {
+    low: Included(C0 - 40.0),
+    high: Included(C0 + 60.0),
+    otherwise: "the air or coolant is between -40 and 60 °C (-40 and 140 °F)",
+};
+pub const OIL_GIVEN_AS: FieldSpec = Job.field("oil.viscosity.given_as", "Oil known by");
+pub const OIL_GRADE: FieldSpec = Job
+    .field("oil.viscosity.grade", "ISO viscosity grade")
+    .between(
+        Some(Number),
+        &Bounds {
+            low: Included(2.0),
+            high: Included(3200.0),
+            otherwise: "an ISO 3448 grade is its viscosity at 40 °C in mm²/s, from 2 to 3200 (hydraulic oils: 15 to 150)",
+        },
+    );
+pub const VISCOSITY_INDEX: FieldSpec = Job
+    .field("oil.viscosity.viscosity_index", "Viscosity index")
+    .between(
+        Some(Number),
+        &Bounds {
+            low: Included(0.0),
+            high: Included(400.0),
+            otherwise: "a viscosity index is from 0 to 400 (mineral hydraulic oils: about 95 to 105; multigrade oils 140 to 200)",
+        },
+    );
+pub const VISCOSITY_AT_40: FieldSpec = Job
+    .field("oil.viscosity.at_40_degc_m2_per_s", "Viscosity at 40 °C")
+    .amount(Viscosity, 1e-2)
+    .said("viscosity at 40 °C");
+pub const VISCOSITY_AT_100: FieldSpec = Job
+    .field("oil.viscosity.at_100_degc_m2_per_s", "Viscosity at 100 °C")
+    .amount(Viscosity, 1e-2)
+    .said("viscosity at 100 °C");
+pub const WORKING_TEMPERATURE_SET_BY: FieldSpec =
+    Job.field("oil.working_temperature.set_by", "Working temperature");
+pub const WORKING_TEMPERATURE: FieldSpec = Job
+    .field(
+        "oil.working_temperature.temperature_k",
+        "Oil temperature at work",
+    )
+    .between(Some(Temperature), &OIL_TEMPERATURE)
+    .said("oil temperature at work");
+pub const TARGET_TEMPERATURE: FieldSpec = Job
+    .field("oil.target_k", "Hold the oil at")
+    .between(Some(Temperature), &OIL_TEMPERATURE)
+    .said("temperature to hold the oil at");
+pub const TANK_GIVEN_AS: FieldSpec = Job.field("tank.size.given_as", "Tank known by");
+pub const TANK_LENGTH: FieldSpec = Job
+    .field("tank.size.length_m", "Tank length")
+    .amount(LineSize, MAX_LENGTH);
+pub const TANK_WIDTH: FieldSpec = Job
+    .field("tank.size.width_m", "Tank width")
+    .amount(LineSize, MAX_LENGTH);
+pub const TANK_OIL_DEPTH: FieldSpec = Job
+    .field("tank.size.oil_depth_m", "Oil depth in the tank")
+    .amount(LineSize, MAX_LENGTH);
+pub const TANK_AREA: FieldSpec = Job
+    .field("tank.size.area_m2", "Wetted wall area")
+    .amount(Area, 1000.0);
+pub const TANK_AIR: FieldSpec = Job.field("tank.air", "Air around the tank");
+pub const AMBIENT: FieldSpec = Job
+    .field("tank.ambient_k", "Air temperature")
+    .between(Some(Temperature), &AIR_TEMPERATURE)
+    .said("air temperature around the tank");
+pub const STEEL_MASS: FieldSpec = Job
+    .field("tank.steel_mass_kg", "Steel that warms with the oil")
+    .amount(Mass, 1e6)
+    .or_zero();
+pub const FIRST_READING_TIME: FieldSpec = Job
+    .field("warm_up.first.time_s", "First reading, time")
+    .amount(Duration, MAX_DURATION)
+    .or_zero();
+pub const FIRST_READING_OIL: FieldSpec = Job
+    .field("warm_up.first.oil_k", "First reading, oil")
+    .between(Some(Temperature), &OIL_TEMPERATURE);
+pub const SECOND_READING_TIME: FieldSpec = Job
+    .field("warm_up.second.time_s", "Second reading, time")
+    .amount(Duration, MAX_DURATION);
+pub const SECOND_READING_OIL: FieldSpec = Job
+    .field("warm_up.second.oil_k", "Second reading, oil")
+    .between(Some(Temperature), &OIL_TEMPERATURE);
+pub const PRESSURE_LINE_DIAMETER: FieldSpec = Move
+    .field(
+        "lines.pressure_line.inner_diameter_m",
+        "Pressure line, inner diameter",
+    )
+    .amount(LineSize, 1.0);
+pub const PRESSURE_LINE_LENGTH: FieldSpec = Move
+    .field("lines.pressure_line.length_m", "Pressure line, length")
+    .amount(LineSize, 1000.0);
+pub const PRESSURE_LINE_FITTINGS: FieldSpec = Move.field(
+    "lines.pressure_line.fittings",
+    "Pressure line, fittings and valves",
+);
+pub const RETURN_LINE_DIAMETER: FieldSpec = Move
+    .field(
+        "lines.return_line.inner_diameter_m",
+        "Return line, inner diameter",
+    )
+    .amount(LineSize, 1.0);
+pub const RETURN_LINE_LENGTH: FieldSpec = Move
+    .field("lines.return_line.length_m", "Return line, length")
+    .amount(LineSize, 1000.0);
+pub const RETURN_LINE_FITTINGS: FieldSpec = Move.field(
+    "lines.return_line.fittings",
+    "Return line, fittings and valves",
+);
+pub const SUCTION_LINE_DIAMETER: FieldSpec = Design
+    .field(
+        "suction_line.inner_diameter_m",
+        "Suction line, inner diameter",
+    )
+    .amount(LineSize, 1.0);
+pub const SUCTION_LINE_LENGTH: FieldSpec = Design
+    .field("suction_line.length_m", "Suction line, length")
+    .amount(LineSize, 1000.0);
+pub const SUCTION_LINE_FITTINGS: FieldSpec =
+    Design.field("suction_line.fittings", "Suction line, fittings and valves");
+pub const COOLANT: FieldSpec = Design.field("cooler.coolant", "Cooler's coolant");
+pub const COOLANT_TEMPERATURE: FieldSpec = Design
+    .field("cooler.coolant_k", "Coolant temperature in")
+    .between(Some(Temperature), &AIR_TEMPERATURE)
+    .said("coolant temperature");
+pub const COOLER_RATED_HEAT: FieldSpec = Design
+    .field("cooler.rated_heat_w", "Cooler rating: heat")
+    .amount(Heat, MAX_POWER)
+    .said("cooler's rated heat");
+pub const COOLER_RATED_DIFFERENCE: FieldSpec = Design
+    .field("cooler.rated_difference_k", "... at oil above coolant")
+    .amount(TemperatureDifference, 200.0)
+    .said("temperature difference of the cooler's rating");
+pub const EFFICIENCY_TEMPERATURE: FieldSpec = Pump
+    .field("efficiency_oil_k", "... and at oil temperature")
+    .between(Some(Temperature), &OIL_TEMPERATURE)
+    .said("oil temperature its efficiency was measured at");
+
 pub const ALL: &[&FieldSpec] = &[
     &SCHEMA_VERSION,
     &JOB_NAME,
@@ -980,6 +1125,40 @@ pub const ALL: &[&FieldSpec] = &[
     &READ_CURRENT,
     &READ_POWER_FACTOR,
     &READ_SPEED,
+    &OIL_GIVEN_AS,
+    &OIL_GRADE,
+    &VISCOSITY_INDEX,
+    &VISCOSITY_AT_40,
+    &VISCOSITY_AT_100,
+    &WORKING_TEMPERATURE_SET_BY,
+    &WORKING_TEMPERATURE,
+    &TARGET_TEMPERATURE,
+    &TANK_GIVEN_AS,
+    &TANK_LENGTH,
+    &TANK_WIDTH,
+    &TANK_OIL_DEPTH,
+    &TANK_AREA,
+    &TANK_AIR,
+    &AMBIENT,
+    &STEEL_MASS,
+    &FIRST_READING_TIME,
+    &FIRST_READING_OIL,
+    &SECOND_READING_TIME,
+    &SECOND_READING_OIL,
+    &PRESSURE_LINE_DIAMETER,
+    &PRESSURE_LINE_LENGTH,
+    &PRESSURE_LINE_FITTINGS,
+    &RETURN_LINE_DIAMETER,
+    &RETURN_LINE_LENGTH,
+    &RETURN_LINE_FITTINGS,
+    &SUCTION_LINE_DIAMETER,
+    &SUCTION_LINE_LENGTH,
+    &SUCTION_LINE_FITTINGS,
+    &COOLANT,
+    &COOLANT_TEMPERATURE,
+    &COOLER_RATED_HEAT,
+    &COOLER_RATED_DIFFERENCE,
+    &EFFICIENCY_TEMPERATURE,
 ];
 
 #[cfg(test)]

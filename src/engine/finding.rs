@@ -1,10 +1,14 @@
 //! What the solver noticed: conditions a technician should know about, each with the numbers
 //! behind it and a sentence in plain words.
 
+use super::lines::LineRole;
 use super::units::Measure;
 use super::units::{seconds, UnitSystem};
 use serde::Serialize;
-use uom::si::f64::{ElectricCurrent, Power, Pressure, Time, VolumeRate};
+use uom::si::f64::{
+    ElectricCurrent, KinematicViscosity, Length, Power, Pressure, ThermodynamicTemperature, Time,
+    Velocity, VolumeRate,
+};
 
 /// How far a clamp-meter reading may differ from the model's current, as a share of the
 /// motor's full-load current, before it is a finding. Our judgement: a clamp meter reads within
@@ -155,7 +159,52 @@ pub enum Finding {
         #[serde(rename = "needed_pa")]
         needed: Pressure,
     },
+    /// Oil in a line goes faster than common practice allows for its kind of line: noise,
+    /// heat, and on a suction line cavitation. `diameter` is the smallest inner diameter that
+    /// keeps to the limit.
+    LineTooFast {
+        role: LineRole,
+        #[serde(rename = "velocity_m_per_s")]
+        velocity: Velocity,
+        #[serde(rename = "limit_m_per_s")]
+        limit: Velocity,
+        #[serde(rename = "diameter_m")]
+        diameter: Length,
+    },
+    /// The oil is thinner at its working temperature than pumps commonly need
+    /// ([`THINNEST_FOR_PUMPS_MM2_S`]): leakage and wear rise, and the slip model (leakage in
+    /// proportion to pressure over viscosity) is no longer to be trusted.
+    OilTooThin {
+        #[serde(rename = "viscosity_m2_per_s")]
+        viscosity: KinematicViscosity,
+        #[serde(rename = "temperature_k")]
+        temperature: ThermodynamicTemperature,
+    },
+    /// The oil settles above a common-practice limit: `seals` for the one where seals and oil
+    /// degrade fast, else the one for long oil life.
+    OilHot {
+        #[serde(rename = "steady_k")]
+        steady: ThermodynamicTemperature,
+        #[serde(rename = "limit_k")]
+        limit: ThermodynamicTemperature,
+        seals: bool,
+    },
+    /// More heat goes in than the tank and cooler shed even with the oil at `ceiling`: it
+    /// does not settle at any temperature the oil survives.
+    OilDoesNotSettle {
+        #[serde(rename = "ceiling_k")]
+        ceiling: ThermodynamicTemperature,
+    },
 }
+
+/// The thinnest oil, mm^2/s, pumps commonly work with (common practice: gear and vane pump
+/// makers give about 10 mm^2/s as the least working viscosity).
+pub const THINNEST_FOR_PUMPS_MM2_S: f64 = 10.0;
+
+/// Oil in the tank above about 60 degC ages fast; above about 80 degC seals and oil degrade
+/// quickly (common practice, degC).
+pub const OIL_LIFE_LIMIT_C: f64 = 60.0;
+pub const SEAL_LIMIT_C: f64 = 80.0;
 
 impl Finding {
     /// The finding in one or two plain sentences.
@@ -253,6 +302,42 @@ impl Finding {
                 "The cycle takes {}, longer than the {} the RMS sizing holds for: the motor heats up to each long phase's load in turn, so its RMS load does not show how hot it runs. Check the heaviest long phase against what the motor carries continuously, or ask the motor's maker.",
                 seconds(cycle),
                 seconds(longest)
+            ),
+            Finding::LineTooFast { role, velocity, limit, diameter } => format!(
+                "Oil in the {} line goes {}, faster than the {} common practice allows there: {}. A line of at least {} inner diameter keeps to it.",
+                match role {
+                    LineRole::Suction => "suction",
+                    LineRole::Pressure => "pressure",
+                    LineRole::Return => "return",
+                },
+                Measure::Speed.with_unit(u, velocity.value),
+                Measure::Speed.with_unit(u, limit.value),
+                match role {
+                    LineRole::Suction => "the pump may cavitate",
+                    LineRole::Pressure => "it costs pressure and heat, and makes noise",
+                    LineRole::Return => "it raises back-pressure on the cylinder and heats the oil",
+                },
+                Measure::LineSize.with_unit(u, diameter.value)
+            ),
+            Finding::OilTooThin { viscosity, temperature } => format!(
+                "At {} the oil is down to {}, thinner than the {} pumps commonly need: leakage and wear rise, and the leakage figures here are no longer to be trusted. Check the pumps' data sheets, and the oil's grade and temperature.",
+                Measure::Temperature.with_unit(u, temperature.value),
+                Measure::Viscosity.with_unit(u, viscosity.value),
+                Measure::Viscosity.with_unit(u, THINNEST_FOR_PUMPS_MM2_S * 1e-6)
+            ),
+            Finding::OilHot { steady, limit, seals } => format!(
+                "The oil settles at {}, above the {} {}. Reduce the heat (the ledger shows where it comes from) or add cooling.",
+                Measure::Temperature.with_unit(u, steady.value),
+                Measure::Temperature.with_unit(u, limit.value),
+                if seals {
+                    "where seals and oil degrade fast (common practice)"
+                } else {
+                    "that keeps mineral oil long-lived (common practice)"
+                }
+            ),
+            Finding::OilDoesNotSettle { ceiling } => format!(
+                "The losses put in more heat than the tank and cooler shed even at {}: the oil does not settle at any temperature it survives. Figures are at that temperature. Reduce the heat or add cooling before running the machine long.",
+                Measure::Temperature.with_unit(u, ceiling.value)
             ),
             Finding::MotorStartsTooOften { starts_per_hour, allowed_per_hour } => format!(
                 "The motor is stopped in idles and started again {starts_per_hour:.1} times an hour, more than the {allowed_per_hour:.1} a motor of its size and speed may take (NEMA MG 10): each start heats its windings. Keep it running, vented, through short idles, or ask the motor's maker.",

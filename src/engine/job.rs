@@ -47,6 +47,12 @@ pub struct Job {
     /// Where the pump-wear verdict draws its lines (absent: the defaults).
     #[serde(default)]
     pub wear: super::policy::WearPolicy,
+    /// The tank, for the heat balance (absent: not described; no steady temperature).
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub tank: Option<super::heat::Tank>,
+    /// Two oil temperatures read during a warm-up of the machine as found (absent: none).
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub warm_up: Option<super::heat::FieldWarmUp>,
 }
 
 impl Job {
@@ -90,6 +96,7 @@ impl Job {
                     value: empty,
                     ..Default::default()
                 },
+                efficiency_temperature: None,
                 efficiency_speed: None,
                 hydromechanical_efficiency: empty,
                 drag_power: Power {
@@ -120,6 +127,8 @@ impl Job {
                 ..Default::default()
             },
             phase_settings: Vec::new(),
+            cooler: None,
+            suction_line: None,
             retrofit_price: None,
             made_from: None,
         };
@@ -150,6 +159,8 @@ impl Job {
             pump_tests: Vec::new(),
             motor_checks: Vec::new(),
             wear: Default::default(),
+            tank: None,
+            warm_up: None,
         }
     }
 }

@@ -105,6 +105,7 @@ pub mod efficiency;
 pub mod electrical;
 pub mod fields;
 pub mod finding;
+pub mod heat;
 pub mod job;
 pub mod ledger;
 pub mod lines;

@@ -28,6 +28,12 @@ pub struct Design {
     pub vent_pressure: Pressure,
     /// One per phase of the cycle, in the same order.
     pub phase_settings: Vec<PhaseSetting>,
+    /// The oil cooler, if the unit has one.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub cooler: Option<super::heat::Cooler>,
+    /// The pumps' common suction line, when described (for its velocity).
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub suction_line: Option<super::lines::Line>,
     /// What the retrofit to this design costs, in the site's currency, when it differs from
     /// the site's one price (absent: the site's `retrofit_price`). Unused on the baseline.
     #[serde(default, skip_serializing_if = "Option::is_none")]

@@ -1,7 +1,7 @@
 //! Pumps on the motor's shaft.
 
 use serde::{Deserialize, Serialize};
-use uom::si::f64::{AngularVelocity, Power, Pressure, Volume};
+use uom::si::f64::{AngularVelocity, Power, Pressure, ThermodynamicTemperature, Volume};
 
 /// A positive-displacement pump, fixed or pressure-compensated.
 #[derive(Clone, Copy, Debug, PartialEq, Serialize, Deserialize)]
@@ -24,6 +24,14 @@ pub struct Pump {
         skip_serializing_if = "Option::is_none"
     )]
     pub efficiency_speed: Option<AngularVelocity>,
+    /// The oil temperature the volumetric efficiency was stated at (absent: whatever the
+    /// job's working temperature is, so the leakage does not follow the oil's viscosity).
+    #[serde(
+        default,
+        rename = "efficiency_oil_k",
+        skip_serializing_if = "Option::is_none"
+    )]
+    pub efficiency_temperature: Option<ThermodynamicTemperature>,
     /// Theoretical over actual torque.
     pub hydromechanical_efficiency: f64,
     /// Shaft power the pump takes even with no pressure (churning, seals, bearings).

@@ -1,8 +1,9 @@
 //! Where the machine runs and what it runs on: the site's economics and the oil. Kept in the
 //! job; below every algorithm that reads them.
 
+use super::viscosity::OilViscosity;
 use serde::{Deserialize, Serialize};
-use uom::si::f64::{MassDensity, SpecificHeatCapacity, Volume};
+use uom::si::f64::{MassDensity, SpecificHeatCapacity, ThermodynamicTemperature, Volume};
 use uom::si::mass_density::kilogram_per_cubic_meter;
 use uom::si::specific_heat_capacity::joule_per_kilogram_kelvin;
 
@@ -49,7 +50,7 @@ pub struct Site {
 /// about its average power, not its peak.
 pub const DEMAND_INTERVAL_S: f64 = 15.0 * 60.0;
 
-/// The oil, for the temperature rise with no cooler.
+/// The oil: how much, how it stores heat, how thick it is and how hot it works.
 #[derive(Clone, Copy, Debug, PartialEq, Serialize, Deserialize)]
 pub struct Oil {
     /// Oil in circulation (the reservoir's working volume).
@@ -59,16 +60,81 @@ pub struct Oil {
     pub density: MassDensity,
     #[serde(rename = "specific_heat_j_per_kg_k")]
     pub specific_heat: SpecificHeatCapacity,
+    /// Its grade and index, or two measured viscosities (absent in older files: a common
+    /// mineral oil, [`COMMON_MINERAL_OIL`](super::viscosity::COMMON_MINERAL_OIL)).
+    #[serde(default)]
+    pub viscosity: OilViscosity,
+    /// The temperature the cycle is worked out at (absent in older files: entered,
+    /// [`USUAL_WORKING_TEMPERATURE_C`]).
+    #[serde(default)]
+    pub working_temperature: WorkingTemperature,
+    /// The temperature a cooler should hold the oil at, for the cooler size needed (absent:
+    /// [`USUAL_TARGET_C`]).
+    #[serde(default = "usual_target", rename = "target_k")]
+    pub target_temperature: ThermodynamicTemperature,
+}
+
+/// How hot the oil is while the cycle runs.
+#[derive(Clone, Copy, Debug, PartialEq, Serialize, Deserialize)]
+#[serde(tag = "set_by", rename_all = "snake_case")]
+pub enum WorkingTemperature {
+    /// As the user read it off the tank's thermometer.
+    Entered {
+        #[serde(rename = "temperature_k")]
+        temperature: ThermodynamicTemperature,
+    },
+    /// Where the heat balance settles it (the job needs its tank).
+    Settled,
+}
+
+/// Mineral-oil systems commonly run at 40 to 60 degC (common practice): the middle, for jobs
+/// that say nothing of theirs.
+pub const USUAL_WORKING_TEMPERATURE_C: f64 = 50.0;
+
+/// A cooler is commonly sized to hold the tank at about 50 to 55 degC, inside the 60 degC that
+/// keeps mineral oil long-lived (common practice).
+pub const USUAL_TARGET_C: f64 = 55.0;
+
+fn celsius(c: f64) -> ThermodynamicTemperature {
+    ThermodynamicTemperature::new::<uom::si::thermodynamic_temperature::degree_celsius>(c)
+}
+
+fn usual_target() -> ThermodynamicTemperature {
+    celsius(USUAL_TARGET_C)
+}
+
+impl WorkingTemperature {
+    /// [`USUAL_WORKING_TEMPERATURE_C`] in kelvin.
+    pub fn default_kelvin() -> f64 {
+        USUAL_WORKING_TEMPERATURE_C + 273.15
+    }
+}
+
+impl Default for WorkingTemperature {
+    fn default() -> Self {
+        WorkingTemperature::Entered {
+            temperature: celsius(USUAL_WORKING_TEMPERATURE_C),
+        }
+    }
 }
 
 impl Oil {
     /// Mineral oil with the working values of Esposito, *Fluid Power with Applications*
-    /// (density 895 kg/m^3, specific heat 1.8 kJ/(kg.K)).
+    /// (density 895 kg/m^3, specific heat 1.8 kJ/(kg.K)), of a common grade, worked out at a
+    /// usual temperature.
     pub fn mineral(volume: Volume) -> Oil {
         Oil {
             volume,
             density: MassDensity::new::<kilogram_per_cubic_meter>(895.0),
             specific_heat: SpecificHeatCapacity::new::<joule_per_kilogram_kelvin>(1800.0),
+            viscosity: OilViscosity::default(),
+            working_temperature: WorkingTemperature::default(),
+            target_temperature: usual_target(),
         }
+    }
+
+    /// What the oil stores per kelvin, J/K.
+    pub fn heat_capacity(&self) -> f64 {
+        self.volume.value * self.density.value * self.specific_heat.value
     }
 }

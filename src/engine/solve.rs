@@ -10,11 +10,15 @@
 
 use super::cycle::{HoldMode, Phase, PhaseKind, SpeedRule};
 use super::finding::{Finding, CURRENT_DIFFERENCE_SHARE};
+use super::finding::{OIL_LIFE_LIMIT_C, SEAL_LIMIT_C, THINNEST_FOR_PUMPS_MM2_S};
+use super::heat::{self, HeatBalance, HeatPaths, OilReport, Settling};
 use super::job::Job;
 use super::ledger::PowerLedger;
 use super::ledger::{Comparison, CycleTotals};
+use super::lines::{LineFlow, LineRole, MoveLines, MoveLinesFlow};
 use super::power_unit::{Design, PhaseSetting};
 use super::pump::PumpControl;
+use super::site::WorkingTemperature;
 use super::units::{cubic_metres_per_second, pascals, seconds_of, watts};
 use super::validate::InputError;
 use super::valve::{ActiveLimit, IdlePath, ReliefCharacteristic};
@@ -34,6 +38,9 @@ pub struct PhaseReport {
     /// and it runs.
     #[serde(skip_serializing_if = "Option::is_none")]
     pub line: Option<super::electrical::LineDraw>,
+    /// For a move with its pressure and return lines described: their velocities and drops.
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub lines: Option<MoveLinesFlow>,
     pub findings: Vec<Finding>,
 }
 
@@ -96,6 +103,10 @@ pub struct JobReport {
     pub designs: Vec<DesignReport>,
     /// Each design after the first against the first (the baseline).
     pub comparisons: Vec<Comparison>,
+    /// The heat the field's warm-up readings show against the model's, for the machine as
+    /// found (with the tank described and two readings entered).
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub warm_up: Option<heat::WarmUpCheck>,
 }
 
 #[derive(Clone, Debug, PartialEq, Serialize)]
@@ -105,6 +116,8 @@ pub struct DesignReport {
     pub totals: CycleTotals,
     /// Findings about the design as a whole: its settings and its motor.
     pub findings: Vec<Finding>,
+    /// The oil's temperature and viscosity the phases are worked out at, and where it settles.
+    pub oil: OilReport,
 }
 
 /// Solves every design of a job over its cycle.
@@ -130,23 +143,245 @@ pub fn solve(job: &Job) -> Result<JobReport, Vec<InputError>> {
     Ok(JobReport {
         designs,
         comparisons,
+        warm_up: warm_up_check(job),
     })
 }
 
-/// Solves one (validated) design over the job's cycle.
+/// The field's warm-up against the model: the heat the two readings show going into the oil
+/// (what warmed it plus what the tank and cooler shed meanwhile) and the heat the model puts
+/// in with the oil at their mean temperature, for the machine as found.
+fn warm_up_check(job: &Job) -> Option<heat::WarmUpCheck> {
+    let (readings, tank, baseline) = (job.warm_up?, job.tank.as_ref()?, job.designs.first()?);
+    let paths = HeatPaths {
+        tank,
+        cooler: baseline.cooler.as_ref(),
+    };
+    let capacity = heat_capacity(job, tank);
+    let measured = heat::heat_from_warm_up(&readings.first, &readings.second, capacity, &paths)?;
+    let mean = 0.5 * (readings.first.oil.value + readings.second.oil.value);
+    let model = solve_design_at(job, baseline, &oil_at(job, mean))
+        .totals
+        .heat_load
+        .value;
+    Some(heat::WarmUpCheck {
+        mean,
+        measured,
+        model,
+    })
+}
+
+/// What the oil and the tank's steel store per kelvin, J/K.
+fn heat_capacity(job: &Job, tank: &heat::Tank) -> f64 {
+    job.oil.heat_capacity()
+        + tank
+            .steel_mass
+            .map_or(0.0, |m| m.value * heat::STEEL_SPECIFIC_HEAT)
+}
+
+/// Solves one (validated) design over the job's cycle, with the oil at its working
+/// temperature (entered, or where the heat balance settles it), and, with the tank described,
+/// the heat balance: where the oil settles with and without the cooler, the warm-up, and the
+/// cooler the target temperature needs. Each is a search over temperature that solves the
+/// cycle at each temperature it tries (the losses follow the oil's viscosity).
 pub(crate) fn solve_design(job: &Job, design: &Design) -> DesignReport {
-    let unit = PreparedUnit::new(design);
+    let entered = match job.oil.working_temperature {
+        WorkingTemperature::Entered { temperature } => Some(temperature.value),
+        WorkingTemperature::Settled => None,
+    };
+    let Some(tank) = &job.tank else {
+        // Validation asks for the tank when the temperature is to settle.
+        let working = entered.unwrap_or(WorkingTemperature::default_kelvin());
+        return solve_design_at(job, design, &oil_at(job, working));
+    };
+    let paths = HeatPaths {
+        tank,
+        cooler: design.cooler.as_ref(),
+    };
+    let mut heat_in = |t: f64| {
+        solve_design_at(job, design, &oil_at(job, t))
+            .totals
+            .heat_load
+            .value
+    };
+    let steady = heat::settle(&mut heat_in, &paths);
+    let working = entered.unwrap_or(steady.kelvin());
+    let mut report = solve_design_at(job, design, &oil_at(job, working));
+    let at_steady = if working == steady.kelvin() {
+        report.totals.heat_load.value
+    } else {
+        heat_in(steady.kelvin())
+    };
+    let without_cooler = design
+        .cooler
+        .map(|_| heat::settle(&mut heat_in, &HeatPaths { tank, cooler: None }));
+    let capacity = heat_capacity(job, tank);
+    let warm_up = match steady {
+        Settling::At(t) => Some(heat::warm_up(
+            &mut heat_in,
+            &paths,
+            capacity,
+            tank.ambient.value,
+            t,
+        )),
+        Settling::Above(_) => None,
+    };
+    let target = job.oil.target_temperature.value;
+    let cooler_duty = (heat_in(target) - tank.sheds(target)).max(0.0);
+    let coolant = design
+        .cooler
+        .map_or(tank.ambient.value, |c| c.coolant_temperature.value);
+    report.findings.extend(oil_findings(steady));
+    report.oil.balance = Some(HeatBalance {
+        steady,
+        heat_in: at_steady,
+        tank_sheds: tank.sheds(steady.kelvin()),
+        cooler_removes: design.cooler.map_or(0.0, |c| c.removes(steady.kelvin())),
+        without_cooler,
+        warm_up,
+        target,
+        cooler_duty,
+        cooler_needed: (target > coolant).then(|| cooler_duty / (target - coolant)),
+    });
+    report
+}
+
+/// Cautions on where the oil settles.
+fn oil_findings(steady: Settling) -> Option<Finding> {
+    let kelvin = |c: f64| c + 273.15;
+    let temperature = |k: f64| {
+        uom::si::f64::ThermodynamicTemperature::new::<uom::si::thermodynamic_temperature::kelvin>(k)
+    };
+    match steady {
+        Settling::Above(ceiling) => Some(Finding::OilDoesNotSettle {
+            ceiling: temperature(ceiling),
+        }),
+        Settling::At(t) => [(SEAL_LIMIT_C, true), (OIL_LIFE_LIMIT_C, false)]
+            .into_iter()
+            .find(|(limit, _)| t > kelvin(*limit))
+            .map(|(limit, seals)| Finding::OilHot {
+                steady: temperature(t),
+                limit: temperature(kelvin(limit)),
+                seals,
+            }),
+    }
+}
+
+/// A line faster than common practice allows for its kind, with the inner diameter that
+/// would keep to it (velocity goes as one over the diameter squared).
+fn too_fast(state: &LineFlow, diameter: f64) -> Option<Finding> {
+    let limit = state.role.velocity_limit();
+    let v = state.velocity.value;
+    (v > limit * (1.0 + 1e-9)).then(|| Finding::LineTooFast {
+        role: state.role,
+        velocity: state.velocity,
+        limit: uom::si::f64::Velocity::new::<uom::si::velocity::meter_per_second>(limit),
+        diameter: uom::si::f64::Length::new::<uom::si::length::meter>(
+            diameter * (v / limit).sqrt(),
+        ),
+    })
+}
+
+/// Each move's lines against their velocity limits, as findings of the phase.
+fn move_line_findings(job: &Job, phases: &mut [PhaseReport]) {
+    for (phase, report) in job.cycle.iter().zip(phases) {
+        let (PhaseKind::Move(m), Some(state)) = (&phase.kind, report.lines) else {
+            continue;
+        };
+        let Some(lines) = &m.lines else { continue };
+        report.findings.extend(
+            [
+                too_fast(
+                    &state.pressure_line,
+                    lines.pressure_line.inner_diameter.value,
+                ),
+                too_fast(&state.return_line, lines.return_line.inner_diameter.value),
+            ]
+            .into_iter()
+            .flatten(),
+        );
+    }
+}
+
+/// Findings on the design's suction line and oil at its working temperature: a suction line
+/// faster than common practice allows, oil thinner than pumps need.
+fn line_findings(design: &Design, oil: &OilAt) -> Vec<Finding> {
+    let mut findings = Vec::new();
+    if let Some(suction) = &design.suction_line {
+        // The suction line feeds every pump's whole swept flow.
+        let rps = design.motor.revolutions_per_second();
+        let swept: f64 = design.pumps().map(|p| p.displacement.value * rps).sum();
+        let state = suction.carrying(LineRole::Suction, swept, oil.viscosity, oil.density);
+        findings.extend(too_fast(&state, suction.inner_diameter.value));
+    }
+    if oil.viscosity * 1e6 < THINNEST_FOR_PUMPS_MM2_S {
+        findings.push(Finding::OilTooThin {
+            viscosity: uom::si::f64::KinematicViscosity::new::<
+                uom::si::kinematic_viscosity::square_meter_per_second,
+            >(oil.viscosity),
+            temperature: uom::si::f64::ThermodynamicTemperature::new::<
+                uom::si::thermodynamic_temperature::kelvin,
+            >(oil.temperature),
+        });
+    }
+    findings
+}
+
+/// The oil as the solve sees it: its temperature and, there, its viscosity and density.
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub(crate) struct OilAt {
+    /// Kelvin.
+    pub temperature: f64,
+    /// Kinematic viscosity, m^2/s.
+    pub viscosity: f64,
+    /// kg/m^3.
+    pub density: f64,
+}
+
+/// The job's oil at `temperature` (kelvin): its viscosity along its line (validation makes
+/// the line; a job that skipped it gets the common mineral oil's).
+pub(crate) fn oil_at(job: &Job, temperature: f64) -> OilAt {
+    let line = job
+        .oil
+        .viscosity
+        .line()
+        .or_else(|_| super::viscosity::COMMON_MINERAL_OIL.line());
+    let kelvin = uom::si::f64::ThermodynamicTemperature::new::<
+        uom::si::thermodynamic_temperature::kelvin,
+    >(temperature);
+    OilAt {
+        temperature,
+        viscosity: line.map_or(f64::NAN, |l| l.at(kelvin).value),
+        density: job.oil.density.value,
+    }
+}
+
+/// Solves one (validated) design over the job's cycle with the oil at `oil`; no heat balance.
+pub(crate) fn solve_design_at(job: &Job, design: &Design, oil: &OilAt) -> DesignReport {
+    let line = job
+        .oil
+        .viscosity
+        .line()
+        .or_else(|_| super::viscosity::COMMON_MINERAL_OIL.line());
+    // Slip flow goes as pressure over viscosity: a pump's leakage stated at another
+    // temperature scales by the viscosity there over the working one.
+    let unit = PreparedUnit::new(design).with_leakage_scaled(|pump| {
+        match (pump.efficiency_temperature, &line) {
+            (Some(stated), Ok(line)) => line.at(stated).value / oil.viscosity,
+            _ => 1.0,
+        }
+    });
     let mut phases: Vec<PhaseReport> = job
         .cycle
         .iter()
         .zip(&design.phase_settings)
-        .map(|(phase, setting)| solve_phase(&unit, phase, setting))
+        .map(|(phase, setting)| solve_phase(&unit, phase, setting, oil))
         .collect();
     for (report, phase) in phases.iter_mut().zip(&job.cycle) {
         if let Some(f) = flow_control_starved(phase, report, &job.advice) {
             report.findings.push(f);
         }
     }
+    move_line_findings(job, &mut phases);
     let mut reactive_note = None;
     if let Some(rating) = &design.motor.electrical {
         for (report, setting) in phases.iter_mut().zip(&design.phase_settings) {
@@ -167,6 +402,7 @@ pub(crate) fn solve_design(job: &Job, design: &Design) -> DesignReport {
     let totals = super::ledger::cycle_totals(&timed, &job.site, &job.oil);
     let mut findings = design_findings(design);
     findings.extend(reactive_note);
+    findings.extend(line_findings(design, oil));
     findings.extend(super::ledger::motor_findings(
         &design.motor,
         &totals,
@@ -177,6 +413,11 @@ pub(crate) fn solve_design(job: &Job, design: &Design) -> DesignReport {
         phases,
         totals,
         findings,
+        oil: OilReport {
+            working_temperature: oil.temperature,
+            viscosity: oil.viscosity,
+            balance: None,
+        },
     }
 }
 
@@ -227,10 +468,12 @@ fn power_factor_below(
 
 /// What a phase asks of the power unit, in SI numbers.
 #[derive(Clone, Copy, Debug)]
-enum Demand {
+enum Demand<'a> {
     Move {
         load: f64,
+        /// The fixed allowance for lines and valves.
         line: f64,
+        lines: Option<LinesAt<'a>>,
         area: f64,
         stroke: f64,
         metered: Option<f64>,
@@ -250,7 +493,22 @@ enum Demand {
     },
 }
 
-fn demand(phase: &Phase) -> Demand {
+/// A move's described lines with what they carry: the return side's area ratio and the oil.
+#[derive(Clone, Copy, Debug)]
+struct LinesAt<'a> {
+    lines: &'a MoveLines,
+    ratio: f64,
+    oil: OilAt,
+}
+
+impl LinesAt<'_> {
+    fn carrying(&self, flow: f64) -> MoveLinesFlow {
+        self.lines
+            .carrying(flow, self.ratio, self.oil.viscosity, self.oil.density)
+    }
+}
+
+fn demand<'a>(phase: &'a Phase, oil: &OilAt) -> Demand<'a> {
     match &phase.kind {
         PhaseKind::Move(m) => {
             let area = m.cylinder.working_area_m2(m.direction);
@@ -263,6 +521,11 @@ fn demand(phase: &Phase) -> Demand {
             Demand::Move {
                 load,
                 line: m.line_loss.value,
+                lines: m.lines.as_ref().map(|lines| LinesAt {
+                    lines,
+                    ratio: m.cylinder.return_ratio(m.direction),
+                    oil: *oil,
+                }),
                 area,
                 stroke: m.cylinder.stroke.value,
                 metered,
@@ -294,6 +557,8 @@ struct Point {
     /// The pressure the actuator takes its flow at (load), and the line loss on top of it.
     load: f64,
     line: f64,
+    /// The described lines at the actuator's flow.
+    lines: Option<MoveLinesFlow>,
     area: Option<f64>,
     duration: f64,
     findings: Vec<Finding>,
@@ -320,8 +585,9 @@ pub(crate) fn solve_phase(
     unit: &PreparedUnit,
     phase: &Phase,
     setting: &PhaseSetting,
+    oil: &OilAt,
 ) -> PhaseReport {
-    let demand = demand(phase);
+    let demand = demand(phase, oil);
     let idle = matches!(demand, Demand::Idle { .. });
     let (limit, relief) = limit_in_use(unit, setting, idle);
 
@@ -401,11 +667,12 @@ fn solve_state(
         Demand::Move {
             load,
             line,
+            lines,
             area,
             stroke,
             metered,
         } => {
-            let need = load + line;
+            let line_at = |flow: f64| line + lines.map_or(0.0, |l| l.carrying(flow).drop_at_pump);
             let mut point = Point {
                 load,
                 line,
@@ -413,8 +680,11 @@ fn solve_state(
                 ..running
             };
             if let Some(wanted) = metered {
+                let need = load + line_at(wanted);
                 let available = unit.supply(need, mask) - relief.flow(need);
                 if available >= wanted {
+                    point.line = need - load;
+                    point.lines = lines.map(|l| l.carrying(wanted));
                     point.pressure = unit.balance(relief, wanted, need, mask);
                     point.actuator = wanted;
                     point.duration = stroke * area / wanted;
@@ -425,7 +695,12 @@ fn solve_state(
                     available: cubic_metres_per_second(available.max(0.0)),
                 });
             }
-            take_all_flow(
+            let need = match lines {
+                None => load + line,
+                Some(_) => load + line_at(flow_through_lines(unit, relief, load, mask, &line_at)),
+            };
+            point.line = need - load;
+            let mut point = take_all_flow(
                 unit,
                 relief,
                 point,
@@ -433,7 +708,9 @@ fn solve_state(
                 mask,
                 |flow| stroke * area / flow,
                 Some(stroke * area),
-            )
+            );
+            point.lines = lines.map(|l| l.carrying(point.actuator));
+            point
         }
         Demand::Direct {
             flow,
@@ -495,6 +772,54 @@ fn solve_state(
             },
         },
     }
+}
+
+/// The flow a move takes with all the pump flow through its described lines: where the flow
+/// the pumps give at the load plus the lines' drop (less what the relief takes there) is the
+/// flow that makes that drop. The drop rises with the flow and what is given falls with the
+/// pressure, so there is one such flow; false position (Illinois) between none and what is
+/// given at the load alone finds it.
+fn flow_through_lines(
+    unit: &PreparedUnit,
+    relief: &ReliefCharacteristic,
+    load: f64,
+    mask: u32,
+    line_at: &dyn Fn(f64) -> f64,
+) -> f64 {
+    let given = |flow: f64| {
+        let need = load + line_at(flow);
+        (unit.supply(need, mask) - relief.flow(need)).max(0.0)
+    };
+    let gap = |flow: f64| flow - given(flow);
+    let (mut a, mut b) = (0.0, given(0.0));
+    if b <= NO_FLOW {
+        return 0.0;
+    }
+    let (mut ga, mut gb) = (gap(a), gap(b));
+    let mut side = 0;
+    for _ in 0..100 {
+        let q = (a * gb - b * ga) / (gb - ga);
+        let g = gap(q);
+        if g.abs() <= 1e-12 * q.max(NO_FLOW) || b - a <= 1e-15 {
+            return q;
+        }
+        if g < 0.0 {
+            a = q;
+            ga = g;
+            if side == -1 {
+                gb /= 2.0;
+            }
+            side = -1;
+        } else {
+            b = q;
+            gb = g;
+            if side == 1 {
+                ga /= 2.0;
+            }
+            side = 1;
+        }
+    }
+    (a * gb - b * ga) / (gb - ga)
 }
 
 /// The actuator takes whatever the pumps give at `need` that the relief does not take; if
@@ -617,6 +942,7 @@ fn report(
         },
         ledger,
         line: None,
+        lines: point.lines,
         findings: point.findings,
     }
 }
@@ -634,7 +960,9 @@ pub(crate) fn flow_control_starved(
     if m.speed == SpeedRule::AllPumpFlow || report.point.actuator_flow.value <= NO_FLOW {
         return None;
     }
-    let available = report.point.system_pressure.value - m.load_pressure() - m.line_loss.value;
+    let lines = report.lines.map_or(0.0, |l| l.drop_at_pump);
+    let available =
+        report.point.system_pressure.value - m.load_pressure() - m.line_loss.value - lines;
     let needed = policy.flow_control_drop.value;
     (available < needed * (1.0 - 1e-9)).then_some(Finding::FlowControlStarved {
         available: pascals(available.max(0.0)),

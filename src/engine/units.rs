@@ -29,6 +29,9 @@ pub const HORSEPOWER: f64 = 550.0 * 12.0 * INCH * POUND_FORCE;
 pub const BTU_IT: f64 = 1_055.055_852_62;
 /// One bar in pascals (exact).
 pub const BAR: f64 = 1e5;
+/// The foot and the avoirdupois pound, m and kg (exact, NIST SP 811).
+pub const FOOT: f64 = 12.0 * INCH;
+pub const POUND: f64 = 0.453_592_37;
 /// One litre per minute in cubic metres per second (exact).
 pub const LITRE_PER_MINUTE: f64 = 1e-3 / 60.0;
 /// One US gallon per minute in cubic metres per second (exact).
@@ -210,6 +213,22 @@ pub enum Measure {
     GridFactor,
     /// Oil temperature rise per hour of running, kept in K/h.
     RisePerHour,
+    /// A temperature, kept in kelvin, shown in degC or degF.
+    Temperature,
+    /// A temperature difference, kept in K.
+    TemperatureDifference,
+    /// Kinematic viscosity, kept in m^2/s, shown in mm^2/s (cSt).
+    Viscosity,
+    /// A wall or tank area, kept in m^2.
+    Area,
+    /// A mass, kept in kg.
+    Mass,
+    /// A line's inner diameter or length, kept in m.
+    LineSize,
+    /// Heat rejected per kelvin of temperature difference, kept in W/K.
+    HeatPerKelvin,
+    /// A plain count or figure with no unit (a loss coefficient, a viscosity index).
+    Number,
 }
 
 impl Measure {
@@ -255,6 +274,30 @@ impl Measure {
             (Measure::GridFactor, _) => ("kg/kWh", 1.0, 3),
             (Measure::RisePerHour, Si) => ("K/h", 1.0, 1),
             (Measure::RisePerHour, Us) => ("°F/h", 1.0 / 1.8, 1),
+            (Measure::Temperature, Si) => ("°C", 1.0, 1),
+            (Measure::Temperature, Us) => ("°F", 1.0 / 1.8, 0),
+            (Measure::TemperatureDifference, Si) => ("K", 1.0, 1),
+            (Measure::TemperatureDifference, Us) => ("°F", 1.0 / 1.8, 1),
+            (Measure::Viscosity, _) => ("mm²/s", 1e-6, 1),
+            (Measure::Area, Si) => ("m²", 1.0, 2),
+            (Measure::Area, Us) => ("ft²", FOOT * FOOT, 1),
+            (Measure::Mass, Si) => ("kg", 1.0, 0),
+            (Measure::Mass, Us) => ("lb", POUND, 0),
+            (Measure::LineSize, Si) => ("mm", 1e-3, 1),
+            (Measure::LineSize, Us) => ("in", INCH, 3),
+            (Measure::HeatPerKelvin, Si) => ("W/K", 1.0, 0),
+            (Measure::HeatPerKelvin, Us) => ("Btu/(h·°F)", BTU_IT / 3600.0 * 1.8, 0),
+            (Measure::Number, _) => ("", 1.0, 2),
+        }
+    }
+
+    /// What the shown unit's zero is in SI (only temperatures have one that is not zero).
+    fn zero(self, system: UnitSystem) -> f64 {
+        match (self, system) {
+            (Measure::Temperature, UnitSystem::Si) => 273.15,
+            // 0 degF is (0 - 32) / 1.8 + 273.15 K.
+            (Measure::Temperature, UnitSystem::UsCustomary) => 273.15 - 32.0 / 1.8,
+            _ => 0.0,
         }
     }
 
@@ -264,12 +307,12 @@ impl Measure {
 
     /// The SI value in the shown unit.
     pub fn shown(self, system: UnitSystem, si: f64) -> f64 {
-        si / self.unit(system).1
+        (si - self.zero(system)) / self.unit(system).1
     }
 
     /// The SI value of a number typed in the shown unit.
     pub fn from_shown(self, system: UnitSystem, shown: f64) -> f64 {
-        shown * self.unit(system).1
+        shown * self.unit(system).1 + self.zero(system)
     }
 
     /// The SI value as shown: its number at the unit's decimals, without the unit.
@@ -504,6 +547,13 @@ mod tests {
             Torque,
             Voltage,
             Current,
+            Temperature,
+            TemperatureDifference,
+            Viscosity,
+            Area,
+            Mass,
+            LineSize,
+            HeatPerKelvin,
         ];
         for m in all {
             for system in [UnitSystem::Si, UnitSystem::UsCustomary] {
@@ -521,6 +571,22 @@ mod tests {
         assert_eq!(Pressure.with_unit(UnitSystem::Si, 210e5), "210.0 bar");
         assert_eq!(Pressure.format(UnitSystem::Si, -1.0), "0.0");
         assert_eq!(Pressure.format(UnitSystem::Si, f64::NAN), "–");
+        // Temperatures have their own zero: 323.15 K is 50 degC and 122 degF; water freezes
+        // at 32 degF (the Celsius and Fahrenheit definitions, NIST SP 811).
+        assert_eq!(Temperature.with_unit(UnitSystem::Si, 323.15), "50.0 °C");
+        assert_eq!(
+            Temperature.with_unit(UnitSystem::UsCustomary, 323.15),
+            "122 °F"
+        );
+        assert!(close(
+            Temperature.from_shown(UnitSystem::UsCustomary, 32.0),
+            273.15,
+            1e-12
+        ));
+        assert_eq!(
+            TemperatureDifference.format(UnitSystem::UsCustomary, 10.0),
+            "18.0"
+        );
     }
 
     #[test]

@@ -198,6 +198,7 @@ pub fn validate(job: &Job) -> Result<(), Vec<InputError>> {
     c.number(&OIL_VOLUME, job.oil.volume.value);
     c.number(&OIL_DENSITY, job.oil.density.value);
     c.number(&OIL_SPECIFIC_HEAT, job.oil.specific_heat.value);
+    check_oil_and_tank(&mut c, job);
     let a = &job.advice;
     c.number(&MARGIN_SHARE, a.margin_fraction);
     c.number(&MARGIN_MIN, a.margin_min.value);
@@ -265,6 +266,26 @@ fn check_phase(c: &mut Checker, kind: &PhaseKind) {
             }
             if let Some(t) = m.target_time {
                 c.number(&TARGET_TIME, t.value);
+            }
+            if let Some(lines) = &m.lines {
+                check_line(
+                    c,
+                    &lines.pressure_line,
+                    [
+                        &PRESSURE_LINE_DIAMETER,
+                        &PRESSURE_LINE_LENGTH,
+                        &PRESSURE_LINE_FITTINGS,
+                    ],
+                );
+                check_line(
+                    c,
+                    &lines.return_line,
+                    [
+                        &RETURN_LINE_DIAMETER,
+                        &RETURN_LINE_LENGTH,
+                        &RETURN_LINE_FITTINGS,
+                    ],
+                );
             }
         }
         PhaseKind::Hold(h) => {
@@ -339,6 +360,22 @@ fn check_design_fields(c: &mut Checker, d: &Design, job: &Job) {
         );
     }
     c.number(&VENT_PRESSURE, d.vent_pressure.value);
+    if let Some(cooler) = &d.cooler {
+        c.number(&COOLANT_TEMPERATURE, cooler.coolant_temperature.value);
+        c.number(&COOLER_RATED_HEAT, cooler.rated_heat.value);
+        c.number(&COOLER_RATED_DIFFERENCE, cooler.rated_difference.value);
+    }
+    if let Some(line) = &d.suction_line {
+        check_line(
+            c,
+            line,
+            [
+                &SUCTION_LINE_DIAMETER,
+                &SUCTION_LINE_LENGTH,
+                &SUCTION_LINE_FITTINGS,
+            ],
+        );
+    }
     if d.phase_settings.len() != job.cycle.len() {
         c.fail(
             &PHASE_SETTINGS,
@@ -433,6 +470,110 @@ fn check_stage(c: &mut Checker, stage: &super::power_unit::UnloadingStage) {
     c.number(&CHECK_CRACKING, stage.check.cracking.value);
 }
 
+/// The oil's viscosity and temperatures, the tank and the field's warm-up readings.
+fn check_oil_and_tank(c: &mut Checker, job: &Job) {
+    use super::heat::TankSize;
+    use super::site::WorkingTemperature;
+    use super::viscosity::{NoLine, OilViscosity};
+    let oil = &job.oil;
+    let line_field = match oil.viscosity {
+        OilViscosity::Grade {
+            grade,
+            viscosity_index,
+        } => {
+            let ok = c.number(&OIL_GRADE, grade) & c.number(&VISCOSITY_INDEX, viscosity_index);
+            ok.then_some(&VISCOSITY_INDEX)
+        }
+        OilViscosity::Measured { at_40, at_100 } => {
+            let ok =
+                c.number(&VISCOSITY_AT_40, at_40.value) & c.number(&VISCOSITY_AT_100, at_100.value);
+            ok.then_some(&VISCOSITY_AT_100)
+        }
+    };
+    if let (Some(field), Err(why)) = (line_field, oil.viscosity.line()) {
+        c.fail(
+            field,
+            match why {
+                NoLine::IndexOutOfReach => {
+                    "no oil of this grade has this index: its viscosity at 100 °C would be outside ASTM D2270's table (2 to 70 mm²/s)"
+                }
+                NoLine::NotThinnerWhenHotter => "must be less than the viscosity at 40 °C",
+                NoLine::SameTemperature | NoLine::NotPositive => "check both viscosities",
+            },
+        );
+    }
+    match oil.working_temperature {
+        WorkingTemperature::Entered { temperature } => {
+            c.number(&WORKING_TEMPERATURE, temperature.value);
+        }
+        WorkingTemperature::Settled if job.tank.is_none() => c.fail(
+            &WORKING_TEMPERATURE_SET_BY,
+            "describe the tank (its size and the air around it) to find where the oil settles, or enter the temperature",
+        ),
+        WorkingTemperature::Settled => {}
+    }
+    c.number(&TARGET_TEMPERATURE, oil.target_temperature.value);
+    if let Some(tank) = &job.tank {
+        match tank.size {
+            TankSize::Box {
+                length,
+                width,
+                oil_depth,
+            } => {
+                c.number(&TANK_LENGTH, length.value);
+                c.number(&TANK_WIDTH, width.value);
+                c.number(&TANK_OIL_DEPTH, oil_depth.value);
+            }
+            TankSize::WettedArea { area } => {
+                c.number(&TANK_AREA, area.value);
+            }
+        }
+        c.number(&AMBIENT, tank.ambient.value);
+        if let Some(m) = tank.steel_mass {
+            c.number(&STEEL_MASS, m.value);
+        }
+    }
+    if let Some(w) = &job.warm_up {
+        c.number(&FIRST_READING_TIME, w.first.time.value);
+        c.number(&FIRST_READING_OIL, w.first.oil.value);
+        let later = c.number(&SECOND_READING_TIME, w.second.time.value);
+        c.number(&SECOND_READING_OIL, w.second.oil.value);
+        if later && w.second.time.value <= w.first.time.value {
+            c.fail(
+                &SECOND_READING_TIME,
+                "the second reading comes after the first",
+            );
+        }
+    }
+}
+
+/// A line's diameter, length and fittings.
+fn check_line(
+    c: &mut Checker,
+    line: &super::lines::Line,
+    [diameter, length, fittings]: [&FieldSpec; 3],
+) {
+    use super::lines::FittingKind;
+    c.number(diameter, line.inner_diameter.value);
+    c.number(length, line.length.value);
+    for fitting in &line.fittings {
+        match fitting.kind {
+            FittingKind::Coefficient { k } if !(k.is_finite() && (0.0..=1000.0).contains(&k)) => {
+                c.fail(fittings, "a loss coefficient is a number from 0 to 1000");
+            }
+            FittingKind::EquivalentLength { length }
+                if !(length.value.is_finite() && length.value > 0.0 && length.value <= 1000.0) =>
+            {
+                c.fail(
+                    fittings,
+                    "an equivalent length is more than 0 and at most 1000 m",
+                );
+            }
+            _ => {}
+        }
+    }
+}
+
 /// A pump: the base pump of the power unit being checked, or the pump of the unloading stage
 /// being checked (its field paths say which).
 fn check_pump(c: &mut Checker, p: &Pump) {
@@ -441,6 +582,9 @@ fn check_pump(c: &mut Checker, p: &Pump) {
     c.number(&EFFICIENCY_PRESSURE, p.efficiency_pressure.value);
     if let Some(speed) = p.efficiency_speed {
         c.number(&EFFICIENCY_SPEED, speed.value);
+    }
+    if let Some(t) = p.efficiency_temperature {
+        c.number(&EFFICIENCY_TEMPERATURE, t.value);
     }
     c.number(&HYDROMECHANICAL_EFFICIENCY, p.hydromechanical_efficiency);
     c.number(&DRAG_POWER, p.drag_power.value);

@@ -27,6 +27,7 @@ pub fn new_phase(kind: &str, name: &str) -> Phase {
                 force: Force::new::<kilonewton>(10.0),
             },
             line_loss: Pressure::new::<bar>(3.0),
+            lines: None,
             speed: SpeedRule::AllPumpFlow,
             target_time: None,
         }),

@@ -3,7 +3,7 @@
 use super::*;
 use crate::job::Job;
 use crate::power_unit::Design;
-use crate::solve::{solve_design, DesignReport};
+use crate::solve::{oil_at, solve_design_at, DesignReport};
 use crate::valve::{ActiveLimit, IdlePath};
 use uom::si::energy::kilowatt_hour;
 
@@ -91,7 +91,10 @@ pub(super) fn saving(
     action: &Action,
     phase: Option<usize>,
 ) -> (Power, f64) {
-    let after = solve_design(job, &apply(design, action));
+    // At the oil temperature `before` was worked out at: the saving is the action's, not the
+    // cooler oil's it would also bring.
+    let oil = oil_at(job, before.oil.working_temperature);
+    let after = solve_design_at(job, &apply(design, action), &oil);
     let in_phase = phase
         .and_then(|i| {
             Some(

@@ -70,6 +70,7 @@ pub fn fixed_pump(
         displacement: Volume::new::<cubic_centimeter>(cc_per_rev),
         volumetric_efficiency: volumetric,
         efficiency_pressure: bar_(at_bar),
+        efficiency_temperature: None,
         efficiency_speed: None,
         hydromechanical_efficiency: hydromechanical,
         drag_power: kw(drag_kw),
@@ -132,6 +133,8 @@ pub fn design(
         unloading_stages: stages,
         base_pump: base,
         relief,
+        cooler: None,
+        suction_line: None,
         remote_stages: vec![],
         vent_pressure: bar_(1.5),
         phase_settings: vec![PhaseSetting::default(); phases],
@@ -164,6 +167,7 @@ pub fn move_phase(
                 force: Force::new::<kilonewton>(force_kn),
             },
             line_loss: bar_(line_bar),
+            lines: None,
             speed,
             target_time: None,
         }),
@@ -232,6 +236,8 @@ pub fn job(cycle: Vec<Phase>, designs: Vec<Design>) -> Job {
         pump_tests: Vec::new(),
         motor_checks: Vec::new(),
         wear: Default::default(),
+        tank: None,
+        warm_up: None,
     }
 }
 

@@ -3,8 +3,13 @@
 
 use crate::common::*;
 use phasewise_engine::cycle::{Direction, PhaseKind, SpeedRule};
+use phasewise_engine::heat::TankSize;
+use phasewise_engine::site::WorkingTemperature;
 use phasewise_engine::valve::{ActiveLimit, IdlePath, ReliefKind};
+use phasewise_engine::viscosity::OilViscosity;
 use phasewise_engine::{solve, Job, JobFileError, SCHEMA_VERSION};
+use uom::si::f64::KinematicViscosity;
+use uom::si::kinematic_viscosity::square_millimeter_per_second;
 
 fn good_job() -> Job {
     let cycle = vec![
@@ -364,6 +369,11 @@ fn every_field_job() -> serde_json::Value {
     clamp["load"] = json!({"type": "pressure", "pressure_pa": 3e6});
     clamp["speed"] = json!({"rule": "metered_flow", "flow_m3_per_s": 3e-4});
     clamp["target_time_s"] = json!(4.0);
+    let line = json!({"inner_diameter_m": 0.012, "length_m": 3.0, "fittings": [
+        {"kind": {"type": "elbow90"}, "count": 2},
+        {"kind": {"type": "coefficient", "k": 1.5}, "count": 1},
+        {"kind": {"type": "equivalent_length", "length_m": 0.5}, "count": 1}]});
+    clamp["lines"] = json!({"pressure_line": line, "return_line": line});
     cycle.push(json!({"name": "tool", "kind": "direct", "flow_m3_per_s": 2e-4, "pressure_pa": 5e6, "duration_s": 3.0}));
     cycle.push(clamp);
     let idle = cycle.iter().position(|p| p["kind"] == "idle").unwrap();
@@ -378,10 +388,21 @@ fn every_field_job() -> serde_json::Value {
         d["motor"]["electrical"] =
             json!({"voltage_v": 400.0, "full_load_current_a": 30.0, "power_factor": 0.85});
         d["phase_settings"][0]["measured_current_a"] = json!(12.0);
+        d["base_pump"]["efficiency_oil_k"] = json!(313.15);
+        d["cooler"] = json!({"coolant": "water", "coolant_k": 293.15, "rated_heat_w": 3000.0,
+            "rated_difference_k": 25.0});
+        d["suction_line"] = line.clone();
         for s in d["unloading_stages"].as_array_mut().unwrap() {
             s["pump"]["control"] = json!({"type": "compensated", "setting_pa": 1.5e7});
         }
     }
+    j["oil"]["viscosity"] = json!({"given_as": "grade", "grade": 46.0, "viscosity_index": 100.0});
+    j["oil"]["working_temperature"] = json!({"set_by": "entered", "temperature_k": 318.15});
+    j["oil"]["target_k"] = json!(328.15);
+    j["tank"] = json!({"size": {"given_as": "box", "length_m": 1.0, "width_m": 0.6,
+        "oil_depth_m": 0.4}, "air": "normal", "ambient_k": 298.15, "steel_mass_kg": 150.0});
+    j["warm_up"] = json!({"first": {"time_s": 0.0, "oil_k": 293.15},
+        "second": {"time_s": 600.0, "oil_k": 298.15}});
     j["site"]["grid_kg_co2_per_kwh"] = json!(0.4);
     j["site"]["demand_charge_per_kw_month"] = json!(12.0);
     j["site"]["power_factor_threshold"] = json!(0.9);
@@ -410,6 +431,7 @@ fn spoil(value: &mut serde_json::Value, key: &str) {
         Value::Number(_) => {
             *value = match key {
                 "schema_version" | "max_pumps" => 0.into(),
+                "count" => 1.into(),
                 "stage" | "design" => 9.into(),
                 _ => (-1.0).into(),
             }
@@ -466,6 +488,41 @@ fn every_field_validation_names_is_declared_and_every_declared_check_is_made() {
             s.unloaded_drop = s.setting;
         },
         |j| j.pump_tests[0].synchronous_speed = Some(j.pump_tests[0].speed),
+        |j| {
+            j.oil.viscosity = OilViscosity::Measured {
+                at_40: KinematicViscosity::new::<square_millimeter_per_second>(-1.0),
+                at_100: KinematicViscosity::new::<square_millimeter_per_second>(-1.0),
+            }
+        },
+        |j| {
+            j.oil.viscosity = OilViscosity::Measured {
+                at_40: KinematicViscosity::new::<square_millimeter_per_second>(46.0),
+                at_100: KinematicViscosity::new::<square_millimeter_per_second>(60.0),
+            }
+        },
+        |j| {
+            // A grade 2 oil is thinner than 2 mm^2/s at 100 degC for any usual index.
+            j.oil.viscosity = OilViscosity::Grade {
+                grade: 2.0,
+                viscosity_index: 100.0,
+            }
+        },
+        |j| {
+            j.oil.working_temperature = WorkingTemperature::Settled;
+            j.tank = None;
+        },
+        |j| {
+            if let Some(tank) = &mut j.tank {
+                tank.size = TankSize::WettedArea {
+                    area: uom::si::f64::Area::new::<uom::si::area::square_meter>(-1.0),
+                };
+            }
+        },
+        |j| {
+            if let Some(w) = &mut j.warm_up {
+                std::mem::swap(&mut w.first.time, &mut w.second.time);
+            }
+        },
     ];
     for edit in edits {
         let mut j = good.clone();

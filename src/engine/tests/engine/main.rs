@@ -32,6 +32,7 @@ mod electrical;
 mod golden;
 mod input;
 mod motor_check;
+mod oil;
 mod properties;
 mod published;
 mod quote;

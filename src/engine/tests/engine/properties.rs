@@ -107,6 +107,7 @@ fn phase() -> impl Strategy<Value = Phase> {
                 },
                 load,
                 line_loss: bar_(line),
+                lines: None,
                 speed,
                 target_time: None,
             })

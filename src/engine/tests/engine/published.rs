@@ -26,6 +26,7 @@ fn pressure_load(name: &str, load_bar: f64) -> Phase {
                 pressure: bar_(load_bar),
             },
             line_loss: bar_(0.0),
+            lines: None,
             speed: SpeedRule::AllPumpFlow,
             target_time: None,
         }),

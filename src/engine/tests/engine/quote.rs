@@ -287,15 +287,18 @@ fn a_retrofit_worked_by_hand() {
                 phases: vec![],
                 totals: totals(30.0, 40_000.0, 8_000.0, 7_000.0),
                 findings: vec![],
+                oil: oil_report(),
             },
             phasewise_engine::DesignReport {
                 name: "Proposed".into(),
                 phases: vec![],
                 totals: totals(32.0, 24_000.0, 4_800.0, 3_500.0),
                 findings: vec![],
+                oil: oil_report(),
             },
         ],
         comparisons: vec![],
+        warm_up: None,
     };
     let c = quote::columns(&job, &report);
     assert_eq!(c.len(), 2);
@@ -341,4 +344,12 @@ fn a_quote_shows_no_false_precision() {
     assert!(for_customer(f64::NAN, 3).is_nan());
     assert_eq!(payback_for_customer(0.9375), 0.9);
     assert_eq!(payback_for_customer(12.6), 13.0);
+}
+
+fn oil_report() -> phasewise_engine::heat::OilReport {
+    phasewise_engine::heat::OilReport {
+        working_temperature: 323.15,
+        viscosity: 30e-6,
+        balance: None,
+    }
 }

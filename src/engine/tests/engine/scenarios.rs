@@ -353,6 +353,7 @@ fn test_rig(loads_bar: &[f64]) -> (Vec<Phase>, phasewise_engine::power_unit::Des
                     pressure: bar_(bar),
                 },
                 line_loss: bar_(0.0),
+                lines: None,
                 speed: SpeedRule::AllPumpFlow,
                 target_time: None,
             }),
