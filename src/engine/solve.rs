@@ -22,6 +22,7 @@ use super::site::WorkingTemperature;
 use super::units::{cubic_metres_per_second, pascals, seconds_of, watts};
 use super::validate::InputError;
 use super::valve::{ActiveLimit, IdlePath, ReliefCharacteristic};
+use super::viscosity::ViscosityLine;
 use serde::Serialize;
 use uom::si::f64::{Pressure, Time, Velocity, VolumeRate};
 
@@ -188,10 +189,10 @@ pub(crate) fn solve_design(job: &Job, design: &Design) -> DesignReport {
         WorkingTemperature::Entered { temperature } => Some(temperature.value),
         WorkingTemperature::Settled => None,
     };
+    let oil = oil_at(job, entered.unwrap_or(WorkingTemperature::default_kelvin()));
     let Some(tank) = &job.tank else {
         // Validation asks for the tank when the temperature is to settle.
-        let working = entered.unwrap_or(WorkingTemperature::default_kelvin());
-        return solve_design_at(job, design, &oil_at(job, working));
+        return solve_design_at(job, design, &oil);
     };
     let paths = HeatPaths {
         tank,
@@ -205,7 +206,7 @@ pub(crate) fn solve_design(job: &Job, design: &Design) -> DesignReport {
     };
     let steady = heat::settle(&mut heat_in, &paths);
     let working = entered.unwrap_or(steady.kelvin());
-    let mut report = solve_design_at(job, design, &oil_at(job, working));
+    let mut report = solve_design_at(job, design, &oil.at(working));
     let at_steady = if working == steady.kelvin() {
         report.totals.heat_load.value
     } else {
@@ -328,47 +329,57 @@ fn line_findings(design: &Design, oil: &OilAt) -> Vec<Finding> {
 
 /// The oil as the solve sees it: its temperature and, there, its viscosity and density.
 #[derive(Clone, Copy, Debug, PartialEq)]
-pub(crate) struct OilAt {
+pub struct OilAt {
     /// Kelvin.
     pub temperature: f64,
     /// Kinematic viscosity, m^2/s.
     pub viscosity: f64,
     /// kg/m^3.
     pub density: f64,
+    /// The oil's viscosity-temperature line, drawn once per solve.
+    pub line: ViscosityLine,
+}
+
+impl OilAt {
+    /// The same oil at `temperature` (kelvin).
+    pub fn at(&self, temperature: f64) -> OilAt {
+        OilAt {
+            temperature,
+            viscosity: self.line.at(kelvin(temperature)).value,
+            ..*self
+        }
+    }
+}
+
+fn kelvin(k: f64) -> uom::si::f64::ThermodynamicTemperature {
+    uom::si::f64::ThermodynamicTemperature::new::<uom::si::thermodynamic_temperature::kelvin>(k)
 }
 
 /// The job's oil at `temperature` (kelvin): its viscosity along its line (validation makes
 /// the line; a job that skipped it gets the common mineral oil's).
-pub(crate) fn oil_at(job: &Job, temperature: f64) -> OilAt {
+pub fn oil_at(job: &Job, temperature: f64) -> OilAt {
+    // The common oil's line is always drawn (its grade and index are in the table).
     let line = job
         .oil
         .viscosity
         .line()
-        .or_else(|_| super::viscosity::COMMON_MINERAL_OIL.line());
-    let kelvin = uom::si::f64::ThermodynamicTemperature::new::<
-        uom::si::thermodynamic_temperature::kelvin,
-    >(temperature);
+        .or_else(|_| super::viscosity::COMMON_MINERAL_OIL.line())
+        .unwrap_or(ViscosityLine::FLAT);
     OilAt {
         temperature,
-        viscosity: line.map_or(f64::NAN, |l| l.at(kelvin).value),
+        viscosity: line.at(kelvin(temperature)).value,
         density: job.oil.density.value,
+        line,
     }
 }
 
 /// Solves one (validated) design over the job's cycle with the oil at `oil`; no heat balance.
 pub(crate) fn solve_design_at(job: &Job, design: &Design, oil: &OilAt) -> DesignReport {
-    let line = job
-        .oil
-        .viscosity
-        .line()
-        .or_else(|_| super::viscosity::COMMON_MINERAL_OIL.line());
     // Slip flow goes as pressure over viscosity: a pump's leakage stated at another
     // temperature scales by the viscosity there over the working one.
     let unit = PreparedUnit::new(design).with_leakage_scaled(|pump| {
-        match (pump.efficiency_temperature, &line) {
-            (Some(stated), Ok(line)) => line.at(stated).value / oil.viscosity,
-            _ => 1.0,
-        }
+        pump.efficiency_temperature
+            .map_or(1.0, |stated| oil.line.at(stated).value / oil.viscosity)
     });
     let mut phases: Vec<PhaseReport> = job
         .cycle

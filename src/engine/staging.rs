@@ -65,7 +65,7 @@ use super::motor::Motor;
 use super::power_unit::{Design, UnloadingStage};
 use super::pump::{Pump, PumpControl};
 use super::settings::{self, FlowNeed, UnloadingWindow};
-use super::solve::{oil_at, solve_design, solve_design_at};
+use super::solve::{oil_at, solve_design, solve_design_at, OilAt};
 use super::units::{joules, pascals, watts};
 use super::validate::InputError;
 use super::valve::{ActiveLimit, CheckValve, IdlePath, UnloadingValve};
@@ -316,10 +316,10 @@ pub struct Targets {
     pub phase_times: Vec<Option<f64>>,
     /// The longest the cycle may take (s); `None`: no limit beyond the phases'.
     pub cycle_time: Option<f64>,
-    /// The oil temperature every candidate is worked out at (kelvin): the baseline's working
-    /// temperature. A candidate that makes less heat would run a little cooler; searching
-    /// each one's own heat balance would cost a few dozen solves per candidate.
-    pub oil_temperature: f64,
+    /// The oil every candidate is worked out at: at the baseline's working temperature. A
+    /// candidate that makes less heat would run a little cooler; searching each one's own
+    /// heat balance would cost a few dozen solves per candidate.
+    pub oil: OilAt,
 }
 
 /// The targets: each move's own target time, or its time with the baseline ("as found");
@@ -340,7 +340,7 @@ pub fn targets(job: &Job, options: &StagingOptions) -> Option<Targets> {
             })
             .collect(),
         cycle_time: options.cycle_time_target.map(|t| t.value),
-        oil_temperature: report.oil.working_temperature,
+        oil: oil_at(job, report.oil.working_temperature),
     })
 }
 
@@ -378,7 +378,7 @@ pub fn evaluate(
 ) -> Option<Candidate> {
     let baseline = job.designs.first()?;
     let design = build(job, baseline, spec, targets)?;
-    let report = solve_design_at(job, &design, &oil_at(job, targets.oil_temperature));
+    let report = solve_design_at(job, &design, &targets.oil);
     const SLACK: f64 = 1.0 + 1e-9;
     for (phase, limit) in report.phases.iter().zip(&targets.phase_times) {
         let troubled = phase.findings.iter().any(|f| {

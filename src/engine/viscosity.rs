@@ -117,7 +117,8 @@ pub fn viscosity_index(at_40: f64, at_100: f64) -> Option<f64> {
 }
 
 /// The 100 degC viscosity (mm^2/s) that gives an oil of `at_40` the viscosity index `index`:
-/// the index rises steadily with it, so halving the table's range finds it.
+/// the index rises steadily with it, so false position (Illinois) over the table's range
+/// finds it in a few steps.
 fn viscosity_at_100_for_index(at_40: f64, index: f64) -> Result<f64, NoLine> {
     if !(at_40.is_finite() && at_40 > 0.0 && index.is_finite()) {
         return Err(NoLine::NotPositive);
@@ -127,15 +128,29 @@ fn viscosity_at_100_for_index(at_40: f64, index: f64) -> Result<f64, NoLine> {
     if !(gap(low) <= 0.0 && gap(high) >= 0.0) {
         return Err(NoLine::IndexOutOfReach);
     }
-    for _ in 0..60 {
-        let mid = 0.5 * (low + high);
-        if gap(mid) < 0.0 {
-            low = mid;
+    let (mut g_low, mut g_high) = (gap(low), gap(high));
+    let mut side = 0;
+    for _ in 0..100 {
+        let x = (low * g_high - high * g_low) / (g_high - g_low);
+        let g = gap(x);
+        if g.abs() <= 1e-10 || high - low <= 1e-12 {
+            return Ok(x);
+        }
+        if g < 0.0 {
+            (low, g_low) = (x, g);
+            if side == -1 {
+                g_high /= 2.0;
+            }
+            side = -1;
         } else {
-            high = mid;
+            (high, g_high) = (x, g);
+            if side == 1 {
+                g_low /= 2.0;
+            }
+            side = 1;
         }
     }
-    Ok(0.5 * (low + high))
+    Ok((low * g_high - high * g_low) / (g_high - g_low))
 }
 
 const TABLE_FIRST: f64 = 2.0;
@@ -160,9 +175,16 @@ fn reference_oils(at_100: f64) -> Option<(f64, f64)> {
     if !(TABLE_FIRST..=TABLE_LAST).contains(&at_100) {
         return None;
     }
-    let row = (0..VI_L.len() - 1)
-        .find(|&i| table_viscosity(i + 1) >= at_100)
-        .unwrap_or(VI_L.len() - 2);
+    // The row at or below: the table's steps are even within each of its three bands.
+    let row = if at_100 < 20.0 {
+        (at_100 - 2.0) / 0.1
+    } else if at_100 < 30.0 {
+        180.0 + (at_100 - 20.0) / 0.2
+    } else {
+        230.0 + (at_100 - 30.0) / 0.5
+    };
+    // Rounding can put an exact row a hair below itself; the share then comes out at 1.
+    let row = (row.floor() as usize).min(VI_L.len() - 2);
     let (x0, x1) = (table_viscosity(row), table_viscosity(row + 1));
     let share = (at_100 - x0) / (x1 - x0);
     let between =
@@ -249,6 +271,13 @@ fn double_log(nu: f64) -> f64 {
 }
 
 impl ViscosityLine {
+    /// A line that is no oil's: the same 32 mm^2/s at every temperature. Only for a caller
+    /// that skipped validation and has no line to draw.
+    pub const FLAT: ViscosityLine = ViscosityLine {
+        a: 0.180_283,
+        b: 0.0,
+    };
+
     /// The line through two measured points (viscosity at a temperature).
     pub fn through(
         (nu1, t1): (KinematicViscosity, ThermodynamicTemperature),

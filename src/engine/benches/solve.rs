@@ -88,9 +88,65 @@ fn baler_job() -> phasewise_engine::Job {
     job(cycle, vec![d])
 }
 
+/// The baler with its lines described (25 mm pressure and 32 mm return lines, 6 m each, with
+/// four elbows), its pumps' efficiency stated at 40 degC, a 1.2 x 0.8 m tank with 0.6 m of oil
+/// in a normal workshop and a 15 kW water cooler: the oil settles where the heat balance says.
+fn baler_with_oil_job() -> phasewise_engine::Job {
+    use phasewise_engine::cycle::PhaseKind;
+    use phasewise_engine::heat::{AirAround, Coolant, Cooler, Tank, TankSize};
+    use phasewise_engine::lines::{Fitting, FittingKind, Line, MoveLines};
+    use uom::si::f64::{Power, TemperatureInterval, ThermodynamicTemperature};
+    let celsius =
+        ThermodynamicTemperature::new::<uom::si::thermodynamic_temperature::degree_celsius>;
+    let mut job = baler_job();
+    let line = |d| Line {
+        inner_diameter: mm(d),
+        length: mm(6000.0),
+        fittings: vec![Fitting {
+            kind: FittingKind::Elbow90,
+            count: 4,
+        }],
+    };
+    for phase in &mut job.cycle {
+        if let PhaseKind::Move(m) = &mut phase.kind {
+            m.lines = Some(MoveLines {
+                pressure_line: line(25.0),
+                return_line: line(32.0),
+            });
+        }
+    }
+    let d = &mut job.designs[0];
+    for stage in &mut d.unloading_stages {
+        stage.pump.efficiency_temperature = Some(celsius(40.0));
+    }
+    d.base_pump.efficiency_temperature = Some(celsius(40.0));
+    d.cooler = Some(Cooler {
+        coolant: Coolant::Water,
+        coolant_temperature: celsius(20.0),
+        rated_heat: Power::new::<uom::si::power::kilowatt>(15.0),
+        rated_difference: TemperatureInterval::new::<uom::si::temperature_interval::kelvin>(25.0),
+    });
+    job.tank = Some(Tank {
+        size: TankSize::Box {
+            length: mm(1200.0),
+            width: mm(800.0),
+            oil_depth: mm(600.0),
+        },
+        air: AirAround::Normal,
+        ambient: celsius(25.0),
+        steel_mass: None,
+    });
+    job.oil.working_temperature = phasewise_engine::site::WorkingTemperature::Settled;
+    job
+}
+
 /// Best and median microseconds per call of `f` over 15 batches.
 fn time(f: impl Fn()) -> (f64, f64) {
-    let per_batch = 20_000;
+    time_in(20_000, f)
+}
+
+/// Best and median microseconds per call of `f` over 15 batches of `per_batch` calls.
+fn time_in(per_batch: usize, f: impl Fn()) -> (f64, f64) {
     let mut batches: Vec<f64> = (0..15)
         .map(|_| {
             let start = Instant::now();
@@ -115,6 +171,27 @@ fn main() {
         black_box(phasewise_engine::validate::validate(black_box(&job)).ok());
     });
     println!("  of which validation: {best:.2} us best, {median:.2} us median");
+
+    // The same with the oil: lines at every move, leakage by viscosity, and the heat balance
+    // (where the oil settles with and without the cooler, the warm-up, the cooler needed):
+    // a few dozen solves of the cycle at the temperatures the searches try.
+    let oily = baler_with_oil_job();
+    let report = phasewise_engine::solve(&oily).expect("the benchmark job is valid");
+    let (best, median) = time_in(200, || {
+        black_box(phasewise_engine::solve(black_box(&oily)).ok());
+    });
+    println!(
+        "solve with lines, tank and cooler (settles at {:.1} degC): {best:.1} us best, {median:.1} us median (15 batches of 200)",
+        report.designs[0].oil.working_temperature - 273.15
+    );
+    // The lines and leakage alone: the oil at an entered temperature, no heat balance.
+    let mut lines_only = oily.clone();
+    lines_only.tank = None;
+    lines_only.oil.working_temperature = phasewise_engine::site::WorkingTemperature::default();
+    let (best, median) = time(|| {
+        black_box(phasewise_engine::solve(black_box(&lines_only)).ok());
+    });
+    println!("  lines and leakage at an entered temperature, no tank: {best:.2} us best, {median:.2} us median");
 
     // The staging search with the default lists (over 5,000 candidates) on the same 12-phase
     // cycle. Target in the browser: under 200 ms (the wasm build is measured there).
