@@ -140,14 +140,19 @@ pub fn friction_factor(reynolds: f64, relative_roughness: f64) -> f64 {
 }
 
 /// Colebrook-White: `1/sqrt(f) = -2 log10(e/(3.7 D) + 2.51/(Re sqrt(f)))`, solved by fixed-
-/// point iteration in `1/sqrt(f)` from the smooth-pipe Haaland start; it contracts fast for
-/// every Re above 4000, so a dozen steps reach double precision.
+/// point iteration in `1/sqrt(f)` from Haaland's explicit fit; it contracts fast for every Re
+/// above 4000, so a few steps reach double precision (a dozen at most).
 fn colebrook(reynolds: f64, relative_roughness: f64) -> f64 {
     let rough = relative_roughness / 3.7;
     // Haaland (1983), the explicit approximation, as the start.
     let mut x = -1.8 * (rough.powf(1.11) + 6.9 / reynolds).log10();
     for _ in 0..12 {
-        x = -2.0 * (rough + 2.51 * x / reynolds).log10();
+        let next = -2.0 * (rough + 2.51 * x / reynolds).log10();
+        let done = (next - x).abs() <= 1e-13 * next;
+        x = next;
+        if done {
+            break;
+        }
     }
     1.0 / (x * x)
 }

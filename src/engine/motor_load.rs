@@ -340,7 +340,7 @@ fn read(
 fn right_size(job: &Job, check: &MotorCheck) -> Option<RightSize> {
     super::validate::validate(job).ok()?;
     let design = job.designs.get(check.design)?;
-    let now = super::solve::solve_design(job, design);
+    let now = super::solve::solve_design_working(job, design);
     let options = &job.staging;
     let motor = super::staging::right_sized_motor(&design.motor, &now.totals, options)?;
     if motor.rated_power >= design.motor.rated_power {
@@ -348,7 +348,7 @@ fn right_size(job: &Job, check: &MotorCheck) -> Option<RightSize> {
     }
     let mut sized = design.clone();
     sized.motor = motor;
-    let then = super::solve::solve_design(job, &sized);
+    let then = super::solve::solve_design_working(job, &sized);
     Some(RightSize {
         rated_power: motor.rated_power,
         class: options.efficiency_class(),

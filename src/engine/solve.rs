@@ -185,11 +185,7 @@ fn heat_capacity(job: &Job, tank: &heat::Tank) -> f64 {
 /// cooler the target temperature needs. Each is a search over temperature that solves the
 /// cycle at each temperature it tries (the losses follow the oil's viscosity).
 pub(crate) fn solve_design(job: &Job, design: &Design) -> DesignReport {
-    let entered = match job.oil.working_temperature {
-        WorkingTemperature::Entered { temperature } => Some(temperature.value),
-        WorkingTemperature::Settled => None,
-    };
-    let oil = oil_at(job, entered.unwrap_or(WorkingTemperature::default_kelvin()));
+    let (oil, entered) = entered_oil(job);
     let Some(tank) = &job.tank else {
         // Validation asks for the tank when the temperature is to settle.
         return solve_design_at(job, design, &oil);
@@ -199,13 +195,17 @@ pub(crate) fn solve_design(job: &Job, design: &Design) -> DesignReport {
         cooler: design.cooler.as_ref(),
     };
     let mut heat_in = |t: f64| {
-        solve_design_at(job, design, &oil_at(job, t))
+        solve_design_at(job, design, &oil.at(t))
             .totals
             .heat_load
             .value
     };
     let steady = heat::settle(&mut heat_in, &paths);
-    let working = entered.unwrap_or(steady.kelvin());
+    let working = if entered {
+        oil.temperature
+    } else {
+        steady.kelvin()
+    };
     let mut report = solve_design_at(job, design, &oil.at(working));
     let at_steady = if working == steady.kelvin() {
         report.totals.heat_load.value
@@ -244,6 +244,39 @@ pub(crate) fn solve_design(job: &Job, design: &Design) -> DesignReport {
         cooler_needed: (target > coolant).then(|| cooler_duty / (target - coolant)),
     });
     report
+}
+
+/// The job's oil at its entered working temperature (or the usual one), and whether it was
+/// entered.
+fn entered_oil(job: &Job) -> (OilAt, bool) {
+    match job.oil.working_temperature {
+        WorkingTemperature::Entered { temperature } => (oil_at(job, temperature.value), true),
+        WorkingTemperature::Settled => (oil_at(job, WorkingTemperature::default_kelvin()), false),
+    }
+}
+
+/// Solves one (validated) design at its working temperature, without the rest of the heat
+/// balance (the warm-up, the oil without the cooler, the cooler needed): for the advice, the
+/// staging targets and the motor check, which compare designs at work.
+pub(crate) fn solve_design_working(job: &Job, design: &Design) -> DesignReport {
+    let (oil, entered) = entered_oil(job);
+    match (&job.tank, entered) {
+        (Some(tank), false) => {
+            let paths = HeatPaths {
+                tank,
+                cooler: design.cooler.as_ref(),
+            };
+            let mut heat_in = |t: f64| {
+                solve_design_at(job, design, &oil.at(t))
+                    .totals
+                    .heat_load
+                    .value
+            };
+            let steady = heat::settle(&mut heat_in, &paths);
+            solve_design_at(job, design, &oil.at(steady.kelvin()))
+        }
+        _ => solve_design_at(job, design, &oil),
+    }
 }
 
 /// Cautions on where the oil settles.

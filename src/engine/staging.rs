@@ -65,7 +65,7 @@ use super::motor::Motor;
 use super::power_unit::{Design, UnloadingStage};
 use super::pump::{Pump, PumpControl};
 use super::settings::{self, FlowNeed, UnloadingWindow};
-use super::solve::{oil_at, solve_design, solve_design_at, OilAt};
+use super::solve::{oil_at, solve_design_at, solve_design_working, OilAt};
 use super::units::{joules, pascals, watts};
 use super::validate::InputError;
 use super::valve::{ActiveLimit, CheckValve, IdlePath, UnloadingValve};
@@ -326,7 +326,7 @@ pub struct Targets {
 /// the options' cycle time, if any. `None` for a job with no design.
 pub fn targets(job: &Job, options: &StagingOptions) -> Option<Targets> {
     let baseline = job.designs.first()?;
-    let report = solve_design(job, baseline);
+    let report = solve_design_working(job, baseline);
     Some(Targets {
         phase_times: job
             .cycle

@@ -4,7 +4,7 @@ use super::*;
 use crate::cycle::{PhaseKind, SpeedRule};
 use crate::job::Job;
 use crate::power_unit::Design;
-use crate::solve::solve_design;
+use crate::solve::solve_design_working;
 use crate::units::watts;
 use crate::validate::InputError;
 use crate::valve::{ActiveLimit, IdlePath};
@@ -26,7 +26,7 @@ pub fn advise(job: &Job, index: usize) -> Result<Vec<Advice>, Vec<InputError>> {
     };
     let policy = &job.advice;
     let us = job.units == crate::units::UnitSystem::UsCustomary;
-    let before = solve_design(job, design);
+    let before = solve_design_working(job, design);
     let needs = phase_needs(job, design);
     let rating = system_rating(design);
     let vent_port = design.relief.kind.has_vent_port();
