@@ -1,6 +1,8 @@
 //! The demo job: an invented scrap baler, loaded on first start and shown as example data.
 //! Its two-pump unit dumps the small pump over the main relief while the operator loads
-//! scrap; the proposal vents that idle and holds the dwell on a lower remote stage.
+//! scrap; the proposal vents that idle and holds the dwell on a lower remote stage. Its oil
+//! settles where its tank and air-blast cooler shed the heat; its ram's return line, sized
+//! for the pump's flow, chokes on the cap end's larger return.
 
 use super::cycle::*;
 use super::job::{Job, Oil, Site, SCHEMA_VERSION};
@@ -23,6 +25,27 @@ use uom::si::time::second;
 use uom::si::volume::{cubic_centimeter, liter};
 use uom::si::volume_rate::liter_per_minute;
 
+/// The ram's lines: 25 mm bore hose both ways, 6 m to the valve with four elbows.
+fn ram_lines() -> super::lines::MoveLines {
+    use super::lines::{Fitting, FittingKind, Line};
+    let hose = Line {
+        inner_diameter: Length::new::<millimeter>(25.0),
+        length: Length::new::<millimeter>(6000.0),
+        fittings: vec![Fitting {
+            kind: FittingKind::Elbow90,
+            count: 4,
+        }],
+    };
+    super::lines::MoveLines {
+        pressure_line: hose.clone(),
+        return_line: hose,
+    }
+}
+
+fn celsius(c: f64) -> ThermodynamicTemperature {
+    ThermodynamicTemperature::new::<uom::si::thermodynamic_temperature::degree_celsius>(c)
+}
+
 fn ram(name: &str, stroke_mm: f64, direction: Direction, force_kn: f64, line_bar: f64) -> Phase {
     Phase {
         name: name.into(),
@@ -37,7 +60,7 @@ fn ram(name: &str, stroke_mm: f64, direction: Direction, force_kn: f64, line_bar
                 force: Force::new::<kilonewton>(force_kn),
             },
             line_loss: Pressure::new::<bar>(line_bar),
-            lines: None,
+            lines: Some(ram_lines()),
             speed: SpeedRule::AllPumpFlow,
             target_time: None,
         }),
@@ -49,7 +72,7 @@ fn pump(cc: f64) -> Pump {
         displacement: Volume::new::<cubic_centimeter>(cc),
         volumetric_efficiency: 0.92,
         efficiency_pressure: Pressure::new::<bar>(210.0),
-        efficiency_temperature: None,
+        efficiency_temperature: Some(celsius(50.0)),
         efficiency_speed: None,
         hydromechanical_efficiency: 0.90,
         drag_power: Power::new::<kilowatt>(0.15 + cc * 0.004),
@@ -61,8 +84,8 @@ fn pump(cc: f64) -> Pump {
 /// The example job.
 pub fn scrap_baler() -> Job {
     let cycle = vec![
-        ram("Fast approach", 900.0, Direction::Extend, 15.0, 5.0),
-        ram("Compress", 300.0, Direction::Extend, 300.0, 5.0),
+        ram("Fast approach", 900.0, Direction::Extend, 15.0, 3.0),
+        ram("Compress", 300.0, Direction::Extend, 300.0, 3.0),
         Phase {
             name: "Dwell".into(),
             kind: PhaseKind::Hold(HoldPhase {
@@ -71,7 +94,7 @@ pub fn scrap_baler() -> Job {
                 mode: HoldMode::HeldByPump,
             }),
         },
-        ram("Return", 1200.0, Direction::Retract, 10.0, 8.0),
+        ram("Return", 1200.0, Direction::Retract, 10.0, 3.0),
         Phase {
             name: "Load scrap".into(),
             kind: PhaseKind::Idle(IdlePhase {
@@ -114,8 +137,19 @@ pub fn scrap_baler() -> Job {
         remote_stages: vec![],
         vent_pressure: Pressure::new::<bar>(1.7),
         phase_settings: vec![PhaseSetting::default(); cycle.len()],
-        cooler: None,
-        suction_line: None,
+        cooler: Some(super::heat::Cooler {
+            coolant: super::heat::Coolant::Air,
+            coolant_temperature: celsius(30.0),
+            rated_heat: Power::new::<kilowatt>(6.0),
+            rated_difference: TemperatureInterval::new::<uom::si::temperature_interval::kelvin>(
+                25.0,
+            ),
+        }),
+        suction_line: Some(super::lines::Line {
+            inner_diameter: Length::new::<millimeter>(50.0),
+            length: Length::new::<millimeter>(800.0),
+            fittings: vec![],
+        }),
         retrofit_price: None,
         made_from: None,
     };
@@ -135,7 +169,10 @@ pub fn scrap_baler() -> Job {
         cycle,
         designs: vec![as_found, proposed],
         site: Site { location: "Recycling yard, press bay 2 (invented)".into(), operating_hours_per_year: 3500.0, tariff_per_kwh: 0.18, currency: "EUR".into(), retrofit_price: 2400.0, grid_factor: None , demand_charge: None, power_factor_threshold: None},
-        oil: Oil::mineral(Volume::new::<liter>(400.0)),
+        oil: Oil {
+            working_temperature: super::site::WorkingTemperature::Settled,
+            ..Oil::mineral(Volume::new::<liter>(400.0))
+        },
         advice: Default::default(),
         staging: Default::default(),
         pump_tests: Vec::new(),
@@ -175,7 +212,16 @@ pub fn scrap_baler() -> Job {
             ],
         }],
         wear: Default::default(),
-        tank: None,
+        tank: Some(super::heat::Tank {
+            size: super::heat::TankSize::Box {
+                length: Length::new::<millimeter>(1200.0),
+                width: Length::new::<millimeter>(800.0),
+                oil_depth: Length::new::<millimeter>(450.0),
+            },
+            air: super::heat::AirAround::Normal,
+            ambient: celsius(30.0),
+            steel_mass: Some(Mass::new::<uom::si::mass::kilogram>(180.0)),
+        }),
         warm_up: None,
     }
 }

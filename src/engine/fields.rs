@@ -868,6 +868,12 @@ const AIR_TEMPERATURE: Bounds = Bounds {
     high: Included(C0 + 60.0),
     otherwise: "the air or coolant is between -40 and 60 °C (-40 and 140 °F)",
 };
+/// A line's fittings: their loss coefficients, each checked in code (the list holds kinds).
+const FITTINGS: Bounds = Bounds {
+    low: Included(0.0),
+    high: Included(1000.0),
+    otherwise: "a loss coefficient is a number from 0 to 1000",
+};
 pub const OIL_GIVEN_AS: FieldSpec = Job.field("oil.viscosity.given_as", "Oil known by");
 pub const OIL_GRADE: FieldSpec = Job
     .field("oil.viscosity.grade", "ISO viscosity grade")
@@ -954,10 +960,13 @@ pub const PRESSURE_LINE_DIAMETER: FieldSpec = Move
 pub const PRESSURE_LINE_LENGTH: FieldSpec = Move
     .field("lines.pressure_line.length_m", "Pressure line, length")
     .amount(LineSize, 1000.0);
-pub const PRESSURE_LINE_FITTINGS: FieldSpec = Move.field(
-    "lines.pressure_line.fittings",
-    "Pressure line, fittings and valves",
-);
+pub const PRESSURE_LINE_FITTINGS: FieldSpec = Move
+    .field(
+        "lines.pressure_line.fittings",
+        "Pressure line, fittings' loss coefficients added up",
+    )
+    .between(Some(Number), &FITTINGS)
+    .said("pressure line's fittings");
 pub const RETURN_LINE_DIAMETER: FieldSpec = Move
     .field(
         "lines.return_line.inner_diameter_m",
@@ -967,10 +976,13 @@ pub const RETURN_LINE_DIAMETER: FieldSpec = Move
 pub const RETURN_LINE_LENGTH: FieldSpec = Move
     .field("lines.return_line.length_m", "Return line, length")
     .amount(LineSize, 1000.0);
-pub const RETURN_LINE_FITTINGS: FieldSpec = Move.field(
-    "lines.return_line.fittings",
-    "Return line, fittings and valves",
-);
+pub const RETURN_LINE_FITTINGS: FieldSpec = Move
+    .field(
+        "lines.return_line.fittings",
+        "Return line, fittings' loss coefficients added up",
+    )
+    .between(Some(Number), &FITTINGS)
+    .said("return line's fittings");
 pub const SUCTION_LINE_DIAMETER: FieldSpec = Design
     .field(
         "suction_line.inner_diameter_m",
@@ -980,8 +992,13 @@ pub const SUCTION_LINE_DIAMETER: FieldSpec = Design
 pub const SUCTION_LINE_LENGTH: FieldSpec = Design
     .field("suction_line.length_m", "Suction line, length")
     .amount(LineSize, 1000.0);
-pub const SUCTION_LINE_FITTINGS: FieldSpec =
-    Design.field("suction_line.fittings", "Suction line, fittings and valves");
+pub const SUCTION_LINE_FITTINGS: FieldSpec = Design
+    .field(
+        "suction_line.fittings",
+        "Suction line, fittings' loss coefficients added up",
+    )
+    .between(Some(Number), &FITTINGS)
+    .said("suction line's fittings");
 pub const COOLANT: FieldSpec = Design.field("cooler.coolant", "Cooler's coolant");
 pub const COOLANT_TEMPERATURE: FieldSpec = Design
     .field("cooler.coolant_k", "Coolant temperature in")

@@ -77,6 +77,24 @@ impl AirAround {
 pub const STEEL_SPECIFIC_HEAT: f64 = 470.0;
 
 impl Tank {
+    /// A tank to start from: a 1 x 0.6 m box with 0.5 m of oil in a normal workshop at 25 degC,
+    /// for the user to measure and correct (a starting value, not a figure of any machine).
+    pub fn first() -> Tank {
+        let m = |v| Length::new::<uom::si::length::meter>(v);
+        Tank {
+            size: TankSize::Box {
+                length: m(1.0),
+                width: m(0.6),
+                oil_depth: m(0.5),
+            },
+            air: AirAround::Normal,
+            ambient: ThermodynamicTemperature::new::<uom::si::thermodynamic_temperature::kelvin>(
+                298.15,
+            ),
+            steel_mass: None,
+        }
+    }
+
     /// The wetted wall area, m2.
     pub fn wetted_area(&self) -> f64 {
         match self.size {
@@ -273,6 +291,53 @@ pub struct WarmUp {
     /// there).
     #[serde(rename = "time_to_steady_s")]
     pub time_to_steady: Option<f64>,
+}
+
+/// How far the field's heat may differ from the model's and still agree, as a share of the
+/// model's. Our judgement: a tank thermometer read to a degree over a rise of some ten degrees
+/// is a tenth out already; the oil's and the steel's heat capacity add a few percent more.
+pub const WARM_UP_AGREEMENT: f64 = 0.15;
+
+/// What the field's warm-up says of the model.
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub enum Agreement {
+    /// Within [`WARM_UP_AGREEMENT`].
+    Agrees,
+    /// The machine makes this share more heat than the model (a loss the model lacks).
+    MoreHeat(f64),
+    /// The machine makes this share less heat than the model.
+    LessHeat(f64),
+}
+
+impl WarmUpCheck {
+    pub fn agreement(&self) -> Agreement {
+        let share = self.measured / self.model - 1.0;
+        if !share.is_finite() || share.abs() <= WARM_UP_AGREEMENT {
+            Agreement::Agrees
+        } else if share > 0.0 {
+            Agreement::MoreHeat(share)
+        } else {
+            Agreement::LessHeat(-share)
+        }
+    }
+
+    /// The agreement in words.
+    pub fn describe(&self) -> String {
+        match self.agreement() {
+            Agreement::Agrees => format!(
+                "The model explains the machine: the two agree within {:.0} %.",
+                WARM_UP_AGREEMENT * 100.0
+            ),
+            Agreement::MoreHeat(share) => format!(
+                "The machine puts {:.0} % more heat into the oil than the model: look for flow crossing a valve the model does not know of (a relief cracked open, a worn pump, a leaking valve), or a cooler that was working during the readings.",
+                share * 100.0
+            ),
+            Agreement::LessHeat(share) => format!(
+                "The machine puts {:.0} % less heat into the oil than the model: check the phases and settings entered against the machine, and that the readings were taken while it cycled.",
+                share * 100.0
+            ),
+        }
+    }
 }
 
 /// The heat the field's warm-up shows against the model's, for the machine as found.

@@ -158,6 +158,48 @@ fn colebrook(reynolds: f64, relative_roughness: f64) -> f64 {
 }
 
 impl Line {
+    /// The loss coefficients of its fittings added up (those given as an equivalent length
+    /// left out).
+    pub fn fittings_coefficient(&self) -> f64 {
+        self.fittings
+            .iter()
+            .filter_map(|f| f.kind.coefficient().map(|k| k * f64::from(f.count)))
+            .sum()
+    }
+
+    /// Its fittings stated as one loss coefficient `k` (those given as an equivalent length
+    /// kept): how a form that asks for the total writes it.
+    pub fn set_fittings_coefficient(&mut self, k: f64) {
+        self.fittings
+            .retain(|f| matches!(f.kind, FittingKind::EquivalentLength { .. }));
+        if k != 0.0 {
+            self.fittings.push(Fitting {
+                kind: FittingKind::Coefficient { k },
+                count: 1,
+            });
+        }
+    }
+
+    /// The common fittings' typical coefficients in words, for a form's hint.
+    pub fn typical_coefficients() -> String {
+        FittingKind::COMMON
+            .iter()
+            .map(|kind| {
+                let name = match kind {
+                    FittingKind::Elbow90 => "90° elbow",
+                    FittingKind::Elbow45 => "45° elbow",
+                    FittingKind::TeeRun => "tee, through the run",
+                    FittingKind::TeeBranch => "tee, into the branch",
+                    FittingKind::OpenValve => "open ball or gate valve",
+                    FittingKind::CheckValve => "check valve",
+                    _ => "",
+                };
+                format!("{name} {}", kind.coefficient().unwrap_or(0.0))
+            })
+            .collect::<Vec<_>>()
+            .join(", ")
+    }
+
     fn area(&self) -> f64 {
         std::f64::consts::PI / 4.0 * self.inner_diameter.value.powi(2)
     }

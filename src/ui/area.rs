@@ -20,6 +20,9 @@ pub enum Area {
     /// A motor's load and efficiency from readings taken at the machine; reached from the
     /// power unit's motor and from the pump test.
     MotorCheck,
+    /// The oil, the tank and where the oil's temperature settles; reached from the results,
+    /// the quote's site and the power unit's cooler.
+    Heat,
     /// The designs side by side for a retrofit quote: cost, savings, payback.
     Quote,
     /// The quote as a page to print or save as PDF; reached from the quote area.
@@ -37,7 +40,8 @@ impl Area {
     /// The areas in the navigation bar, in working order. Safety is not among them: it has
     /// its own button in the top bar so that it is one tap away from everywhere. Nor is the
     /// printable report: it opens from the quote area, as a document does. Nor the motor
-    /// check: it opens from the power unit's motor, so seven items still fit a phone.
+    /// check: it opens from the power unit's motor, so seven items still fit a phone. Nor the
+    /// oil and heat: it opens from the results, the quote and the power unit's cooler.
     pub const NAV: [Area; 7] = [
         Area::Cycle,
         Area::PowerUnit,
@@ -49,13 +53,14 @@ impl Area {
     ];
 
     /// Every area, for code that must treat them all (tests, the router).
-    pub const ALL: [Area; 10] = [
+    pub const ALL: [Area; 11] = [
         Area::Cycle,
         Area::PowerUnit,
         Area::Results,
         Area::Settings,
         Area::PumpTest,
         Area::MotorCheck,
+        Area::Heat,
         Area::Quote,
         Area::Report,
         Area::Jobs,
@@ -77,6 +82,7 @@ impl Area {
             Area::Settings => "settings",
             Area::PumpTest => "pump-test",
             Area::MotorCheck => "motor-check",
+            Area::Heat => "heat",
             Area::Quote => "quote",
             Area::Report => "report",
             Area::Jobs => "jobs",
@@ -108,6 +114,7 @@ impl Area {
             Area::Settings => "Valve settings",
             Area::PumpTest => "Pump test",
             Area::MotorCheck => "Motor check",
+            Area::Heat => "Oil and heat",
             Area::Quote => "Retrofit quote",
             Area::Report => "Quote report",
             Area::Jobs => "Jobs on this device",
@@ -125,6 +132,7 @@ impl Area {
             Area::Settings => "Valve settings",
             Area::PumpTest => "Pump test",
             Area::MotorCheck => "Motor check",
+            Area::Heat => "Heat",
             Area::Quote => "Quote",
             Area::Report => "Report",
             Area::Jobs => "Jobs",
@@ -152,6 +160,9 @@ impl Area {
             }
             Area::MotorCheck => {
                 "How loaded a motor is and how efficient, from a power meter, a clamp meter or a tachometer."
+            }
+            Area::Heat => {
+                "The oil and the tank: where the oil's temperature settles, how long it takes to warm up, and the cooler a target temperature needs."
             }
             Area::Quote => {
                 "Every power unit of the job side by side: what each costs to run, what the retrofit saves, and when it pays for itself."
@@ -212,7 +223,10 @@ mod tests {
     fn navigation_holds_every_area_but_safety_the_report_and_the_motor_check_once() {
         for area in Area::ALL {
             let count = Area::NAV.iter().filter(|&&a| a == area).count();
-            let kept_out = matches!(area, Area::Safety | Area::Report | Area::MotorCheck);
+            let kept_out = matches!(
+                area,
+                Area::Safety | Area::Report | Area::MotorCheck | Area::Heat
+            );
             assert_eq!(count, usize::from(!kept_out), "{area:?}");
         }
     }

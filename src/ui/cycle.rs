@@ -316,6 +316,7 @@ fn MoveFields(index: usize) -> impl IntoView {
         <NumberField field=&fields::LINE_LOSS at=[index]
             get=move |j: &Job| move_of(j, index).map_or(f64::NAN, |m| m.line_loss.value)
             set=move |j: &mut Job, v| if let Some(m) = move_of_mut(j, index) { m.line_loss.value = v } />
+        <super::lines::MoveLinesFields index=index />
         <ChoiceField
             field=&fields::SPEED_RULE
             at=[index]

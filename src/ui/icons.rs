@@ -42,6 +42,8 @@ pub fn area_icon(area: Area) -> AnyView {
         Area::PumpTest => "M3 13h4l2.5-6 4 11 2.5-5H21",
         // A circle with a tick for the shaft and a lead out: a motor being read.
         Area::MotorCheck => "M12 5a7 7 0 1 1 0 14a7 7 0 1 1 0-14 M12 12l3-3 M19 12h3",
+        // A thermometer with its bulb: the oil's temperature.
+        Area::Heat => "M10 4a2 2 0 0 1 4 0v10a4 4 0 1 1-4 0Z M12 9v7",
         // A sheet with a total line under two figures: the quote.
         Area::Quote | Area::Report => "M6 3h9l3 3v15H6Z M9 10h6 M9 13.5h6 M9 17.5h6",
         // A folder: jobs kept on the device.

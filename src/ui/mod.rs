@@ -7,8 +7,10 @@ mod charts;
 mod cycle;
 mod display;
 pub mod field;
+mod heat;
 mod icons;
 pub mod jobs;
+mod lines;
 mod motor_check;
 mod offline;
 mod power_unit;
@@ -122,6 +124,7 @@ fn page(area: Area) -> AnyView {
         Area::Settings => view! { <valve_settings::SettingsArea /> }.into_any(),
         Area::PumpTest => view! { <pump_test::PumpCheckArea /> }.into_any(),
         Area::MotorCheck => view! { <motor_check::MotorCheckArea /> }.into_any(),
+        Area::Heat => view! { <heat::HeatArea /> }.into_any(),
         Area::Quote => view! { <quote::QuoteArea /> }.into_any(),
         Area::Report => view! { <report::ReportArea /> }.into_any(),
     }

@@ -265,6 +265,8 @@ fn DesignEditor(d: usize) -> impl IntoView {
             }
         })>"Add a remote pilot stage"</button>
 
+        <super::heat::CoolerAndSuction d=d />
+
         <h2>"Limit in each phase"</h2>
         <p class="hint">"Which pressure limit governs each phase, and where the flow goes while idle."</p>
         {move || (0..phases()).map(|i| view! { <PhaseLimit d=d i=i /> }).collect_view()}
@@ -316,6 +318,10 @@ fn PumpEditor(d: usize, p: usize) -> impl IntoView {
                     placeholder=Signal::derive(move || state.job.with(|j| design(j, d).map_or(String::new(), |x| format!("the motor's: {}", Measure::ShaftSpeed.with_unit(j.units, x.motor.full_load_speed.value)))))
                     get=move |j: &Job| pump(j, d, p).and_then(|x| x.efficiency_speed.map(|w| w.value))
                     set=move |j: &mut Job, v| if let Some(x) = pump_mut(j, d, p) { x.efficiency_speed = v.map(uom::si::f64::AngularVelocity::new::<uom::si::angular_velocity::radian_per_second>) } />
+                <OptionalNumberField field=&fields::EFFICIENCY_TEMPERATURE at=this_pump()
+                    placeholder=Signal::derive(|| "the working temperature: leakage not scaled".to_string())
+                    get=move |j: &Job| pump(j, d, p).and_then(|x| x.efficiency_temperature.map(|t| t.value))
+                    set=move |j: &mut Job, v| if let Some(x) = pump_mut(j, d, p) { x.efficiency_temperature = v.map(uom::si::f64::ThermodynamicTemperature::new::<uom::si::thermodynamic_temperature::kelvin>) } />
                 <NumberField field=&fields::HYDROMECHANICAL_EFFICIENCY at=this_pump()
                     get=move |j: &Job| pump(j, d, p).map_or(f64::NAN, |x| x.hydromechanical_efficiency)
                     set=move |j: &mut Job, v| if let Some(x) = pump_mut(j, d, p) { x.hydromechanical_efficiency = v } />

@@ -11,7 +11,7 @@ use super::field::{NumberField, OptionalNumberField, TextField, UnitSwitch};
 use super::state::use_job;
 use crate::engine::fields;
 use crate::engine::quote::{self, QuoteColumn};
-use crate::engine::units::{Measure, UnitSystem};
+use crate::engine::units::UnitSystem;
 use crate::engine::Job;
 use crate::formats::quote_text::{self, Precision, Row};
 use leptos::prelude::*;
@@ -318,31 +318,14 @@ fn SiteCosts() -> impl IntoView {
     }
 }
 
-/// The oil in circulation, for how fast it warms with no cooler.
+/// The oil now lives with the heat balance: a link there.
 #[component]
 fn OilFields() -> impl IntoView {
-    let state = use_job();
-    let mineral_hint = move || {
-        let oil = crate::engine::job::Oil::mineral(Default::default());
-        let u = state.units();
-        format!(
-            "Mineral oil is typically about {} and {} (the report lists the source).",
-            Measure::Density.with_unit(u, oil.density.value),
-            Measure::SpecificHeat.with_unit(u, oil.specific_heat.value)
-        )
-    };
     view! {
         <div class="card">
             <h2>"The oil"</h2>
-            <div class="field-grid">
-                <NumberField field=&fields::OIL_VOLUME
-                    get=|j: &Job| j.oil.volume.value set=|j: &mut Job, v| j.oil.volume.value = v />
-                <NumberField field=&fields::OIL_DENSITY
-                    get=|j: &Job| j.oil.density.value set=|j: &mut Job, v| j.oil.density.value = v />
-                <NumberField field=&fields::OIL_SPECIFIC_HEAT
-                    get=|j: &Job| j.oil.specific_heat.value set=|j: &mut Job, v| j.oil.specific_heat.value = v />
-            </div>
-            <p class="hint">{mineral_hint}</p>
+            <p class="hint">"How much oil, how thick it is, the tank and where the oil settles are in their own area."</p>
+            <a class="button quiet" href=super::area::Area::Heat.href() data-link="heat">"Oil and heat"</a>
         </div>
     }
 }

@@ -162,6 +162,20 @@ fn Figure(label: &'static str, #[prop(into)] value: String, key: &'static str) -
 #[component]
 fn Totals(design: DesignReport, units: UnitSystem, currency: String) -> impl IntoView {
     let t = design.totals;
+    let oil = &design.oil;
+    let oil_words = match oil.balance.as_ref().map(|b| b.steady) {
+        Some(crate::engine::heat::Settling::At(k)) => {
+            format!("settles at {}", Measure::Temperature.with_unit(units, k))
+        }
+        Some(crate::engine::heat::Settling::Above(k)) => format!(
+            "does not settle below {}",
+            Measure::Temperature.with_unit(units, k)
+        ),
+        None => format!(
+            "at {}, as entered",
+            Measure::Temperature.with_unit(units, oil.working_temperature)
+        ),
+    };
     view! {
         <div class="card totals">
             <h2>{format!("“{}” over one cycle", design.name)}</h2>
@@ -174,6 +188,7 @@ fn Totals(design: DesignReport, units: UnitSystem, currency: String) -> impl Int
                 <Figure label="Motor load, peak" value=Measure::Power.with_unit(units, t.peak_shaft.value) key="peak-shaft" />
                 <Figure label="Heat into the oil" value=Measure::Heat.with_unit(units, t.heat_load.value) key="heat" />
                 <Figure label="Oil warms, no cooler" value=Measure::RiseRate.with_unit(units, t.oil_rise_k_per_minute) key="oil-rise" />
+                <Figure label="Oil temperature" value=oil_words key="oil-temperature" />
                 <Figure label="Energy a year" value=format!("{:.0} kWh", t.annual_energy.get::<kilowatt_hour>()) key="annual-energy" />
                 <Figure label="Running cost a year" value=format!("{:.0} {currency}", t.annual_cost) key="annual-cost" />
                 {t.demand.map(|demand| view! {
@@ -184,6 +199,7 @@ fn Totals(design: DesignReport, units: UnitSystem, currency: String) -> impl Int
                     ) key="demand-cost" />
                 })}
             </dl>
+            <a class="button quiet" href=super::area::Area::Heat.href() data-link="heat">"Oil and heat"</a>
         </div>
     }
 }

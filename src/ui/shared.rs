@@ -59,6 +59,8 @@ pub fn place_of(field: &str, job: &Job) -> String {
     match field.split('.').next() {
         Some("site") => "Site".into(),
         Some("oil") => "Oil".into(),
+        Some("tank") => "Tank".into(),
+        Some("warm_up") => "Warm-up readings".into(),
         _ => "Job".into(),
     }
 }
@@ -69,7 +71,8 @@ pub fn area_of(field: &str) -> super::area::Area {
     match field.split(['.', '[']).next().unwrap_or_default() {
         "cycle" => Area::Cycle,
         "designs" => Area::PowerUnit,
-        "site" | "oil" => Area::Quote,
+        "site" => Area::Quote,
+        "oil" | "tank" | "warm_up" => Area::Heat,
         "advice" | "staging" => Area::Settings,
         "pump_tests" | "wear" => Area::PumpTest,
         "motor_checks" => Area::MotorCheck,
