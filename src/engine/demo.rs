@@ -1,8 +1,7 @@
 //! The demo job: an invented scrap baler, loaded on first start and shown as example data.
 //! Its two-pump unit dumps the small pump over the main relief while the operator loads
 //! scrap; the proposal vents that idle and holds the dwell on a lower remote stage. Its oil
-//! settles where its tank and air-blast cooler shed the heat; its ram's return line, sized
-//! for the pump's flow, chokes on the cap end's larger return.
+//! settles where its tank and air-blast cooler shed the heat.
 
 use super::cycle::*;
 use super::job::{Job, Oil, Site, SCHEMA_VERSION};
@@ -25,11 +24,12 @@ use uom::si::time::second;
 use uom::si::volume::{cubic_centimeter, liter};
 use uom::si::volume_rate::liter_per_minute;
 
-/// The ram's lines: 25 mm bore hose both ways, 6 m to the valve with four elbows.
+/// The ram's lines: 6 m of hose to the valve with four elbows, 25 mm bore on the pressure
+/// side and 32 mm on the return, which carries the cap end's larger flow on the return stroke.
 fn ram_lines() -> super::lines::MoveLines {
     use super::lines::{Fitting, FittingKind, Line};
-    let hose = Line {
-        inner_diameter: Length::new::<millimeter>(25.0),
+    let hose = |bore_mm| Line {
+        inner_diameter: Length::new::<millimeter>(bore_mm),
         length: Length::new::<millimeter>(6000.0),
         fittings: vec![Fitting {
             kind: FittingKind::Elbow90,
@@ -37,8 +37,8 @@ fn ram_lines() -> super::lines::MoveLines {
         }],
     };
     super::lines::MoveLines {
-        pressure_line: hose.clone(),
-        return_line: hose,
+        pressure_line: hose(25.0),
+        return_line: hose(32.0),
     }
 }
 
@@ -156,7 +156,7 @@ pub fn scrap_baler() -> Job {
     let mut proposed = Design::proposal_from(&as_found, "Proposed".into());
     // What the advice asks of it: main at the compress's lowest serving limit, the dwell held
     // at its own pressure by a remote stage, the idle vented.
-    proposed.relief.setting = Pressure::new::<bar>(170.0);
+    proposed.relief.setting = Pressure::new::<bar>(167.5);
     proposed.remote_stages = vec![Pressure::new::<bar>(160.0)];
     proposed.phase_settings[2].limit = ActiveLimit::Remote { stage: 0 };
     proposed.phase_settings[4].idle_path = IdlePath::Vented;

@@ -35,8 +35,12 @@
 //!    the vent pressure when vented (an idle whose path is "vented" uses it too).
 //!
 //!    *The demand* (`solve::demand`). A move needs load pressure (force / area: bore
-//!    extending, annulus retracting) plus its line loss, and either takes all the flow left at
-//!    that pressure or a metered flow (speed x area) with the surplus over the limit; a hold
+//!    extending, annulus retracting) plus its line loss (the plain allowance, plus its
+//!    described lines' Darcy-Weisbach drop at its flow: the pressure line's, and the return
+//!    line's at flow x area ratio times that ratio, `lines::MoveLines::carrying`), and either
+//!    takes all the flow left at that pressure (with lines, the flow whose drop leaves that
+//!    flow, `solve::flow_through_lines`) or a metered flow (speed x area) with the surplus
+//!    over the limit; a hold
 //!    and an idle send all pump flow over the limit (an idle may go through an open centre at
 //!    its drop, or stop the motor); a direct phase is a flow at a pressure for a duration.
 //!
@@ -87,6 +91,15 @@
 //!    selected remote stage) that cracks at or below a compensated pump's dead-head pressure
 //!    (with the power it burns dead-headed there), and a metered move whose limit leaves its
 //!    flow control less than the advice policy's working drop.
+//!
+//! 9. **The oil's temperature** (`solve::solve_design`): the cycle is worked out with the oil
+//!    at its working temperature (`OilAt`: the viscosity on its ASTM D341 line), entered or,
+//!    with the tank described, where heat in (the cycle's average heat into the oil, solved at
+//!    each temperature tried) equals what the tank's walls and the cooler shed
+//!    (`heat::settle`). A pump's leakage stated at another temperature scales as viscosity
+//!    there over viscosity at work. Beside it: where the oil would settle without the
+//!    cooler, the warm-up from the air's temperature (`heat::warm_up`), the cooler the target
+//!    temperature needs, and a field warm-up's heat against the model's (`JobReport::warm_up`).
 //!
 //! Modelling choices: in the solve, motor speed is constant (slip neglected; the pump check
 //! does correct for it); a compensated pump destrokes linearly from its flow at the setting to
@@ -319,7 +332,12 @@ pub enum Assessed {
 /// }
 ///
 /// A phase's `line` (its line current and power factor) is there when the motor's electrical
-/// nameplate is entered and the motor runs.
+/// nameplate is entered and the motor runs; a move's `lines` (velocity, Reynolds number,
+/// friction factor and drop of its pressure and return lines) when they are described. Each
+/// design's `oil` gives `working_k` and `viscosity_m2_per_s`, and with the tank its
+/// `balance` (`steady`, `heat_in_w`, `tank_sheds_w`, `cooler_removes_w`, `without_cooler`,
+/// `warm_up` `{curve_s_k, time_to_steady_s}`, `target_k`, `cooler_duty_w`,
+/// `cooler_needed_w_per_k`); the report's `warm_up` sets two field readings against the model.
 /// ```
 ///
 /// Quantities are SI, named by their key's suffix as in the job file. An invalid job prints

@@ -62,16 +62,34 @@ pub struct Oil {
     pub specific_heat: SpecificHeatCapacity,
     /// Its grade and index, or two measured viscosities (absent in older files: a common
     /// mineral oil, [`COMMON_MINERAL_OIL`](super::viscosity::COMMON_MINERAL_OIL)).
-    #[serde(default)]
+    #[serde(default, skip_serializing_if = "is_common_oil")]
     pub viscosity: OilViscosity,
     /// The temperature the cycle is worked out at (absent in older files: entered,
     /// [`USUAL_WORKING_TEMPERATURE_C`]).
-    #[serde(default)]
+    #[serde(default, skip_serializing_if = "is_usual_temperature")]
     pub working_temperature: WorkingTemperature,
     /// The temperature a cooler should hold the oil at, for the cooler size needed (absent:
     /// [`USUAL_TARGET_C`]).
-    #[serde(default = "usual_target", rename = "target_k")]
+    #[serde(
+        default = "usual_target",
+        rename = "target_k",
+        skip_serializing_if = "is_usual_target"
+    )]
     pub target_temperature: ThermodynamicTemperature,
+}
+
+// Defaults are left out of a file, so a job that says nothing of its oil's grade or
+// temperatures keeps its links and QR codes as short as before.
+fn is_common_oil(v: &OilViscosity) -> bool {
+    *v == OilViscosity::default()
+}
+
+fn is_usual_temperature(t: &WorkingTemperature) -> bool {
+    *t == WorkingTemperature::default()
+}
+
+fn is_usual_target(t: &ThermodynamicTemperature) -> bool {
+    *t == usual_target()
 }
 
 /// How hot the oil is while the cycle runs.
