@@ -102,7 +102,7 @@ pub fn MoveLinesFields(index: usize) -> impl IntoView {
             {move || if described.get() {
                 view! {
                     <p class="hint">{format!(
-                        "The lines' drop follows the flow and the oil's temperature, on top of the losses above. Typical loss coefficients (common practice): {}.",
+                        "The lines' drop follows the flow and the oil's temperature, on top of the losses above. Add up the fittings' loss coefficients; typical ones (common practice): {}. A fitting known as an equivalent length of line goes into the length.",
                         Line::typical_coefficients()
                     )}</p>
                     <div class="field-grid">

@@ -80,19 +80,47 @@ async fn the_oil_settles_on_a_phone_and_a_tank_and_lines_are_described() {
     b.wait_for_text("[data-figure='steady']", |t| t == expected)
         .await;
 
-    // A move's lines in the cycle editor: the demo's are there; a diameter typed wrong is
-    // said at its field.
+    // A move's lines in the cycle editor: the demo's are there; left out and described
+    // again on the phone, a diameter typed wrong is said at its field, and the lines typed in
+    // are the job's.
     b.goto(&app.url("#/cycle")).await;
     app.wait_until_ready().await;
     open_phase(b, 0).await;
     let diameter = field("cycle[0].lines.pressure_line.inner_diameter_m");
     assert_eq!(b.value(&diameter).await, "25.0");
+    b.click("li[data-phase='0'] [data-action='remove-lines']")
+        .await;
+    b.click("li[data-phase='0'] [data-action='describe-lines']")
+        .await;
     b.fill(&diameter, "-5").await;
     b.wait_for_text(
         "#f-cycle-0-lines-pressure_line-inner_diameter_m-error",
         |t| t.contains("cannot be negative"),
     )
     .await;
+    for (key, text) in [
+        ("pressure_line.inner_diameter_m", "20"),
+        ("pressure_line.length_m", "4000"),
+        ("pressure_line.fittings", "3"),
+        ("return_line.inner_diameter_m", "32"),
+        ("return_line.length_m", "4000"),
+    ] {
+        b.fill(&field(&format!("cycle[0].lines.{key}")), text).await;
+    }
+    let stored: Job = serde_json::from_value(
+        b.stored_job_when(|j| {
+            j["cycle"][0]["lines"]["return_line"]["length_m"]
+                .as_f64()
+                .is_some_and(|l| (l - 4.0).abs() < 1e-9)
+        })
+        .await,
+    )
+    .unwrap();
+    let report = solve(&stored).unwrap();
+    let lines = report.designs[0].phases[0]
+        .lines
+        .expect("the lines are solved");
+    assert!(lines.pressure_line.drop > 0.0);
     assert_eq!(b.sideways_overflow().await, 0);
     b.screenshot("heat-lines").await;
     app.finish().await;
