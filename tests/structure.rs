@@ -7,7 +7,7 @@ use std::path::Path;
 
 /// The engine's modules from the bottom up. A module may use only those before it; a new
 /// module takes its place here (see DEVELOPERS.md, "Layers inside").
-const STACK: [&str; 27] = [
+const STACK: [&str; 28] = [
     // Quantities and the parts of a machine.
     "units",
     "pump",
@@ -18,6 +18,7 @@ const STACK: [&str; 27] = [
     "heat",
     "site",
     "motor",
+    "drive",
     "electrical",
     "finding",
     // What the job keeps.

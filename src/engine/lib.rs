@@ -114,6 +114,7 @@ pub extern crate uom;
 pub mod cycle;
 pub mod delivery;
 pub mod demo;
+pub mod drive;
 pub mod efficiency;
 pub mod electrical;
 pub mod fields;
