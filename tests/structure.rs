@@ -7,8 +7,9 @@ use std::path::Path;
 
 /// The engine's modules from the bottom up. A module may use only those before it; a new
 /// module takes its place here (see DEVELOPERS.md, "Layers inside").
-const STACK: [&str; 28] = [
+const STACK: [&str; 29] = [
     // Quantities and the parts of a machine.
+    "numeric",
     "units",
     "pump",
     "valve",

@@ -246,39 +246,25 @@ pub struct HeatBalance {
 /// takes a handful of `heat_in` evaluations.
 pub fn settle(heat_in: &mut dyn FnMut(f64) -> f64, paths: &HeatPaths) -> Settling {
     let gap = |t: f64, heat: f64| heat - paths.out(t);
-    let (mut a, mut b) = (paths.floor(), SEARCH_CEILING);
-    let (mut ga, mut gb) = (gap(a, heat_in(a)), gap(b, heat_in(b)));
+    let (a, b) = (paths.floor(), SEARCH_CEILING);
+    let (ga, gb) = (gap(a, heat_in(a)), gap(b, heat_in(b)));
     if ga <= 0.0 {
         return Settling::At(a);
     }
     if gb > 0.0 {
         return Settling::Above(b);
     }
-    let mut side = 0;
-    for _ in 0..200 {
-        let t = (a * gb - b * ga) / (gb - ga);
-        let heat = heat_in(t);
-        let g = gap(t, heat);
-        if g.abs() <= 1e-12 * heat.abs().max(paths.out(t).abs()).max(1e-9) || (b - a) < 1e-12 {
-            return Settling::At(t);
-        }
-        if g > 0.0 {
-            a = t;
-            ga = g;
-            if side == 1 {
-                gb /= 2.0;
-            }
-            side = 1;
-        } else {
-            b = t;
-            gb = g;
-            if side == -1 {
-                ga /= 2.0;
-            }
-            side = -1;
-        }
-    }
-    Settling::At((a * gb - b * ga) / (gb - ga))
+    let close_enough = |t: f64, g: f64| {
+        let out = paths.out(t);
+        g.abs() <= 1e-12 * (g + out).abs().max(out.abs()).max(1e-9)
+    };
+    Settling::At(super::numeric::false_position(
+        &mut |t| gap(t, heat_in(t)),
+        (a, ga),
+        (b, gb),
+        &close_enough,
+        1e-12,
+    ))
 }
 
 /// The oil warming (or cooling) towards where it settles.

@@ -250,7 +250,7 @@ pub fn cycle_totals(phases: &[TimedLedger], site: &Site, oil: &Oil) -> CycleTota
     // Validation makes every duration positive, so the cycle time is too.
     let average = |x: f64| if time > 0.0 { x / time } else { 0.0 };
     let heat = average(heat_energy);
-    let heat_capacity = oil.volume.value * oil.density.value * oil.specific_heat.value;
+    let heat_capacity = oil.heat_capacity();
     let annual_energy_kwh =
         average(energy) * site.operating_hours_per_year * 3600.0 / KILOWATT_HOUR;
     let demand = site.demand_charge.map(|per_kw_month| {

@@ -126,6 +126,7 @@ pub mod lines;
 pub mod motor;
 pub mod motor_check;
 pub mod motor_load;
+pub mod numeric;
 pub mod policy;
 pub mod power_unit;
 pub mod pump;

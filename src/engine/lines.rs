@@ -230,9 +230,12 @@ impl Line {
     }
 }
 
-/// The smallest inner diameter that keeps `flow` (m^3/s) within the role's velocity limit, m.
-pub fn diameter_for(role: LineRole, flow: f64) -> f64 {
-    (4.0 * flow.abs() / (std::f64::consts::PI * role.velocity_limit())).sqrt()
+impl LineFlow {
+    /// The smallest inner diameter (m) that keeps this flow within the role's velocity limit,
+    /// for a line of `diameter` (velocity goes as one over the diameter squared).
+    pub fn diameter_within_limit(&self, diameter: f64) -> f64 {
+        diameter * (self.velocity.value / self.role.velocity_limit()).sqrt()
+    }
 }
 
 /// A move's two lines: from the directional valve to the cylinder's working side and from its
@@ -405,8 +408,12 @@ mod tests {
     fn the_diameter_offered_meets_the_limit() {
         let q = 100.0 / 60_000.0;
         for role in [LineRole::Suction, LineRole::Pressure, LineRole::Return] {
+            let first = pipe(0.5, 1.0);
+            let offered = first
+                .carrying(role, q, 30.0 * CST, 870.0)
+                .diameter_within_limit(first.inner_diameter.value);
             let line = Line {
-                inner_diameter: Length::new::<uom::si::length::meter>(diameter_for(role, q)),
+                inner_diameter: Length::new::<uom::si::length::meter>(offered),
                 ..pipe(1.0, 1.0)
             };
             let v = line.carrying(role, q, 30.0 * CST, 870.0).velocity.value;

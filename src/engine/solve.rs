@@ -194,12 +194,7 @@ pub(crate) fn solve_design(job: &Job, design: &Design) -> DesignReport {
         tank,
         cooler: design.cooler.as_ref(),
     };
-    let mut heat_in = |t: f64| {
-        solve_design_at(job, design, &oil.at(t))
-            .totals
-            .heat_load
-            .value
-    };
+    let mut heat_in = heat_in_at(job, design, &oil);
     let steady = heat::settle(&mut heat_in, &paths);
     let working = if entered {
         oil.temperature
@@ -266,35 +261,42 @@ pub(crate) fn solve_design_working(job: &Job, design: &Design) -> DesignReport {
                 tank,
                 cooler: design.cooler.as_ref(),
             };
-            let mut heat_in = |t: f64| {
-                solve_design_at(job, design, &oil.at(t))
-                    .totals
-                    .heat_load
-                    .value
-            };
-            let steady = heat::settle(&mut heat_in, &paths);
+            let steady = heat::settle(&mut heat_in_at(job, design, &oil), &paths);
             solve_design_at(job, design, &oil.at(steady.kelvin()))
         }
         _ => solve_design_at(job, design, &oil),
     }
 }
 
+/// The heat the design's cycle puts into `oil` at a temperature (kelvin, W): what the heat
+/// balance's searches ask of the solve.
+fn heat_in_at<'a>(job: &'a Job, design: &'a Design, oil: &'a OilAt) -> impl FnMut(f64) -> f64 + 'a {
+    move |t| {
+        solve_design_at(job, design, &oil.at(t))
+            .totals
+            .heat_load
+            .value
+    }
+}
+
 /// Cautions on where the oil settles.
 fn oil_findings(steady: Settling) -> Option<Finding> {
-    let kelvin = |c: f64| c + 273.15;
-    let temperature = |k: f64| {
-        uom::si::f64::ThermodynamicTemperature::new::<uom::si::thermodynamic_temperature::kelvin>(k)
+    let celsius = |c: f64| {
+        uom::si::f64::ThermodynamicTemperature::new::<
+            uom::si::thermodynamic_temperature::degree_celsius,
+        >(c)
     };
     match steady {
         Settling::Above(ceiling) => Some(Finding::OilDoesNotSettle {
-            ceiling: temperature(ceiling),
+            ceiling: kelvin(ceiling),
         }),
         Settling::At(t) => [(SEAL_LIMIT_C, true), (OIL_LIFE_LIMIT_C, false)]
             .into_iter()
-            .find(|(limit, _)| t > kelvin(*limit))
+            .map(|(limit, seals)| (celsius(limit), seals))
+            .find(|(limit, _)| t > limit.value)
             .map(|(limit, seals)| Finding::OilHot {
-                steady: temperature(t),
-                limit: temperature(kelvin(limit)),
+                steady: kelvin(t),
+                limit,
                 seals,
             }),
     }
@@ -310,7 +312,7 @@ fn too_fast(state: &LineFlow, diameter: f64) -> Option<Finding> {
         velocity: state.velocity,
         limit: uom::si::f64::Velocity::new::<uom::si::velocity::meter_per_second>(limit),
         diameter: uom::si::f64::Length::new::<uom::si::length::meter>(
-            diameter * (v / limit).sqrt(),
+            state.diameter_within_limit(diameter),
         ),
     })
 }
@@ -352,9 +354,7 @@ fn line_findings(design: &Design, oil: &OilAt) -> Vec<Finding> {
             viscosity: uom::si::f64::KinematicViscosity::new::<
                 uom::si::kinematic_viscosity::square_meter_per_second,
             >(oil.viscosity),
-            temperature: uom::si::f64::ThermodynamicTemperature::new::<
-                uom::si::thermodynamic_temperature::kelvin,
-            >(oil.temperature),
+            temperature: kelvin(oil.temperature),
         });
     }
     findings
@@ -835,35 +835,18 @@ fn flow_through_lines(
         (unit.supply(need, mask) - relief.flow(need)).max(0.0)
     };
     let gap = |flow: f64| flow - given(flow);
-    let (mut a, mut b) = (0.0, given(0.0));
+    let (a, b) = (0.0, given(0.0));
     if b <= NO_FLOW {
         return 0.0;
     }
-    let (mut ga, mut gb) = (gap(a), gap(b));
-    let mut side = 0;
-    for _ in 0..100 {
-        let q = (a * gb - b * ga) / (gb - ga);
-        let g = gap(q);
-        if g.abs() <= 1e-12 * q.max(NO_FLOW) || b - a <= 1e-15 {
-            return q;
-        }
-        if g < 0.0 {
-            a = q;
-            ga = g;
-            if side == -1 {
-                gb /= 2.0;
-            }
-            side = -1;
-        } else {
-            b = q;
-            gb = g;
-            if side == 1 {
-                ga /= 2.0;
-            }
-            side = 1;
-        }
-    }
-    (a * gb - b * ga) / (gb - ga)
+    let (ga, gb) = (gap(a), gap(b));
+    super::numeric::false_position(
+        &mut |q| gap(q),
+        (a, ga),
+        (b, gb),
+        &|q, g| g.abs() <= 1e-12 * q.max(NO_FLOW),
+        1e-15,
+    )
 }
 
 /// The actuator takes whatever the pumps give at `need` that the relief does not take; if

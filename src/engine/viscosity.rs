@@ -124,33 +124,18 @@ fn viscosity_at_100_for_index(at_40: f64, index: f64) -> Result<f64, NoLine> {
         return Err(NoLine::NotPositive);
     }
     let gap = |at_100: f64| viscosity_index(at_40, at_100).map_or(f64::NAN, |vi| vi - index);
-    let (mut low, mut high) = (TABLE_FIRST, TABLE_LAST);
-    if !(gap(low) <= 0.0 && gap(high) >= 0.0) {
+    let (low, high) = (TABLE_FIRST, TABLE_LAST);
+    let (g_low, g_high) = (gap(low), gap(high));
+    if !(g_low <= 0.0 && g_high >= 0.0) {
         return Err(NoLine::IndexOutOfReach);
     }
-    let (mut g_low, mut g_high) = (gap(low), gap(high));
-    let mut side = 0;
-    for _ in 0..100 {
-        let x = (low * g_high - high * g_low) / (g_high - g_low);
-        let g = gap(x);
-        if g.abs() <= 1e-10 || high - low <= 1e-12 {
-            return Ok(x);
-        }
-        if g < 0.0 {
-            (low, g_low) = (x, g);
-            if side == -1 {
-                g_high /= 2.0;
-            }
-            side = -1;
-        } else {
-            (high, g_high) = (x, g);
-            if side == 1 {
-                g_low /= 2.0;
-            }
-            side = 1;
-        }
-    }
-    Ok((low * g_high - high * g_low) / (g_high - g_low))
+    Ok(super::numeric::false_position(
+        &mut |x| gap(x),
+        (low, g_low),
+        (high, g_high),
+        &|_, g| g.abs() <= 1e-10,
+        1e-12,
+    ))
 }
 
 const TABLE_FIRST: f64 = 2.0;
