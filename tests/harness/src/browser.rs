@@ -135,6 +135,15 @@ pub struct LogEntry {
 }
 
 impl Browser {
+    /// Opens phase `i`'s card in the cycle editor, unless it is open already.
+    pub async fn open_phase(&self, i: usize) {
+        if self.count(&format!("li[data-phase='{i}'].open")).await == 0 {
+            self.click(&format!("li[data-phase='{i}'] .phase-head"))
+                .await;
+        }
+        self.wait_for(&format!("li[data-phase='{i}'].open")).await;
+    }
+
     /// Starts chromedriver and a headless Chromium at `viewport`. Screenshots go to
     /// `target/screenshots/<test>/`.
     pub async fn launch(test: &str, viewport: Viewport) -> Browser {
@@ -712,6 +721,11 @@ pub fn foreign_requests(requests: &[String], own: &str) -> Vec<String> {
 
 /// Present once the app has mounted: the main area carries the current area's name.
 pub const APP_READY: &str = "main[data-area]";
+
+/// The app's number or text input for a field path of the job file (`cycle[0].cylinder.bore_m`).
+pub fn field(path: &str) -> String {
+    format!("input[data-path='{path}']")
+}
 
 /// A folder under the system temp folder that no other test or run uses.
 pub fn unique_dir(label: &str) -> PathBuf {

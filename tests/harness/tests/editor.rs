@@ -6,20 +6,9 @@ use phasewise::engine::cycle::{Load, PhaseKind};
 use phasewise::engine::demo::scrap_baler;
 use phasewise::engine::units::{Measure, UnitSystem};
 use phasewise::engine::{solve, Job};
-use phasewise_harness::browser::{AppSession, Browser, Viewport};
+use phasewise_harness::browser::{field, AppSession, Browser, Viewport};
 use uom::si::energy::kilowatt_hour;
 use uom::si::f64::Force;
-
-fn field(path: &str) -> String {
-    format!("input[data-path='{path}']")
-}
-
-async fn open_phase(b: &Browser, i: usize) {
-    if b.count(&format!("li[data-phase='{i}'].open")).await == 0 {
-        b.click(&format!("li[data-phase='{i}'] .phase-head")).await;
-    }
-    b.wait_for(&format!("li[data-phase='{i}'].open")).await;
-}
 
 /// Fails if the page shows NaN or an infinity anywhere.
 async fn assert_no_nonsense(b: &Browser) {
@@ -94,7 +83,7 @@ async fn the_demo_results_are_the_engines() {
 async fn editing_a_load_changes_the_ledger_and_the_totals() {
     let app = AppSession::start("edit_load", Viewport::PHONE).await;
     let b = &app.browser;
-    open_phase(b, 1).await;
+    b.open_phase(1).await;
     // The compress stroke's 300 kN becomes 250 kN, typed with a decimal comma.
     b.fill(&field("cycle[1].load.force_n"), "250,0").await;
     let mut job: Job = scrap_baler();
@@ -136,7 +125,7 @@ async fn phases_are_added_deleted_and_brought_back() {
     b.wait_for("li.phase-card[data-phase='5'].open").await;
     assert_eq!(b.count(cards).await, 6);
     // Delete the dwell, then bring it back where it was.
-    open_phase(b, 2).await;
+    b.open_phase(2).await;
     b.click("li[data-phase='2'] .button.danger").await;
     b.wait_for(".undo-bar").await;
     assert_eq!(b.count(cards).await, 5);
@@ -160,7 +149,7 @@ async fn phases_are_added_deleted_and_brought_back() {
 async fn switching_units_changes_what_is_shown_and_not_the_physics() {
     let app = AppSession::start("units", Viewport::PHONE).await;
     let b = &app.browser;
-    open_phase(b, 0).await;
+    b.open_phase(0).await;
     let bore = field("cycle[0].cylinder.bore_m");
     assert_eq!(b.value(&bore).await, "160.0");
     b.click(".segmented button:nth-child(2)").await;
@@ -183,7 +172,7 @@ async fn switching_units_changes_what_is_shown_and_not_the_physics() {
     );
     b.wait_for_text("[data-total='average']", |t| t == si).await;
     b.click("nav.areas a[href='#/cycle']").await;
-    open_phase(b, 0).await;
+    b.open_phase(0).await;
     assert_eq!(b.value(&bore).await, "160.0");
     app.finish().await;
 }
@@ -192,7 +181,7 @@ async fn switching_units_changes_what_is_shown_and_not_the_physics() {
 async fn bad_input_is_kept_and_explained_at_the_field() {
     let app = AppSession::start("bad_input", Viewport::PHONE).await;
     let b = &app.browser;
-    open_phase(b, 0).await;
+    b.open_phase(0).await;
     let bore = field("cycle[0].cylinder.bore_m");
     let message = "#f-cycle-0-cylinder-bore_m-error";
     for (typed, says) in [
@@ -243,7 +232,7 @@ async fn nothing_overflows_sideways_and_the_presenter_view_reads_large() {
     ] {
         let app = AppSession::start("editor_layouts", viewport).await;
         let b = &app.browser;
-        open_phase(b, 1).await;
+        b.open_phase(1).await;
         assert_eq!(b.sideways_overflow().await, 0, "{name} cycle");
         b.screenshot(&format!("{name}-cycle")).await;
         for fragment in ["#/unit", "#/results"] {
@@ -287,7 +276,7 @@ async fn an_edited_example_becomes_the_users_own_job() {
     let app = AppSession::start("claim_example", Viewport::PHONE).await;
     let b = &app.browser;
     b.wait_for(".example-banner").await;
-    open_phase(b, 1).await;
+    b.open_phase(1).await;
     b.fill(&field("cycle[1].load.force_n"), "250").await;
     let stored = b
         .stored_job_when(|j| j["cycle"][1]["load"]["force_n"].as_f64() == Some(250e3))
@@ -378,7 +367,7 @@ async fn a_removed_design_comes_back_with_undo() {
 async fn the_out_of_date_notice_names_the_field_and_goes_to_it() {
     let app = AppSession::start("stale_goes_to_field", Viewport::PHONE).await;
     let b = &app.browser;
-    open_phase(b, 1).await;
+    b.open_phase(1).await;
     b.fill(&field("cycle[1].load.force_n"), "-5").await;
     b.click("nav.areas a[href='#/results']").await;
     let notice = b
@@ -412,7 +401,7 @@ async fn the_out_of_date_notice_names_the_field_and_goes_to_it() {
 async fn an_empty_field_says_it_needs_a_value() {
     let app = AppSession::start("empty_field", Viewport::PHONE).await;
     let b = &app.browser;
-    open_phase(b, 1).await;
+    b.open_phase(1).await;
     let force = field("cycle[1].load.force_n");
     let message = "#f-cycle-1-load-force_n-error";
     b.fill(&force, "").await;
@@ -496,21 +485,21 @@ async fn charts_name_phases_whole_keep_the_time_axis_clear_and_give_figures_by_t
 async fn text_left_invalid_survives_a_move_to_another_area() {
     let app = AppSession::start("invalid_text_kept", Viewport::PHONE).await;
     let b = &app.browser;
-    open_phase(b, 1).await;
+    b.open_phase(1).await;
     let bore = field("cycle[1].cylinder.bore_m");
     b.fill(&bore, "12o").await;
     b.wait_for(".field.invalid").await;
     b.click("nav.areas a[href='#/results']").await;
     b.wait_for(".stale-notice").await;
     b.click("nav.areas a[href='#/cycle']").await;
-    open_phase(b, 1).await;
+    b.open_phase(1).await;
     assert_eq!(b.value(&bore).await, "12o");
     assert_eq!(b.count(".field.invalid").await, 1);
     // Corrected, the number is the job's again and nothing is kept aside.
     b.fill(&bore, "125").await;
     b.click("nav.areas a[href='#/results']").await;
     b.click("nav.areas a[href='#/cycle']").await;
-    open_phase(b, 1).await;
+    b.open_phase(1).await;
     assert_eq!(
         b.value(&bore).await,
         Measure::Length.format(UnitSystem::Si, 0.125)
@@ -536,7 +525,7 @@ async fn the_presenter_view_shows_a_change_beside_what_it_moves_legibly_and_is_r
     b.click("nav.areas a[href='#/cycle']").await;
     b.wait_for("[data-presenter-panel] [data-presenter='average']")
         .await;
-    open_phase(b, 1).await;
+    b.open_phase(1).await;
     let before = b.text("[data-presenter='average']").await;
     let force = field("cycle[1].load.force_n");
     b.fill(&force, "250").await;

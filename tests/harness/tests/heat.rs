@@ -6,18 +6,7 @@ use phasewise::engine::demo::scrap_baler;
 use phasewise::engine::heat::Settling;
 use phasewise::engine::units::Measure;
 use phasewise::engine::{solve, Job};
-use phasewise_harness::browser::{AppSession, Browser, Viewport};
-
-fn field(path: &str) -> String {
-    format!("input[data-path='{path}']")
-}
-
-async fn open_phase(b: &Browser, i: usize) {
-    if b.count(&format!("li[data-phase='{i}'].open")).await == 0 {
-        b.click(&format!("li[data-phase='{i}'] .phase-head")).await;
-    }
-    b.wait_for(&format!("li[data-phase='{i}'].open")).await;
-}
+use phasewise_harness::browser::{field, AppSession, Viewport};
 
 fn steady_words(job: &Job) -> String {
     let report = solve(job).unwrap();
@@ -85,7 +74,7 @@ async fn the_oil_settles_on_a_phone_and_a_tank_and_lines_are_described() {
     // are the job's.
     b.goto(&app.url("#/cycle")).await;
     app.wait_until_ready().await;
-    open_phase(b, 0).await;
+    b.open_phase(0).await;
     let diameter = field("cycle[0].lines.pressure_line.inner_diameter_m");
     assert_eq!(b.value(&diameter).await, "25.0");
     b.click("li[data-phase='0'] [data-action='remove-lines']")

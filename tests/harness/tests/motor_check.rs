@@ -6,11 +6,7 @@ use phasewise::engine::demo::scrap_baler;
 use phasewise::engine::motor_load::assess_motor;
 use phasewise::engine::units::Measure;
 use phasewise::engine::{solve, Job};
-use phasewise_harness::browser::{AppSession, Viewport};
-
-fn field(path: &str) -> String {
-    format!("input[data-path='{path}']")
-}
+use phasewise_harness::browser::{field, AppSession, Viewport};
 
 #[tokio::test]
 async fn a_motor_check_on_a_phone_reads_the_verdict_and_follows_a_reading() {

@@ -5,12 +5,8 @@
 use phasewise::engine::efficiency::{self, Verdict};
 use phasewise::engine::units::UnitSystem;
 use phasewise::engine::Job;
-use phasewise_harness::browser::{AppSession, Browser, Viewport};
+use phasewise_harness::browser::{field, AppSession, Browser, Viewport};
 use serde_json::Value;
-
-fn field(path: &str) -> String {
-    format!("input[data-path='{path}']")
-}
 
 /// The stored job once the autosave has written a copy that satisfies `ok`.
 async fn stored_when(b: &Browser, ok: impl Fn(&Value) -> bool) -> Job {
