@@ -19,8 +19,8 @@ const STACK: [&str; 29] = [
     "heat",
     "site",
     "motor",
-    "drive",
     "electrical",
+    "drive",
     "finding",
     // What the job keeps.
     "policy",

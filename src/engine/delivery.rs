@@ -14,6 +14,8 @@ pub(crate) const NO_FLOW: f64 = 1e-9;
 #[derive(Clone, Copy, Debug)]
 pub(crate) struct StagePump {
     pub(crate) pump: PumpAtSpeed,
+    /// Its theoretical flow at the motor's full-load speed: what a relief is set against.
+    pub(crate) rated_swept: f64,
     /// The check valve's cracking pressure (none on the base pump).
     pub(crate) check: f64,
     /// The unloading valve's setting and unloaded drop (none on the base pump).
@@ -21,9 +23,12 @@ pub(crate) struct StagePump {
 }
 
 /// The design prepared for solving: numbers computed once, not per phase.
+#[derive(Clone)]
 pub(crate) struct PreparedUnit<'a> {
     pub(crate) design: &'a Design,
     pub(crate) pumps: Vec<StagePump>,
+    /// The shaft's speed as a share of the motor's full-load speed (1 at fixed speed).
+    pub(crate) speed_share: f64,
 }
 
 impl<'a> PreparedUnit<'a> {
@@ -34,16 +39,75 @@ impl<'a> PreparedUnit<'a> {
             .iter()
             .map(|s| StagePump {
                 pump: PumpAtSpeed::new(&s.pump, rps),
+                rated_swept: s.pump.displacement.value * rps,
                 check: s.check.cracking.value,
                 unloading: Some((s.unloading.setting.value, s.unloading.unloaded_drop.value)),
             })
             .collect();
         pumps.push(StagePump {
             pump: PumpAtSpeed::new(&design.base_pump, rps),
+            rated_swept: design.base_pump.displacement.value * rps,
             check: 0.0,
             unloading: None,
         });
-        PreparedUnit { design, pumps }
+        PreparedUnit {
+            design,
+            pumps,
+            speed_share: 1.0,
+        }
+    }
+
+    /// The unit with its shaft at `speed_share` of the motor's full-load speed (on a
+    /// variable-speed drive): every pump sweeps in proportion, its leakage at a pressure stays
+    /// what it is (slip hardly depends on speed), so its volumetric efficiency falls as it
+    /// slows.
+    pub fn at_speed(&self, speed_share: f64) -> PreparedUnit<'a> {
+        let mut unit = self.clone();
+        for s in &mut unit.pumps {
+            s.pump.swept = s.rated_swept * speed_share;
+        }
+        unit.speed_share = speed_share;
+        unit
+    }
+
+    /// The unloading stages a system pressure `p` unloads (a bit each, as the solve's masks).
+    pub(crate) fn unloaded_at(&self, p: f64) -> u32 {
+        self.pumps
+            .iter()
+            .enumerate()
+            .filter(|(_, s)| s.unloading.is_some_and(|(setting, _)| p >= setting))
+            .fold(0u32, |m, (i, _)| m | (1 << i))
+    }
+
+    /// The lowest speed, as a share of full-load speed, at which the pumps not in `unloaded`
+    /// deliver `wanted` into the system at pressure `p`: each sweeps in proportion to speed
+    /// and loses its leakage at its outlet pressure, so a pump only adds flow above the speed
+    /// at which it sweeps its leakage. In closed form, adding pumps in the order they start
+    /// to give. A compensated pump above its setting is taken at full stroke (the solve then
+    /// finds what it gives).
+    pub(crate) fn speed_share_for(&self, wanted: f64, p: f64, unloaded: u32) -> f64 {
+        let mut feeding: Vec<(f64, f64, f64)> = self
+            .pumps
+            .iter()
+            .enumerate()
+            .filter(|(i, s)| unloaded & (1 << i) == 0 && s.rated_swept > 0.0)
+            .map(|(_, s)| {
+                let leak = s.pump.leakage * (p + s.check);
+                (leak / s.rated_swept, s.rated_swept, leak)
+            })
+            .collect();
+        feeding.sort_by(|a, b| a.0.total_cmp(&b.0));
+        let (mut swept, mut leak) = (0.0, 0.0);
+        for (i, &(starts, per_share, leaks)) in feeding.iter().enumerate() {
+            swept += per_share;
+            leak += leaks;
+            let share = (wanted.max(0.0) + leak) / swept;
+            let next = feeding.get(i + 1).map_or(f64::INFINITY, |f| f.0);
+            if share <= next && share >= starts {
+                return share;
+            }
+        }
+        f64::INFINITY
     }
 
     /// The unit with each pump's leakage scaled by `factor(pump)`: slip flow goes as pressure
@@ -56,14 +120,15 @@ impl<'a> PreparedUnit<'a> {
     }
 
     /// The flow the pumps send over the relief with the system dead-headed at `p` (m^3/s), as
-    /// when a relief is set: every pump not unloaded at that pressure, at full stroke (a
+    /// when a relief is set: with the motor at its full-load speed (on a variable-speed drive,
+    /// the speed a relief is commonly set at), every pump not unloaded at that pressure, at full stroke (a
     /// compensator is turned up out of the way while the relief is set, common practice),
     /// less its leakage there.
     pub(crate) fn dead_head_flow(&self, p: f64) -> f64 {
         self.pumps
             .iter()
             .filter(|s| s.unloading.is_none_or(|(setting, _)| p < setting))
-            .map(|s| (s.pump.swept - s.pump.leakage * (p + s.check)).max(0.0))
+            .map(|s| (s.rated_swept - s.pump.leakage * (p + s.check)).max(0.0))
             .sum()
     }
 

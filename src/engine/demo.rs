@@ -104,6 +104,7 @@ pub fn scrap_baler() -> Job {
     ];
     let as_found = Design {
         name: "As found".into(),
+        drive: None,
         motor: Motor {
             rated_power: Power::new::<kilowatt>(22.0),
             full_load_speed: AngularVelocity::new::<revolution_per_minute>(1470.0),

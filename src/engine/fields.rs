@@ -649,6 +649,45 @@ pub const REMOTE_STAGES: FieldSpec = Design
 pub const VENT_PRESSURE: FieldSpec = Design
     .field("vent_pressure_pa", "Pressure when vented")
     .amount(Pressure, MAX_PRESSURE);
+/// A variable-speed drive, when the design has one (the form's choice of fixed speed or a
+/// drive).
+pub const DRIVE: FieldSpec = Design.field("drive", "How the motor is driven");
+pub const DRIVE_KIND: FieldSpec = Design.field("drive.kind", "Motor and drive").said("kind of drive");
+pub const DRIVE_MIN_SPEED: FieldSpec = Design
+    .field("drive.min_speed_rad_per_s", "Slowest pump speed")
+    .amount(ShaftSpeed, MAX_SPEED_RAD_S)
+    .said("drive's slowest speed");
+pub const DRIVE_MAX_SPEED: FieldSpec = Design
+    .field("drive.max_speed_rad_per_s", "Fastest pump speed")
+    .amount(ShaftSpeed, MAX_SPEED_RAD_S)
+    .said("drive's fastest speed");
+pub const CONVERTER_RATING: FieldSpec = Design
+    .field("drive.converter_rating_va", "Converter rating")
+    .amount(ApparentPower, MAX_POWER)
+    .said("converter's rating");
+pub const CONVERTER_LOSS_FROM: FieldSpec = Design
+    .field("drive.converter_loss.from", "Converter losses from")
+    .said("where the converter's losses come from");
+pub const CONVERTER_CLASS: FieldSpec = Design
+    .field("drive.converter_loss.class", "Converter efficiency class")
+    .said("converter's class");
+pub const CONVERTER_LOSS: FieldSpec = Design
+    .field(
+        "drive.converter_loss.share",
+        "Converter loss at 90 % speed, full current",
+    )
+    .between(
+        Some(Percent),
+        &Bounds {
+            low: Excluded(0.0),
+            high: Included(0.2),
+            otherwise: "must be above 0 % and at most 20 % of the converter's rating (makers state 1 to 5 %)",
+        },
+    )
+    .said("converter's loss");
+pub const DRIVE_HOLD: FieldSpec = Design.field("drive.hold", "Holds kept").said("how holds are kept");
+pub const DRIVE_IDLE: FieldSpec = Design.field("drive.idle", "Idles").said("what the drive does in idles");
+pub const MOTOR_COOLING: FieldSpec = Design.field("drive.cooling", "Motor cooling");
 /// One setting per phase of the cycle: a list, its length checked.
 pub const PHASE_SETTINGS: FieldSpec = Design.field("phase_settings", "Limit in each phase");
 
@@ -1085,6 +1124,17 @@ pub const ALL: &[&FieldSpec] = &[
     &RELIEF_SETTING,
     &RELIEF_RATED_FLOW,
     &RELIEF_CRACKING,
+    &DRIVE,
+    &DRIVE_KIND,
+    &DRIVE_MIN_SPEED,
+    &DRIVE_MAX_SPEED,
+    &CONVERTER_RATING,
+    &CONVERTER_LOSS_FROM,
+    &CONVERTER_CLASS,
+    &CONVERTER_LOSS,
+    &DRIVE_HOLD,
+    &DRIVE_IDLE,
+    &MOTOR_COOLING,
     &REMOTE_STAGES,
     &VENT_PRESSURE,
     &PHASE_SETTINGS,

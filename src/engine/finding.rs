@@ -117,6 +117,25 @@ pub enum Finding {
         #[serde(rename = "limit_w")]
         limit: Power,
     },
+    /// On a variable-speed drive the motor's RMS load is above what it may carry
+    /// continuously only because it turns slowly under load, where its own fan cools it less.
+    MotorHotAtLowSpeed {
+        #[serde(rename = "rms_w")]
+        rms: Power,
+        #[serde(rename = "limit_w")]
+        limit: Power,
+        /// The slowest the motor runs in the cycle, as a share of its full-load speed.
+        slowest_share: f64,
+    },
+    /// A phase needs a faster shaft than the variable-speed drive's maximum: it runs at the
+    /// maximum and takes longer. `needed` is absent when no speed would do (the pumps lose
+    /// their whole flow to leakage at that pressure).
+    BeyondMaximumSpeed {
+        #[serde(rename = "needed_rad_per_s", skip_serializing_if = "Option::is_none")]
+        needed: Option<uom::si::f64::AngularVelocity>,
+        #[serde(rename = "maximum_rad_per_s")]
+        maximum: uom::si::f64::AngularVelocity,
+    },
     /// The cycle's peak is above what the motor may carry briefly (rating x peak allowance).
     MotorPeakOverload {
         #[serde(rename = "peak_w")]
@@ -293,6 +312,27 @@ impl Finding {
                 u.power(rms),
                 u.power(limit)
             ),
+            Finding::MotorHotAtLowSpeed {
+                rms,
+                limit,
+                slowest_share,
+            } => format!(
+                "Counting how little its own fan cools it at low speed (down to {:.0} % of full-load speed here), the motor's RMS load over the cycle is {}, above the {} it may carry continuously: it will run hot. A motor rated for inverter duty with a separate fan, a higher minimum speed, or a larger motor avoids it; the motor's maker decides.",
+                slowest_share * 100.0,
+                u.power(rms),
+                u.power(limit)
+            ),
+            Finding::BeyondMaximumSpeed { needed, maximum } => match needed {
+                Some(needed) => format!(
+                    "The phase needs the pump turning at {} but the drive's maximum is {}: it runs at the maximum and takes longer.",
+                    u.shaft_speed(needed),
+                    u.shaft_speed(maximum)
+                ),
+                None => format!(
+                    "At this phase's pressure the pumps lose their whole flow to leakage at any speed: it runs at the drive's maximum of {} and cannot deliver what it needs.",
+                    u.shaft_speed(maximum)
+                ),
+            },
             Finding::MotorPeakOverload { peak, limit } => format!(
                 "The cycle's peak of {} is above the {} the motor may carry briefly (rating times peak allowance): it may stall or trip.",
                 u.power(peak),

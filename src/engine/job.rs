@@ -70,6 +70,7 @@ impl Job {
         let empty = f64::NAN;
         let design = Design {
             name: "As found".into(),
+            drive: None,
             motor: Motor {
                 rated_power: Power {
                     value: empty,

@@ -18,6 +18,9 @@ pub struct PowerLedger {
     /// The motor's own loss (to the air, not the oil).
     #[serde(rename = "motor_loss_w")]
     pub motor_loss: Power,
+    /// A variable-speed drive's converter loss (to the cabinet's air); none at fixed speed.
+    #[serde(rename = "drive_loss_w", skip_serializing_if = "is_nothing")]
+    pub drive_loss: Power,
     /// Leakage, friction and drag inside the pumps.
     #[serde(rename = "pump_internal_loss_w")]
     pub pump_internal_loss: Power,
@@ -38,6 +41,10 @@ pub struct PowerLedger {
     pub useful_power: Power,
 }
 
+fn is_nothing(power: &Power) -> bool {
+    power.value == 0.0
+}
+
 /// One item of the ledger: where a share of the electrical input ends up.
 #[derive(Clone, Copy, Debug, PartialEq, Eq, Serialize)]
 pub enum LedgerItem {
@@ -48,11 +55,16 @@ pub enum LedgerItem {
     LinesAndValves,
     InsidePumps,
     Motor,
+    Drive,
 }
 
 impl LedgerItem {
-    /// Every item, useful work first and the motor's loss last: the order charts stack them.
-    pub const ALL: [LedgerItem; 7] = [
+    /// How many items there are.
+    pub const COUNT: usize = 8;
+
+    /// Every item, useful work first and the motor's and drive's losses last: the order charts
+    /// stack them.
+    pub const ALL: [LedgerItem; LedgerItem::COUNT] = [
         LedgerItem::UsefulWork,
         LedgerItem::Relief,
         LedgerItem::FlowControl,
@@ -60,6 +72,7 @@ impl LedgerItem {
         LedgerItem::LinesAndValves,
         LedgerItem::InsidePumps,
         LedgerItem::Motor,
+        LedgerItem::Drive,
     ];
 
     /// The item in the trade's words.
@@ -72,6 +85,7 @@ impl LedgerItem {
             LedgerItem::LinesAndValves => "Lines and valves",
             LedgerItem::InsidePumps => "Inside the pumps",
             LedgerItem::Motor => "Inside the motor",
+            LedgerItem::Drive => "Inside the drive",
         }
     }
 }
@@ -87,12 +101,13 @@ impl PowerLedger {
             LedgerItem::LinesAndValves => self.line_valve_loss,
             LedgerItem::InsidePumps => self.pump_internal_loss,
             LedgerItem::Motor => self.motor_loss,
+            LedgerItem::Drive => self.drive_loss,
         }
     }
 
     /// The motor's shaft output: the pumps' input.
     pub fn shaft_power(&self) -> Power {
-        self.electrical_input - self.motor_loss
+        self.electrical_input - self.motor_loss - self.drive_loss
     }
 
     /// Power turned into heat in the oil: every hydraulic loss and the pumps' internal loss.
@@ -106,7 +121,7 @@ impl PowerLedger {
 
     /// The items' sum less the electrical input, over the input: zero when the ledger closes.
     pub fn imbalance(&self) -> f64 {
-        let items = self.motor_loss + self.heat_into_oil() + self.useful_power;
+        let items = self.motor_loss + self.drive_loss + self.heat_into_oil() + self.useful_power;
         let input = self.electrical_input.value;
         if input == 0.0 {
             items.value.abs()
@@ -134,13 +149,18 @@ pub struct CycleTotals {
     pub rms_electrical: Power,
     #[serde(rename = "average_shaft_w")]
     pub average_shaft: Power,
-    /// The highest shaft power in any phase: checked against rating x service factor.
+    /// The highest shaft load in any phase: checked against rating x peak allowance. Below
+    /// the motor's full-load speed (on a variable-speed drive) a phase's load is its torque at
+    /// that speed (shaft power over speed share): the torque is what strains and heats it.
     #[serde(rename = "peak_shaft_w")]
     pub peak_shaft: Power,
-    /// The root-mean-square shaft power over the cycle: what the motor is sized on. Time with
-    /// the motor stopped counts at [`STOPPED_COOLING_SHARE`] of running time (a stopped
-    /// motor cools less), so a cycle with stopped idles has a higher RMS than its plain time
-    /// average: sqrt(sum(P^2 t) / (running time + share x stopped time)).
+    /// The root-mean-square shaft load (as for the peak) over the cycle: what the motor is
+    /// sized on. Each second counts by how well the motor cools in it: stopped at
+    /// [`STOPPED_COOLING_SHARE`] of running time (a stopped motor cools less), and on a
+    /// variable-speed drive as its cooling allows at that speed
+    /// ([`MotorCooling::cooling_weight`](super::drive::MotorCooling::cooling_weight)), so a
+    /// cycle with stopped idles has a higher RMS than its plain time average:
+    /// sqrt(sum(P^2 t) / sum(w t)).
     #[serde(rename = "rms_shaft_w")]
     pub rms_shaft: Power,
     /// Average heat into the oil.
@@ -219,6 +239,39 @@ pub struct TimedLedger {
     pub duration: Time,
     /// Whether the motor turns in the phase (an idle may stop it).
     pub motor_running: bool,
+    /// The shaft's speed as a share of the motor's full-load speed (1 at fixed speed).
+    pub speed_share: f64,
+    /// How well the motor cools in the phase against running at full-load speed (1 running at
+    /// fixed speed, [`STOPPED_COOLING_SHARE`] stopped).
+    pub cooling_weight: f64,
+}
+
+impl TimedLedger {
+    /// A phase of a motor at fixed speed: running at full speed, or stopped.
+    pub fn fixed_speed(ledger: PowerLedger, duration: Time, motor_running: bool) -> TimedLedger {
+        TimedLedger {
+            ledger,
+            duration,
+            motor_running,
+            speed_share: if motor_running { 1.0 } else { 0.0 },
+            cooling_weight: if motor_running {
+                1.0
+            } else {
+                STOPPED_COOLING_SHARE
+            },
+        }
+    }
+
+    /// The shaft load that strains and heats the motor as this phase does: its shaft power,
+    /// over its speed share below full-load speed (the phase's torque at full-load speed).
+    pub fn motor_load(&self) -> f64 {
+        let shaft = self.ledger.shaft_power().value;
+        if self.speed_share > 0.0 && self.speed_share < 1.0 {
+            shaft / self.speed_share
+        } else {
+            shaft
+        }
+    }
 }
 
 /// Sums a cycle's phases.
@@ -233,19 +286,16 @@ pub fn cycle_totals(phases: &[TimedLedger], site: &Site, oil: &Oil) -> CycleTota
         let (ledger, t) = (&phase.ledger, &phase.duration.value);
         let el = ledger.electrical_input.value;
         let shaft = ledger.shaft_power().value;
+        let load = phase.motor_load();
         time += t;
-        cooling_time += if phase.motor_running {
-            *t
-        } else {
-            STOPPED_COOLING_SHARE * t
-        };
+        cooling_time += phase.cooling_weight * t;
         energy += el * t;
         shaft_energy += shaft * t;
         heat_energy += ledger.heat_into_oil().value * t;
         el_sq += el * el * t;
-        shaft_sq += shaft * shaft * t;
+        shaft_sq += load * load * t;
         peak_el = peak_el.max(el);
-        peak_shaft = peak_shaft.max(shaft);
+        peak_shaft = peak_shaft.max(load);
     }
     // Validation makes every duration positive, so the cycle time is too.
     let average = |x: f64| if time > 0.0 { x / time } else { 0.0 };
@@ -298,14 +348,36 @@ pub fn motor_starts_per_cycle(phases: &[TimedLedger]) -> usize {
 /// RMS can be trusted (a cycle longer than [`RMS_LONGEST_CYCLE_S`] whose peak the motor could
 /// not carry continuously), and the starts an hour when idles stop the motor, against what a
 /// motor of its size and speed may take ([`Motor::allowed_starts_per_hour`]).
-pub fn motor_findings(motor: &Motor, totals: &CycleTotals, phases: &[TimedLedger]) -> Vec<Finding> {
+///
+/// On a variable-speed drive (`driven`) the RMS load counts each second by the motor's cooling
+/// at its speed: when only that puts the RMS over the limit (with every running second cooled
+/// as at full speed it would not be), the finding says the motor runs too slowly at too much
+/// torque for its cooling. A converter ramps the motor up, so its stops are not starts.
+pub fn motor_findings(
+    motor: &Motor,
+    totals: &CycleTotals,
+    phases: &[TimedLedger],
+    driven: bool,
+) -> Vec<Finding> {
     let rated = motor.rated_power.value;
     let mut findings = Vec::new();
     let continuous = rated * motor.service_factor;
     if totals.rms_shaft.value > continuous * (1.0 + 1e-9) {
-        findings.push(Finding::MotorRmsOverload {
-            rms: watts(totals.rms_shaft.value),
-            limit: watts(continuous),
+        let rms = watts(totals.rms_shaft.value);
+        let limit = watts(continuous);
+        findings.push(if !driven || rms_cooled_at_full_speed(phases) > continuous * (1.0 + 1e-9) {
+            Finding::MotorRmsOverload { rms, limit }
+        } else {
+            let slowest = phases
+                .iter()
+                .filter(|p| p.motor_running)
+                .map(|p| p.speed_share)
+                .fold(f64::INFINITY, f64::min);
+            Finding::MotorHotAtLowSpeed {
+                rms,
+                limit,
+                slowest_share: slowest,
+            }
         });
     }
     let limit = rated * motor.peak_allowance;
@@ -322,7 +394,11 @@ pub fn motor_findings(motor: &Motor, totals: &CycleTotals, phases: &[TimedLedger
             longest: seconds_of(RMS_LONGEST_CYCLE_S),
         });
     }
-    let starts = motor_starts_per_cycle(phases);
+    let starts = if driven {
+        0
+    } else {
+        motor_starts_per_cycle(phases)
+    };
     if starts > 0 && cycle > 0.0 {
         let per_hour = starts as f64 * 3600.0 / cycle;
         let allowed = motor.allowed_starts_per_hour();
@@ -334,6 +410,22 @@ pub fn motor_findings(motor: &Motor, totals: &CycleTotals, phases: &[TimedLedger
         }
     }
     findings
+}
+
+/// The cycle's RMS motor load with every running second cooled as at full-load speed.
+fn rms_cooled_at_full_speed(phases: &[TimedLedger]) -> f64 {
+    let (mut squares, mut cooling) = (0.0, 0.0);
+    for p in phases {
+        let t = p.duration.value;
+        let load = p.motor_load();
+        squares += load * load * t;
+        cooling += if p.motor_running { 1.0f64.max(p.cooling_weight) } else { p.cooling_weight } * t;
+    }
+    if cooling > 0.0 {
+        (squares / cooling).sqrt()
+    } else {
+        0.0
+    }
 }
 
 /// A proposed design against the baseline.
@@ -443,15 +535,15 @@ mod tests {
     }
 
     fn phase(shaft_w: f64, seconds: f64, running: bool) -> TimedLedger {
-        TimedLedger {
-            ledger: PowerLedger {
+        TimedLedger::fixed_speed(
+            PowerLedger {
                 electrical_input: watts(shaft_w),
                 useful_power: watts(shaft_w),
                 ..PowerLedger::default()
             },
-            duration: seconds_of(seconds),
-            motor_running: running,
-        }
+            seconds_of(seconds),
+            running,
+        )
     }
 
     #[test]
@@ -520,30 +612,35 @@ mod tests {
         assert!(rms(&motor_findings(
             &motor(1.0, 1.25),
             &totals(11e3, 11e3),
-            &[]
+            &[],
+            false
         )));
         assert!(!rms(&motor_findings(
             &motor(1.15, 1.25),
             &totals(11e3, 11e3),
-            &[]
+            &[],
+            false
         )));
         // A 13 kW peak: over 1.25 x 10 kW = 12.5 kW, within 1.5 x 10 kW.
         assert!(peak(&motor_findings(
             &motor(1.0, 1.25),
             &totals(9e3, 13e3),
-            &[]
+            &[],
+            false
         )));
         assert!(!peak(&motor_findings(
             &motor(1.0, 1.5),
             &totals(9e3, 13e3),
-            &[]
+            &[],
+            false
         )));
         // The peak allowance, not the service factor, judges the peak.
         assert!(peak(&motor_findings(
             &motor(1.4, 1.25),
             &totals(9e3, 13e3),
-            &[]
+            &[],
+            false
         )));
-        assert!(motor_findings(&motor(1.0, 1.25), &totals(10e3, 12.5e3), &[]).is_empty());
+        assert!(motor_findings(&motor(1.0, 1.25), &totals(10e3, 12.5e3), &[], false).is_empty());
     }
 }

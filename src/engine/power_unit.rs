@@ -14,6 +14,10 @@ pub const MAX_PUMPS: usize = 4;
 pub struct Design {
     pub name: String,
     pub motor: Motor,
+    /// The variable-speed drive the motor is on, if any (absent: the motor runs at its
+    /// full-load speed in every phase it runs).
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub drive: Option<super::drive::VariableSpeed>,
     /// The pumps that unload as pressure rises, each with its unloading and check valve, in
     /// the order they sit on the shaft. Empty for a single-pump unit.
     pub unloading_stages: Vec<UnloadingStage>,

@@ -70,7 +70,7 @@ pub struct QuoteColumn {
     pub annual_cost: f64,
     /// The year's energy by where it ends up, in [`LedgerItem::ALL`]'s order (kWh). The items
     /// add up to `annual_energy_kwh`.
-    pub annual_energy_by_item_kwh: [f64; 7],
+    pub annual_energy_by_item_kwh: [f64; LedgerItem::COUNT],
     /// Annual kWh x the site's grid factor; none when the site gives none.
     pub co2_kg_per_year: Option<f64>,
     /// Against the baseline (none for the baseline itself): energy and cost saved per year
@@ -149,7 +149,7 @@ pub fn columns(job: &Job, report: &JobReport) -> Vec<QuoteColumn> {
 
 /// A design's yearly energy split by ledger item: each item's energy over one cycle, as a
 /// share of the cycle, times the hours the machine runs.
-pub fn annual_energy_by_item(design: &DesignReport, hours_per_year: f64) -> [f64; 7] {
+pub fn annual_energy_by_item(design: &DesignReport, hours_per_year: f64) -> [f64; LedgerItem::COUNT] {
     let cycle = design.totals.cycle_time.value;
     LedgerItem::ALL.map(|item| {
         let per_cycle: f64 = design

@@ -63,6 +63,13 @@ pub struct OperatingPoint {
     /// The pressure limit that governs the phase.
     pub limit: LimitInUse,
     pub motor_running: bool,
+    /// On a variable-speed drive: the shaft speed the engine chose for the phase (none when
+    /// the motor runs at its full-load speed in every phase).
+    #[serde(
+        rename = "shaft_speed_rad_per_s",
+        skip_serializing_if = "Option::is_none"
+    )]
+    pub shaft_speed: Option<uom::si::f64::AngularVelocity>,
 }
 
 #[derive(Clone, Copy, Debug, PartialEq, Serialize)]
@@ -427,7 +434,9 @@ pub(crate) fn solve_design_at(job: &Job, design: &Design, oil: &OilAt) -> Design
     }
     move_line_findings(job, &mut phases);
     let mut reactive_note = None;
-    if let Some(rating) = &design.motor.electrical {
+    // A converter-fed motor's line current is the converter's, which the nameplate model does
+    // not describe: left out on a variable-speed drive.
+    if let (Some(rating), None) = (&design.motor.electrical, &design.drive) {
         for (report, setting) in phases.iter_mut().zip(&design.phase_settings) {
             draw_from_line(report, &design.motor, rating, setting);
         }
@@ -435,14 +444,8 @@ pub(crate) fn solve_design_at(job: &Job, design: &Design, oil: &OilAt) -> Design
             reactive_note = power_factor_below(&phases, rating, threshold);
         }
     }
-    let timed: Vec<super::ledger::TimedLedger> = phases
-        .iter()
-        .map(|p| super::ledger::TimedLedger {
-            ledger: p.ledger,
-            duration: p.point.duration,
-            motor_running: p.point.motor_running,
-        })
-        .collect();
+    let timed: Vec<super::ledger::TimedLedger> =
+        phases.iter().map(|p| timed_ledger(design, p)).collect();
     let totals = super::ledger::cycle_totals(&timed, &job.site, &job.oil);
     let mut findings = design_findings(design);
     findings.extend(reactive_note);
@@ -451,6 +454,7 @@ pub(crate) fn solve_design_at(job: &Job, design: &Design, oil: &OilAt) -> Design
         &design.motor,
         &totals,
         &timed,
+        design.drive.is_some(),
     ));
     DesignReport {
         name: design.name.clone(),
@@ -465,6 +469,27 @@ pub(crate) fn solve_design_at(job: &Job, design: &Design, oil: &OilAt) -> Design
     }
 }
 
+/// A phase as the cycle's totals see it: on a variable-speed drive with its speed and how
+/// well the motor cools there.
+fn timed_ledger(design: &Design, p: &PhaseReport) -> super::ledger::TimedLedger {
+    let fixed = super::ledger::TimedLedger::fixed_speed(
+        p.ledger,
+        p.point.duration,
+        p.point.motor_running,
+    );
+    match (&design.drive, p.point.shaft_speed) {
+        (Some(drive), Some(speed)) => {
+            let share = speed.value / design.motor.full_load_speed.value;
+            super::ledger::TimedLedger {
+                speed_share: share,
+                cooling_weight: drive.cooling.cooling_weight(share),
+                ..fixed
+            }
+        }
+        _ => fixed,
+    }
+}
+
 /// The phase's line current and power factor, and a finding when the current read there
 /// differs from it by more than [`CURRENT_DIFFERENCE_SHARE`] of the full-load current.
 fn draw_from_line(
@@ -476,7 +501,7 @@ fn draw_from_line(
     if !report.point.motor_running {
         return;
     }
-    let shaft = report.ledger.electrical_input - report.ledger.motor_loss;
+    let shaft = report.ledger.shaft_power();
     let draw = super::electrical::line_draw(motor, rating, report.ledger.electrical_input, shaft);
     report.line = Some(draw);
     if let Some(measured) = setting.measured_current {
@@ -624,8 +649,106 @@ fn limit_in_use(
     (in_use, characteristic)
 }
 
-/// Solves one phase of a design.
+/// Solves one phase of a design: at the motor's full-load speed, or on a variable-speed drive
+/// at the speed the engine chooses for it.
 pub(crate) fn solve_phase(
+    unit: &PreparedUnit,
+    phase: &Phase,
+    setting: &PhaseSetting,
+    oil: &OilAt,
+) -> PhaseReport {
+    let Some(drive) = &unit.design.drive else {
+        return solve_phase_at_speed(unit, phase, setting, oil);
+    };
+    let demand = demand(phase, oil);
+    let idle = matches!(demand, Demand::Idle { .. });
+    let (_, relief) = limit_in_use(unit, setting, idle);
+    match phase_speed(unit, drive, &relief, demand) {
+        PhaseSpeed::Stopped => {
+            let stopped = PhaseSetting {
+                idle_path: IdlePath::MotorStopped,
+                ..*setting
+            };
+            solve_phase_at_speed(&unit.at_speed(0.0), phase, &stopped, oil)
+        }
+        PhaseSpeed::Turning { share, beyond } => {
+            let mut report = solve_phase_at_speed(&unit.at_speed(share), phase, setting, oil);
+            report.findings.extend(beyond);
+            report
+        }
+    }
+}
+
+/// The speed a phase runs at on a variable-speed drive.
+#[derive(Clone, Debug, PartialEq)]
+enum PhaseSpeed {
+    /// The drive stops the pump (an idle).
+    Stopped,
+    /// A share of the motor's full-load speed, within the drive's range; with a finding when
+    /// the phase needs more than the drive's maximum.
+    Turning {
+        share: f64,
+        beyond: Option<Finding>,
+    },
+}
+
+/// The lowest speed that delivers what the phase needs, within the drive's range: a metered
+/// move or a direct demand its flow (plus the pumps' leakage and anything the relief takes
+/// at its pressure); a move on all pump flow the drive's maximum; a hold kept by the pump at
+/// the minimum (its surplus over the relief) or at the speed that just makes up the leakage
+/// at the hold's pressure; anything else (a hold locked by a check, an idle) the minimum, or an
+/// idle stopped.
+fn phase_speed(
+    unit: &PreparedUnit,
+    drive: &super::drive::VariableSpeed,
+    relief: &ReliefCharacteristic,
+    demand: Demand,
+) -> PhaseSpeed {
+    use super::drive::{HoldSpeed, IdleSpeed};
+    let (min, max) = drive.speed_shares(&unit.design.motor);
+    let delivering = |flow: f64, pressure: f64| {
+        unit.speed_share_for(flow + relief.flow(pressure), pressure, unit.unloaded_at(pressure))
+    };
+    let needed = match demand {
+        Demand::Move {
+            metered: Some(wanted),
+            load,
+            line,
+            lines,
+            ..
+        } => {
+            let need = load + line + lines.map_or(0.0, |l| l.carrying(wanted).drop_at_pump);
+            delivering(wanted, need)
+        }
+        Demand::Move { metered: None, .. } => max,
+        Demand::Direct { flow, pressure, .. } => delivering(flow, pressure),
+        Demand::Hold {
+            required,
+            mode: HoldMode::HeldByPump,
+            ..
+        } if drive.hold == HoldSpeed::MakeUpLeakage => delivering(0.0, required),
+        Demand::Hold { .. } => min,
+        Demand::Idle { .. } if drive.idle == IdleSpeed::Stopped => return PhaseSpeed::Stopped,
+        Demand::Idle { .. } => min,
+    };
+    if needed > max * (1.0 + 1e-9) {
+        let base = unit.design.motor.full_load_speed.value;
+        return PhaseSpeed::Turning {
+            share: max,
+            beyond: Some(Finding::BeyondMaximumSpeed {
+                needed: (needed.is_finite()).then(|| super::units::radians_per_second(needed * base)),
+                maximum: super::units::radians_per_second(max * base),
+            }),
+        };
+    }
+    PhaseSpeed::Turning {
+        share: needed.max(min),
+        beyond: None,
+    }
+}
+
+/// Solves one phase of a design with its shaft at the unit's speed.
+fn solve_phase_at_speed(
     unit: &PreparedUnit,
     phase: &Phase,
     setting: &PhaseSetting,
@@ -726,7 +849,8 @@ fn solve_state(
             if let Some(wanted) = metered {
                 let need = load + line_at(wanted);
                 let available = unit.supply(need, mask) - relief.flow(need);
-                if available >= wanted {
+                // The tolerance lets a drive's speed, chosen to give exactly this flow, give it.
+                if available >= wanted * (1.0 - 1e-12) {
                     point.line = need - load;
                     point.lines = lines.map(|l| l.carrying(wanted));
                     point.pressure = unit.balance(relief, wanted, need, mask);
@@ -767,7 +891,7 @@ fn solve_state(
                 ..running
             };
             let available = unit.supply(pressure, mask) - relief.flow(pressure);
-            if available >= flow {
+            if available >= flow * (1.0 - 1e-12) {
                 point.pressure = unit.balance(relief, flow, pressure, mask);
                 point.actuator = flow;
                 return point;
@@ -938,14 +1062,11 @@ fn report(
     // the flow balance, so the ledger closes whatever the rounding in the solve.
     let relief_flow = (supply - point.actuator - sink_flow).max(0.0);
     let need = point.load + point.line;
-    let motor_loss = if stopped {
-        0.0
-    } else {
-        unit.design.motor.loss(shaft)
-    };
+    let (motor_loss, drive_loss) = electrical_losses(unit, shaft, stopped);
     let ledger = PowerLedger {
-        electrical_input: watts(shaft + motor_loss),
+        electrical_input: watts(shaft + motor_loss + drive_loss),
         motor_loss: watts(motor_loss),
+        drive_loss: watts(drive_loss),
         pump_internal_loss: watts(internal),
         unloading_loss: watts(unloading),
         relief_loss: watts(p * relief_flow),
@@ -966,11 +1087,37 @@ fn report(
             duration: Time::new::<uom::si::time::second>(point.duration),
             limit,
             motor_running: !stopped,
+            shaft_speed: unit.design.drive.map(|_| {
+                super::units::radians_per_second(
+                    unit.speed_share * unit.design.motor.full_load_speed.value,
+                )
+            }),
         },
         ledger,
         line: None,
         lines: point.lines,
         findings: point.findings,
+    }
+}
+
+/// The motor's and the drive's losses while the motor gives `shaft` watts at the unit's speed:
+/// at fixed speed the motor's part-load loss and no drive; on a variable-speed drive the motor's
+/// loss at that speed and torque and the converter's at that frequency and current (its
+/// standing loss while the pump is stopped: it stays powered).
+fn electrical_losses(unit: &PreparedUnit, shaft: f64, stopped: bool) -> (f64, f64) {
+    let motor = &unit.design.motor;
+    match (&unit.design.drive, stopped) {
+        (None, true) => (0.0, 0.0),
+        (None, false) => (motor.loss(shaft), 0.0),
+        (Some(drive), true) => (0.0, drive.converter_loss(0.0, 0.0, motor)),
+        (Some(drive), false) => {
+            let share = unit.speed_share;
+            let torque = shaft / motor.rated_power.value / share.max(f64::MIN_POSITIVE);
+            (
+                motor.loss_at_speed(shaft, share),
+                drive.converter_loss(share, torque, motor),
+            )
+        }
     }
 }
 

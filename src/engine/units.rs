@@ -122,6 +122,11 @@ impl UnitSystem {
         }
     }
 
+    /// A shaft speed, e.g. "1450 rpm" (the same in both systems).
+    pub fn shaft_speed(self, w: uom::si::f64::AngularVelocity) -> String {
+        format!("{:.0} rpm", w.value / REVOLUTION_PER_MINUTE)
+    }
+
     /// A power, e.g. "7.50 kW" or "10.06 hp".
     pub fn power(self, p: Power) -> String {
         match self {
@@ -229,6 +234,8 @@ pub enum Measure {
     HeatPerKelvin,
     /// A plain count or figure with no unit (a loss coefficient, a viscosity index).
     Number,
+    /// A converter's apparent power, kept in VA, shown in kVA.
+    ApparentPower,
 }
 
 impl Measure {
@@ -288,6 +295,7 @@ impl Measure {
             (Measure::HeatPerKelvin, Si) => ("W/K", 1.0, 0),
             (Measure::HeatPerKelvin, Us) => ("Btu/(h·°F)", BTU_IT / 3600.0 * 1.8, 0),
             (Measure::Number, _) => ("", 1.0, 2),
+            (Measure::ApparentPower, _) => ("kVA", 1e3, 1),
         }
     }
 
@@ -553,6 +561,7 @@ mod tests {
             Area,
             Mass,
             LineSize,
+            ApparentPower,
             HeatPerKelvin,
         ];
         for m in all {

@@ -360,6 +360,9 @@ fn check_design_fields(c: &mut Checker, d: &Design, job: &Job) {
         );
     }
     c.number(&VENT_PRESSURE, d.vent_pressure.value);
+    if let Some(drive) = &d.drive {
+        check_drive(c, drive);
+    }
     if let Some(cooler) = &d.cooler {
         c.number(&COOLANT_TEMPERATURE, cooler.coolant_temperature.value);
         c.number(&COOLER_RATED_HEAT, cooler.rated_heat.value);
@@ -388,6 +391,19 @@ fn check_design_fields(c: &mut Checker, d: &Design, job: &Job) {
     }
     for (i, setting) in d.phase_settings.iter().enumerate() {
         c.within(i, |c| check_setting(c, d, setting));
+    }
+}
+
+/// A variable-speed drive: each figure, and a speed range that is one.
+fn check_drive(c: &mut Checker, drive: &super::drive::VariableSpeed) {
+    let min = c.number(&DRIVE_MIN_SPEED, drive.min_speed.value);
+    let max = c.number(&DRIVE_MAX_SPEED, drive.max_speed.value);
+    if min && max && drive.min_speed.value >= drive.max_speed.value {
+        c.fail(&DRIVE_MIN_SPEED, "must be below the fastest pump speed");
+    }
+    c.number(&CONVERTER_RATING, drive.converter_rating.value);
+    if let super::drive::ConverterLoss::Stated { share } = drive.converter_loss {
+        c.number(&CONVERTER_LOSS, share);
     }
 }
 

@@ -130,6 +130,7 @@ pub fn design(
     Design {
         name: name.into(),
         motor,
+        drive: None,
         unloading_stages: stages,
         base_pump: base,
         relief,

@@ -232,11 +232,7 @@ fn timed(kw_in: f64, seconds: f64) -> phasewise_engine::ledger::TimedLedger {
         useful_power: kw(kw_in),
         ..Default::default()
     };
-    phasewise_engine::ledger::TimedLedger {
-        ledger,
-        duration: s(seconds),
-        motor_running: true,
-    }
+    phasewise_engine::ledger::TimedLedger::fixed_speed(ledger, s(seconds), true)
 }
 
 /// A utility bills demand as the highest average power over its demand interval (15 minutes,

@@ -392,6 +392,10 @@ fn every_field_job() -> serde_json::Value {
         d["cooler"] = json!({"coolant": "water", "coolant_k": 293.15, "rated_heat_w": 3000.0,
             "rated_difference_k": 25.0});
         d["suction_line"] = line.clone();
+        d["drive"] = json!({"kind": "induction_on_inverter", "min_speed_rad_per_s": 30.0,
+            "max_speed_rad_per_s": 160.0, "converter_rating_va": 20000.0,
+            "converter_loss": {"from": "stated", "share": 0.03}, "hold": "make_up_leakage", "idle": "stopped",
+            "cooling": "self_cooled"});
         for s in d["unloading_stages"].as_array_mut().unwrap() {
             s["pump"]["control"] = json!({"type": "compensated", "setting_pa": 1.5e7});
         }

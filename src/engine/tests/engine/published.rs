@@ -194,16 +194,16 @@ fn hydraulic_horsepower_of_engineering_toolbox() {
 /// A phase with the motor running, drawing `electrical_kw` for `seconds`.
 fn ledger_of(electrical_kw: f64, relief_kw: f64, seconds: f64) -> TimedLedger {
     let w = |kw: f64| Power::new::<uom::si::power::kilowatt>(kw);
-    TimedLedger {
-        ledger: PowerLedger {
+    TimedLedger::fixed_speed(
+        PowerLedger {
             electrical_input: w(electrical_kw),
             relief_loss: w(relief_kw),
             useful_power: w(electrical_kw - relief_kw),
             ..PowerLedger::default()
         },
-        duration: s(seconds),
-        motor_running: true,
-    }
+        s(seconds),
+        true,
+    )
 }
 
 #[test]
