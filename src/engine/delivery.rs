@@ -60,11 +60,13 @@ impl<'a> PreparedUnit<'a> {
     /// The unit with its shaft at `speed_share` of the motor's full-load speed (on a
     /// variable-speed drive): every pump sweeps in proportion, its leakage at a pressure stays
     /// what it is (slip hardly depends on speed), so its volumetric efficiency falls as it
-    /// slows.
+    /// slows. Its drag is taken as a torque (bearing and seal friction), so its power goes
+    /// with speed: a simplification, marked as such (churning grows faster with speed).
     pub fn at_speed(&self, speed_share: f64) -> PreparedUnit<'a> {
         let mut unit = self.clone();
-        for s in &mut unit.pumps {
+        for (s, pump) in unit.pumps.iter_mut().zip(self.design.pumps()) {
             s.pump.swept = s.rated_swept * speed_share;
+            s.pump.drag = pump.drag_power.value * speed_share;
         }
         unit.speed_share = speed_share;
         unit
@@ -206,6 +208,11 @@ impl<'a> PreparedUnit<'a> {
         for &b in points.iter().filter(|b| b.is_finite() && **b > low) {
             let hb = h(b);
             if hb <= 0.0 {
+                // A surplus left only by rounding (a pump clipped to no flow at its dry point
+                // gives 1e-20, not 0) is none: the root is `a`, not the far end of a flat span.
+                if ha <= NO_FLOW * 1e-6 {
+                    return a;
+                }
                 return a + ha * (b - a) / (ha - hb);
             }
             (a, ha) = (b, hb);

@@ -249,9 +249,12 @@ pub const TYPICAL_POWER_FACTOR: f64 = 0.85;
 /// The motor's rated apparent input (VA): from its electrical nameplate, else its rated
 /// output over its efficiency and [`TYPICAL_POWER_FACTOR`].
 pub fn motor_apparent_power(motor: &Motor) -> f64 {
-    let power_factor = motor.electrical.as_ref().map_or(TYPICAL_POWER_FACTOR, |rating| {
-        super::electrical::full_load_power_factor(motor, rating).clamp(0.1, 1.0)
-    });
+    let power_factor = motor
+        .electrical
+        .as_ref()
+        .map_or(TYPICAL_POWER_FACTOR, |rating| {
+            super::electrical::full_load_power_factor(motor, rating).clamp(0.1, 1.0)
+        });
     motor.rated_power.value / (motor.full_load_efficiency * power_factor)
 }
 

@@ -652,7 +652,9 @@ pub const VENT_PRESSURE: FieldSpec = Design
 /// A variable-speed drive, when the design has one (the form's choice of fixed speed or a
 /// drive).
 pub const DRIVE: FieldSpec = Design.field("drive", "How the motor is driven");
-pub const DRIVE_KIND: FieldSpec = Design.field("drive.kind", "Motor and drive").said("kind of drive");
+pub const DRIVE_KIND: FieldSpec = Design
+    .field("drive.kind", "Motor and drive")
+    .said("kind of drive");
 pub const DRIVE_MIN_SPEED: FieldSpec = Design
     .field("drive.min_speed_rad_per_s", "Slowest pump speed")
     .amount(ShaftSpeed, MAX_SPEED_RAD_S)
@@ -685,8 +687,12 @@ pub const CONVERTER_LOSS: FieldSpec = Design
         },
     )
     .said("converter's loss");
-pub const DRIVE_HOLD: FieldSpec = Design.field("drive.hold", "Holds kept").said("how holds are kept");
-pub const DRIVE_IDLE: FieldSpec = Design.field("drive.idle", "Idles").said("what the drive does in idles");
+pub const DRIVE_HOLD: FieldSpec = Design
+    .field("drive.hold", "Holds kept")
+    .said("how holds are kept");
+pub const DRIVE_IDLE: FieldSpec = Design
+    .field("drive.idle", "Idles")
+    .said("what the drive does in idles");
 pub const MOTOR_COOLING: FieldSpec = Design.field("drive.cooling", "Motor cooling");
 /// One setting per phase of the cycle: a list, its length checked.
 pub const PHASE_SETTINGS: FieldSpec = Design.field("phase_settings", "Limit in each phase");

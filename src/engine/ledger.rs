@@ -365,20 +365,22 @@ pub fn motor_findings(
     if totals.rms_shaft.value > continuous * (1.0 + 1e-9) {
         let rms = watts(totals.rms_shaft.value);
         let limit = watts(continuous);
-        findings.push(if !driven || rms_cooled_at_full_speed(phases) > continuous * (1.0 + 1e-9) {
-            Finding::MotorRmsOverload { rms, limit }
-        } else {
-            let slowest = phases
-                .iter()
-                .filter(|p| p.motor_running)
-                .map(|p| p.speed_share)
-                .fold(f64::INFINITY, f64::min);
-            Finding::MotorHotAtLowSpeed {
-                rms,
-                limit,
-                slowest_share: slowest,
-            }
-        });
+        findings.push(
+            if !driven || rms_cooled_at_full_speed(phases) > continuous * (1.0 + 1e-9) {
+                Finding::MotorRmsOverload { rms, limit }
+            } else {
+                let slowest = phases
+                    .iter()
+                    .filter(|p| p.motor_running)
+                    .map(|p| p.speed_share)
+                    .fold(f64::INFINITY, f64::min);
+                Finding::MotorHotAtLowSpeed {
+                    rms,
+                    limit,
+                    slowest_share: slowest,
+                }
+            },
+        );
     }
     let limit = rated * motor.peak_allowance;
     if totals.peak_shaft.value > limit * (1.0 + 1e-9) {
@@ -419,7 +421,11 @@ fn rms_cooled_at_full_speed(phases: &[TimedLedger]) -> f64 {
         let t = p.duration.value;
         let load = p.motor_load();
         squares += load * load * t;
-        cooling += if p.motor_running { 1.0f64.max(p.cooling_weight) } else { p.cooling_weight } * t;
+        cooling += if p.motor_running {
+            1.0f64.max(p.cooling_weight)
+        } else {
+            p.cooling_weight
+        } * t;
     }
     if cooling > 0.0 {
         (squares / cooling).sqrt()

@@ -149,7 +149,10 @@ pub fn columns(job: &Job, report: &JobReport) -> Vec<QuoteColumn> {
 
 /// A design's yearly energy split by ledger item: each item's energy over one cycle, as a
 /// share of the cycle, times the hours the machine runs.
-pub fn annual_energy_by_item(design: &DesignReport, hours_per_year: f64) -> [f64; LedgerItem::COUNT] {
+pub fn annual_energy_by_item(
+    design: &DesignReport,
+    hours_per_year: f64,
+) -> [f64; LedgerItem::COUNT] {
     let cycle = design.totals.cycle_time.value;
     LedgerItem::ALL.map(|item| {
         let per_cycle: f64 = design

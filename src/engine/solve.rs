@@ -472,11 +472,8 @@ pub(crate) fn solve_design_at(job: &Job, design: &Design, oil: &OilAt) -> Design
 /// A phase as the cycle's totals see it: on a variable-speed drive with its speed and how
 /// well the motor cools there.
 fn timed_ledger(design: &Design, p: &PhaseReport) -> super::ledger::TimedLedger {
-    let fixed = super::ledger::TimedLedger::fixed_speed(
-        p.ledger,
-        p.point.duration,
-        p.point.motor_running,
-    );
+    let fixed =
+        super::ledger::TimedLedger::fixed_speed(p.ledger, p.point.duration, p.point.motor_running);
     match (&design.drive, p.point.shaft_speed) {
         (Some(drive), Some(speed)) => {
             let share = speed.value / design.motor.full_load_speed.value;
@@ -663,7 +660,7 @@ pub(crate) fn solve_phase(
     let demand = demand(phase, oil);
     let idle = matches!(demand, Demand::Idle { .. });
     let (_, relief) = limit_in_use(unit, setting, idle);
-    match phase_speed(unit, drive, &relief, demand) {
+    match phase_speed(unit, drive, &relief, demand, setting) {
         PhaseSpeed::Stopped => {
             let stopped = PhaseSetting {
                 idle_path: IdlePath::MotorStopped,
@@ -686,10 +683,7 @@ enum PhaseSpeed {
     Stopped,
     /// A share of the motor's full-load speed, within the drive's range; with a finding when
     /// the phase needs more than the drive's maximum.
-    Turning {
-        share: f64,
-        beyond: Option<Finding>,
-    },
+    Turning { share: f64, beyond: Option<Finding> },
 }
 
 /// The lowest speed that delivers what the phase needs, within the drive's range: a metered
@@ -703,11 +697,16 @@ fn phase_speed(
     drive: &super::drive::VariableSpeed,
     relief: &ReliefCharacteristic,
     demand: Demand,
+    setting: &PhaseSetting,
 ) -> PhaseSpeed {
     use super::drive::{HoldSpeed, IdleSpeed};
     let (min, max) = drive.speed_shares(&unit.design.motor);
     let delivering = |flow: f64, pressure: f64| {
-        unit.speed_share_for(flow + relief.flow(pressure), pressure, unit.unloaded_at(pressure))
+        unit.speed_share_for(
+            flow + relief.flow(pressure),
+            pressure,
+            unit.unloaded_at(pressure),
+        )
     };
     let needed = match demand {
         Demand::Move {
@@ -728,7 +727,11 @@ fn phase_speed(
             ..
         } if drive.hold == HoldSpeed::MakeUpLeakage => delivering(0.0, required),
         Demand::Hold { .. } => min,
-        Demand::Idle { .. } if drive.idle == IdleSpeed::Stopped => return PhaseSpeed::Stopped,
+        Demand::Idle { .. }
+            if drive.idle == IdleSpeed::Stopped || setting.idle_path == IdlePath::MotorStopped =>
+        {
+            return PhaseSpeed::Stopped
+        }
         Demand::Idle { .. } => min,
     };
     if needed > max * (1.0 + 1e-9) {
@@ -736,7 +739,8 @@ fn phase_speed(
         return PhaseSpeed::Turning {
             share: max,
             beyond: Some(Finding::BeyondMaximumSpeed {
-                needed: (needed.is_finite()).then(|| super::units::radians_per_second(needed * base)),
+                needed: (needed.is_finite())
+                    .then(|| super::units::radians_per_second(needed * base)),
                 maximum: super::units::radians_per_second(max * base),
             }),
         };

@@ -8,6 +8,9 @@
 
 use crate::common::*;
 use phasewise_engine::cycle::*;
+use phasewise_engine::drive::{
+    ConverterClass, ConverterLoss, DriveKind, HoldSpeed, IdleSpeed, MotorCooling, VariableSpeed,
+};
 use phasewise_engine::job::Job;
 use phasewise_engine::power_unit::{Design, PhaseSetting, UnloadingStage};
 use phasewise_engine::pump::{Pump, PumpControl};
@@ -222,14 +225,88 @@ fn design_strategy(phases: usize) -> impl Strategy<Value = Design> {
     )
 }
 
+/// A variable-speed drive for a motor, its speeds as shares of the motor's full-load speed.
+fn drive_strategy() -> impl Strategy<
+    Value = (
+        f64,
+        f64,
+        f64,
+        ConverterLoss,
+        HoldSpeed,
+        IdleSpeed,
+        MotorCooling,
+    ),
+> {
+    (
+        0.02..0.6f64,
+        1.0..1.5f64,
+        0.8..2.0f64,
+        prop_oneof![
+            (0.005..0.08f64).prop_map(|share| ConverterLoss::Stated { share }),
+            prop_oneof![Just(ConverterClass::IE1), Just(ConverterClass::IE2)]
+                .prop_map(|class| ConverterLoss::Class { class }),
+        ],
+        prop_oneof![
+            Just(HoldSpeed::MinimumAgainstRelief),
+            Just(HoldSpeed::MakeUpLeakage)
+        ],
+        prop_oneof![Just(IdleSpeed::Minimum), Just(IdleSpeed::Stopped)],
+        prop_oneof![
+            Just(MotorCooling::SelfCooled),
+            Just(MotorCooling::SeparateFan)
+        ],
+    )
+}
+
+/// Puts a drive from [`drive_strategy`] on `design`.
+fn drive_on(
+    design: &mut Design,
+    (min, max, rating, loss, hold, idle, cooling): (
+        f64,
+        f64,
+        f64,
+        ConverterLoss,
+        HoldSpeed,
+        IdleSpeed,
+        MotorCooling,
+    ),
+) {
+    let base = design.motor.full_load_speed;
+    design.drive = Some(VariableSpeed {
+        kind: DriveKind::InductionOnInverter,
+        min_speed: base * min,
+        max_speed: base * max,
+        converter_rating: design.motor.rated_power * (rating / 0.75),
+        converter_loss: loss,
+        hold,
+        idle,
+        cooling,
+    });
+}
+
 fn job_strategy() -> impl Strategy<Value = Job> {
     (1..=12usize).prop_flat_map(|n| {
         (
             prop::collection::vec(phase(), n),
-            prop::collection::vec(design_strategy(n), 1..=2),
+            prop::collection::vec(
+                (
+                    design_strategy(n),
+                    prop::option::weighted(0.3, drive_strategy()),
+                ),
+                1..=2,
+            ),
             20.0..2000.0f64,
         )
             .prop_map(|(cycle, designs, litres)| {
+                let designs = designs
+                    .into_iter()
+                    .map(|(mut d, drive)| {
+                        if let Some(drive) = drive {
+                            drive_on(&mut d, drive);
+                        }
+                        d
+                    })
+                    .collect();
                 let mut j = job(cycle, designs);
                 j.oil.volume = Volume::new::<uom::si::volume::liter>(litres);
                 j
@@ -245,7 +322,7 @@ fn solved(job: &Job) -> Result<JobReport, TestCaseError> {
 fn the_ledger_closes_and_every_number_is_finite() {
     check("ledger closes", job_strategy(), |job| {
         let report = solved(&job)?;
-        for design in &report.designs {
+        for (design, unit) in report.designs.iter().zip(&job.designs) {
             for phase in &design.phases {
                 let l = &phase.ledger;
                 prop_assert!(
@@ -257,6 +334,7 @@ fn the_ledger_closes_and_every_number_is_finite() {
                 let items = [
                     l.electrical_input,
                     l.motor_loss,
+                    l.drive_loss,
                     l.pump_internal_loss,
                     l.unloading_loss,
                     l.relief_loss,
@@ -283,6 +361,8 @@ fn the_ledger_closes_and_every_number_is_finite() {
                         prop_assert!((0.0..=1.0).contains(&line.power_factor), "{line:?}");
                     }
                     (None, false) => {}
+                    // A converter-fed motor's line current is not modelled.
+                    (None, true) if unit.drive.is_some() => {}
                     (line, running) => {
                         prop_assert!(false, "line {line:?} while running {running}")
                     }
@@ -297,6 +377,19 @@ fn the_ledger_closes_and_every_number_is_finite() {
                     prop_assert!(x.is_finite() && x >= 0.0, "{p:?}");
                 }
                 prop_assert!(p.duration.value > 0.0, "{p:?}");
+                // On a drive the speed chosen keeps within its range (zero only stopped).
+                match (&unit.drive, p.shaft_speed) {
+                    (None, None) => {}
+                    (Some(drive), Some(speed)) if !p.motor_running => {
+                        prop_assert!(speed.value == 0.0, "{drive:?} stopped at {speed:?}")
+                    }
+                    (Some(drive), Some(speed)) => prop_assert!(
+                        speed.value >= drive.min_speed.value * (1.0 - 1e-12)
+                            && speed.value <= drive.max_speed.value * (1.0 + 1e-12),
+                        "{speed:?} outside {drive:?}"
+                    ),
+                    (drive, speed) => prop_assert!(false, "{drive:?} with a speed {speed:?}"),
+                }
             }
             let t = &design.totals;
             for x in [
@@ -618,4 +711,52 @@ fn the_advice_keeps_its_own_rules_on_any_job() {
         }
         Ok(())
     });
+}
+
+/// With every hold and idle kept at the drive's minimum speed, on a single fixed pump (no
+/// unloading valve for the pressure to cross), a lower minimum speed never raises the energy
+/// of the cycle: what runs at the minimum only sweeps less oil over the relief.
+#[test]
+fn a_lower_minimum_speed_never_raises_a_driven_cycle_s_energy() {
+    check(
+        "lower minimum speed",
+        (job_strategy(), drive_strategy(), 0.1..1.0f64),
+        |(mut job, drive, lower)| {
+            let d = &mut job.designs[0];
+            d.unloading_stages.clear();
+            d.base_pump.control = PumpControl::Fixed;
+            let (_, max, rating, loss, _, _, cooling) = drive;
+            drive_on(
+                d,
+                (
+                    drive.0,
+                    max,
+                    rating,
+                    loss,
+                    HoldSpeed::MinimumAgainstRelief,
+                    IdleSpeed::Minimum,
+                    cooling,
+                ),
+            );
+            let swept = |d: &Design| {
+                d.base_pump.displacement.value * d.motor.full_load_speed.value
+                    / std::f64::consts::TAU
+            };
+            d.relief.rated_flow =
+                VolumeRate::new::<uom::si::volume_rate::cubic_meter_per_second>(swept(d) * 1.5);
+            let energy = |r: &JobReport| r.designs[0].totals.energy_per_cycle.value;
+            let before = solved(&job)?;
+            if let Some(drive) = &mut job.designs[0].drive {
+                drive.min_speed *= lower;
+            }
+            let after = solved(&job)?;
+            prop_assert!(
+                energy(&after) <= energy(&before) * (1.0 + 1e-9) + 1e-9,
+                "{} J with the minimum x{lower} against {} J",
+                energy(&after),
+                energy(&before)
+            );
+            Ok(())
+        },
+    );
 }
