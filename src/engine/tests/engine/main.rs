@@ -20,6 +20,7 @@
 //! | `electrical.rs` | the line current and power factor: the nameplate met at full load, a maker's part-load power factors, a third of the current unloaded (common practice), rising with load, sqrt(3) V I PF equal to the ledger's input in every phase, a clamp-meter reading far off is a finding |
 //! | `motor_check.rs` | the motor check: the US DOE fact sheet's input-power and slip examples, the voltage correction and current method against petrobras/ccp's test values, Hydraulics & Pneumatics' efficiency from two readings, which method is trusted, the verdict, a right-sized motor's saving |
 //! | `oil.rs` | the oil through the solve: the lines' drop in the ledger and a retract's larger return, colder oil losing more in the lines and leaking less, leakage by viscosity, heat in = heat out where it settles, a bigger cooler never hotter, a fast line's finding, an oil by its points, a field warm-up against the model |
+//! | `drive.rs` | variable-speed drives: a press cycle's speed per phase worked by hand (flow plus leakage over displacement; all pump flow at the maximum; a hold making up leakage; an idle stopped), a phase beyond the top speed, a hold at the minimum against the relief, the losses at speed and torque, the converter's standing loss, a self-cooled motor slow at full torque, the US DOE part-load curves (as digitised in Modelica Buildings) |
 //! | `quote.rs` | the quote: Cengel and Boles' high-efficiency motor example solved through the whole engine (7,929 kWh, $634 a year, 1.01 years), a hand-worked invented retrofit, the year split by ledger item adding up, which assumptions are defaults, the customer rounding |
 //!
 //! A test that checks the main job against something outside the project names its source
@@ -28,6 +29,7 @@
 //! from memory is marked so. Demo data is never a reference.
 
 mod common;
+mod drive;
 mod efficiency;
 mod electrical;
 mod golden;
