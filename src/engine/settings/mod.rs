@@ -17,7 +17,10 @@
 //! ([`lowest_limit_for`]) is the larger of need + margin (the policy's share, or its minimum,
 //! whichever is more) and need / cracking fraction (so the valve stays shut while working);
 //! for a hold the pump keeps, the need itself (it sits at its limit, the pump's flow over the
-//! relief, which is how the limit is read). On a unit with a compensated pump, never below
+//! relief, which is how the limit is read). On a variable-speed drive that keeps its holds by
+//! making up the leakage, the relief is a safety valve above every working pressure, so such a
+//! hold takes the margin like any other need; the drive's phases send nothing over the relief,
+//! so the advice's savings there come out near zero and only the main setting's rule speaks. On a unit with a compensated pump, never below
 //! [`compensator_floor`]: cracking above the highest compensator's dead-head pressure (setting
 //! x 1.03) and the compensator margin above it (the policy's share, or
 //! `compensator_margin_min`, 15 bar by default, whichever is more).
@@ -83,7 +86,7 @@ pub use needs::{
     compensator_floor, cycle_lowest_limit, lowest_limit, lowest_limit_for, needed_pressure,
     phase_needs, round_up_setting, PhaseNeed,
 };
-use needs::{held_by_pump, system_rating};
+use needs::{held_at_limit, system_rating};
 pub use rules::advise;
 pub(crate) use windows::unloading_fits;
 pub use windows::{

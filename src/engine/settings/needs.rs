@@ -64,22 +64,28 @@ pub(super) fn governing(design: &Design, i: usize, idle: bool) -> f64 {
     crate::solve::governing_limit(design, &setting, idle).1
 }
 
-/// A hold the pump keeps (its flow over the relief at the limit), not one a check valve locks.
-pub(super) fn held_by_pump(kind: &PhaseKind) -> bool {
-    matches!(kind, PhaseKind::Hold(h) if h.mode == HoldMode::HeldByPump)
+/// A hold the pump keeps with its flow over the relief at the limit: not one a check valve
+/// locks, nor one a variable-speed drive keeps by making up the leakage (there the relief is a
+/// safety valve above the hold, as above any working pressure).
+pub(super) fn held_at_limit(kind: &PhaseKind, design: &Design) -> bool {
+    let by_speed = design
+        .drive
+        .is_some_and(|d| d.hold == crate::drive::HoldSpeed::MakeUpLeakage);
+    matches!(kind, PhaseKind::Hold(h) if h.mode == HoldMode::HeldByPump) && !by_speed
 }
 
 /// The lowest limit that serves a phase needing `need` (Pa) on `design`. A hold the pump keeps
 /// sits at its limit with the pump's whole flow over the relief (the limit is read that way),
 /// so its limit is its need, with no margin: a higher one only adds clamp force and heat.
-/// Every other need takes [`lowest_limit`]. Either way never below [`compensator_floor`].
+/// Every other need takes [`lowest_limit`], and so does a hold a variable-speed drive keeps by
+/// its speed. Either way never below [`compensator_floor`].
 pub fn lowest_limit_for(
     kind: &PhaseKind,
     need: f64,
     policy: &AdvicePolicy,
     design: &Design,
 ) -> f64 {
-    let rule = if held_by_pump(kind) {
+    let rule = if held_at_limit(kind, design) {
         need
     } else {
         lowest_limit(need, policy, design.relief.cracking_fraction)

@@ -69,7 +69,10 @@ pub fn advise(job: &Job, index: usize) -> Result<Vec<Advice>, Vec<InputError>> {
                     continue;
                 }
                 let target = round_up_setting(lowest, us).min(main);
-                let held = job.cycle.get(i).is_some_and(|ph| held_by_pump(&ph.kind));
+                let held = job
+                    .cycle
+                    .get(i)
+                    .is_some_and(|ph| held_at_limit(&ph.kind, design));
                 let on_main = design
                     .phase_settings
                     .get(i)

@@ -79,7 +79,13 @@ impl Advice {
             job.advice.margin_fraction * 100.0,
             p(job.advice.margin_min)
         );
-        let is_held = |i: usize| job.cycle.get(i).is_some_and(|ph| held_by_pump(&ph.kind));
+        // A hold advised its own pressure as its limit sits at it; one a drive keeps by its
+        // speed is advised a margin like any working need.
+        let is_held = |i: usize, need: Pressure, lowest: Pressure| {
+            job.cycle.get(i).is_some_and(|ph| {
+                matches!(&ph.kind, crate::cycle::PhaseKind::Hold(h) if h.mode == crate::cycle::HoldMode::HeldByPump)
+            }) && lowest.value <= need.value * (1.0 + 1e-9)
+        };
         let floor_words = if job
             .designs
             .iter()
@@ -92,7 +98,7 @@ impl Advice {
         let (title, explanation) = match self.rule {
             Rule::LimitAboveNeed { phase: i, need, limit, lowest } => (
                 format!("{}: a lower limit would do", phase(i)),
-                if is_held(i) {
+                if is_held(i, need, lowest) {
                     format!(
                         "It must hold {} but sits at {}: the pump's flow crosses the relief at the limit, so the extra pressure is extra clamp force and heat. A limit of {} holds it (the pump's flow over the valve at that setting gives that pressure).",
                         p(need), p(limit), p(lowest)

@@ -411,3 +411,26 @@ fn the_motor_s_loss_at_speed_is_the_fixed_speed_model_at_full_speed() {
         "half speed at full torque",
     );
 }
+
+/// With a variable-speed drive that keeps its holds by making up the leakage, the relief is a
+/// safety valve above every working pressure, the hold's included: the main setting advised
+/// is the hold's 200 bar with the margin and above cracking (200 / 0.9 = 222.2 bar, rounded up
+/// to 223 bar), not the hold's own pressure as when the pump's flow crosses the relief at it.
+/// The margin rule is common practice (the advice policy's).
+#[test]
+fn the_advice_keeps_the_relief_above_a_hold_the_drive_keeps() {
+    use phasewise_engine::settings::{advise, Action};
+    let main_advised = |job: &Job| {
+        advise(job, 0)
+            .unwrap()
+            .iter()
+            .find_map(|a| match a.action {
+                Some(Action::SetMain { pressure }) => Some(in_bar(pressure)),
+                _ => None,
+            })
+    };
+    let made_up = press_job(60.0, HoldSpeed::MakeUpLeakage, IdleSpeed::Stopped);
+    assert_eq!(main_advised(&made_up), Some(223.0));
+    let against_relief = press_job(60.0, HoldSpeed::MinimumAgainstRelief, IdleSpeed::Stopped);
+    assert_eq!(main_advised(&against_relief), Some(200.0));
+}
