@@ -160,6 +160,22 @@ impl<'a> PreparedUnit<'a> {
             .sum()
     }
 
+    /// The shaft power the pumps take with the system at `p` and the stages in `unloaded` sent
+    /// to tank at their unloaded drop (W).
+    pub(crate) fn shaft_power_at(&self, p: f64, unloaded: u32) -> f64 {
+        self.pumps
+            .iter()
+            .enumerate()
+            .map(|(i, s)| {
+                let outlet = match s.unloading {
+                    Some((_, drop)) if unloaded & (1 << i) != 0 => drop,
+                    _ => p + s.check,
+                };
+                s.pump.shaft_power(outlet, s.pump.delivered(outlet))
+            })
+            .sum()
+    }
+
     /// Theoretical flow of the feeding pumps.
     pub(crate) fn swept(&self, unloaded: u32) -> f64 {
         self.pumps

@@ -118,6 +118,15 @@ pub struct StagingOptions {
     pub max_pumps: usize,
     /// Also try a single pressure-compensated pump of each size.
     pub compensated: bool,
+    /// Also try a single fixed pump of each size on a variable-speed drive, turning at most at
+    /// each of `speeds` and at least at each of these (empty: no drive candidates). Default:
+    /// 300 and 600 rpm (common practice, from memory: gear and vane pumps' makers state
+    /// minimum speeds of a few hundred rpm for lubrication).
+    #[serde(
+        default = "usual_drive_min_speeds",
+        rename = "drive_min_speeds_rad_per_s"
+    )]
+    pub drive_min_speeds: Vec<AngularVelocity>,
     pub motor_steps: MotorSteps,
     /// The efficiency class of the new motor: each candidate's motor takes the class's nominal
     /// full-load efficiency at its own rating. Absent: [`MotorSteps::usual_class`].
@@ -136,6 +145,13 @@ pub struct StagingOptions {
         skip_serializing_if = "Option::is_none"
     )]
     pub cycle_time_target: Option<Time>,
+}
+
+fn usual_drive_min_speeds() -> Vec<AngularVelocity> {
+    [300.0, 600.0]
+        .iter()
+        .map(|rpm| AngularVelocity::new::<uom::si::angular_velocity::revolution_per_minute>(*rpm))
+        .collect()
 }
 
 impl Default for StagingOptions {
@@ -157,6 +173,7 @@ impl Default for StagingOptions {
                 .collect(),
             max_pumps: 3,
             compensated: true,
+            drive_min_speeds: usual_drive_min_speeds(),
             motor_steps: MotorSteps::IecKw,
             efficiency_class: None,
             service_factor: 1.0,

@@ -719,7 +719,12 @@ fn phase_speed(
             let need = load + line + lines.map_or(0.0, |l| l.carrying(wanted).drop_at_pump);
             delivering(wanted, need)
         }
-        Demand::Move { metered: None, .. } => max,
+        Demand::Move {
+            metered: None,
+            load,
+            line,
+            ..
+        } => all_flow_share(unit, max, load + line),
         Demand::Direct { flow, pressure, .. } => delivering(flow, pressure),
         Demand::Hold {
             required,
@@ -748,6 +753,27 @@ fn phase_speed(
     PhaseSpeed::Turning {
         share: needed.max(min),
         beyond: None,
+    }
+}
+
+/// The speed share a move on all pump flow runs at: the drive's maximum, except that above the
+/// motor's full-load speed (field weakening) the motor gives at most its rated power times its
+/// peak allowance, so the drive slows to what that power turns at the move's pressure `need`
+/// (the described lines' drop left out of it), never below full-load speed. Below it the motor's
+/// torque, not its power, is the limit, and that is the motor sizing's to judge.
+fn all_flow_share(unit: &PreparedUnit, max: f64, need: f64) -> f64 {
+    if max <= 1.0 {
+        return max;
+    }
+    let motor = &unit.design.motor;
+    let at_full_speed = unit
+        .at_speed(1.0)
+        .shaft_power_at(need, unit.unloaded_at(need));
+    let most = motor.rated_power.value * motor.peak_allowance;
+    if at_full_speed * max <= most {
+        max
+    } else {
+        (most / at_full_speed).clamp(1.0, max)
     }
 }
 
@@ -1066,7 +1092,7 @@ fn report(
     // the flow balance, so the ledger closes whatever the rounding in the solve.
     let relief_flow = (supply - point.actuator - sink_flow).max(0.0);
     let need = point.load + point.line;
-    let (motor_loss, drive_loss) = electrical_losses(unit, shaft, stopped);
+    let (motor_loss, drive_loss) = electrical_losses(unit.design, shaft, unit.speed_share, stopped);
     let ledger = PowerLedger {
         electrical_input: watts(shaft + motor_loss + drive_loss),
         motor_loss: watts(motor_loss),
@@ -1104,18 +1130,23 @@ fn report(
     }
 }
 
-/// The motor's and the drive's losses while the motor gives `shaft` watts at the unit's speed:
+/// The motor's and the drive's losses while the motor gives `shaft` watts at `share` of its
+/// full-load speed:
 /// at fixed speed the motor's part-load loss and no drive; on a variable-speed drive the motor's
 /// loss at that speed and torque and the converter's at that frequency and current (its
 /// standing loss while the pump is stopped: it stays powered).
-fn electrical_losses(unit: &PreparedUnit, shaft: f64, stopped: bool) -> (f64, f64) {
-    let motor = &unit.design.motor;
-    match (&unit.design.drive, stopped) {
+pub(crate) fn electrical_losses(
+    design: &Design,
+    shaft: f64,
+    share: f64,
+    stopped: bool,
+) -> (f64, f64) {
+    let motor = &design.motor;
+    match (&design.drive, stopped) {
         (None, true) => (0.0, 0.0),
         (None, false) => (motor.loss(shaft), 0.0),
         (Some(drive), true) => (0.0, drive.converter_loss(0.0, 0.0, motor)),
         (Some(drive), false) => {
-            let share = unit.speed_share;
             let torque = shaft / motor.rated_power.value / share.max(f64::MIN_POSITIVE);
             (
                 motor.loss_at_speed(shaft, share),

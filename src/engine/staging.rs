@@ -58,6 +58,10 @@
 //! options') input errors instead of assuming a valid job.
 
 use super::cycle::PhaseKind;
+use super::drive::{
+    motor_apparent_power, ConverterClass, ConverterLoss, DriveKind, HoldSpeed, IdleSpeed,
+    MotorCooling, VariableSpeed,
+};
 use super::finding::Finding;
 use super::job::Job;
 use super::ledger::CycleTotals;
@@ -65,7 +69,7 @@ use super::motor::Motor;
 use super::power_unit::{Design, UnloadingStage};
 use super::pump::{Pump, PumpControl};
 use super::settings::{self, FlowNeed, UnloadingWindow};
-use super::solve::{oil_at, solve_design_at, solve_design_working, OilAt};
+use super::solve::{electrical_losses, oil_at, solve_design_at, solve_design_working, OilAt};
 use super::units::{joules, pascals, watts};
 use super::validate::InputError;
 use super::valve::{ActiveLimit, CheckValve, IdlePath, UnloadingValve};
@@ -83,6 +87,46 @@ pub struct Spec {
     #[serde(rename = "speed_rad_per_s")]
     pub speed: f64,
     pub compensated: bool,
+    /// On a variable-speed drive: its slowest speed (`speed` is then its fastest, the motor's
+    /// full-load speed). None at fixed speed.
+    #[serde(
+        rename = "min_speed_rad_per_s",
+        skip_serializing_if = "Option::is_none"
+    )]
+    pub min_speed: Option<f64>,
+}
+
+/// The kinds of design the search tries.
+#[derive(Clone, Copy, Debug, PartialEq, Eq, Serialize)]
+#[serde(rename_all = "snake_case")]
+pub enum CandidateKind {
+    /// One to three fixed pumps at fixed speed, the larger ones unloading.
+    Staged,
+    /// One pressure-compensated pump at fixed speed.
+    Compensated,
+    /// One fixed pump on a variable-speed drive.
+    VariableSpeed,
+}
+
+impl Spec {
+    pub fn kind(&self) -> CandidateKind {
+        match (self.min_speed, self.compensated) {
+            (Some(_), _) => CandidateKind::VariableSpeed,
+            (None, true) => CandidateKind::Compensated,
+            (None, false) => CandidateKind::Staged,
+        }
+    }
+}
+
+/// A point of the trade-off: for one kind of design and one motor size, the shortest cycle
+/// some candidate reaches.
+#[derive(Clone, Copy, Debug, PartialEq, Serialize)]
+pub struct Trade {
+    pub kind: CandidateKind,
+    #[serde(rename = "motor_w")]
+    pub motor: f64,
+    #[serde(rename = "cycle_time_s")]
+    pub cycle_time: f64,
 }
 
 /// A candidate that meets every constraint, with what ranks it.
@@ -132,9 +176,9 @@ pub struct SearchResult {
     pub feasible: usize,
     /// The best few, best first.
     pub best: Vec<Candidate>,
-    /// The trade-off: for each motor size that some candidate fits, the shortest cycle time
-    /// reached with it (W, s), smallest motor first.
-    pub frontier: Vec<(f64, f64)>,
+    /// The trade-off: for each kind of design and each motor size that some candidate of that
+    /// kind fits, the shortest cycle time reached with it; by kind, smallest motor first.
+    pub frontier: Vec<Trade>,
 }
 
 /// How many of the best candidates are kept.
@@ -167,6 +211,7 @@ pub fn specs(options: &StagingOptions) -> Vec<Spec> {
                     displacements: current.clone(),
                     speed,
                     compensated: false,
+                    min_speed: None,
                 });
             }
             if left == 0 {
@@ -192,11 +237,44 @@ pub fn specs(options: &StagingOptions) -> Vec<Spec> {
                     displacements: vec![size],
                     speed,
                     compensated: true,
+                    min_speed: None,
+                });
+            }
+        }
+        for min in options.drive_min_speeds.iter().map(|s| s.value) {
+            if !(min > 0.0 && min < speed) {
+                continue;
+            }
+            for &size in &sizes {
+                out.push(Spec {
+                    displacements: vec![size],
+                    speed,
+                    compensated: false,
+                    min_speed: Some(min),
                 });
             }
         }
     }
     out
+}
+
+/// The drive a variable-speed candidate gets: an induction motor on an IE2 converter sized to
+/// the motor, turning the pump between `min` and `max` (rad/s); holds kept by making up the
+/// leakage, idles at the slowest speed (the relief vented where it can be), and a self-cooled
+/// motor, the cautious choice: slow, loaded seconds count against its size.
+fn candidate_drive(motor: &Motor, min: f64, max: f64) -> VariableSpeed {
+    VariableSpeed {
+        kind: DriveKind::InductionOnInverter,
+        min_speed: AngularVelocity::new::<uom::si::angular_velocity::radian_per_second>(min),
+        max_speed: AngularVelocity::new::<uom::si::angular_velocity::radian_per_second>(max),
+        converter_rating: watts(motor_apparent_power(motor)),
+        converter_loss: ConverterLoss::Class {
+            class: ConverterClass::IE2,
+        },
+        hold: HoldSpeed::MakeUpLeakage,
+        idle: IdleSpeed::Minimum,
+        cooling: MotorCooling::SelfCooled,
+    }
 }
 
 /// A pump like `template`, of another displacement (its drag and its leakage in proportion),
@@ -243,6 +321,9 @@ pub fn build(job: &Job, baseline: &Design, spec: &Spec, targets: &Targets) -> Op
     design.motor.full_load_speed =
         AngularVelocity::new::<uom::si::angular_velocity::radian_per_second>(spec.speed);
     design.base_pump = pump_like(&baseline.base_pump, base_size, baseline);
+    design.drive = spec
+        .min_speed
+        .map(|min| candidate_drive(&design.motor, min, spec.speed));
     design.unloading_stages = stage_sizes
         .iter()
         .map(|&size| UnloadingStage {
@@ -405,21 +486,26 @@ pub fn evaluate(
     let peak = totals.peak_shaft.value;
     let motor = right_sized_motor(&design.motor, totals, options)?;
     let motor_w = motor.rated_power.value;
+    let mut design = design;
+    design.motor = motor;
+    if let Some(drive) = &mut design.drive {
+        // The converter sized to the motor chosen.
+        drive.converter_rating = watts(motor_apparent_power(&motor));
+    }
     let energy = report
         .phases
         .iter()
         .map(|p| {
             let shaft = p.ledger.shaft_power().value;
-            let input = if p.point.motor_running {
-                shaft + motor.loss(shaft)
-            } else {
-                0.0
-            };
-            input * p.point.duration.value
+            let share = p
+                .point
+                .shaft_speed
+                .map_or(1.0, |w| w.value / motor.full_load_speed.value);
+            let (motor_loss, drive_loss) =
+                electrical_losses(&design, shaft, share, !p.point.motor_running);
+            (shaft + motor_loss + drive_loss) * p.point.duration.value
         })
         .sum();
-    let mut design = design;
-    design.motor = motor;
     Some(Candidate {
         spec: spec.clone(),
         motor: watts(motor_w),
@@ -449,7 +535,7 @@ pub struct Search {
     next: usize,
     feasible: usize,
     best: Vec<Candidate>,
-    frontier: Vec<(f64, f64)>,
+    frontier: Vec<Trade>,
 }
 
 impl Search {
@@ -489,9 +575,18 @@ impl Search {
         for i in self.next..end {
             if let Some(c) = evaluate(&self.job, &self.options, &targets, &self.specs[i]) {
                 self.feasible += 1;
-                match self.frontier.iter_mut().find(|(m, _)| *m == c.motor.value) {
-                    Some((_, t)) => *t = t.min(c.cycle_time.value),
-                    None => self.frontier.push((c.motor.value, c.cycle_time.value)),
+                let kind = c.spec.kind();
+                match self
+                    .frontier
+                    .iter_mut()
+                    .find(|t| t.kind == kind && t.motor == c.motor.value)
+                {
+                    Some(t) => t.cycle_time = t.cycle_time.min(c.cycle_time.value),
+                    None => self.frontier.push(Trade {
+                        kind,
+                        motor: c.motor.value,
+                        cycle_time: c.cycle_time.value,
+                    }),
                 }
                 let at = self
                     .best
@@ -509,7 +604,11 @@ impl Search {
 
     pub fn result(&self) -> SearchResult {
         let mut frontier = self.frontier.clone();
-        frontier.sort_by(|a, b| a.0.total_cmp(&b.0));
+        frontier.sort_by(|a, b| {
+            (a.kind as u8)
+                .cmp(&(b.kind as u8))
+                .then(a.motor.total_cmp(&b.motor))
+        });
         SearchResult {
             evaluated: self.next,
             feasible: self.feasible,

@@ -42,7 +42,11 @@ fn main() {
         println!(
             "{} cm3/rev{} at {:.0} rpm: motor {:.1} kW, cycle {:.2} s, {:.1} kJ/cycle, RMS {:.2} kW, peak {:.2} kW, main {:.0} bar, unloading [{}] bar",
             cc.join(" + "),
-            if c.spec.compensated { " compensated" } else { "" },
+            match c.spec.min_speed {
+                Some(min) => format!(" on a drive from {:.0} rpm", min * 60.0 / std::f64::consts::TAU),
+                None if c.spec.compensated => " compensated".to_string(),
+                None => String::new(),
+            },
             c.spec.speed * 60.0 / std::f64::consts::TAU,
             c.motor.get::<kilowatt>(),
             c.cycle_time.value,
@@ -53,7 +57,12 @@ fn main() {
             settings.join(", ")
         );
     }
-    for (motor, time) in &found.frontier {
-        println!("motor {:.1} kW: shortest cycle {:.2} s", motor / 1e3, time);
+    for t in &found.frontier {
+        println!(
+            "{:?}, motor {:.1} kW: shortest cycle {:.2} s",
+            t.kind,
+            t.motor / 1e3,
+            t.cycle_time
+        );
     }
 }

@@ -421,13 +421,10 @@ fn the_motor_s_loss_at_speed_is_the_fixed_speed_model_at_full_speed() {
 fn the_advice_keeps_the_relief_above_a_hold_the_drive_keeps() {
     use phasewise_engine::settings::{advise, Action};
     let main_advised = |job: &Job| {
-        advise(job, 0)
-            .unwrap()
-            .iter()
-            .find_map(|a| match a.action {
-                Some(Action::SetMain { pressure }) => Some(in_bar(pressure)),
-                _ => None,
-            })
+        advise(job, 0).unwrap().iter().find_map(|a| match a.action {
+            Some(Action::SetMain { pressure }) => Some(in_bar(pressure)),
+            _ => None,
+        })
     };
     let made_up = press_job(60.0, HoldSpeed::MakeUpLeakage, IdleSpeed::Stopped);
     assert_eq!(main_advised(&made_up), Some(223.0));

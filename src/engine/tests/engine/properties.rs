@@ -553,7 +553,21 @@ fn more_displacement_never_lengthens_a_move_that_takes_all_pump_flow() {
                         .iter()
                         .any(|f| matches!(f, Finding::Stall { .. }))
                 };
-                if m.speed != SpeedRule::AllPumpFlow || stalled(&before) || stalled(&after) {
+                // Above its full-load speed a drive holds the motor to its power: a bigger pump
+                // turns slower there, leaks more (slip grows with size) and its relief passes
+                // more (its setting read with the pumps' full flow), so the same power can move
+                // the cylinder slower. Only phases at the drive's top speed are compared.
+                let power_limited = |r: &JobReport| {
+                    let top = job.designs[0].drive.map(|d| d.max_speed.value);
+                    let speed = r.designs[0].phases[i].point.shaft_speed.map(|w| w.value);
+                    matches!((top, speed), (Some(top), Some(w)) if w < top * (1.0 - 1e-12))
+                };
+                if m.speed != SpeedRule::AllPumpFlow
+                    || stalled(&before)
+                    || stalled(&after)
+                    || power_limited(&before)
+                    || power_limited(&after)
+                {
                     continue;
                 }
                 let t = |r: &JobReport| r.designs[0].phases[i].point.duration.value;

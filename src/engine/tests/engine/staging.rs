@@ -60,7 +60,7 @@ fn the_search_agrees_with_a_brute_force_enumeration() {
         let opts = options(&[8.0, 16.0, 40.0, 63.0], 2);
         let speed = opts.speeds[0].value;
         // Written out by hand: 4 singles, 10 pairs (larger size on the unloading stage), 4
-        // compensated singles.
+        // compensated singles, and 4 singles on a drive at each of its two slowest speeds.
         let sizes = [63.0, 40.0, 16.0, 8.0];
         let mut all: Vec<Spec> = sizes
             .iter()
@@ -68,6 +68,7 @@ fn the_search_agrees_with_a_brute_force_enumeration() {
                 displacements: vec![cc(s)],
                 speed,
                 compensated: false,
+                min_speed: None,
             })
             .collect();
         for (i, &a) in sizes.iter().enumerate() {
@@ -76,6 +77,7 @@ fn the_search_agrees_with_a_brute_force_enumeration() {
                     displacements: vec![cc(a), cc(b)],
                     speed,
                     compensated: false,
+                    min_speed: None,
                 });
             }
         }
@@ -83,7 +85,16 @@ fn the_search_agrees_with_a_brute_force_enumeration() {
             displacements: vec![cc(s)],
             speed,
             compensated: true,
+            min_speed: None,
         }));
+        for min in &opts.drive_min_speeds {
+            all.extend(sizes.iter().map(|&s| Spec {
+                displacements: vec![cc(s)],
+                speed,
+                compensated: false,
+                min_speed: Some(min.value),
+            }));
+        }
         assert_eq!(staging::specs(&opts).len(), all.len());
 
         let targets = staging::targets(&job, &opts).unwrap();
@@ -147,6 +158,7 @@ fn kept_candidates_meet_the_times_and_size_their_motor_on_rms_and_peak() {
             displacements: vec![cc(25.0)],
             speed: opts.speeds[0].value,
             compensated: false,
+            min_speed: None,
         },
     )
     .expect("the as-found pump serves");
@@ -185,10 +197,11 @@ fn kept_candidates_meet_the_times_and_size_their_motor_on_rms_and_peak() {
 
 #[test]
 fn the_default_lists_give_over_five_thousand_candidates() {
-    // 18 sizes: 18 singles + 171 pairs + 1140 triples + 18 compensated, at 4 speeds.
+    // 18 sizes: 18 singles + 171 pairs + 1140 triples + 18 compensated + 18 on a drive at
+    // each of 2 slowest speeds, at 4 speeds.
     assert_eq!(
         staging::specs(&StagingOptions::default()).len(),
-        4 * (18 + 171 + 1140 + 18)
+        4 * (18 + 171 + 1140 + 18 + 2 * 18)
     );
 }
 
@@ -293,6 +306,7 @@ fn a_candidate_worked_by_hand() {
         displacements: vec![cc(40.0), cc(8.0)],
         speed: opts.speeds[0].value,
         compensated: false,
+        min_speed: None,
     };
     let c = staging::evaluate(&job, &opts, &targets, &spec).expect("it serves");
     let d = &c.design;
@@ -426,7 +440,7 @@ fn a_cycle_time_target_is_kept() {
     let fastest = free
         .frontier
         .iter()
-        .map(|f| f.1)
+        .map(|f| f.cycle_time)
         .fold(f64::INFINITY, f64::min);
     let slowest_kept = free
         .best
@@ -496,6 +510,7 @@ fn each_candidates_motor_takes_its_class_efficiency_at_its_own_size() {
         displacements: vec![cc(cc_per_rev)],
         speed: AngularVelocity::new::<revolution_per_minute>(1450.0).value,
         compensated: false,
+        min_speed: None,
     };
     let hp = phasewise_engine::units::HORSEPOWER;
     let iec = options(&[25.0, 40.0], 1);
@@ -576,6 +591,7 @@ fn compensated_candidates_keep_the_relief_clear_of_the_compensator() {
             displacements: vec![cc(size)],
             speed: opts.speeds[0].value,
             compensated: true,
+            min_speed: None,
         };
         let Some(d) = staging::build(&job, &job.designs[0], &spec, &targets) else {
             continue;
@@ -620,6 +636,7 @@ fn a_slower_candidate_leaks_the_same_flow_per_displacement() {
         displacements: vec![cc(16.0)],
         speed: opts.speeds[0].value,
         compensated: false,
+        min_speed: None,
     };
     let d = staging::build(&job, &job.designs[0], &spec, &targets).expect("a design");
     assert_eq!(
