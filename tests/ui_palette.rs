@@ -184,6 +184,7 @@ fn every_ledger_colour_stays_apart_under_each_colour_vision_deficiency() {
         "line",
         "pump",
         "motor",
+        "drive",
     ] {
         assert!(
             colours.iter().any(|(name, _)| name == class),

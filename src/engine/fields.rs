@@ -465,6 +465,16 @@ pub const TRY_COMPENSATED: FieldSpec = Job.field(
     "staging.compensated",
     "Also try a pressure-compensated pump",
 );
+pub const TRY_DRIVES: FieldSpec = Job.field(
+    "staging.drives",
+    "Also try a fixed pump on a variable-speed drive",
+);
+pub const DRIVE_MIN_SPEEDS: FieldSpec = Job
+    .field(
+        "staging.drive_min_speeds_rad_per_s[]",
+        "Slowest pump speeds on a drive",
+    )
+    .amount(ShaftSpeed, 1e3);
 pub const MOTOR_STEPS: FieldSpec = Job.field("staging.motor_steps", "Standard motor ratings");
 pub const EFFICIENCY_CLASS: FieldSpec =
     Job.field("staging.efficiency_class", "New motor's efficiency class");
@@ -1087,6 +1097,8 @@ pub const ALL: &[&FieldSpec] = &[
     &PUMP_SIZES,
     &MOTOR_SPEEDS,
     &MOST_PUMPS,
+    &TRY_DRIVES,
+    &DRIVE_MIN_SPEEDS,
     &TRY_COMPENSATED,
     &MOTOR_STEPS,
     &EFFICIENCY_CLASS,

@@ -118,10 +118,13 @@ pub struct StagingOptions {
     pub max_pumps: usize,
     /// Also try a single pressure-compensated pump of each size.
     pub compensated: bool,
-    /// Also try a single fixed pump of each size on a variable-speed drive, turning at most at
-    /// each of `speeds` and at least at each of these (empty: no drive candidates). Default:
-    /// 300 and 600 rpm (common practice, from memory: gear and vane pumps' makers state
-    /// minimum speeds of a few hundred rpm for lubrication).
+    /// Also try a single fixed pump of each size on a variable-speed drive (absent in older
+    /// files: yes).
+    #[serde(default = "yes")]
+    pub drives: bool,
+    /// The drive candidates turn at most at each of `speeds` and at least at each of these.
+    /// Default: 300 and 600 rpm (common practice, from memory: gear and vane pumps' makers
+    /// state minimum speeds of a few hundred rpm for lubrication).
     #[serde(
         default = "usual_drive_min_speeds",
         rename = "drive_min_speeds_rad_per_s"
@@ -145,6 +148,10 @@ pub struct StagingOptions {
         skip_serializing_if = "Option::is_none"
     )]
     pub cycle_time_target: Option<Time>,
+}
+
+fn yes() -> bool {
+    true
 }
 
 fn usual_drive_min_speeds() -> Vec<AngularVelocity> {
@@ -173,6 +180,7 @@ impl Default for StagingOptions {
                 .collect(),
             max_pumps: 3,
             compensated: true,
+            drives: true,
             drive_min_speeds: usual_drive_min_speeds(),
             motor_steps: MotorSteps::IecKw,
             efficiency_class: None,

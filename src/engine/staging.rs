@@ -241,7 +241,8 @@ pub fn specs(options: &StagingOptions) -> Vec<Spec> {
                 });
             }
         }
-        for min in options.drive_min_speeds.iter().map(|s| s.value) {
+        let drive_mins = options.drive_min_speeds.iter().filter(|_| options.drives);
+        for min in drive_mins.map(|s| s.value) {
             if !(min > 0.0 && min < speed) {
                 continue;
             }

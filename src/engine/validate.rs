@@ -216,6 +216,11 @@ pub fn validate(job: &Job) -> Result<(), Vec<InputError>> {
             c.number(&MOTOR_SPEEDS, v.value);
         });
     }
+    for (i, v) in st.drive_min_speeds.iter().enumerate() {
+        c.within(i, |c| {
+            c.number(&DRIVE_MIN_SPEEDS, v.value);
+        });
+    }
     c.number(&MOST_PUMPS, st.max_pumps as f64);
     c.number(&STAGING_SERVICE_FACTOR, st.service_factor);
     c.number(&STAGING_PEAK_ALLOWANCE, st.peak_allowance);

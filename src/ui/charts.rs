@@ -15,7 +15,7 @@ const RIGHT: f64 = 12.0;
 
 /// The ledger's items in the order they are stacked ([`LedgerItem::ALL`]), with their legend
 /// text and CSS class.
-pub const LEDGER_ITEMS: [(&str, &str); 7] = [
+pub const LEDGER_ITEMS: [(&str, &str); LedgerItem::COUNT] = [
     (LedgerItem::ALL[0].name(), "seg-useful"),
     (LedgerItem::ALL[1].name(), "seg-relief"),
     (LedgerItem::ALL[2].name(), "seg-metering"),
@@ -23,9 +23,10 @@ pub const LEDGER_ITEMS: [(&str, &str); 7] = [
     (LedgerItem::ALL[4].name(), "seg-line"),
     (LedgerItem::ALL[5].name(), "seg-pump"),
     (LedgerItem::ALL[6].name(), "seg-motor"),
+    (LedgerItem::ALL[7].name(), "seg-drive"),
 ];
 
-fn ledger_values(l: &PowerLedger) -> [f64; 7] {
+fn ledger_values(l: &PowerLedger) -> [f64; LedgerItem::COUNT] {
     LedgerItem::ALL.map(|item| l.part(item).value)
 }
 
@@ -40,7 +41,7 @@ type SegmentWords = (&'static str, &'static str, String);
 /// segment's figure can be read three ways: hovering (its title), tapping or focusing it (the
 /// read-out line under the chart), and the table of figures that opens below.
 fn stacked_bars(
-    rows: Vec<(String, [f64; 7])>,
+    rows: Vec<(String, [f64; LedgerItem::COUNT])>,
     max: f64,
     axis_label: String,
     aria: &'static str,

@@ -8,7 +8,9 @@ use super::state::use_job;
 use crate::engine::cycle::PhaseKind;
 use crate::engine::fields::{self, FieldSpec};
 use crate::engine::motor::EfficiencyClass;
-use crate::engine::staging::{self, Candidate, MotorSteps, Search, SearchResult};
+use crate::engine::staging::{
+    self, Candidate, CandidateKind, MotorSteps, Search, SearchResult, Trade,
+};
 use crate::engine::units::{format_list, parse_list, Measure, UnitSystem};
 use crate::engine::Job;
 use leptos::prelude::*;
@@ -87,7 +89,7 @@ pub fn StagingPanel() -> impl IntoView {
     view! {
         <section class="card staging" aria-labelledby="staging-title">
             <h2 id="staging-title">"Try other pumps"</h2>
-            <p class="hint">"Every combination of one to three fixed pumps from the sizes below, at each motor speed, with unloading and relief settings from the rules above, and a single pressure-compensated pump: each solved over the whole cycle. Ranked by the smallest standard motor that carries it, then by energy."</p>
+            <p class="hint">"Every combination of one to three fixed pumps from the sizes below, at each motor speed, with unloading and relief settings from the rules above; a single pressure-compensated pump; and a single fixed pump on a variable-speed drive: each solved over the whole cycle. Ranked by the smallest standard motor that carries it, then by energy."</p>
             <StagingOptionsEditor />
             <button type="button" class="button primary" data-action="search" on:click=start
                 disabled=move || matches!(run.get(), Run::Running { .. }) || state.result.with(|r| r.is_err())>
@@ -164,10 +166,14 @@ fn Found(
         <ol class="candidates">
             {result.best.into_iter().enumerate().map(|(i, c)| {
                 let pumps = c.spec.displacements.iter().map(|d| Measure::Displacement.with_unit(u, *d)).collect::<Vec<_>>().join(" + ");
-                let kind = if c.spec.compensated { " (pressure-compensated)" } else { "" };
-                let speed = Measure::ShaftSpeed.with_unit(u, c.spec.speed);
+                let top = Measure::ShaftSpeed.with_unit(u, c.spec.speed);
+                let how = match c.spec.min_speed {
+                    Some(min) => format!(" on a variable-speed drive, {} to {top}", Measure::ShaftSpeed.with_unit(u, min)),
+                    None if c.spec.compensated => format!(" (pressure-compensated) at {top}"),
+                    None => format!(" at {top}"),
+                };
                 let line = format!(
-                    "{pumps}{kind} at {speed}; motor {}; cycle {}; {} per cycle",
+                    "{pumps}{how}; motor {}; cycle {}; {} per cycle",
                     motor_label(c.motor.value, u),
                     Measure::Duration.with_unit(u, c.cycle_time.value),
                     Measure::Energy.with_unit(u, c.energy_per_cycle.value),
@@ -199,31 +205,86 @@ fn trim(v: f64) -> String {
     t.trim_end_matches('0').trim_end_matches('.').to_string()
 }
 
-/// The shortest cycle each motor size reaches: a step line, smallest motor on the left.
+/// The kinds of design on the trade-off chart, in its order, with their legend words and
+/// CSS class.
+const KINDS: [(CandidateKind, &str, &str); 3] = [
+    (CandidateKind::Staged, "Staged fixed pumps", "kind-staged"),
+    (
+        CandidateKind::Compensated,
+        "Pressure-compensated pump",
+        "kind-compensated",
+    ),
+    (
+        CandidateKind::VariableSpeed,
+        "Variable-speed drive",
+        "kind-drive",
+    ),
+];
+
+/// The shortest cycle each motor size reaches, for each kind of design: a group of bars per
+/// motor size, smallest motor on the left; the group's shortest cycle written above it.
 #[component]
-fn TradeOff(frontier: Vec<(f64, f64)>, units: UnitSystem) -> impl IntoView {
+fn TradeOff(frontier: Vec<Trade>, units: UnitSystem) -> impl IntoView {
+    let mut motors: Vec<f64> = frontier.iter().map(|t| t.motor).collect();
+    motors.sort_by(f64::total_cmp);
+    motors.dedup();
     if frontier.len() < 2 {
         return ().into_any();
     }
+    let kinds: Vec<_> = KINDS
+        .iter()
+        .filter(|(k, _, _)| frontier.iter().any(|t| t.kind == *k))
+        .copied()
+        .collect();
     let (w, h, pad) = (320.0, 180.0, 36.0);
-    let t_max = frontier.iter().map(|f| f.1).fold(0.0, f64::max) * 1.1;
-    let n = frontier.len() as f64;
-    let x = move |i: usize| pad + (w - 2.0 * pad) * (i as f64 + 0.5) / n;
+    let t_max = frontier.iter().map(|f| f.cycle_time).fold(0.0, f64::max) * 1.1;
+    let n = motors.len() as f64;
+    let group = (w - 2.0 * pad) / n;
+    let bar = (group * 0.8 / kinds.len() as f64).min(16.0);
+    let x = move |i: usize| pad + group * (i as f64 + 0.5);
     let y = move |t: f64| h - pad - (h - 2.0 * pad) * (t / t_max);
+    let described = frontier
+        .iter()
+        .map(|t| {
+            let words = KINDS.iter().find(|k| k.0 == t.kind).map_or("", |k| k.1);
+            format!(
+                "{words}, motor {}: {:.1} s",
+                motor_label(t.motor, units),
+                t.cycle_time
+            )
+        })
+        .collect::<Vec<_>>()
+        .join("; ");
     view! {
         <figure class="trade-off">
-            <svg viewBox=format!("0 0 {w} {h}") role="img" aria-label="Shortest cycle time against motor size">
+            <svg viewBox=format!("0 0 {w} {h}") role="img" aria-label=format!("Shortest cycle time against motor size, by kind of design: {described}")>
                 <line x1=pad y1=h - pad x2=w - pad y2=h - pad class="axis" />
                 <line x1=pad y1=pad x2=pad y2=h - pad class="axis" />
-                {frontier.iter().enumerate().map(|(i, (m, t))| view! {
-                    <g>
-                        <rect x=x(i) - 8.0 y=y(*t) width=16 height={(h - pad) - y(*t)} class="bar" />
-                        <text x=x(i) y=h - pad + 14.0 class="tick" text-anchor="middle">{motor_label(*m, units)}</text>
-                        <text x=x(i) y=y(*t) - 4.0 class="tick" text-anchor="middle">{format!("{:.1}", t)}</text>
-                    </g>
+                {motors.iter().enumerate().map(|(i, m)| {
+                    let here: Vec<(usize, f64, &'static str, &'static str)> = kinds.iter().enumerate().filter_map(|(k, (kind, words, class))| {
+                        frontier.iter().find(|t| t.kind == *kind && t.motor == *m).map(|t| (k, t.cycle_time, *words, *class))
+                    }).collect();
+                    let shortest = here.iter().map(|h| h.1).fold(f64::INFINITY, f64::min);
+                    let left = x(i) - bar * kinds.len() as f64 / 2.0;
+                    view! {
+                        <g>
+                            {here.into_iter().map(|(k, t, words, class)| view! {
+                                <rect x=left + bar * k as f64 y=y(t) width=bar height={(h - pad) - y(t)} class=format!("bar {class}")>
+                                    <title>{format!("{words}, motor {}: {t:.1} s", motor_label(*m, units))}</title>
+                                </rect>
+                            }).collect_view()}
+                            <text x=x(i) y=h - pad + 14.0 class="tick" text-anchor="middle">{motor_label(*m, units)}</text>
+                            <text x=x(i) y=y(shortest) - 4.0 class="tick" text-anchor="middle">{format!("{shortest:.1}")}</text>
+                        </g>
+                    }
                 }).collect_view()}
             </svg>
-            <figcaption>"Shortest cycle (s) each motor size reaches."</figcaption>
+            <figcaption>"Shortest cycle (s) each motor size reaches, by kind of design."</figcaption>
+            <ul class="legend">
+                {kinds.iter().map(|(_, words, class)| view! {
+                    <li><span class=format!("swatch {class}")></span>{*words}</li>
+                }).collect_view()}
+            </ul>
         </figure>
     }
     .into_any()
@@ -271,6 +332,11 @@ fn StagingOptionsEditor() -> impl IntoView {
                 options=vec![("yes", "Yes".to_string()), ("no", "No".to_string())]
                 get=|j: &Job| if j.staging.compensated { "yes" } else { "no" }
                 set=|j: &mut Job, v: &str| j.staging.compensated = v == "yes" />
+            <super::field::ChoiceField field=&fields::TRY_DRIVES
+                options=vec![("yes", "Yes".to_string()), ("no", "No".to_string())]
+                get=|j: &Job| if j.staging.drives { "yes" } else { "no" }
+                set=|j: &mut Job, v: &str| j.staging.drives = v == "yes" />
+            <DriveMinSpeeds />
             <super::field::ChoiceField field=&fields::MOTOR_STEPS
                 options=vec![("iec", "IEC, kW".to_string()), ("nema", "NEMA, hp".to_string())]
                 get=|j: &Job| match j.staging.motor_steps { MotorSteps::IecKw => "iec", MotorSteps::NemaHp => "nema" }
@@ -305,6 +371,31 @@ fn StagingOptionsEditor() -> impl IntoView {
         </details>
         <LongestTimes />
     }
+}
+
+/// The slowest speeds drive candidates are tried at, while drives are tried (a Memo, so typing
+/// keeps the field).
+#[component]
+fn DriveMinSpeeds() -> impl IntoView {
+    let state = use_job();
+    let trying = Memo::new(move |_| state.job.with(|j| j.staging.drives));
+    move || {
+        trying.get().then(|| view! {
+            <ListField field=&fields::DRIVE_MIN_SPEEDS get=min_speeds set=set_min_speeds />
+            <p class="hint">"Each size is tried as one fixed pump on a variable-speed drive: at most each motor speed above, at least each of these. Default: 300 and 600 rpm, common minimum speeds for gear and vane pumps; your pump's maker states its own."</p>
+        })
+    }
+}
+
+fn min_speeds(j: &Job) -> Vec<f64> {
+    j.staging.drive_min_speeds.iter().map(|v| v.value).collect()
+}
+
+fn set_min_speeds(j: &mut Job, values: Vec<f64>) {
+    j.staging.drive_min_speeds = values
+        .into_iter()
+        .map(uom::si::f64::AngularVelocity::new::<uom::si::angular_velocity::radian_per_second>)
+        .collect();
 }
 
 /// The longest each move and the cycle may take, for the search: empty keeps a move as fast

@@ -411,7 +411,7 @@ fn every_field_job() -> serde_json::Value {
     j["site"]["demand_charge_per_kw_month"] = json!(12.0);
     j["site"]["power_factor_threshold"] = json!(0.9);
     j["staging"] = json!({"displacements_m3_per_rev": [1e-5, 2e-5], "speeds_rad_per_s": [150.0],
-        "max_pumps": 2, "compensated": true, "motor_steps": "iec_kw", "service_factor": 1.15,
+        "max_pumps": 2, "compensated": true, "drives": true, "drive_min_speeds_rad_per_s": [31.4], "motor_steps": "iec_kw", "service_factor": 1.15,
         "peak_allowance": 1.25, "cycle_time_target_s": 30.0});
     j["pump_tests"][0]["synchronous_speed_rad_per_s"] = json!(157.0);
     j["pump_tests"][1]["motor_efficiency"] = json!({"from": "entered", "efficiency": 0.9});
