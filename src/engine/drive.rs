@@ -205,6 +205,27 @@ impl ConverterClass {
 }
 
 impl VariableSpeed {
+    /// Where a drive newly put on `motor` starts, for the user to set (starting values, not
+    /// advice): from a fifth of the motor's full-load speed up to it, a converter of the
+    /// motor's own apparent power at IE2, holds kept by making up the leakage, idles at the
+    /// slowest speed, the motor self-cooled.
+    pub fn first_for(motor: &Motor) -> VariableSpeed {
+        VariableSpeed {
+            kind: DriveKind::InductionOnInverter,
+            min_speed: motor.full_load_speed * 0.2,
+            max_speed: motor.full_load_speed,
+            converter_rating: Power::new::<uom::si::power::watt>(
+                (motor_apparent_power(motor) / 100.0).ceil() * 100.0,
+            ),
+            converter_loss: ConverterLoss::Class {
+                class: ConverterClass::IE2,
+            },
+            hold: HoldSpeed::MakeUpLeakage,
+            idle: IdleSpeed::Minimum,
+            cooling: MotorCooling::SelfCooled,
+        }
+    }
+
     /// The drive's speed range as shares of the motor's full-load (base) speed.
     pub fn speed_shares(&self, motor: &Motor) -> (f64, f64) {
         let base = motor.full_load_speed.value;

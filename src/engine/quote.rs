@@ -45,6 +45,11 @@ pub struct QuoteColumn {
     pub name: String,
     #[serde(rename = "motor_rated_w")]
     pub motor_rated: Power,
+    /// The speed the pumps turn at: the motor's full-load speed, or a variable-speed drive's
+    /// slowest and fastest (rad/s).
+    pub pump_speed: (f64, f64),
+    /// Whether the design's pumps are on a variable-speed drive.
+    pub driven: bool,
     #[serde(rename = "peak_shaft_w")]
     pub peak_shaft: Power,
     #[serde(rename = "rms_shaft_w")]
@@ -126,6 +131,14 @@ pub fn columns(job: &Job, report: &JobReport) -> Vec<QuoteColumn> {
             QuoteColumn {
                 name: design.name.clone(),
                 motor_rated: design.motor.rated_power,
+                pump_speed: design.drive.map_or(
+                    (
+                        design.motor.full_load_speed.value,
+                        design.motor.full_load_speed.value,
+                    ),
+                    |d| (d.min_speed.value, d.max_speed.value),
+                ),
+                driven: design.drive.is_some(),
                 peak_shaft: t.peak_shaft,
                 rms_shaft: t.rms_shaft,
                 cycle_time: t.cycle_time,

@@ -28,6 +28,7 @@ pub enum Precision {
 #[derive(Clone, Copy, Debug, PartialEq, Eq)]
 pub enum Row {
     MotorSize,
+    PumpSpeed,
     PeakLoad,
     RmsLoad,
     CycleTime,
@@ -46,8 +47,9 @@ pub enum Row {
 
 impl Row {
     /// The rows about each design on its own, in the table's order.
-    pub const DESIGN: [Row; 10] = [
+    pub const DESIGN: [Row; 11] = [
         Row::MotorSize,
+        Row::PumpSpeed,
         Row::PeakLoad,
         Row::RmsLoad,
         Row::CycleTime,
@@ -72,6 +74,7 @@ impl Row {
     pub fn key(self) -> &'static str {
         match self {
             Row::MotorSize => "motor",
+            Row::PumpSpeed => "pump-speed",
             Row::PeakLoad => "peak",
             Row::RmsLoad => "rms",
             Row::CycleTime => "cycle-time",
@@ -92,6 +95,7 @@ impl Row {
     pub fn label(self) -> &'static str {
         match self {
             Row::MotorSize => "Motor rated power",
+            Row::PumpSpeed => "Pump speed",
             Row::PeakLoad => "Motor load, peak",
             Row::RmsLoad => "Motor load, RMS",
             Row::CycleTime => "Cycle time",
@@ -253,6 +257,15 @@ pub fn cell(
             Precision::ForCustomer => power(c.motor_rated.value),
             Precision::Exact => Measure::Power.with_unit(units, c.motor_rated.value),
         },
+        Row::PumpSpeed => {
+            let (slowest, fastest) = c.pump_speed;
+            let rpm = |w: f64| Measure::ShaftSpeed.with_unit(units, w);
+            if c.driven {
+                format!("variable, {} to {}", rpm(slowest), rpm(fastest))
+            } else {
+                format!("fixed, {}", rpm(fastest))
+            }
+        }
         Row::PeakLoad => power(c.peak_shaft.value),
         Row::RmsLoad => power(c.rms_shaft.value),
         Row::CycleTime => quantity(Measure::Duration, units, c.cycle_time.value, precision),

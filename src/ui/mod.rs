@@ -6,6 +6,7 @@ pub mod area;
 mod charts;
 mod cycle;
 mod display;
+mod drive;
 pub mod field;
 mod heat;
 mod icons;

@@ -191,6 +191,7 @@ fn DesignEditor(d: usize) -> impl IntoView {
         </div>
         <MotorNameplateFields d=d />
         <a class="button quiet" href=crate::ui::area::Area::MotorCheck.href() data-link="motor-check">"Check this motor at the machine"</a>
+        <super::drive::DriveFields d=d />
 
         <h2>"Pumps, in shaft order"</h2>
         <SettingsCaution />

@@ -276,7 +276,13 @@ fn DesignSection(
                     <td>{Measure::Duration.format(units, p.point.duration.value)}</td>
                     <td>{Measure::Power.format(units, p.ledger.electrical_input.value)}</td>
                     <td>{Measure::Heat.format(units, p.ledger.heat_into_oil().value)}</td>
-                    <td>{if !p.point.motor_running { "motor off".to_string() } else if unloaded == 0 { "all feed".to_string() } else { format!("{unloaded} unloaded") }}</td>
+                    <td>{
+                        let state = if !p.point.motor_running { "motor off".to_string() } else if unloaded == 0 { "all feed".to_string() } else { format!("{unloaded} unloaded") };
+                        match p.point.shaft_speed.filter(|_| p.point.motor_running) {
+                            Some(w) => format!("{state}, {}", Measure::ShaftSpeed.with_unit(units, w.value)),
+                            None => state,
+                        }
+                    }</td>
                 </tr>
             }
         })
@@ -294,6 +300,7 @@ fn DesignSection(
                     Measure::ShaftSpeed.with_unit(units, m.full_load_speed.value),
                     Measure::Percent.with_unit(units, m.full_load_efficiency)
                 )}</li>
+                {design.drive.map(|x| view! { <li data-report-drive="true">{super::shared::drive_words(&x, units)}</li> })}
                 {pumps.into_iter().map(|p| view! { <li>{p}</li> }).collect_view()}
                 <li>{relief}</li>
             </ul>

@@ -262,6 +262,7 @@ fn PhaseResult(
                 {p.actuator_speed.map(|s| row("Cylinder speed", "speed", Measure::Speed.with_unit(units, s.value)))}
                 {row("Over the relief", "relief-flow", Measure::Flow.with_unit(units, p.relief_flow.value))}
                 {row("Duration", "duration", Measure::Duration.with_unit(units, p.duration.value))}
+                {p.shaft_speed.map(|w| row("Pump speed", "shaft-speed", Measure::ShaftSpeed.with_unit(units, w.value)))}
                 {row("Pumps", "pumps", pumps)}
                 {row("Limit", "limit", format!("{limit}, {}", Measure::Pressure.with_unit(units, p.limit.setting.value)))}
                 {row("Electrical input", "input", Measure::Power.with_unit(units, l.electrical_input.value))}
@@ -282,6 +283,7 @@ fn PhaseResult(
                 <summary>"The whole ledger"</summary>
                 <dl class="figures">
                     {row(LedgerItem::Motor.name(), "motor-loss", Measure::Power.with_unit(units, l.motor_loss.value))}
+                    {p.shaft_speed.map(|_| row(LedgerItem::Drive.name(), "drive-loss", Measure::Power.with_unit(units, l.drive_loss.value)))}
                     {row(LedgerItem::InsidePumps.name(), "pump-loss", Measure::Power.with_unit(units, l.pump_internal_loss.value))}
                     {row(LedgerItem::Unloading.name(), "unloading-loss", Measure::Power.with_unit(units, l.unloading_loss.value))}
                     {row(LedgerItem::Relief.name(), "relief-loss", Measure::Power.with_unit(units, l.relief_loss.value))}

@@ -251,6 +251,35 @@ pub(super) fn SettingsCaution() -> impl IntoView {
     }
 }
 
+/// A variable-speed drive in one line, as the user entered it.
+pub fn drive_words(
+    drive: &crate::engine::drive::VariableSpeed,
+    units: crate::engine::units::UnitSystem,
+) -> String {
+    use crate::engine::drive::{ConverterClass, ConverterLoss, DriveKind};
+    let kind = match drive.kind {
+        DriveKind::InductionOnInverter => "induction motor on an inverter",
+        DriveKind::Servo => "servo motor and drive",
+    };
+    let loss = match drive.converter_loss {
+        ConverterLoss::Class { class } => match class {
+            ConverterClass::IE0 => "IE0".to_string(),
+            ConverterClass::IE1 => "IE1".to_string(),
+            ConverterClass::IE2 => "IE2".to_string(),
+        },
+        ConverterLoss::Stated { share } => format!(
+            "losing {} at 90 % speed and full current",
+            Measure::Percent.with_unit(units, share)
+        ),
+    };
+    format!(
+        "Variable-speed drive: {kind}, pumps turned {} to {}; converter {}, {loss}",
+        Measure::ShaftSpeed.with_unit(units, drive.min_speed.value),
+        Measure::ShaftSpeed.with_unit(units, drive.max_speed.value),
+        Measure::ApparentPower.with_unit(units, drive.converter_rating.value),
+    )
+}
+
 /// A design's machine in one line: its motor and pumps, as the user entered them.
 pub fn machine_words(design: &Design, units: crate::engine::units::UnitSystem) -> String {
     let pumps: Vec<String> = design

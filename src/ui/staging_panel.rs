@@ -257,7 +257,7 @@ fn TradeOff(frontier: Vec<Trade>, units: UnitSystem) -> impl IntoView {
         .join("; ");
     view! {
         <figure class="trade-off">
-            <svg viewBox=format!("0 0 {w} {h}") role="img" aria-label=format!("Shortest cycle time against motor size, by kind of design: {described}")>
+            <svg viewBox=format!("0 0 {w} {h}") role="img" aria-label=format!("Shortest cycle time against motor size, by kind of power unit: {described}")>
                 <line x1=pad y1=h - pad x2=w - pad y2=h - pad class="axis" />
                 <line x1=pad y1=pad x2=pad y2=h - pad class="axis" />
                 {motors.iter().enumerate().map(|(i, m)| {
@@ -279,7 +279,7 @@ fn TradeOff(frontier: Vec<Trade>, units: UnitSystem) -> impl IntoView {
                     }
                 }).collect_view()}
             </svg>
-            <figcaption>"Shortest cycle (s) each motor size reaches, by kind of design."</figcaption>
+            <figcaption>"Shortest cycle (s) each motor size reaches, by kind of power unit."</figcaption>
             <ul class="legend">
                 {kinds.iter().map(|(_, words, class)| view! {
                     <li><span class=format!("swatch {class}")></span>{*words}</li>
