@@ -161,6 +161,16 @@ pub fn scrap_baler() -> Job {
     proposed.remote_stages = vec![Pressure::new::<bar>(160.0)];
     proposed.phase_settings[2].limit = ActiveLimit::Remote { stage: 0 };
     proposed.phase_settings[4].idle_path = IdlePath::Vented;
+    // The retrofit most quotes are about: the same pumps on a variable-speed drive that stops
+    // them while scrap is loaded, the relief a safety valve where the advice puts it (the
+    // dwell's 160 bar with its margin).
+    let mut driven = Design::proposal_from(&as_found, "Variable speed".into());
+    driven.drive = Some(super::drive::VariableSpeed {
+        idle: super::drive::IdleSpeed::Stopped,
+        ..super::drive::VariableSpeed::first_for(&as_found.motor)
+    });
+    driven.relief.setting = Pressure::new::<bar>(176.0);
+    driven.retrofit_price = Some(7800.0);
     Job {
         schema_version: SCHEMA_VERSION,
         name: "Scrap baler (example)".into(),
@@ -168,7 +178,7 @@ pub fn scrap_baler() -> Job {
         example: true,
         units: UnitSystem::Si,
         cycle,
-        designs: vec![as_found, proposed],
+        designs: vec![as_found, proposed, driven],
         site: Site { location: "Recycling yard, press bay 2 (invented)".into(), operating_hours_per_year: 3500.0, tariff_per_kwh: 0.18, currency: "EUR".into(), retrofit_price: 2400.0, grid_factor: None , demand_charge: None, power_factor_threshold: None},
         oil: Oil {
             working_temperature: super::site::WorkingTemperature::Settled,
@@ -288,18 +298,23 @@ mod tests {
     #[test]
     fn the_demo_proposal_follows_the_advices_own_rules() {
         let job = super::scrap_baler();
-        let advice = super::super::settings::advise(&job, 1).expect("the demo job is valid");
-        assert!(advice.is_empty(), "{advice:#?}");
+        for proposal in 1..job.designs.len() {
+            let advice =
+                super::super::settings::advise(&job, proposal).expect("the demo job is valid");
+            assert!(advice.is_empty(), "{proposal}: {advice:#?}");
+        }
     }
 
     #[test]
     fn the_demo_job_solves_and_its_proposal_saves_energy() {
         let report = super::super::solve(&super::scrap_baler()).expect("the demo job is valid");
-        assert_eq!(report.designs.len(), 2);
-        let saved = report.comparisons[0]
-            .annual_energy_saved
-            .get::<uom::si::energy::kilowatt_hour>();
-        assert!(saved > 0.0, "{saved}");
+        assert_eq!(report.designs.len(), 3);
+        for comparison in &report.comparisons {
+            let saved = comparison
+                .annual_energy_saved
+                .get::<uom::si::energy::kilowatt_hour>();
+            assert!(saved > 0.0, "{}: {saved}", comparison.proposed);
+        }
         for design in &report.designs {
             assert!(
                 design.findings.is_empty(),
