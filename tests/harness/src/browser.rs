@@ -709,9 +709,10 @@ impl AppSession {
 
 /// The requests in `requests` that went anywhere but `own` (the app's address, ending in `/`).
 /// Addresses of data the page made itself (`data:`, `blob:`) are not requests to anyone, nor
-/// are the browser's own pages (`chrome:`, `about:`: the blank tab before the app opens).
+/// are the browser's own pages (`chrome:`, `chrome-untrusted:`, `about:`: the blank or new tab
+/// before the app opens; newer Chromium builds load parts of their new-tab page that way).
 pub fn foreign_requests(requests: &[String], own: &str) -> Vec<String> {
-    const NOT_A_NETWORK: [&str; 4] = ["data:", "blob:", "chrome:", "about:"];
+    const NOT_A_NETWORK: [&str; 5] = ["data:", "blob:", "chrome:", "chrome-untrusted:", "about:"];
     requests
         .iter()
         .filter(|url| !(url.starts_with(own) || NOT_A_NETWORK.iter().any(|s| url.starts_with(s))))

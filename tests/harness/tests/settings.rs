@@ -242,7 +242,16 @@ async fn the_staging_search_time_on_a_ten_phase_cycle_is_printed() {
     }
     job.name = "Ten-phase baler".into();
     assert_eq!(job.cycle.len(), 10);
+    // More motor speeds and drive minimums than the defaults: over 20,000 candidates, drives
+    // among them (14 speeds x (1,347 fixed and compensated + 18 sizes x 8 minimums)).
+    let rpm = |r: f64| {
+        uom::si::f64::AngularVelocity::new::<uom::si::angular_velocity::revolution_per_minute>(r)
+    };
+    job.staging.speeds = (0..14).map(|i| rpm(900.0 + 70.0 * f64::from(i))).collect();
+    job.staging.drive_min_speeds = (1..=8).map(|i| rpm(75.0 * f64::from(i))).collect();
     let native = phasewise::engine::staging::search(&job, &job.staging).unwrap();
+    assert!(native.evaluated >= 20_000, "{}", native.evaluated);
+    assert!(!native.best.is_empty());
     let app = AppSession::start_at("staging_ten_phases", Viewport::LAPTOP, "#/settings").await;
     let b = &app.browser;
     let entry = phasewise::formats::library::write_entry(&job, 1.0);
