@@ -94,8 +94,8 @@ pub fn DriveFields(d: usize) -> impl IntoView {
                 })}
                 <ChoiceField field=&fields::DRIVE_HOLD at=[d]
                     options=vec![
-                        ("make_up_leakage", "Turning just fast enough to make up the leakage".into()),
-                        ("minimum_against_relief", "At the slowest speed, the rest over the relief".into()),
+                        ("make_up_leakage", "Making up the leakage".into()),
+                        ("minimum_against_relief", "Slowest speed, over the relief".into()),
                     ]
                     get=move |j: &Job| match drive(j, d).map(|x| x.hold) { Some(HoldSpeed::MinimumAgainstRelief) => "minimum_against_relief", _ => "make_up_leakage" }
                     set=move |j: &mut Job, key| if let Some(x) = drive_mut(j, d) {
