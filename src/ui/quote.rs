@@ -65,7 +65,11 @@ pub fn QuoteArea() -> impl IntoView {
                 });
                 (!older.is_empty()).then(|| view! {
                     <p class="older-baseline" role="status" data-older-baseline="true">
-                        {format!("{} made from an earlier “as found”: the machine found has changed since. Make it again in the ", older.join(", ") + if older.len() == 1 { " was" } else { " were" })}
+                        {format!(
+                            "{} made from an earlier “as found”: the machine found has changed since. Make {} again in the ",
+                            older.join(", ") + if older.len() == 1 { " was" } else { " were" },
+                            if older.len() == 1 { "it" } else { "them" }
+                        )}
                         <a href=super::area::Area::PowerUnit.href()>{super::area::Area::PowerUnit.title()}</a>
                         " area before quoting."
                     </p>

@@ -20,18 +20,28 @@ async fn a_variable_speed_proposal_made_on_a_phone_shows_its_speeds_and_saving()
     .unwrap();
     let d = before.designs.len() - 1;
     assert!(before.designs[d].drive.is_none(), "a copy of as found");
-    b.choose(&format!("select[data-path='designs[{d}].drive']"), "variable")
-        .await;
+    b.choose(
+        &format!("select[data-path='designs[{d}].drive']"),
+        "variable",
+    )
+    .await;
     b.wait_for(&format!("[data-drive='{d}']")).await;
     b.wait_for("[data-caution='drive']").await;
-    b.choose(&format!("select[data-path='designs[{d}].drive.idle']"), "stopped")
-        .await;
+    b.choose(
+        &format!("select[data-path='designs[{d}].drive.idle']"),
+        "stopped",
+    )
+    .await;
     let job: Job = serde_json::from_value(
         b.stored_job_when(|j| j["designs"][d]["drive"]["idle"] == "stopped")
             .await,
     )
     .unwrap();
-    assert_eq!(b.sideways_overflow().await, 0, "the drive's fields fit a phone");
+    assert_eq!(
+        b.sideways_overflow().await,
+        0,
+        "the drive's fields fit a phone"
+    );
     b.screenshot("drive-fields").await;
 
     // Each phase's speed in the results, as the engine chose it.
@@ -41,7 +51,10 @@ async fn a_variable_speed_proposal_made_on_a_phone_shows_its_speeds_and_saving()
         .iter()
         .map(|p| Measure::ShaftSpeed.with_unit(job.units, p.point.shaft_speed.unwrap().value))
         .collect();
-    assert!(want.iter().any(|w| w == "0 rpm"), "the idle stops: {want:?}");
+    assert!(
+        want.iter().any(|w| w == "0 rpm"),
+        "the idle stops: {want:?}"
+    );
     b.goto(&app.url("#/results")).await;
     app.wait_until_ready().await;
     b.click(&format!(".design-tabs [data-design='{d}']")).await;
@@ -76,7 +89,9 @@ async fn a_variable_speed_proposal_made_on_a_phone_shows_its_speeds_and_saving()
     let cell = |row: &str| {
         format!("[data-quote-table='customer'] tr[data-quote-row='{row}'] td[data-design='{d}']")
     };
-    let shown_saving = b.wait_for_text(&cell("energy-saved"), |t| !t.is_empty()).await;
+    let shown_saving = b
+        .wait_for_text(&cell("energy-saved"), |t| !t.is_empty())
+        .await;
     assert_eq!(shown_saving, saved);
     assert_eq!(b.text(&cell("pump-speed")).await, speeds);
     let kwh = columns[d].against_baseline.unwrap().energy_kwh_per_year;

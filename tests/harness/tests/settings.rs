@@ -304,9 +304,11 @@ async fn a_proposal_from_an_earlier_as_found_says_so_and_is_made_again_on_reques
         "{machine}"
     );
     b.click("nav.areas a[href='#/quote']").await;
+    // Every proposal of the demo was made from the "as found" that changed.
     let quote = b.text("[data-older-baseline]").await;
     assert!(
-        quote.starts_with("“Proposed” was made from an earlier “as found”"),
+        quote.starts_with("“Proposed”, “Variable speed” were made from an earlier “as found”")
+            && quote.contains("Make them again"),
         "{quote}"
     );
     // Made again: today's machine, the notice gone; the undo puts the old proposal back.
