@@ -58,8 +58,57 @@ pub enum ConverterLoss {
     /// Its class only: the loss at the class's limit for its rating (the reference
     /// converter's for IE1, 25 % below it for IE2, 25 % above for IE0).
     Class { class: ConverterClass },
-    /// The maker's stated loss, as a share of the converter's rated apparent power.
+    /// The maker's stated loss at (90,100), as a share of the converter's rated apparent
+    /// power.
     Stated { share: f64 },
+    /// The maker's eight figures, as shares of the converter's rated apparent power, at
+    /// [`STANDARD_POINTS`] in that order.
+    Points { shares: [f64; 8] },
+}
+
+/// IEC 61800-9-2's eight operating points of a converter: (relative stator frequency, relative
+/// torque-producing current), in percent.
+pub const STANDARD_POINTS: [(f64, f64); 8] = [
+    (0.0, 25.0),
+    (0.0, 50.0),
+    (0.0, 100.0),
+    (50.0, 25.0),
+    (50.0, 50.0),
+    (50.0, 100.0),
+    (90.0, 50.0),
+    (90.0, 100.0),
+];
+
+/// The loss share at (`frequency`, `current`), in percent, from the eight figures at
+/// [`STANDARD_POINTS`]: along each frequency's row, in straight lines between its currents
+/// (beyond them, the nearest segment's line); the 90 % row, which has no 25 % point, below
+/// 50 % follows the 50 % row's shape; between rows, a straight line in frequency (beyond 90 %,
+/// the 50 to 90 % line, up to 100 %). Never below zero.
+pub fn interpolate_points(shares: &[f64; 8], frequency: f64, current: f64) -> f64 {
+    let line =
+        |(x0, y0): (f64, f64), (x1, y1): (f64, f64), x: f64| y0 + (y1 - y0) * (x - x0) / (x1 - x0);
+    let along = |a: f64, b: f64, c: f64, i: f64| {
+        if i <= 50.0 {
+            line((25.0, a), (50.0, b), i)
+        } else {
+            line((50.0, b), (100.0, c), i)
+        }
+    };
+    let i = current.max(0.0);
+    let row0 = along(shares[0], shares[1], shares[2], i);
+    let row50 = along(shares[3], shares[4], shares[5], i);
+    let row90 = if i < 50.0 {
+        shares[6] + (row50 - shares[4])
+    } else {
+        line((50.0, shares[6]), (100.0, shares[7]), i)
+    };
+    let f = frequency.clamp(0.0, 100.0);
+    let loss = if f <= 50.0 {
+        line((0.0, row0), (50.0, row50), f)
+    } else {
+        line((50.0, row50), (90.0, row90), f)
+    };
+    loss.max(0.0)
 }
 
 /// How a hold is kept.
@@ -237,6 +286,7 @@ impl VariableSpeed {
         let rating = self.converter_rating.value;
         match self.converter_loss {
             ConverterLoss::Stated { share } => rating * share,
+            ConverterLoss::Points { shares } => rating * shares[7],
             ConverterLoss::Class { class } => {
                 reference_converter_loss(rating) * class.limit_share()
             }
@@ -244,15 +294,33 @@ impl VariableSpeed {
     }
 
     /// The converter's losses (W) at `frequency_share` of the motor's base frequency while the
-    /// motor gives `torque_share` of its rated torque: its (90,100) loss spread over the
-    /// relative current by [`CONVERTER_LOSS_SPLIT`] (the frequency's small effect is left out,
-    /// a simplification). The relative current is the torque share times the motor's rated
-    /// apparent power over the converter's ([`motor_apparent_power`]).
+    /// motor gives `torque_share` of its rated torque. With the maker's eight figures, those
+    /// interpolated ([`interpolate_points`]); with one figure or a class, its (90,100) loss
+    /// spread over the relative current by [`CONVERTER_LOSS_SPLIT`] (the frequency's small
+    /// effect left out, a simplification). The relative current is the torque share times the
+    /// motor's rated apparent power over the converter's ([`motor_apparent_power`]).
     pub fn converter_loss(&self, frequency_share: f64, torque_share: f64, motor: &Motor) -> f64 {
-        let _ = frequency_share;
         let current_share =
             torque_share.max(0.0) * motor_apparent_power(motor) / self.converter_rating.value;
-        self.converter_loss_at_current(current_share)
+        match self.converter_loss {
+            ConverterLoss::Points { shares } => {
+                self.converter_rating.value
+                    * interpolate_points(&shares, frequency_share * 100.0, current_share * 100.0)
+            }
+            _ => self.converter_loss_at_current(current_share),
+        }
+    }
+
+    /// The converter's losses (W) at a frequency share and a share of its rated torque-producing
+    /// current: a standard point, as the drive's losses give it.
+    pub fn converter_loss_at_point(&self, frequency_share: f64, current_share: f64) -> f64 {
+        match self.converter_loss {
+            ConverterLoss::Points { shares } => {
+                self.converter_rating.value
+                    * interpolate_points(&shares, frequency_share * 100.0, current_share * 100.0)
+            }
+            _ => self.converter_loss_at_current(current_share),
+        }
     }
 
     /// The converter's losses (W) with `current_share` of its rated torque-producing current.
@@ -357,6 +425,27 @@ mod tests {
         for pair in REFERENCE_CONVERTER_LOSSES.windows(2) {
             assert!(pair[1].0 > pair[0].0 && pair[1].1 > pair[0].1, "{pair:?}");
         }
+    }
+
+    /// The eight figures are met at their own points, and in between the loss follows straight
+    /// lines (values invented for the check, not a maker's).
+    #[test]
+    fn eight_figures_are_met_at_their_points_and_joined_by_straight_lines() {
+        let shares = [0.010, 0.012, 0.018, 0.011, 0.014, 0.021, 0.016, 0.024];
+        for (k, (f, i)) in STANDARD_POINTS.iter().enumerate() {
+            assert!(
+                (interpolate_points(&shares, *f, *i) - shares[k]).abs() < 1e-15,
+                "{k}"
+            );
+        }
+        // Halfway between (50,50) and (50,100); and between the 0 and 50 % rows at 25 % frequency.
+        assert!((interpolate_points(&shares, 50.0, 75.0) - 0.0175).abs() < 1e-15);
+        assert!((interpolate_points(&shares, 25.0, 50.0) - 0.013).abs() < 1e-15);
+        // The 90 % row below 50 % current follows the 50 % row's shape.
+        assert!((interpolate_points(&shares, 90.0, 25.0) - (0.016 + 0.011 - 0.014)).abs() < 1e-15);
+        let mut d = drive(0.0);
+        d.converter_loss = ConverterLoss::Points { shares };
+        assert!((d.stated_converter_loss() - 0.024 * 25e3).abs() < 1e-9);
     }
 
     /// At full current the converter loses what its maker states at (90,100); with no current

@@ -697,6 +697,18 @@ pub const CONVERTER_LOSS: FieldSpec = Design
         },
     )
     .said("converter's loss");
+/// The maker's eight figures, at IEC 61800-9-2's points in order (the form numbers them).
+pub const CONVERTER_LOSS_POINTS: FieldSpec = Design
+    .field("drive.converter_loss.shares[]", "Converter loss")
+    .between(
+        Some(Percent),
+        &Bounds {
+            low: Excluded(0.0),
+            high: Included(0.2),
+            otherwise: "must be above 0 % and at most 20 % of the converter's rating (makers state 1 to 5 %)",
+        },
+    )
+    .said("converter's loss at a standard point");
 pub const DRIVE_HOLD: FieldSpec = Design
     .field("drive.hold", "Holds kept")
     .said("how holds are kept");
@@ -1150,6 +1162,7 @@ pub const ALL: &[&FieldSpec] = &[
     &CONVERTER_LOSS_FROM,
     &CONVERTER_CLASS,
     &CONVERTER_LOSS,
+    &CONVERTER_LOSS_POINTS,
     &DRIVE_HOLD,
     &DRIVE_IDLE,
     &MOTOR_COOLING,

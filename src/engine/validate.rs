@@ -407,8 +407,18 @@ fn check_drive(c: &mut Checker, drive: &super::drive::VariableSpeed) {
         c.fail(&DRIVE_MIN_SPEED, "must be below the fastest pump speed");
     }
     c.number(&CONVERTER_RATING, drive.converter_rating.value);
-    if let super::drive::ConverterLoss::Stated { share } = drive.converter_loss {
-        c.number(&CONVERTER_LOSS, share);
+    match drive.converter_loss {
+        super::drive::ConverterLoss::Stated { share } => {
+            c.number(&CONVERTER_LOSS, share);
+        }
+        super::drive::ConverterLoss::Points { shares } => {
+            for (i, share) in shares.iter().enumerate() {
+                c.within(i, |c| {
+                    c.number(&CONVERTER_LOSS_POINTS, *share);
+                });
+            }
+        }
+        super::drive::ConverterLoss::Class { .. } => {}
     }
 }
 

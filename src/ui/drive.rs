@@ -33,6 +33,14 @@ pub fn DriveFields(d: usize) -> impl IntoView {
             )
         })
     });
+    let eight = Memo::new(move |_| {
+        state.job.with(|j| {
+            matches!(
+                drive(j, d).map(|x| x.converter_loss),
+                Some(ConverterLoss::Points { .. })
+            )
+        })
+    });
     view! {
         <h2>"Drive"</h2>
         <div class="field-grid">
@@ -71,10 +79,12 @@ pub fn DriveFields(d: usize) -> impl IntoView {
                     options=vec![
                         ("ie2", "IE2 class (at its limit)".into()),
                         ("ie1", "IE1 class (the reference)".into()),
-                        ("stated", "The maker's figure".into()),
+                        ("stated", "The maker's figure at 90 % speed".into()),
+                        ("points", "The maker's eight figures".into()),
                     ]
                     get=move |j: &Job| match drive(j, d).map(|x| x.converter_loss) {
                         Some(ConverterLoss::Stated { .. }) => "stated",
+                        Some(ConverterLoss::Points { .. }) => "points",
                         Some(ConverterLoss::Class { class: ConverterClass::IE1 | ConverterClass::IE0 }) => "ie1",
                         _ => "ie2",
                     }
@@ -83,10 +93,19 @@ pub fn DriveFields(d: usize) -> impl IntoView {
                         x.converter_loss = match key {
                             // The maker's figure starts at what the class gave, for them to type over.
                             "stated" => ConverterLoss::Stated { share: x.stated_converter_loss() / x.converter_rating.value },
+                            // Each figure starts where the model puts that point, for them to type over.
+                            "points" => ConverterLoss::Points { shares: crate::engine::drive::STANDARD_POINTS.map(|(f, i)| {
+                                x.converter_loss_at_point(f / 100.0, i / 100.0) / x.converter_rating.value
+                            }) },
                             "ie1" => class(ConverterClass::IE1),
                             _ => class(ConverterClass::IE2),
                         };
                     } />
+                {move || eight.get().then(|| crate::engine::drive::STANDARD_POINTS.iter().enumerate().map(|(k, (f, i))| view! {
+                    <NumberField field=&fields::CONVERTER_LOSS_POINTS at=[d, k] label=format!("Converter loss at {f:.0} % speed, {i:.0} % current")
+                        get=move |j: &Job| match drive(j, d).map(|x| x.converter_loss) { Some(ConverterLoss::Points { shares }) => shares[k], _ => f64::NAN }
+                        set=move |j: &mut Job, v| if let Some(x) = drive_mut(j, d) { if let ConverterLoss::Points { shares } = &mut x.converter_loss { shares[k] = v } } />
+                }).collect_view())}
                 {move || stated.get().then(|| view! {
                     <NumberField field=&fields::CONVERTER_LOSS at=[d]
                         get=move |j: &Job| match drive(j, d).map(|x| x.converter_loss) { Some(ConverterLoss::Stated { share }) => share, _ => f64::NAN }

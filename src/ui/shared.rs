@@ -271,6 +271,10 @@ pub fn drive_words(
             "losing {} at 90 % speed and full current",
             Measure::Percent.with_unit(units, share)
         ),
+        ConverterLoss::Points { shares } => format!(
+            "losing {} at 90 % speed and full current (the maker's eight figures)",
+            Measure::Percent.with_unit(units, shares[7])
+        ),
     };
     format!(
         "Variable-speed drive: {kind}, pumps turned {} to {}; converter {}, {loss}",

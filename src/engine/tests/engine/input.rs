@@ -400,6 +400,9 @@ fn every_field_job() -> serde_json::Value {
             s["pump"]["control"] = json!({"type": "compensated", "setting_pa": 1.5e7});
         }
     }
+    // The last power unit's converter by its maker's eight figures, the others' by one.
+    let last = j["designs"].as_array().unwrap().len() - 1;
+    j["designs"][last]["drive"]["converter_loss"] = json!({"from": "points", "shares": [0.01, 0.012, 0.018, 0.011, 0.014, 0.021, 0.016, 0.024]});
     j["oil"]["viscosity"] = json!({"given_as": "grade", "grade": 46.0, "viscosity_index": 100.0});
     j["oil"]["working_temperature"] = json!({"set_by": "entered", "temperature_k": 318.15});
     j["oil"]["target_k"] = json!(328.15);

@@ -243,6 +243,13 @@ fn drive_strategy() -> impl Strategy<
         0.8..2.0f64,
         prop_oneof![
             (0.005..0.08f64).prop_map(|share| ConverterLoss::Stated { share }),
+            // A maker's eight figures rise with current and with frequency.
+            (0.002..0.02f64, 0.0..0.01f64, 0.0..0.03f64).prop_map(|(base, by_f, by_i)| {
+                ConverterLoss::Points {
+                    shares: phasewise_engine::drive::STANDARD_POINTS
+                        .map(|(f, i)| base + by_f * f / 90.0 + by_i * i / 100.0),
+                }
+            }),
             prop_oneof![Just(ConverterClass::IE1), Just(ConverterClass::IE2)]
                 .prop_map(|class| ConverterLoss::Class { class }),
         ],
