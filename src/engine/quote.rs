@@ -474,7 +474,15 @@ pub fn assumptions(job: &Job) -> Vec<Assumption> {
             Basis::Model { source: COMMON },
         );
     }
-    for (what, source) in MODEL {
+    let models = MODEL.iter().chain(
+        job.designs
+            .iter()
+            .any(|d| d.drive.is_some())
+            .then_some(DRIVE_MODEL.iter())
+            .into_iter()
+            .flatten(),
+    );
+    for (what, source) in models {
         push(
             what.to_string(),
             Assumed::Text(String::new()),
@@ -483,6 +491,22 @@ pub fn assumptions(job: &Job) -> Vec<Assumption> {
     }
     out
 }
+
+/// The simplifications a variable-speed drive's results rest on, listed when a design has one.
+const DRIVE_MODEL: [(&str, &str); 3] = [
+    (
+        "On a variable-speed drive, each phase runs at the lowest speed that gives its flow and the pumps' leakage, within the drive's range; a pump's leakage at a pressure does not change with speed, its drag is taken as a torque",
+        "our model of the drive",
+    ),
+    (
+        "A motor on a drive loses its fixed loss in proportion to speed and its copper loss with torque squared; a self-cooled motor cools less below half its full-load speed",
+        "a simplification of IEC 60034-2-3's loss split; cooling from memory of the usual 2:1 constant-torque rating (common practice)",
+    ),
+    (
+        "A converter's loss at 90 % speed and full current is its class's limit against Regulation (EU) 2019/1781's reference table, or its maker's figure, spread over current as 20 % fixed, 50 % with current, 30 % with current squared (unless the maker's eight figures are given)",
+        "IEC 61800-9-2 and Regulation (EU) 2019/1781; the split from memory",
+    ),
+];
 
 fn lowercase_first(text: &str) -> String {
     let mut chars = text.chars();
