@@ -265,6 +265,8 @@ fn TradeOff(frontier: Vec<Trade>, units: UnitSystem) -> impl IntoView {
                         frontier.iter().find(|t| t.kind == *kind && t.motor == *m).map(|t| (k, t.cycle_time, *words, *class))
                     }).collect();
                     let shortest = here.iter().map(|h| h.1).fold(f64::INFINITY, f64::min);
+                    // Written above the group's tallest bar, so no bar runs through it.
+                    let longest = here.iter().map(|h| h.1).fold(0.0, f64::max);
                     let left = x(i) - bar * kinds.len() as f64 / 2.0;
                     view! {
                         <g>
@@ -273,13 +275,17 @@ fn TradeOff(frontier: Vec<Trade>, units: UnitSystem) -> impl IntoView {
                                     <title>{format!("{words}, motor {}: {t:.1} s", motor_label(*m, units))}</title>
                                 </rect>
                             }).collect_view()}
-                            <text x=x(i) y=h - pad + 14.0 class="tick" text-anchor="middle">{motor_label(*m, units)}</text>
-                            <text x=x(i) y=y(shortest) - 4.0 class="tick" text-anchor="middle">{format!("{shortest:.1}")}</text>
+                            // The number only: ten sizes' units would run into each other on a phone.
+                            <text x=x(i) y=h - pad + 14.0 class="tick" text-anchor="middle">{motor_label(*m, units).split(' ').next().unwrap_or_default().to_string()}</text>
+                            <text x=x(i) y=y(longest) - 4.0 class="tick" text-anchor="middle">{format!("{shortest:.1}")}</text>
                         </g>
                     }
                 }).collect_view()}
             </svg>
-            <figcaption>"Shortest cycle (s) each motor size reaches, by kind of power unit."</figcaption>
+            <figcaption>{format!(
+                "Shortest cycle (s) each motor size ({}) reaches, by kind of power unit.",
+                match units { UnitSystem::Si => "kW", UnitSystem::UsCustomary => "hp" }
+            )}</figcaption>
             <ul class="legend">
                 {kinds.iter().map(|(_, words, class)| view! {
                     <li><span class=format!("swatch {class}")></span>{*words}</li>

@@ -202,6 +202,7 @@ async fn the_staging_search_runs_and_its_best_candidate_becomes_the_proposed_des
     run_search(b, &native, "staging search in Chromium").await;
     assert_eq!(b.count("li.candidate").await, native.best.len());
     b.screenshot("search-results").await;
+    b.screenshot_of(".trade-off", "trade-off").await;
     assert_eq!(b.sideways_overflow().await, 0);
     b.click("li.candidate[data-rank='1'] [data-action='use-candidate']")
         .await;
