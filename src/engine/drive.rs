@@ -158,9 +158,7 @@ impl MotorCooling {
             MotorCooling::SeparateFan => 1.0,
         }
     }
-}
 
-impl MotorCooling {
     /// The lowest share of base speed at which the motor may carry full torque continuously.
     /// Common practice: a self-cooled motor only about 1/2 (general-purpose motors are rated
     /// 2:1 at constant torque, from memory of NEMA MG 1's usual reading); an inverter-duty

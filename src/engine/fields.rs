@@ -677,6 +677,13 @@ pub const CONVERTER_RATING: FieldSpec = Design
     .field("drive.converter_rating_va", "Converter rating")
     .amount(ApparentPower, MAX_POWER)
     .said("converter's rating");
+/// A converter's loss at an operating point, as a share of its rating.
+const CONVERTER_SHARE: Bounds = Bounds {
+    low: Excluded(0.0),
+    high: Included(0.2),
+    otherwise:
+        "must be above 0 % and at most 20 % of the converter's rating (makers state 1 to 5 %)",
+};
 pub const CONVERTER_LOSS_FROM: FieldSpec = Design
     .field("drive.converter_loss.from", "Converter losses from")
     .said("where the converter's losses come from");
@@ -688,26 +695,12 @@ pub const CONVERTER_LOSS: FieldSpec = Design
         "drive.converter_loss.share",
         "Converter loss at 90 % speed, full current",
     )
-    .between(
-        Some(Percent),
-        &Bounds {
-            low: Excluded(0.0),
-            high: Included(0.2),
-            otherwise: "must be above 0 % and at most 20 % of the converter's rating (makers state 1 to 5 %)",
-        },
-    )
+    .between(Some(Percent), &CONVERTER_SHARE)
     .said("converter's loss");
 /// The maker's eight figures, at IEC 61800-9-2's points in order (the form numbers them).
 pub const CONVERTER_LOSS_POINTS: FieldSpec = Design
     .field("drive.converter_loss.shares[]", "Converter loss")
-    .between(
-        Some(Percent),
-        &Bounds {
-            low: Excluded(0.0),
-            high: Included(0.2),
-            otherwise: "must be above 0 % and at most 20 % of the converter's rating (makers state 1 to 5 %)",
-        },
-    )
+    .between(Some(Percent), &CONVERTER_SHARE)
     .said("converter's loss at a standard point");
 pub const DRIVE_HOLD: FieldSpec = Design
     .field("drive.hold", "Holds kept")

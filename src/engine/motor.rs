@@ -74,10 +74,7 @@ pub const RMS_LONGEST_CYCLE_S: f64 = 300.0;
 impl Motor {
     /// The motor's own loss while it delivers `shaft` watts.
     pub fn loss(&self, shaft: f64) -> f64 {
-        let rated = self.rated_power.value;
-        let full_load_loss = rated * (1.0 / self.full_load_efficiency - 1.0);
-        let load = shaft / rated;
-        full_load_loss * (self.fixed_loss_share + (1.0 - self.fixed_loss_share) * load * load)
+        self.loss_at_speed(shaft, 1.0)
     }
 
     /// The motor's own loss while it delivers `shaft` watts at `speed_share` of its full-load

@@ -574,6 +574,12 @@ impl LinesAt<'_> {
     }
 }
 
+/// A move's drop between pump and cylinder at `flow`: its fixed allowance `line` plus its
+/// described lines' drop, if any.
+fn line_drop(line: f64, lines: Option<LinesAt>, flow: f64) -> f64 {
+    line + lines.map_or(0.0, |l| l.carrying(flow).drop_at_pump)
+}
+
 fn demand<'a>(phase: &'a Phase, oil: &OilAt) -> Demand<'a> {
     match &phase.kind {
         PhaseKind::Move(m) => {
@@ -715,10 +721,7 @@ fn phase_speed(
             line,
             lines,
             ..
-        } => {
-            let need = load + line + lines.map_or(0.0, |l| l.carrying(wanted).drop_at_pump);
-            delivering(wanted, need)
-        }
+        } => delivering(wanted, load + line_drop(line, lines, wanted)),
         Demand::Move {
             metered: None,
             load,
@@ -869,7 +872,7 @@ fn solve_state(
             stroke,
             metered,
         } => {
-            let line_at = |flow: f64| line + lines.map_or(0.0, |l| l.carrying(flow).drop_at_pump);
+            let line_at = |flow: f64| line_drop(line, lines, flow);
             let mut point = Point {
                 load,
                 line,
@@ -1182,12 +1185,7 @@ pub(crate) fn flow_control_starved(
 /// Where a limit at `governing` settles with the pumps dead-headed on it (compensators acting),
 /// and the flow then crossing the relief: (pressure, flow).
 fn dead_headed(unit: &PreparedUnit, governing: f64) -> (f64, f64) {
-    let mask = unit
-        .pumps
-        .iter()
-        .enumerate()
-        .filter(|(_, s)| s.unloading.is_some_and(|(setting, _)| governing >= setting))
-        .fold(0u32, |m, (i, _)| m | (1 << i));
+    let mask = unit.unloaded_at(governing);
     let relief = unit.relief(governing);
     let p = unit.balance(&relief, 0.0, 0.0, mask);
     (p, relief.flow(p))

@@ -226,17 +226,19 @@ fn design_strategy(phases: usize) -> impl Strategy<Value = Design> {
 }
 
 /// A variable-speed drive for a motor, its speeds as shares of the motor's full-load speed.
-fn drive_strategy() -> impl Strategy<
-    Value = (
-        f64,
-        f64,
-        f64,
-        ConverterLoss,
-        HoldSpeed,
-        IdleSpeed,
-        MotorCooling,
-    ),
-> {
+/// A drive's figures: slowest and fastest speed over the motor's, converter rating over the
+/// motor's, its losses, holds, idles and cooling.
+type DriveFigures = (
+    f64,
+    f64,
+    f64,
+    ConverterLoss,
+    HoldSpeed,
+    IdleSpeed,
+    MotorCooling,
+);
+
+fn drive_strategy() -> impl Strategy<Value = DriveFigures> {
     (
         0.02..0.6f64,
         1.0..1.5f64,
@@ -266,18 +268,7 @@ fn drive_strategy() -> impl Strategy<
 }
 
 /// Puts a drive from [`drive_strategy`] on `design`.
-fn drive_on(
-    design: &mut Design,
-    (min, max, rating, loss, hold, idle, cooling): (
-        f64,
-        f64,
-        f64,
-        ConverterLoss,
-        HoldSpeed,
-        IdleSpeed,
-        MotorCooling,
-    ),
-) {
+fn drive_on(design: &mut Design, (min, max, rating, loss, hold, idle, cooling): DriveFigures) {
     let base = design.motor.full_load_speed;
     design.drive = Some(VariableSpeed {
         kind: DriveKind::InductionOnInverter,
