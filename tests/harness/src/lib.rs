@@ -4,6 +4,7 @@
 //!   wasm-opt, chromium), so the README's two commands work on a fresh Debian machine;
 //! - [`build`]: the offline release build with Trunk into `dist/`;
 //! - [`size`]: the raw and gzip size report of `dist/`;
+//! - [`lighthouse`]: Lighthouse's mobile preset on the app and the counter, side by side;
 //! - [`server`]: a small static file server on 127.0.0.1, used by `cargo xtask serve` and by
 //!   the browser tests;
 //! - [`browser`]: headless Chromium driven through chromedriver over WebDriver, and the
@@ -11,6 +12,7 @@
 
 pub mod browser;
 pub mod build;
+pub mod lighthouse;
 pub mod offline;
 pub mod server;
 pub mod size;

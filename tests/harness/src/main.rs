@@ -6,6 +6,7 @@
 //!   cargo xtask size [--no-build | --profiles]  raw and gzip sizes of dist/, or of each release-profile variant
 //!   cargo xtask size --counter                  the app's bundle against a plain Leptos counter, same profile
 //!   cargo xtask latency [--no-build]            time from an edit to updated figures in Chromium, 1x and 4x CPU
+//!   cargo xtask lighthouse [--no-build] [--rounds N]  Lighthouse (mobile) on the app and the counter, side by side
 //!   cargo xtask smoke URL                       open a served Phasewise in headless Chromium and check it starts
 //!   cargo xtask setup                           install whatever tool is missing
 //!   cargo xtask seal [DIR]                      Trunk's post-build hook: service worker and CSP
@@ -16,7 +17,7 @@ use phasewise_harness::{build, dist_dir, project_root, server::StaticServer, siz
 use std::process::ExitCode;
 use std::time::Instant;
 
-const USAGE: &str = "usage: cargo xtask <serve [--port N] [--no-build] | test [-- CARGO-TEST-ARGS] | build | size [--no-build | --profiles] | size --counter | latency [--no-build] | smoke URL | setup>";
+const USAGE: &str = "usage: cargo xtask <serve [--port N] [--no-build] | test [-- CARGO-TEST-ARGS] | build | size [--no-build | --profiles] | size --counter | latency [--no-build] | lighthouse [--no-build] [--rounds N] | smoke URL | setup>";
 
 fn main() -> ExitCode {
     let args: Vec<String> = std::env::args().skip(1).collect();
@@ -28,6 +29,7 @@ fn main() -> ExitCode {
         Some("size") => size_report(&args[1..]),
         Some("smoke") => smoke(&args[1..]),
         Some("latency") => latency(&args[1..]),
+        Some("lighthouse") => lighthouse(&args[1..]),
         Some("seal") => seal(&args[1..]),
         Some("setup") => {
             tools::prepare_build(&project_root()).and_then(|_| tools::prepare_browser())
@@ -225,12 +227,14 @@ fn smoke(args: &[String]) -> Result<(), String> {
     })
 }
 
-/// Builds the app and a plain Leptos counter with the same release profile, in one run, and
-/// prints what each ships (wasm + js, raw and gzip) and the ratio.
-fn counter_comparison() -> Result<(), String> {
+/// Where the counter's release build goes.
+fn counter_dist() -> std::path::PathBuf {
+    phasewise_harness::target_dir().join("counter-dist")
+}
+
+/// Builds the plain Leptos counter with the app's release profile into [`counter_dist`].
+fn counter_build(tools: &tools::BuildTools) -> Result<(), String> {
     let root = project_root();
-    let tools = release_build()?;
-    let counter_dist = phasewise_harness::target_dir().join("counter-dist");
     tools::run(
         tools
             .command("trunk")
@@ -242,9 +246,17 @@ fn counter_comparison() -> Result<(), String> {
                 "--offline",
                 "--dist",
             ])
-            .arg(&counter_dist)
+            .arg(counter_dist())
             .current_dir(&root),
-    )?;
+    )
+}
+
+/// Builds the app and a plain Leptos counter with the same release profile, in one run, and
+/// prints what each ships (wasm + js, raw and gzip) and the ratio.
+fn counter_comparison() -> Result<(), String> {
+    let tools = release_build()?;
+    counter_build(&tools)?;
+    let counter_dist = counter_dist();
     let shipped = |dir: &std::path::Path| -> Result<(u64, u64), String> {
         let sizes =
             size::measure(dir).map_err(|e| format!("cannot measure {}: {e}", dir.display()))?;
@@ -274,6 +286,52 @@ fn counter_comparison() -> Result<(), String> {
         format!("{:.2}x", app_raw as f64 / counter_raw as f64),
         format!("{:.2}x", app_gz as f64 / counter_gz as f64)
     );
+    Ok(())
+}
+
+/// Lighthouse's mobile preset on the app and on the counter, served by one server process,
+/// alternating for `--rounds` rounds (default 3); prints every run and the medians.
+fn lighthouse(args: &[String]) -> Result<(), String> {
+    use phasewise_harness::lighthouse::{self, Figures};
+    let rounds: usize = match args.iter().position(|a| a == "--rounds") {
+        Some(i) => args
+            .get(i + 1)
+            .and_then(|n| n.parse().ok())
+            .filter(|n| *n > 0)
+            .ok_or("--rounds needs a whole number above 0, e.g. --rounds 3")?,
+        None => 3,
+    };
+    if !args.iter().any(|a| a == "--no-build") {
+        let tools = release_build()?;
+        counter_build(&tools)?;
+    }
+    tools::prepare_browser()?;
+    let program = lighthouse::prepare()?;
+    let app = StaticServer::start(dist_dir(), "127.0.0.1:0")
+        .map_err(|e| format!("cannot serve dist/: {e}"))?;
+    let counter = StaticServer::start(counter_dist(), "127.0.0.1:0")
+        .map_err(|e| format!("cannot serve the counter (build it first): {e}"))?;
+    let reports = phasewise_harness::target_dir().join("lighthouse");
+    std::fs::create_dir_all(&reports).map_err(|e| format!("cannot create {}: {e}", reports.display()))?;
+    let sites = [("Phasewise", app.url()), ("plain Leptos counter", counter.url())];
+    let mut runs: Vec<Vec<Figures>> = vec![Vec::new(); sites.len()];
+    println!("{}", lighthouse::heading());
+    for round in 1..=rounds {
+        for ((name, url), runs) in sites.iter().zip(runs.iter_mut()) {
+            let slug = name.split(' ').next_back().unwrap_or(name).to_lowercase();
+            let report = reports.join(format!("{slug}-{round}.json"));
+            let figures = lighthouse::run(&program, url, &report)?;
+            println!("{}", figures.row(&format!("{name}, round {round}")));
+            runs.push(figures);
+        }
+    }
+    println!("{}", "-".repeat(85));
+    for ((name, _), runs) in sites.iter().zip(&runs) {
+        if let Some(median) = Figures::median(runs) {
+            println!("{}", median.row(&format!("{name}, median")));
+        }
+    }
+    tools::say(&format!("the JSON reports are in {}", reports.display()));
     Ok(())
 }
 

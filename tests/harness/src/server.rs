@@ -4,12 +4,17 @@
 //! needs (wasm must be `application/wasm` for streaming compilation), no caching (a test
 //! always sees the current build), one thread per connection, `Connection: close`.
 //! It can be stopped from the test, which is how the offline tests take the network away.
+//!
+//! Text and wasm go out gzip'd (best level) to a browser that accepts it, as any real static
+//! host sends them, so what the browser tests and Lighthouse see over the wire is what a user
+//! would download. Each file is compressed once per version of its bytes and kept in memory.
 
 use std::io::{self, BufRead, BufReader, Write};
 use std::net::{Shutdown, SocketAddr, TcpListener, TcpStream, ToSocketAddrs};
 use std::path::{Component, Path, PathBuf};
+use std::collections::HashMap;
 use std::sync::atomic::{AtomicBool, Ordering};
-use std::sync::Arc;
+use std::sync::{Arc, Mutex};
 use std::thread::JoinHandle;
 use std::time::Duration;
 
@@ -34,6 +39,7 @@ impl StaticServer {
         let addr = listener.local_addr()?;
         let stopping = Arc::new(AtomicBool::new(false));
         let flag = Arc::clone(&stopping);
+        let compressed = GzipCache::default();
         let acceptor = std::thread::Builder::new()
             .name(format!("static-server-{}", addr.port()))
             .spawn(move || {
@@ -43,8 +49,9 @@ impl StaticServer {
                     }
                     let Ok(stream) = stream else { continue };
                     let root = root.clone();
+                    let compressed = compressed.clone();
                     std::thread::spawn(move || {
-                        let _ = serve_one(stream, &root);
+                        let _ = serve_one(stream, &root, &compressed);
                     });
                 }
                 // The listener drops here: from now on connections are refused.
@@ -95,16 +102,77 @@ impl Drop for StaticServer {
 pub struct Response {
     pub status: u16,
     pub content_type: &'static str,
+    /// `Some("gzip")` when the body is the file gzip'd.
+    pub content_encoding: Option<&'static str>,
     pub body: Vec<u8>,
 }
 
-fn serve_one(stream: TcpStream, root: &Path) -> io::Result<()> {
+/// Gzip'd bodies by file, each with the bytes' hash it was made from, shared by the threads.
+#[derive(Clone, Default)]
+struct GzipCache(Arc<Mutex<HashMap<PathBuf, (u64, Arc<Vec<u8>>)>>>);
+
+impl GzipCache {
+    fn gzip(&self, path: &Path, bytes: &[u8]) -> io::Result<Arc<Vec<u8>>> {
+        use std::hash::{Hash, Hasher};
+        let mut hasher = std::collections::hash_map::DefaultHasher::new();
+        bytes.hash(&mut hasher);
+        let key = hasher.finish();
+        if let Some((seen, body)) = self.0.lock().map_err(poisoned)?.get(path) {
+            if *seen == key {
+                return Ok(Arc::clone(body));
+            }
+        }
+        let body = Arc::new(gzip(bytes)?);
+        self.0
+            .lock()
+            .map_err(poisoned)?
+            .insert(path.to_path_buf(), (key, Arc::clone(&body)));
+        Ok(body)
+    }
+}
+
+fn poisoned<T>(_: T) -> io::Error {
+    io::Error::other("the compression cache was poisoned by a panicking thread")
+}
+
+/// `bytes` gzip'd at the best level (what the size report measures, too).
+pub fn gzip(bytes: &[u8]) -> io::Result<Vec<u8>> {
+    let mut encoder = flate2::write::GzEncoder::new(Vec::new(), flate2::Compression::best());
+    encoder.write_all(bytes)?;
+    encoder.finish()
+}
+
+/// Whether a file of this content type shrinks under gzip (images are compressed already).
+pub fn compressible(content_type: &str) -> bool {
+    content_type.starts_with("text/")
+        || matches!(
+            content_type,
+            "application/wasm" | "application/json" | "application/manifest+json" | "image/svg+xml"
+        )
+}
+
+/// Whether an `Accept-Encoding` value allows gzip (`gzip`, or `*`, with a q-value above 0).
+pub fn accepts_gzip(accept_encoding: &str) -> bool {
+    accept_encoding.split(',').any(|coding| {
+        let mut parts = coding.split(';').map(str::trim);
+        let name = parts.next().unwrap_or("");
+        let refused = parts.any(|p| {
+            p.strip_prefix("q=")
+                .and_then(|q| q.parse::<f64>().ok())
+                .is_some_and(|q| q <= 0.0)
+        });
+        (name.eq_ignore_ascii_case("gzip") || name == "*") && !refused
+    })
+}
+
+fn serve_one(stream: TcpStream, root: &Path, compressed: &GzipCache) -> io::Result<()> {
     stream.set_read_timeout(Some(Duration::from_secs(10)))?;
     let mut reader = BufReader::new(stream.try_clone()?);
     let mut request_line = String::new();
     reader.read_line(&mut request_line)?;
-    // Read (and ignore) the headers up to the blank line; refuse absurd ones.
+    // Read the headers up to the blank line (only Accept-Encoding matters); refuse absurd ones.
     let mut header_bytes = 0;
+    let mut gzip_ok = false;
     loop {
         let mut line = String::new();
         let n = reader.read_line(&mut line)?;
@@ -112,16 +180,30 @@ fn serve_one(stream: TcpStream, root: &Path) -> io::Result<()> {
         if n == 0 || line == "\r\n" || line == "\n" || header_bytes > 64 * 1024 {
             break;
         }
+        if let Some((name, value)) = line.split_once(':') {
+            if name.trim().eq_ignore_ascii_case("accept-encoding") {
+                gzip_ok = accepts_gzip(value.trim());
+            }
+        }
     }
     let mut parts = request_line.split_whitespace();
     let method = parts.next().unwrap_or("");
     let target = parts.next().unwrap_or("");
-    let response = respond(root, method, target);
+    let mut response = respond(root, method, target);
+    if gzip_ok && response.status == 200 && compressible(response.content_type) {
+        let path = file_path(target).unwrap_or_default();
+        response.body = (*compressed.gzip(&path, &response.body)?).clone();
+        response.content_encoding = Some("gzip");
+    }
+    let encoding = response
+        .content_encoding
+        .map(|e| format!("Content-Encoding: {e}\r\n"))
+        .unwrap_or_default();
     let mut stream = stream;
     write!(
         stream,
-        "HTTP/1.1 {} {}\r\nContent-Type: {}\r\nContent-Length: {}\r\nCache-Control: no-cache\r\n\
-         X-Content-Type-Options: nosniff\r\nConnection: close\r\n\r\n",
+        "HTTP/1.1 {} {}\r\nContent-Type: {}\r\n{encoding}Content-Length: {}\r\nVary: Accept-Encoding\r\n\
+         Cache-Control: no-cache\r\nX-Content-Type-Options: nosniff\r\nConnection: close\r\n\r\n",
         response.status,
         reason(response.status),
         response.content_type,
@@ -140,6 +222,7 @@ pub fn respond(root: &Path, method: &str, target: &str) -> Response {
     let text = |status, body: &str| Response {
         status,
         content_type: "text/plain; charset=utf-8",
+        content_encoding: None,
         body: body.as_bytes().to_vec(),
     };
     if method != "GET" && method != "HEAD" {
@@ -156,6 +239,7 @@ pub fn respond(root: &Path, method: &str, target: &str) -> Response {
         Ok(body) => Response {
             status: 200,
             content_type: content_type(&path),
+            content_encoding: None,
             body,
         },
         Err(_) => text(404, "not found\n"),
@@ -291,6 +375,51 @@ mod tests {
         assert!(head.ends_with("\r\n\r\n"), "HEAD carries no body: {head}");
         server.stop();
         assert!(TcpStream::connect(server.addr()).is_err());
+    }
+
+    #[test]
+    fn sends_text_and_wasm_gzipd_to_a_browser_that_accepts_it() {
+        let root = site("gzip");
+        std::fs::write(root.join("app.js"), "const phase = 1;\n".repeat(200)).unwrap();
+        std::fs::write(root.join("public/icon.png"), b"\x89PNG....").unwrap();
+        let server = StaticServer::start(&root, "127.0.0.1:0").unwrap();
+        let ask = |path: &str, accept: &str| {
+            let mut stream = TcpStream::connect(server.addr()).unwrap();
+            write!(stream, "GET {path} HTTP/1.1\r\nAccept-Encoding: {accept}\r\n\r\n").unwrap();
+            let mut answer = Vec::new();
+            stream.read_to_end(&mut answer).unwrap();
+            let split = answer.windows(4).position(|w| w == b"\r\n\r\n").unwrap();
+            let head = String::from_utf8_lossy(&answer[..split]).to_string();
+            (head, answer[split + 4..].to_vec())
+        };
+        let (head, body) = ask("/app.js", "gzip, deflate, br, zstd");
+        assert!(head.contains("Content-Encoding: gzip"), "{head}");
+        assert!(head.contains("Vary: Accept-Encoding"), "{head}");
+        let mut text = String::new();
+        flate2::read::GzDecoder::new(&body[..]).read_to_string(&mut text).unwrap();
+        assert_eq!(text, "const phase = 1;\n".repeat(200));
+        assert!(body.len() < 100, "{} bytes", body.len());
+        // Asked twice, the same bytes (from the cache).
+        assert_eq!(ask("/app.js", "gzip").1, body);
+        // Not asked for, or refused: the file as it is.
+        for accept in ["identity", "gzip;q=0", "br"] {
+            let (head, body) = ask("/app.js", accept);
+            assert!(!head.contains("Content-Encoding"), "{accept}: {head}");
+            assert_eq!(body.len(), 17 * 200, "{accept}");
+        }
+        // Images are compressed already; errors are not worth it.
+        assert!(!ask("/public/icon.png", "gzip").0.contains("Content-Encoding"));
+        assert!(!ask("/missing.js", "gzip").0.contains("Content-Encoding"));
+    }
+
+    #[test]
+    fn reads_accept_encoding_as_browsers_write_it() {
+        assert!(accepts_gzip("gzip, deflate, br, zstd"));
+        assert!(accepts_gzip("GZIP;q=0.5"));
+        assert!(accepts_gzip("*"));
+        assert!(!accepts_gzip("identity"));
+        assert!(!accepts_gzip("gzip;q=0, br"));
+        assert!(!accepts_gzip(""));
     }
 
     #[test]

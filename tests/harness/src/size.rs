@@ -21,9 +21,6 @@
 //! aborts on wasm32-unknown-unknown either way) and measured 128 bytes larger, so the default
 //! is kept. Re-measure when the bundle grows: the ranking can change.
 
-use flate2::write::GzEncoder;
-use flate2::Compression;
-use std::io::Write;
 use std::path::{Path, PathBuf};
 
 /// One shipped file.
@@ -84,10 +81,9 @@ fn kind_rank(kind: &str) -> usize {
     KINDS.iter().position(|k| *k == kind).unwrap_or(KINDS.len())
 }
 
+/// The size of `bytes` as the static server sends them.
 pub fn gzip_len(bytes: &[u8]) -> std::io::Result<u64> {
-    let mut encoder = GzEncoder::new(Vec::new(), Compression::best());
-    encoder.write_all(bytes)?;
-    Ok(encoder.finish()?.len() as u64)
+    Ok(crate::server::gzip(bytes)?.len() as u64)
 }
 
 /// The wasm module as wasm-bindgen left it, before wasm-opt: Trunk keeps it under

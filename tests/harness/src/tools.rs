@@ -184,15 +184,20 @@ fn cargo_install(args: &[&str]) -> Result<(), String> {
 }
 
 fn install_binaryen() -> Result<(), String> {
+    npm_install(&binaryen_dir(), &format!("binaryen@{BINARYEN_VERSION}"))
+}
+
+/// Installs `package` (name@version) from the npm registry into `dir`, installing Node.js and
+/// npm from Debian first if they are missing.
+pub fn npm_install(dir: &Path, package: &str) -> Result<(), String> {
     if Command::new("npm").arg("--version").output().is_err() {
         apt_install(&["nodejs", "npm"])?;
     }
-    let dir = binaryen_dir();
-    std::fs::create_dir_all(&dir).map_err(|e| format!("cannot create {}: {e}", dir.display()))?;
+    std::fs::create_dir_all(dir).map_err(|e| format!("cannot create {}: {e}", dir.display()))?;
     run(Command::new("npm")
         .args(["install", "--no-audit", "--no-fund", "--prefix"])
-        .arg(&dir)
-        .arg(format!("binaryen@{BINARYEN_VERSION}")))
+        .arg(dir)
+        .arg(package))
 }
 
 fn apt_install(packages: &[&str]) -> Result<(), String> {
@@ -252,14 +257,17 @@ fn cargo_home() -> PathBuf {
         .unwrap_or_else(|| home().join(".cargo"))
 }
 
-/// Where wasm-opt is installed: one copy per machine, shared by every clone.
-pub fn binaryen_dir() -> PathBuf {
-    let cache = std::env::var_os("XDG_CACHE_HOME")
+/// Where the npm-installed tools live: one copy per machine, shared by every clone.
+pub fn cache_dir() -> PathBuf {
+    std::env::var_os("XDG_CACHE_HOME")
         .map(PathBuf::from)
-        .unwrap_or_else(|| home().join(".cache"));
-    cache
+        .unwrap_or_else(|| home().join(".cache"))
         .join("phasewise")
-        .join(format!("binaryen-{BINARYEN_VERSION}"))
+}
+
+/// Where wasm-opt is installed.
+pub fn binaryen_dir() -> PathBuf {
+    cache_dir().join(format!("binaryen-{BINARYEN_VERSION}"))
 }
 
 fn home() -> PathBuf {
