@@ -14,6 +14,7 @@ pub mod jobs;
 mod lines;
 mod motor_check;
 mod offline;
+mod parts;
 mod power_unit;
 mod pump_test;
 mod quote;
@@ -31,7 +32,6 @@ mod valve_settings;
 use area::Area;
 use icons::{area_icon, CautionIcon, Logo};
 use leptos::prelude::*;
-use safety::SafetyPage;
 
 /// The whole app: a top bar with the safety link, the current area's page, and the
 /// navigation bar (at the bottom on a phone, at the side on a wider screen).
@@ -49,13 +49,18 @@ pub fn App() -> impl IntoView {
     let display = display::keep_display();
     provide_context(display);
     provide_context(offline::start());
-    // A job arriving by a share link is taken in first; the address then names the jobs area.
-    share::receive(&kept, &window().location().hash().unwrap_or_default());
     let area = RwSignal::new(area_in_address());
+    // A job arriving by a share link is taken in (from its part); the address then names the
+    // jobs area.
+    let take_in = move || {
+        let fragment = window().location().hash().unwrap_or_default();
+        parts::receive_shared(kept, fragment, move || area.set(area_in_address()));
+    };
+    take_in();
 
     let listener = window_event_listener(leptos::ev::hashchange, move |_| {
         // A share link pasted into the address bar of an open app.
-        share::receive(&kept, &window().location().hash().unwrap_or_default());
+        take_in();
         area.set(area_in_address());
         // A new area starts at its top, as a new page would.
         window().scroll_to_with_x_and_y(0.0, 0.0);
@@ -88,7 +93,7 @@ pub fn App() -> impl IntoView {
             </header>
             <main id="main" class="page" data-area=move || area.get().slug()>
                 <offline::NewerVersionNotice />
-                {move || page(area.get())}
+                {move || parts::page(area.get())}
             </main>
             // Beside an area where figures are typed, the figures they move.
             {move || (display.with(|d| d.presenter) && area.get().takes_figures())
@@ -113,20 +118,4 @@ pub fn App() -> impl IntoView {
 /// The area named by the page's address.
 fn area_in_address() -> Area {
     Area::from_fragment(&window().location().hash().unwrap_or_default())
-}
-
-fn page(area: Area) -> AnyView {
-    match area {
-        Area::Safety => view! { <SafetyPage /> }.into_any(),
-        Area::Cycle => view! { <cycle::CycleArea /> }.into_any(),
-        Area::PowerUnit => view! { <power_unit::UnitArea /> }.into_any(),
-        Area::Results => view! { <results::ResultsArea /> }.into_any(),
-        Area::Jobs => view! { <jobs::JobsArea /> }.into_any(),
-        Area::Settings => view! { <valve_settings::SettingsArea /> }.into_any(),
-        Area::PumpTest => view! { <pump_test::PumpCheckArea /> }.into_any(),
-        Area::MotorCheck => view! { <motor_check::MotorCheckArea /> }.into_any(),
-        Area::Heat => view! { <heat::HeatArea /> }.into_any(),
-        Area::Quote => view! { <quote::QuoteArea /> }.into_any(),
-        Area::Report => view! { <report::ReportArea /> }.into_any(),
-    }
 }

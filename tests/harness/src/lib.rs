@@ -4,6 +4,7 @@
 //!   wasm-opt, chromium), so the README's two commands work on a fresh Debian machine;
 //! - [`build`]: the offline release build with Trunk into `dist/`;
 //! - [`size`]: the raw and gzip size report of `dist/`;
+//! - [`split`]: the release module split into the first screen's part and parts on demand;
 //! - [`lighthouse`]: Lighthouse's mobile preset on the app and the counter, side by side;
 //! - [`server`]: a small static file server on 127.0.0.1, used by `cargo xtask serve` and by
 //!   the browser tests;
@@ -16,6 +17,7 @@ pub mod lighthouse;
 pub mod offline;
 pub mod server;
 pub mod size;
+pub mod split;
 pub mod tools;
 
 use std::path::{Path, PathBuf};

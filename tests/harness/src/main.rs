@@ -55,6 +55,25 @@ fn seal(args: &[String]) -> Result<(), String> {
         .map(std::path::PathBuf::from)
         .or_else(|| std::env::var_os("TRUNK_STAGING_DIR").map(Into::into))
         .ok_or("seal needs the build folder: as an argument, or TRUNK_STAGING_DIR from Trunk")?;
+    // Split first: the worker must list the parts, and the policy is written once.
+    let profile = std::env::var("TRUNK_PROFILE").unwrap_or_else(|_| "release".into());
+    let target = phasewise_harness::target_dir();
+    let raw_dir = target.join(tools::WASM_TARGET).join(&profile);
+    let build_tools = tools::BuildTools::search_path()?;
+    if let Some(split) = phasewise_harness::split::split(
+        &build_tools,
+        &dir,
+        &raw_dir,
+        &target.join("wasm-split"),
+        profile == "release",
+    )? {
+        tools::say(&format!(
+            "split the module: {} for the first screen, {} on demand: {}",
+            split.main,
+            split.parts.len(),
+            split.parts.join(", ")
+        ));
+    }
     let template = project_root().join("src/offline/service-worker.js");
     let sealed = phasewise_harness::offline::seal(&dir, &template)?;
     tools::say(&format!(
@@ -252,40 +271,34 @@ fn counter_build(tools: &tools::BuildTools) -> Result<(), String> {
 }
 
 /// Builds the app and a plain Leptos counter with the same release profile, in one run, and
-/// prints what each ships (wasm + js, raw and gzip) and the ratio.
+/// prints what each ships (wasm + js + css, raw and gzip): the app's first screen (without the
+/// parts loaded on demand) and every part, each against the counter.
 fn counter_comparison() -> Result<(), String> {
     let tools = release_build()?;
     counter_build(&tools)?;
     let counter_dist = counter_dist();
-    let shipped = |dir: &std::path::Path| -> Result<(u64, u64), String> {
-        let sizes =
-            size::measure(dir).map_err(|e| format!("cannot measure {}: {e}", dir.display()))?;
-        Ok(sizes
-            .iter()
-            .filter(|f| f.kind == "wasm" || f.kind == "js")
-            .fold((0, 0), |(raw, gz), f| (raw + f.raw, gz + f.gzip)))
+    let measure = |dir: &std::path::Path| {
+        size::measure(dir).map_err(|e| format!("cannot measure {}: {e}", dir.display()))
     };
-    let (app_raw, app_gz) = shipped(&dist_dir())?;
-    let (counter_raw, counter_gz) = shipped(&counter_dist)?;
-    println!("{:<34} {:>22} {:>22}", "wasm + js", "raw", "gzip");
-    println!(
-        "{:<34} {:>22} {:>22}",
-        "Phasewise",
-        size::human(app_raw),
-        size::human(app_gz)
-    );
-    println!(
-        "{:<34} {:>22} {:>22}",
-        "plain Leptos counter",
-        size::human(counter_raw),
-        size::human(counter_gz)
-    );
-    println!(
-        "{:<34} {:>22} {:>22}",
-        "ratio",
-        format!("{:.2}x", app_raw as f64 / counter_raw as f64),
-        format!("{:.2}x", app_gz as f64 / counter_gz as f64)
-    );
+    let (app, counter) = (measure(&dist_dir())?, measure(&counter_dist)?);
+    let row = |name: &str, (raw, gzip): (u64, u64)| {
+        println!("{name:<44} {:>22} {:>22}", size::human(raw), size::human(gzip))
+    };
+    let ratio = |name: &str, (a_raw, a_gz): (u64, u64), (c_raw, c_gz): (u64, u64)| {
+        println!(
+            "{name:<44} {:>22} {:>22}",
+            format!("{:.2}x", a_raw as f64 / c_raw as f64),
+            format!("{:.2}x", a_gz as f64 / c_gz as f64)
+        )
+    };
+    println!("{:<44} {:>22} {:>22}", "wasm + js + css", "raw", "gzip");
+    let first = (size::first_screen(&app), size::first_screen(&counter));
+    let all = (size::code_and_style(&app), size::code_and_style(&counter));
+    row("Phasewise, first screen", first.0);
+    row("Phasewise, every part", all.0);
+    row("plain Leptos counter", first.1);
+    ratio("first screen against the counter", first.0, first.1);
+    ratio("every part against the counter", all.0, all.1);
     Ok(())
 }
 

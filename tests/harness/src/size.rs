@@ -140,6 +140,28 @@ fn total<'a>(files: impl Iterator<Item = &'a FileSize>) -> (u64, u64) {
     files.fold((0, 0), |(raw, gzip), f| (raw + f.raw, gzip + f.gzip))
 }
 
+/// Whether the first screen does without this file: a part loaded on demand (see
+/// `crate::split`) or the service worker, which starts once the app runs.
+pub fn on_demand(path: &Path) -> bool {
+    let name = path.file_name().and_then(|n| n.to_str()).unwrap_or("");
+    name.contains("-split_") || name.contains("-chunk_") || name == crate::offline::WORKER
+}
+
+/// Raw and gzip bytes of the code and style the first screen fetches: every wasm, js and css
+/// file but those [`on_demand`].
+pub fn first_screen(sizes: &[FileSize]) -> (u64, u64) {
+    total(
+        sizes
+            .iter()
+            .filter(|f| matches!(f.kind, "wasm" | "js" | "css") && !on_demand(&f.path)),
+    )
+}
+
+/// Raw and gzip bytes of all code and style (wasm, js, css), on demand or not.
+pub fn code_and_style(sizes: &[FileSize]) -> (u64, u64) {
+    total(sizes.iter().filter(|f| matches!(f.kind, "wasm" | "js" | "css")))
+}
+
 /// Bytes, and KiB to one decimal, so a report can be read and compared by eye.
 pub fn human(bytes: u64) -> String {
     format!("{bytes} B ({:.1} KiB)", bytes as f64 / 1024.0)
@@ -156,6 +178,30 @@ mod tests {
         assert!(gz < 100, "{gz}");
         // An empty input still has gzip's 18-byte header and trailer, plus an empty block.
         assert!((18..=24).contains(&gzip_len(b"").unwrap()));
+    }
+
+    #[test]
+    fn the_first_screen_leaves_out_the_parts_and_the_worker() {
+        let f = |path: &str, gzip| FileSize {
+            path: path.into(),
+            kind: kind_of(Path::new(path)),
+            raw: gzip * 2,
+            gzip,
+        };
+        let build = [
+            f("app-1a_bg.wasm", 100),
+            f("app-1a.js", 10),
+            f("app-1a-parts.js", 3),
+            f("main-2b.css", 5),
+            f("public/boot.js", 1),
+            f("app-1a-split_answers.wasm", 50),
+            f("app-1a-chunk_7.wasm", 20),
+            f("service-worker.js", 2),
+            f("index.html", 4),
+            f("public/icon-192.png", 9),
+        ];
+        assert_eq!(first_screen(&build), (238, 119));
+        assert_eq!(code_and_style(&build), (382, 191));
     }
 
     #[test]

@@ -51,15 +51,7 @@ pub struct BuildTools {
 /// Makes sure the wasm target, trunk, wasm-bindgen-cli (at the version in Cargo.lock) and
 /// wasm-opt are present, installing what is missing.
 pub fn prepare_build(root: &Path) -> Result<BuildTools, String> {
-    let mut dirs = vec![
-        binaryen_dir().join("node_modules").join(".bin"),
-        cargo_home().join("bin"),
-    ];
-    dirs.extend(std::env::split_paths(
-        &std::env::var_os("PATH").unwrap_or_default(),
-    ));
-    let path = std::env::join_paths(dirs).map_err(|e| format!("cannot build PATH: {e}"))?;
-    let tools = BuildTools { path };
+    let tools = BuildTools::search_path()?;
 
     ensure_wasm_target()?;
 
@@ -110,6 +102,20 @@ pub fn prepare_browser() -> Result<(), String> {
 }
 
 impl BuildTools {
+    /// wasm-opt 132 and cargo's installs ahead of the rest of PATH, without checking that
+    /// anything is there (see [`prepare_build`]).
+    pub fn search_path() -> Result<BuildTools, String> {
+        let mut dirs = vec![
+            binaryen_dir().join("node_modules").join(".bin"),
+            cargo_home().join("bin"),
+        ];
+        dirs.extend(std::env::split_paths(
+            &std::env::var_os("PATH").unwrap_or_default(),
+        ));
+        let path = std::env::join_paths(dirs).map_err(|e| format!("cannot build PATH: {e}"))?;
+        Ok(BuildTools { path })
+    }
+
     /// A command that finds its program on this search path.
     pub fn command(&self, program: &str) -> Command {
         let mut command = Command::new(self.find(program).unwrap_or_else(|| program.into()));
