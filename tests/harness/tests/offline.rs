@@ -4,8 +4,9 @@
 //! reads cleanly. Every session here (as everywhere, see `AppSession::finish`) also proves the
 //! page asked no origin but its own.
 
+use phasewise::ui::area::Area;
 use phasewise_harness::browser::{foreign_requests, AppSession, Browser, Viewport, APP_READY};
-use phasewise_harness::{browser::unique_dir, dist_dir};
+use phasewise_harness::{browser::unique_dir, dist_dir, size::on_demand};
 use std::path::Path;
 use std::time::Duration;
 
@@ -81,6 +82,123 @@ async fn after_one_visit_the_app_and_its_jobs_start_with_no_server() {
     b.wait_for("[data-quote-table='customer']").await;
     b.screenshot("report-offline").await;
     app.finish().await;
+}
+
+/// The parts of the build the first screen does without (see `phasewise_harness::split`).
+fn parts_in_build() -> Vec<String> {
+    let mut parts: Vec<String> = std::fs::read_dir(dist_dir())
+        .unwrap()
+        .filter_map(|e| e.unwrap().file_name().into_string().ok())
+        .filter(|n| n.ends_with(".wasm") && on_demand(Path::new(n)))
+        .collect();
+    parts.sort();
+    parts
+}
+
+#[tokio::test]
+async fn the_first_screen_fetches_no_part_and_every_part_opens_offline() {
+    let parts = parts_in_build();
+    assert!(
+        parts.iter().any(|p| p.contains("-split_answers")),
+        "the build has no on-demand parts: {parts:?}"
+    );
+    let mut app = AppSession::start("offline_parts", Viewport::PHONE).await;
+    let b = &app.browser;
+    // The machine cycle, the first screen, is up without any part.
+    b.wait_for("[data-live='average']").await;
+    let fetched: Vec<String> = b
+        .requests()
+        .await
+        .into_iter()
+        .filter(|url| on_demand(Path::new(url.split(['?', '#']).next().unwrap_or(url))))
+        .collect();
+    assert_eq!(fetched, Vec::<String>::new(), "the first screen fetched parts");
+    wait_until_kept(b).await;
+    // The worker keeps every part, not only the first screen's.
+    let kept = b
+        .eval_async(
+            "const done = arguments[arguments.length - 1];
+             caches.keys().then(names => caches.open(names[0])).then(c => c.keys())
+               .then(requests => done(requests.map(r => new URL(r.url).pathname.slice(1)).sort()));",
+        )
+        .await;
+    let kept: Vec<String> = kept
+        .as_array()
+        .unwrap()
+        .iter()
+        .filter_map(|v| v.as_str().map(str::to_string))
+        .collect();
+    for part in &parts {
+        assert!(kept.contains(part), "{part} is not kept: {kept:?}");
+    }
+
+    app.server.stop();
+    let b = &app.browser;
+    b.goto("about:blank").await;
+    b.goto(&app.url("#/cycle")).await;
+    b.wait_for(APP_READY).await;
+    // Every area, each from its part, with the server gone.
+    for area in Area::ALL {
+        b.eval(&format!("location.hash = '{}'; return null;", area.href()))
+            .await;
+        b.wait_for_text(&format!("main[data-area='{}'] h1", area.slug()), |t| {
+            t == area.title()
+        })
+        .await;
+        assert!(
+            b.try_wait_for(".part-missing", Duration::from_millis(50))
+                .await
+                .is_none(),
+            "{}",
+            area.title()
+        );
+    }
+    b.screenshot("report-offline").await;
+    // A shared link, taken in by the jobs part, offline.
+    let mut job = phasewise::engine::demo::scrap_baler();
+    job.name = "Shed baler".into();
+    b.goto(&phasewise::formats::share::link(&app.server.url(), &job))
+        .await;
+    b.wait_for(APP_READY).await;
+    b.wait_for_text("[data-share-note]", |t| t.contains("Shed baler"))
+        .await;
+    b.wait_for_text("li.job-row.current h3", |t| t.contains("Shed baler"))
+        .await;
+    app.finish().await;
+}
+
+#[tokio::test]
+async fn a_part_that_cannot_be_fetched_is_said_so_and_can_be_tried_again() {
+    // A build with one part missing, as on a first visit cut off before the worker kept it.
+    let site = unique_dir("missing-part");
+    copy_dir(&dist_dir(), &site);
+    let answers = parts_in_build()
+        .into_iter()
+        .find(|p| p.contains("-split_answers"))
+        .unwrap();
+    let aside = unique_dir("missing-part-aside");
+    std::fs::create_dir_all(&aside).unwrap();
+    let kept_aside = aside.join(&answers);
+    std::fs::rename(site.join(&answers), &kept_aside).unwrap();
+    let app = AppSession::open("missing_part", Viewport::PHONE, &site, "#/results").await;
+    app.wait_until_ready().await;
+    let b = &app.browser;
+    b.wait_for_text(".part-missing", |t| t.contains("not on this device yet"))
+        .await;
+    b.screenshot("part-missing").await;
+    // The frame still works: the cycle opens, and the part loads once it is there again.
+    b.click("nav.areas a[href='#/cycle']").await;
+    b.wait_for("[data-live='average']").await;
+    b.click("nav.areas a[href='#/results']").await;
+    b.wait_for_text(".part-missing", |t| t.contains("not on this device yet"))
+        .await;
+    std::fs::rename(&kept_aside, site.join(&answers)).unwrap();
+    b.click(".part-missing button").await;
+    b.wait_for("[data-total]").await;
+    // The failed fetch is a console error by nature, so this session ends without `finish`.
+    app.browser.close().await;
+    let _ = std::fs::remove_dir_all(&site);
+    let _ = std::fs::remove_dir_all(&aside);
 }
 
 #[tokio::test]
