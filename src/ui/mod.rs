@@ -50,6 +50,8 @@ pub fn App() -> impl IntoView {
     provide_context(display);
     provide_context(offline::start());
     let area = RwSignal::new(area_in_address());
+    let fetching = parts::Fetching(RwSignal::new(false));
+    provide_context(fetching);
     // A job arriving by a share link is taken in (from its part); the address then names the
     // jobs area.
     let take_in = move || {
@@ -91,7 +93,12 @@ pub fn App() -> impl IntoView {
                     <span>{Area::Safety.nav_label()}</span>
                 </a>
             </header>
-            <main id="main" class="page" data-area=move || area.get().slug()>
+            <main
+                id="main"
+                class="page"
+                data-area=move || area.get().slug()
+                aria-busy=move || fetching.0.get().then_some("true")
+            >
                 <offline::NewerVersionNotice />
                 {move || parts::page(area.get())}
             </main>

@@ -17,6 +17,11 @@ use super::storage::Storage;
 use leptos::prelude::*;
 use leptos::wasm_split::{wasm_split, SplitLoaderError};
 
+/// Whether a part is being fetched for the page: the page says it is busy meanwhile
+/// (`aria-busy`, for screen readers and for the browser tests).
+#[derive(Clone, Copy)]
+pub struct Fetching(pub RwSignal<bool>);
+
 /// A part of the app that could not be fetched.
 #[derive(Debug, Clone, PartialEq, Eq)]
 pub struct PartMissing(pub String);
@@ -41,12 +46,23 @@ pub fn page(area: Area) -> AnyView {
 fn OnDemand(area: Area) -> impl IntoView {
     // Bumped by "Try again", which fetches the part anew.
     let attempt = RwSignal::new(0u32);
+    let fetching = use_context::<Fetching>().map(|f| f.0);
+    let busy = move |on: bool| {
+        if let Some(f) = fetching {
+            f.set(on)
+        }
+    };
+    // Another area opened before this one's part arrived.
+    on_cleanup(move || busy(false));
     view! {
         <Suspense fallback=|| view! { <p class="part-loading" role="status">"Opening…"</p> }>
             {move || {
                 attempt.track();
                 Suspend::new(async move {
-                    match load(area).await {
+                    busy(true);
+                    let loaded = load(area).await;
+                    busy(false);
+                    match loaded {
                         Ok(page) => page,
                         Err(PartMissing(why)) => view! {
                             <div class="part-missing" role="alert">

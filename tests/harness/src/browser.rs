@@ -720,8 +720,9 @@ pub fn foreign_requests(requests: &[String], own: &str) -> Vec<String> {
         .collect()
 }
 
-/// Present once the app has mounted: the main area carries the current area's name.
-pub const APP_READY: &str = "main[data-area]";
+/// Present once the app has mounted and the area's page is there: the main area carries the
+/// current area's name, and is not busy fetching the area's part.
+pub const APP_READY: &str = "main[data-area]:not([aria-busy])";
 
 /// The app's number or text input for a field path of the job file (`cycle[0].cylinder.bore_m`).
 pub fn field(path: &str) -> String {

@@ -25,7 +25,7 @@ async fn the_oil_settles_on_a_phone_and_a_tank_and_lines_are_described() {
     let b = &app.browser;
     // Reached from the results' totals.
     b.click(".totals [data-link='heat']").await;
-    b.wait_for("main[data-area='heat']").await;
+    b.wait_for("main[data-area='heat']:not([aria-busy])").await;
     let job = scrap_baler();
     let shown = b
         .wait_for_text("[data-figure='steady']", |t| !t.is_empty())

@@ -14,7 +14,7 @@ async fn a_motor_check_on_a_phone_reads_the_verdict_and_follows_a_reading() {
     let b = &app.browser;
     // Opened from the power unit's motor.
     b.click("[data-link='motor-check']").await;
-    b.wait_for("main[data-area='motor-check']").await;
+    b.wait_for("main[data-area='motor-check']:not([aria-busy])").await;
     let job = scrap_baler();
     let report = assess_motor(&job, &job.motor_checks[0], job.units).unwrap();
     let words = report.describe(job.units, &job.site.currency);

@@ -141,7 +141,7 @@ async fn the_first_screen_fetches_no_part_and_every_part_opens_offline() {
     for area in Area::ALL {
         b.eval(&format!("location.hash = '{}'; return null;", area.href()))
             .await;
-        b.wait_for_text(&format!("main[data-area='{}'] h1", area.slug()), |t| {
+        b.wait_for_text(&format!("main[data-area='{}']:not([aria-busy]) h1", area.slug()), |t| {
             t == area.title()
         })
         .await;

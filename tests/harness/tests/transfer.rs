@@ -222,7 +222,7 @@ async fn a_new_job_starts_empty_or_as_a_copy_the_user_chose() {
         // Moved by the address's fragment, as a link does: the page is not reloaded.
         b.eval(&format!("window.location.hash = '{}';", area.href()))
             .await;
-        b.wait_for(&format!("main[data-area='{}']", area.slug()))
+        b.wait_for(&format!("main[data-area='{}']:not([aria-busy])", area.slug()))
             .await;
         let text = b.eval("return document.body.innerText;").await;
         let text = text.as_str().unwrap_or_default().to_string();
@@ -232,7 +232,7 @@ async fn a_new_job_starts_empty_or_as_a_copy_the_user_chose() {
         );
     }
     b.eval("window.location.hash = '#/jobs';").await;
-    b.wait_for("main[data-area='jobs']").await;
+    b.wait_for("main[data-area='jobs']:not([aria-busy])").await;
     assert_eq!(
         b.value("input[data-path='name']").await,
         "New job",
