@@ -98,6 +98,26 @@ pub fn with_policy(html: &str) -> Result<String, String> {
     Ok(format!("{}{meta}{}", &html[..head], &html[head..]))
 }
 
+/// Trunk's loader script.
+const TRUNK_INIT: &str = "const wasm = await init(";
+
+/// What the loader waits for before fetching the module: two animation frames, the second of
+/// which starts only once the first was shown.
+const AFTER_FIRST_PAINT: &str =
+    "await new Promise((shown) => requestAnimationFrame(() => requestAnimationFrame(shown)));\n";
+
+/// `html` with Trunk's loader fetching the wasm module only after the page's static first view
+/// has been painted. On a weak signal that view then shows while the module downloads,
+/// instead of the module's fetch competing with it; it costs two frames at most.
+pub fn module_after_first_paint(html: &str) -> Result<String, String> {
+    match html.matches(TRUNK_INIT).count() {
+        1 => Ok(html.replace(TRUNK_INIT, &format!("{AFTER_FIRST_PAINT}{TRUNK_INIT}"))),
+        n => Err(format!(
+            "index.html has {n} Trunk loaders (`{TRUNK_INIT}`), not one: has Trunk's loader changed?"
+        )),
+    }
+}
+
 /// Every file under `dir` as a path relative to it with `/` separators, sorted.
 fn files_under(dir: &Path) -> Result<Vec<PathBuf>, String> {
     let mut files = Vec::new();
@@ -116,7 +136,7 @@ pub fn seal(dir: &Path, template: &Path) -> Result<Sealed, String> {
     let index = dir.join("index.html");
     let html = std::fs::read_to_string(&index)
         .map_err(|e| format!("cannot read {}: {e}", index.display()))?;
-    std::fs::write(&index, with_policy(&html)?)
+    std::fs::write(&index, with_policy(&module_after_first_paint(&html)?)?)
         .map_err(|e| format!("cannot write {}: {e}", index.display()))?;
 
     let mut digest = Sha256::new();
@@ -175,6 +195,16 @@ pub fn worker_script(
 mod tests {
     use super::*;
 
+    #[test]
+    fn the_module_is_fetched_after_the_first_paint() {
+        let html = "<script type=\"module\">\nimport init from '/a.js';\nconst wasm = await init({ module_or_path: '/a_bg.wasm' });\n</script>";
+        let out = module_after_first_paint(html).unwrap();
+        let wait = out.find("requestAnimationFrame").unwrap();
+        assert!(wait < out.find(TRUNK_INIT).unwrap(), "{out}");
+        assert!(module_after_first_paint("<p>no loader</p>").is_err());
+        assert!(module_after_first_paint(&format!("{html}{html}")).is_err());
+    }
+
     const PAGE: &str = "<!doctype html><html><head><title>t</title>\n<script type=\"module\">\nimport init from '/a.js';\n</script><script src=\"/x.js\"></script></head><body></body></html>";
 
     #[test]
@@ -204,7 +234,11 @@ mod tests {
         )
         .unwrap();
         let build = |icon: &str| {
-            std::fs::write(dir.join("index.html"), PAGE).unwrap();
+            let page = PAGE.replace(
+                "import init from '/a.js';\n",
+                "import init from '/a.js';\nconst wasm = await init({});\n",
+            );
+            std::fs::write(dir.join("index.html"), page).unwrap();
             std::fs::write(dir.join("public/icon.svg"), icon).unwrap();
             let _ = std::fs::remove_file(dir.join(WORKER));
             seal(&dir, &template).unwrap()

@@ -16,7 +16,8 @@
 //! 4. every part and the loader are renamed after Trunk's hashed name, so two builds' parts
 //!    can never be mixed by a cache (the loader fetches them relative to itself).
 //!
-//! A build with no `#[lazy]` part (the counter) is left as Trunk wrote it.
+//! A build with no split point (the counter) loses only the linker sections, and is optimised
+//! the same way.
 
 use crate::tools::BuildTools;
 use std::process::Command;
@@ -48,15 +49,16 @@ pub fn split(
     let raw = std::fs::read(&raw_path)
         .map_err(|e| format!("cannot read the raw module {}: {e}", raw_path.display()))?;
     if !raw.windows(PLACEHOLDER.len()).any(|w| w == PLACEHOLDER) {
-        // Nothing to split: only drop the relocations the build flag kept, which a build
-        // without that flag would not have and which wasm-opt leaves in.
+        // Nothing to split: drop the relocations the build flag kept (a build without that
+        // flag would not have them, and binaryen mishandles a module that has them), then
+        // optimise as a split build is (Trunk's wasm-opt is off for both).
         let staged = staging.join(format!("{stem}_bg.wasm"));
         let bytes = std::fs::read(&staged)
             .map_err(|e| format!("cannot read {}: {e}", staged.display()))?;
-        let lean = without_link_sections(&bytes)?;
-        if lean.len() != bytes.len() {
-            std::fs::write(&staged, lean)
-                .map_err(|e| format!("cannot write {}: {e}", staged.display()))?;
+        std::fs::write(&staged, without_link_sections(&bytes)?)
+            .map_err(|e| format!("cannot write {}: {e}", staged.display()))?;
+        if optimise {
+            quietly(tools.command("wasm-opt").args(["-Oz", "--output"]).arg(&staged).arg(&staged))?;
         }
         return Ok(None);
     }
