@@ -5,6 +5,8 @@
 //! - writes `service-worker.js` from `src/offline/service-worker.js`, with the list of every
 //!   file of the build and a cache version made from their contents (so any change to any file
 //!   makes a new worker and a new cache, and an unchanged build keeps its cache);
+//! - makes Trunk's loader in `index.html` fetch the module once the static first view is
+//!   painted ([`module_after_first_paint`]);
 //! - puts the page's Content Security Policy into `index.html`: only the page's own files, the
 //!   one inline loader script Trunk writes (by its SHA-256, so no other inline script runs),
 //!   and what WebAssembly needs; no other origin for anything.
@@ -101,14 +103,24 @@ pub fn with_policy(html: &str) -> Result<String, String> {
 /// Trunk's loader script.
 const TRUNK_INIT: &str = "const wasm = await init(";
 
-/// What the loader waits for before fetching the module: two animation frames, the second of
-/// which starts only once the first was shown.
-const AFTER_FIRST_PAINT: &str =
-    "await new Promise((shown) => requestAnimationFrame(() => requestAnimationFrame(shown)));\n";
+/// What the loader waits for before fetching the module: the browser's report of the page's
+/// first contentful paint (the first view's text on screen; a first paint of the background
+/// alone and animation frames come before it), or a second at most, for a page that is not
+/// painted (a tab in the background).
+const AFTER_FIRST_PAINT: &str = "await new Promise((painted) => {
+  setTimeout(painted, 1000);
+  try {
+    new PerformanceObserver((list, observer) => {
+      if (list.getEntriesByName(\"first-contentful-paint\").length) { observer.disconnect(); painted(); }
+    }).observe({ type: \"paint\", buffered: true });
+  } catch (e) { painted(); }
+});
+";
 
 /// `html` with Trunk's loader fetching the wasm module only after the page's static first view
 /// has been painted. On a weak signal that view then shows while the module downloads,
-/// instead of the module's fetch competing with it; it costs two frames at most.
+/// instead of the module's fetch competing with the stylesheet it needs; the fetch starts
+/// once the first frame is shown.
 pub fn module_after_first_paint(html: &str) -> Result<String, String> {
     match html.matches(TRUNK_INIT).count() {
         1 => Ok(html.replace(TRUNK_INIT, &format!("{AFTER_FIRST_PAINT}{TRUNK_INIT}"))),
@@ -199,7 +211,7 @@ mod tests {
     fn the_module_is_fetched_after_the_first_paint() {
         let html = "<script type=\"module\">\nimport init from '/a.js';\nconst wasm = await init({ module_or_path: '/a_bg.wasm' });\n</script>";
         let out = module_after_first_paint(html).unwrap();
-        let wait = out.find("requestAnimationFrame").unwrap();
+        let wait = out.find("PerformanceObserver").unwrap();
         assert!(wait < out.find(TRUNK_INIT).unwrap(), "{out}");
         assert!(module_after_first_paint("<p>no loader</p>").is_err());
         assert!(module_after_first_paint(&format!("{html}{html}")).is_err());
