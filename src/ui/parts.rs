@@ -107,50 +107,25 @@ async fn load(area: Area) -> Result<AnyView, PartMissing> {
 // link). One part per area measured 87 shared chunks, many of a few hundred bytes, each one
 // more request on a slow link; areas opened together share a part instead.
 
-#[wasm_split(power_unit, wasm_split_path = ::leptos::wasm_split, fallible)]
-fn power_unit() -> Result<AnyView, PartMissing> {
-    Ok(view! { <super::power_unit::UnitArea /> }.into_any())
+/// An area's page as a split point in `part`: `name()` loads the part, then builds the page.
+macro_rules! page_in_part {
+    ($name:ident, $part:ident, $($area:ident)::+) => {
+        #[wasm_split($part, wasm_split_path = ::leptos::wasm_split, fallible)]
+        fn $name() -> Result<AnyView, PartMissing> {
+            Ok(super::$($area)::+().into_any())
+        }
+    };
 }
 
-#[wasm_split(answers, wasm_split_path = ::leptos::wasm_split, fallible)]
-fn results() -> Result<AnyView, PartMissing> {
-    Ok(view! { <super::results::ResultsArea /> }.into_any())
-}
-
-#[wasm_split(answers, wasm_split_path = ::leptos::wasm_split, fallible)]
-fn settings() -> Result<AnyView, PartMissing> {
-    Ok(view! { <super::valve_settings::SettingsArea /> }.into_any())
-}
-
-#[wasm_split(field_checks, wasm_split_path = ::leptos::wasm_split, fallible)]
-fn pump_test() -> Result<AnyView, PartMissing> {
-    Ok(view! { <super::pump_test::PumpCheckArea /> }.into_any())
-}
-
-#[wasm_split(field_checks, wasm_split_path = ::leptos::wasm_split, fallible)]
-fn motor_check() -> Result<AnyView, PartMissing> {
-    Ok(view! { <super::motor_check::MotorCheckArea /> }.into_any())
-}
-
-#[wasm_split(answers, wasm_split_path = ::leptos::wasm_split, fallible)]
-fn heat() -> Result<AnyView, PartMissing> {
-    Ok(view! { <super::heat::HeatArea /> }.into_any())
-}
-
-#[wasm_split(answers, wasm_split_path = ::leptos::wasm_split, fallible)]
-fn quote() -> Result<AnyView, PartMissing> {
-    Ok(view! { <super::quote::QuoteArea /> }.into_any())
-}
-
-#[wasm_split(answers, wasm_split_path = ::leptos::wasm_split, fallible)]
-fn report() -> Result<AnyView, PartMissing> {
-    Ok(view! { <super::report::ReportArea /> }.into_any())
-}
-
-#[wasm_split(jobs, wasm_split_path = ::leptos::wasm_split, fallible)]
-fn jobs() -> Result<AnyView, PartMissing> {
-    Ok(view! { <super::jobs::JobsArea /> }.into_any())
-}
+page_in_part!(power_unit, power_unit, power_unit::UnitArea);
+page_in_part!(results, answers, results::ResultsArea);
+page_in_part!(settings, answers, valve_settings::SettingsArea);
+page_in_part!(heat, answers, heat::HeatArea);
+page_in_part!(quote, answers, quote::QuoteArea);
+page_in_part!(report, answers, report::ReportArea);
+page_in_part!(pump_test, field_checks, pump_test::PumpCheckArea);
+page_in_part!(motor_check, field_checks, motor_check::MotorCheckArea);
+page_in_part!(jobs, jobs, jobs::JobsArea);
 
 /// Takes in a job that arrived by a share link (see [`super::share::receive`]); true when the
 /// fragment carried one.

@@ -170,21 +170,11 @@ impl Browser {
             "goog:loggingPrefs": { "browser": "ALL", "performance": "ALL" },
             "goog:chromeOptions": {
                 "binary": chromium,
-                // As root on this machine: no sandbox; and nothing that phones home, because the
-                // closed network refuses it and floods the log.
-                "args": [
-                    "--headless=new",
-                    "--no-sandbox",
-                    "--disable-gpu",
-                    "--disable-dev-shm-usage",
-                    "--disable-background-networking",
-                    "--disable-component-update",
-                    "--disable-sync",
-                    "--disable-quic",
-                    "--no-first-run",
-                    "--no-default-browser-check",
-                    format!("--user-data-dir={}", profile.display()),
-                ],
+                "args": crate::tools::CHROMIUM_FLAGS
+                    .iter()
+                    .map(|f| f.to_string())
+                    .chain([format!("--user-data-dir={}", profile.display())])
+                    .collect::<Vec<_>>(),
                 "mobileEmulation": { "deviceMetrics": metrics },
                 "perfLoggingPrefs": { "enableNetwork": true, "enablePage": false },
             },

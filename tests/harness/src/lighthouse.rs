@@ -143,18 +143,7 @@ pub fn prepare() -> Result<PathBuf, String> {
 
 /// Runs Lighthouse once on `url`, keeping its JSON report at `report`.
 pub fn run(lighthouse: &Path, url: &str, report: &Path) -> Result<Figures, String> {
-    let flags = [
-        "--headless=new",
-        "--no-sandbox",
-        "--disable-gpu",
-        "--disable-dev-shm-usage",
-        "--disable-background-networking",
-        "--disable-component-update",
-        "--disable-sync",
-        "--disable-quic",
-        "--no-first-run",
-    ]
-    .join(" ");
+    let flags = tools::CHROMIUM_FLAGS.join(" ");
     let out = Command::new(lighthouse)
         .arg(url)
         .args([

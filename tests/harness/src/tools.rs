@@ -41,6 +41,21 @@ pub const WASM_TARGET: &str = "wasm32-unknown-unknown";
 /// Debian's packages put them here.
 pub const CHROMIUM: &str = "/usr/bin/chromium";
 pub const CHROMEDRIVER: &str = "/usr/bin/chromedriver";
+/// How Chromium is started for the tests and Lighthouse: headless, and as root here with no
+/// sandbox; nothing that phones home, because the closed network refuses it and floods the
+/// log. Each start adds its own fresh profile.
+pub const CHROMIUM_FLAGS: [&str; 10] = [
+    "--headless=new",
+    "--no-sandbox",
+    "--disable-gpu",
+    "--disable-dev-shm-usage",
+    "--disable-background-networking",
+    "--disable-component-update",
+    "--disable-sync",
+    "--disable-quic",
+    "--no-first-run",
+    "--no-default-browser-check",
+];
 
 /// The tool search path to build with: wasm-opt 132 and cargo's installs ahead of the rest.
 #[derive(Debug, Clone)]
