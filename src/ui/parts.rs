@@ -64,17 +64,24 @@ fn OnDemand(area: Area) -> impl IntoView {
                     busy(false);
                     match loaded {
                         Ok(page) => page,
-                        Err(PartMissing(why)) => view! {
-                            <div class="part-missing" role="alert">
-                                <p>
-                                    "This part of Phasewise is not on this device yet and could not be fetched. "
-                                    "Connect to a network once and try again; after that it works offline."
-                                </p>
-                                <p class="part-missing-why">{why}</p>
-                                <button type="button" on:click=move |_| attempt.update(|n| *n += 1)>
-                                    "Try again"
-                                </button>
-                            </div>
+                        // The loader's own words are in the console; the page says what to do.
+                        Err(PartMissing(_)) => view! {
+                            <section class="area" aria-labelledby="area-title">
+                                <h1 id="area-title">{area.title()}</h1>
+                                <div class="part-missing" role="alert">
+                                    <p>
+                                        "This part of Phasewise is not on this device yet and could not be fetched. "
+                                        "Connect to a network once and try again; after that it works offline."
+                                    </p>
+                                    <button
+                                        type="button"
+                                        class="button primary"
+                                        on:click=move |_| attempt.update(|n| *n += 1)
+                                    >
+                                        "Try again"
+                                    </button>
+                                </div>
+                            </section>
                         }
                         .into_any(),
                     }
@@ -144,9 +151,10 @@ pub fn receive_shared(storage: Storage, fragment: String, then: impl FnOnce() + 
     leptos::task::spawn_local(async move {
         match take_in_shared(storage, fragment).await {
             Ok(_) => then(),
-            Err(PartMissing(why)) => storage.notice.set(Some((
+            Err(PartMissing(_)) => storage.notice.set(Some((
                 false,
-                format!("The shared link could not be opened yet ({why}); connect to a network and reload."),
+                "The shared link could not be opened yet: connect to a network and reload the page."
+                    .into(),
             ))),
         }
     });

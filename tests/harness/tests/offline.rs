@@ -185,6 +185,12 @@ async fn a_part_that_cannot_be_fetched_is_said_so_and_can_be_tried_again() {
     let b = &app.browser;
     b.wait_for_text(".part-missing", |t| t.contains("not on this device yet"))
         .await;
+    // Which area it is, and a retry a gloved finger can hit.
+    assert_eq!(b.text("main h1").await, "Results");
+    let height = b
+        .eval("return document.querySelector('.part-missing button').getBoundingClientRect().height;")
+        .await;
+    assert!(height.as_f64().unwrap() >= 48.0, "{height}");
     b.screenshot("part-missing").await;
     // The frame still works: the cycle opens, and the part loads once it is there again.
     b.click("nav.areas a[href='#/cycle']").await;
