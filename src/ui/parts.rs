@@ -119,20 +119,20 @@ macro_rules! page_in_part {
     ($name:ident, $part:ident, $($area:ident)::+) => {
         #[wasm_split($part, wasm_split_path = ::leptos::wasm_split, fallible)]
         fn $name() -> Result<AnyView, PartMissing> {
-            Ok(super::$($area)::+().into_any())
+            Ok($($area)::+().into_any())
         }
     };
 }
 
-page_in_part!(power_unit, power_unit, power_unit::UnitArea);
-page_in_part!(results, answers, results::ResultsArea);
-page_in_part!(settings, answers, valve_settings::SettingsArea);
-page_in_part!(heat, answers, heat::HeatArea);
-page_in_part!(quote, answers, quote::QuoteArea);
-page_in_part!(report, answers, report::ReportArea);
-page_in_part!(pump_test, field_checks, pump_test::PumpCheckArea);
-page_in_part!(motor_check, field_checks, motor_check::MotorCheckArea);
-page_in_part!(jobs, jobs, jobs::JobsArea);
+page_in_part!(power_unit, power_unit, super::power_unit::UnitArea);
+page_in_part!(results, answers, super::results::ResultsArea);
+page_in_part!(settings, answers, super::valve_settings::SettingsArea);
+page_in_part!(heat, answers, super::heat::HeatArea);
+page_in_part!(quote, answers, super::quote::QuoteArea);
+page_in_part!(report, answers, super::report::ReportArea);
+page_in_part!(pump_test, field_checks, super::pump_test::PumpCheckArea);
+page_in_part!(motor_check, field_checks, super::motor_check::MotorCheckArea);
+page_in_part!(jobs, jobs, super::jobs::JobsArea);
 
 /// Takes in a job that arrived by a share link (see [`super::share::receive`]); true when the
 /// fragment carried one.
