@@ -22,13 +22,13 @@ use leptos::wasm_split::{wasm_split, SplitLoaderError};
 #[derive(Clone, Copy)]
 pub struct Fetching(pub RwSignal<bool>);
 
-/// A part of the app that could not be fetched.
-#[derive(Debug, Clone, PartialEq, Eq)]
-pub struct PartMissing(pub String);
+/// A part of the app that could not be fetched (the loader's own words are in the console).
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub struct PartMissing;
 
 impl From<SplitLoaderError> for PartMissing {
-    fn from(error: SplitLoaderError) -> PartMissing {
-        PartMissing(error.to_string())
+    fn from(_: SplitLoaderError) -> PartMissing {
+        PartMissing
     }
 }
 
@@ -64,8 +64,7 @@ fn OnDemand(area: Area) -> impl IntoView {
                     busy(false);
                     match loaded {
                         Ok(page) => page,
-                        // The loader's own words are in the console; the page says what to do.
-                        Err(PartMissing(_)) => view! {
+                        Err(PartMissing) => view! {
                             <section class="area" aria-labelledby="area-title">
                                 <h1 id="area-title">{area.title()}</h1>
                                 <div class="part-missing" role="alert">
@@ -151,7 +150,7 @@ pub fn receive_shared(storage: Storage, fragment: String, then: impl FnOnce() + 
     leptos::task::spawn_local(async move {
         match take_in_shared(storage, fragment).await {
             Ok(_) => then(),
-            Err(PartMissing(_)) => storage.notice.set(Some((
+            Err(PartMissing) => storage.notice.set(Some((
                 false,
                 "The shared link could not be opened yet: connect to a network and reload the page."
                     .into(),

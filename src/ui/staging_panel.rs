@@ -194,10 +194,12 @@ fn Found(
 }
 
 fn motor_label(w: f64, u: UnitSystem) -> String {
-    match u {
-        UnitSystem::Si => format!("{} kW", trim(w / 1e3)),
-        UnitSystem::UsCustomary => format!("{} hp", trim(w / crate::engine::units::HORSEPOWER)),
-    }
+    format!("{} {}", motor_size(w, u), Measure::Power.label(u))
+}
+
+/// A motor size as a number in the unit system's power unit, with no unit.
+fn motor_size(w: f64, u: UnitSystem) -> String {
+    trim(Measure::Power.shown(u, w))
 }
 
 fn trim(v: f64) -> String {
@@ -276,7 +278,7 @@ fn TradeOff(frontier: Vec<Trade>, units: UnitSystem) -> impl IntoView {
                                 </rect>
                             }).collect_view()}
                             // The number only: ten sizes' units would run into each other on a phone.
-                            <text x=x(i) y=h - pad + 14.0 class="tick" text-anchor="middle">{motor_label(*m, units).split(' ').next().unwrap_or_default().to_string()}</text>
+                            <text x=x(i) y=h - pad + 14.0 class="tick" text-anchor="middle">{motor_size(*m, units)}</text>
                             <text x=x(i) y=y(longest) - 4.0 class="tick" text-anchor="middle">{format!("{shortest:.1}")}</text>
                         </g>
                     }
@@ -284,7 +286,7 @@ fn TradeOff(frontier: Vec<Trade>, units: UnitSystem) -> impl IntoView {
             </svg>
             <figcaption>{format!(
                 "Shortest cycle (s) each motor size ({}) reaches, by kind of power unit.",
-                match units { UnitSystem::Si => "kW", UnitSystem::UsCustomary => "hp" }
+                Measure::Power.label(units)
             )}</figcaption>
             <ul class="legend">
                 {kinds.iter().map(|(_, words, class)| view! {

@@ -714,6 +714,11 @@ pub fn foreign_requests(requests: &[String], own: &str) -> Vec<String> {
 /// current area's name, and is not busy fetching the area's part.
 pub const APP_READY: &str = "main[data-area]:not([aria-busy])";
 
+/// Present once the area named `slug` is shown, its part fetched (see [`APP_READY`]).
+pub fn area_shown(slug: &str) -> String {
+    format!("main[data-area='{slug}']:not([aria-busy])")
+}
+
 /// The app's number or text input for a field path of the job file (`cycle[0].cylinder.bore_m`).
 pub fn field(path: &str) -> String {
     format!("input[data-path='{path}']")

@@ -9,7 +9,7 @@
 //! Lighthouse comes from the npm registry (`lighthouse@13`, one copy per machine beside
 //! wasm-opt, see [`crate::tools`]); it drives Debian's Chromium.
 
-use crate::tools::{self, say};
+use crate::tools;
 use serde_json::Value;
 use std::path::{Path, PathBuf};
 use std::process::Command;
@@ -104,41 +104,16 @@ pub fn install_dir() -> PathBuf {
     tools::cache_dir().join(format!("lighthouse-{LIGHTHOUSE_VERSION}"))
 }
 
-fn program() -> PathBuf {
-    install_dir()
-        .join("node_modules")
-        .join(".bin")
-        .join("lighthouse")
-}
-
-/// Makes sure Lighthouse is installed, installing it from the npm registry if not.
+/// Makes sure Lighthouse is installed, installing it from the npm registry if not; gives
+/// its program.
 pub fn prepare() -> Result<PathBuf, String> {
-    let lighthouse = program();
-    let version = || {
-        Command::new(&lighthouse)
-            .arg("--version")
-            .output()
-            .ok()
-            .filter(|o| o.status.success())
-            .map(|o| String::from_utf8_lossy(&o.stdout).trim().to_string())
-    };
-    match version() {
-        Some(found) if found.starts_with(&format!("{LIGHTHOUSE_VERSION}.")) => {
-            say(&format!("lighthouse: {found}"));
-            return Ok(lighthouse);
-        }
-        _ => say(&format!(
-            "lighthouse: not found; installing lighthouse@{LIGHTHOUSE_VERSION}"
-        )),
-    }
-    tools::npm_install(&install_dir(), &format!("lighthouse@{LIGHTHOUSE_VERSION}"))?;
-    match version() {
-        Some(found) => {
-            say(&format!("lighthouse: {found}"));
-            Ok(lighthouse)
-        }
-        None => Err("lighthouse was installed but does not run".into()),
-    }
+    let bin = install_dir().join("node_modules").join(".bin");
+    // Node.js comes from PATH, behind Lighthouse's own folder.
+    let tools = tools::BuildTools::ahead_of_path(vec![bin.clone()])?;
+    tools::ensure(&tools, "lighthouse", &format!("{LIGHTHOUSE_VERSION}."), || {
+        tools::npm_install(&install_dir(), &format!("lighthouse@{LIGHTHOUSE_VERSION}"))
+    })?;
+    Ok(bin.join("lighthouse"))
 }
 
 /// Runs Lighthouse once on `url`, keeping its JSON report at `report`.

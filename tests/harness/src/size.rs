@@ -153,13 +153,20 @@ pub fn first_screen(sizes: &[FileSize]) -> (u64, u64) {
     total(
         sizes
             .iter()
-            .filter(|f| matches!(f.kind, "wasm" | "js" | "css") && !on_demand(&f.path)),
+            .filter(|f| f.is_code_or_style() && !on_demand(&f.path)),
     )
 }
 
 /// Raw and gzip bytes of all code and style (wasm, js, css), on demand or not.
 pub fn code_and_style(sizes: &[FileSize]) -> (u64, u64) {
-    total(sizes.iter().filter(|f| matches!(f.kind, "wasm" | "js" | "css")))
+    total(sizes.iter().filter(|f| f.is_code_or_style()))
+}
+
+impl FileSize {
+    /// Wasm, JavaScript or CSS: what the first-screen comparison counts.
+    fn is_code_or_style(&self) -> bool {
+        matches!(self.kind, "wasm" | "js" | "css")
+    }
 }
 
 /// Bytes, and KiB to one decimal, so a report can be read and compared by eye.

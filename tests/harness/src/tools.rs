@@ -120,10 +120,14 @@ impl BuildTools {
     /// wasm-opt 132 and cargo's installs ahead of the rest of PATH, without checking that
     /// anything is there (see [`prepare_build`]).
     pub fn search_path() -> Result<BuildTools, String> {
-        let mut dirs = vec![
+        BuildTools::ahead_of_path(vec![
             binaryen_dir().join("node_modules").join(".bin"),
             cargo_home().join("bin"),
-        ];
+        ])
+    }
+
+    /// `dirs` searched first, then PATH.
+    pub fn ahead_of_path(mut dirs: Vec<PathBuf>) -> Result<BuildTools, String> {
         dirs.extend(std::env::split_paths(
             &std::env::var_os("PATH").unwrap_or_default(),
         ));
@@ -153,7 +157,9 @@ impl BuildTools {
     }
 }
 
-fn ensure(
+/// Makes sure `program --version` on `tools`' path names `wanted`, running `install` if not
+/// (and checking again after).
+pub fn ensure(
     tools: &BuildTools,
     program: &str,
     wanted: &str,

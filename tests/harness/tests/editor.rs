@@ -6,7 +6,7 @@ use phasewise::engine::cycle::{Load, PhaseKind};
 use phasewise::engine::demo::scrap_baler;
 use phasewise::engine::units::{Measure, UnitSystem};
 use phasewise::engine::{solve, Job};
-use phasewise_harness::browser::{field, AppSession, Browser, Viewport};
+use phasewise_harness::browser::{area_shown, field, AppSession, Browser, Viewport};
 use uom::si::energy::kilowatt_hour;
 use uom::si::f64::Force;
 
@@ -237,7 +237,7 @@ async fn nothing_overflows_sideways_and_the_presenter_view_reads_large() {
         b.screenshot(&format!("{name}-cycle")).await;
         for fragment in ["#/unit", "#/results"] {
             b.click(&format!("nav.areas a[href='{fragment}']")).await;
-            b.wait_for(&format!("main[data-area='{}']:not([aria-busy])", &fragment[2..]))
+            b.wait_for(&area_shown(&fragment[2..]))
                 .await;
             assert_eq!(b.sideways_overflow().await, 0, "{name} {fragment}");
             b.screenshot(&format!("{name}-{}", &fragment[2..])).await;

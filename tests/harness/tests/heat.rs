@@ -6,7 +6,7 @@ use phasewise::engine::demo::scrap_baler;
 use phasewise::engine::heat::Settling;
 use phasewise::engine::units::Measure;
 use phasewise::engine::{solve, Job};
-use phasewise_harness::browser::{field, AppSession, Viewport};
+use phasewise_harness::browser::{area_shown, field, AppSession, Viewport};
 
 fn steady_words(job: &Job) -> String {
     let report = solve(job).unwrap();
@@ -25,7 +25,7 @@ async fn the_oil_settles_on_a_phone_and_a_tank_and_lines_are_described() {
     let b = &app.browser;
     // Reached from the results' totals.
     b.click(".totals [data-link='heat']").await;
-    b.wait_for("main[data-area='heat']:not([aria-busy])").await;
+    b.wait_for(&area_shown("heat")).await;
     let job = scrap_baler();
     let shown = b
         .wait_for_text("[data-figure='steady']", |t| !t.is_empty())

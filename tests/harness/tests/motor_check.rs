@@ -6,7 +6,7 @@ use phasewise::engine::demo::scrap_baler;
 use phasewise::engine::motor_load::assess_motor;
 use phasewise::engine::units::Measure;
 use phasewise::engine::{solve, Job};
-use phasewise_harness::browser::{field, AppSession, Viewport};
+use phasewise_harness::browser::{area_shown, field, AppSession, Viewport};
 
 #[tokio::test]
 async fn a_motor_check_on_a_phone_reads_the_verdict_and_follows_a_reading() {
@@ -14,7 +14,7 @@ async fn a_motor_check_on_a_phone_reads_the_verdict_and_follows_a_reading() {
     let b = &app.browser;
     // Opened from the power unit's motor.
     b.click("[data-link='motor-check']").await;
-    b.wait_for("main[data-area='motor-check']:not([aria-busy])").await;
+    b.wait_for(&area_shown("motor-check")).await;
     let job = scrap_baler();
     let report = assess_motor(&job, &job.motor_checks[0], job.units).unwrap();
     let words = report.describe(job.units, &job.site.currency);

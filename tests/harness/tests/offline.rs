@@ -5,7 +5,7 @@
 //! page asked no origin but its own.
 
 use phasewise::ui::area::Area;
-use phasewise_harness::browser::{foreign_requests, AppSession, Browser, Viewport, APP_READY};
+use phasewise_harness::browser::{area_shown, foreign_requests, AppSession, Browser, Viewport, APP_READY};
 use phasewise_harness::{browser::unique_dir, dist_dir, size::on_demand};
 use std::path::Path;
 use std::time::Duration;
@@ -141,7 +141,7 @@ async fn the_first_screen_fetches_no_part_and_every_part_opens_offline() {
     for area in Area::ALL {
         b.eval(&format!("location.hash = '{}'; return null;", area.href()))
             .await;
-        b.wait_for_text(&format!("main[data-area='{}']:not([aria-busy]) h1", area.slug()), |t| {
+        b.wait_for_text(&format!("{} h1", area_shown(area.slug())), |t| {
             t == area.title()
         })
         .await;

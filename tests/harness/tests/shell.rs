@@ -2,7 +2,7 @@
 //! phone without sideways scrolling, and every area (the safety notes included) is reachable.
 
 use phasewise::ui::area::Area;
-use phasewise_harness::browser::{AppSession, Viewport, APP_READY};
+use phasewise_harness::browser::{area_shown, AppSession, Viewport, APP_READY};
 use std::io::{BufRead, BufReader};
 use std::process::{Command, Stdio};
 use std::time::Duration;
@@ -59,7 +59,7 @@ async fn every_area_is_reachable_from_the_navigation_and_safety_from_every_area(
     for area in Area::NAV {
         b.click(&format!("nav.areas a[href='{}']", area.href()))
             .await;
-        b.wait_for(&format!("main[data-area='{}']:not([aria-busy])", area.slug()))
+        b.wait_for(&area_shown(area.slug()))
             .await;
         assert_eq!(b.text("main h1").await, area.title());
         let current = b.eval("return document.querySelector('nav.areas a[aria-current=page]').getAttribute('href');").await;
@@ -73,7 +73,7 @@ async fn every_area_is_reachable_from_the_navigation_and_safety_from_every_area(
         b.wait_for("main[data-area='safety']").await;
         assert_eq!(b.text("main h1").await, Area::Safety.title());
         b.client().back().await.unwrap();
-        b.wait_for(&format!("main[data-area='{}']:not([aria-busy])", area.slug()))
+        b.wait_for(&area_shown(area.slug()))
             .await;
     }
     b.click(&format!(".topbar a[href='{}']", Area::Safety.href()))
@@ -101,7 +101,7 @@ async fn a_link_to_an_area_opens_that_area() {
         // A fresh load of the address, as when a link or bookmark is opened.
         b.goto(&app.url(&fragment)).await;
         b.client().refresh().await.unwrap();
-        b.wait_for(&format!("main[data-area='{}']:not([aria-busy])", area.slug()))
+        b.wait_for(&area_shown(area.slug()))
             .await;
         assert_eq!(b.text("main h1").await, area.title(), "{fragment}");
     }

@@ -4,7 +4,7 @@
 //! nor shared (it would not read back); a job is renamed from the list without opening it.
 
 use phasewise::engine::{demo::scrap_baler, solve, Job};
-use phasewise_harness::browser::{AppSession, Browser, Viewport, APP_READY};
+use phasewise_harness::browser::{area_shown, AppSession, Browser, Viewport, APP_READY};
 use serde_json::Value;
 
 const STORED_JOBS: &str = "return Object.keys(localStorage).filter(k => k.startsWith('phasewise.job.')).map(k => JSON.parse(localStorage.getItem(k)).job);";
@@ -222,7 +222,7 @@ async fn a_new_job_starts_empty_or_as_a_copy_the_user_chose() {
         // Moved by the address's fragment, as a link does: the page is not reloaded.
         b.eval(&format!("window.location.hash = '{}';", area.href()))
             .await;
-        b.wait_for(&format!("main[data-area='{}']:not([aria-busy])", area.slug()))
+        b.wait_for(&area_shown(area.slug()))
             .await;
         let text = b.eval("return document.body.innerText;").await;
         let text = text.as_str().unwrap_or_default().to_string();
@@ -232,7 +232,7 @@ async fn a_new_job_starts_empty_or_as_a_copy_the_user_chose() {
         );
     }
     b.eval("window.location.hash = '#/jobs';").await;
-    b.wait_for("main[data-area='jobs']:not([aria-busy])").await;
+    b.wait_for(&area_shown("jobs")).await;
     assert_eq!(
         b.value("input[data-path='name']").await,
         "New job",
