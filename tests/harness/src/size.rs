@@ -20,6 +20,31 @@
 //! saves 13 to 16 %; one codegen unit saves 2.5 %; `panic = "abort"` gains nothing (a panic
 //! aborts on wasm32-unknown-unknown either way) and measured 128 bytes larger, so the default
 //! is kept. Re-measure when the bundle grows: the ranking can change.
+//!
+//! # Recorded figures
+//!
+//! Recorded by `cargo xtask size --no-build` at each release (bytes; gzip at best level):
+//!
+//! | date | what changed | wasm raw | wasm gzip | everything gzip | other |
+//! |---|---|---|---|---|---|
+//! | 2026-12-01 | jobs on the device, share links, offline copy | 1,069,194 | 411,501 | 440,646 | counter 7.68x gzip; latency median 3.2 ms at 4x; solve 4.8 µs; staging 72 ms |
+//! | 2026-12-02 | settings advice, staging search, pump check | 1,206,778 | 490,792 | 520,743 | staging 45 ms after the window fixes |
+//! | 2026-12-02 | quote and report | 1,349,446 | 549,118 | 580,133 | |
+//! | 2026-12-02 | field-truth work (relief read dead-headed, slip, motor classes) | 1,395,976 | 568,277 | 599,297 | |
+//! | 2026-12-04 | walk-through fixes, presenter view | 1,528,080 | 619,802 | 652,696 | counter 17.7x gzip |
+//! | 2026-12-04 | engine and formats as crates, one-way layers | 1,527,943 | 619,667 | 652,562 | |
+//! | 2026-12-05 | oil and lines: viscosity, line losses, heat balance | 1,815,269 | 726,880 | | solve 5.0 µs (full heat balance 904 µs) |
+//! | 2026-12-05 | variable-speed drives | 1,915,934 | 757,443 | 790,613 | staging in Chromium: demo 5,532 candidates 437 ms; 10 phases 20,874 candidates 980 ms (in slices, with progress) |
+//! | 2026-12-05 | first load: erased component types, the module split (first screen and four parts), static first view, gzip'd serving | main 888,278; all 1,657,604 | main 349,002; all 696,185 | 732,263 | first screen 9.17x the counter (was 21.72x for everything); Lighthouse mobile median of 9: 0.95, LCP 2.85 s (counter 1.00, 1.05 s); edit to figures at 4x CPU 10.3 ms median (16.3 before; Colebrook-White by Newton) |
+//!
+//! # Where the first screen's bytes go
+//!
+//! `twiggy` on the split main module before wasm-opt (`target/wasm-split/main.wasm`,
+//! 2026-12-05, 1,010 KB of code): serde's code for reading and writing the job is the largest
+//! share (306 KB, 30 %: the job file's internally tagged enums and the flattened phase kind
+//! each instantiate their fields' readers several times), then `core` (formatting, 134 KB),
+//! tachys (views, 117 KB), read-only data (112 KB), reactive_graph (93 KB), the UI (89 KB) and
+//! the engine's own code (76 KB).
 
 use std::path::{Path, PathBuf};
 
